@@ -1,0 +1,80 @@
+/**
+ * Argument guards shared by the heater, pool and money models. The policy (STYLE.md §10):
+ * a non-number or non-finite value throws `TypeError`, a number outside its domain throws
+ * `RangeError`; both messages name the field and echo the bad value, so NaN never escapes.
+ */
+
+function show(value: unknown): string {
+  if (typeof value === 'string') return JSON.stringify(value);
+  if (typeof value === 'number' || typeof value === 'boolean' || value == null) return String(value);
+  try {
+    return JSON.stringify(value) ?? String(value);
+  } catch {
+    return String(value);
+  }
+}
+
+/**
+ * Requires a finite number.
+ * @throws TypeError when `value` is not a finite number (NaN, ±Infinity, a string…).
+ * @example requireFinite(3, 'flowM3PerS') // 3
+ */
+export function requireFinite(value: unknown, field: string): number {
+  if (typeof value !== 'number' || !Number.isFinite(value)) {
+    throw new TypeError(`${field} must be a finite number, got ${show(value)}`);
+  }
+  return value;
+}
+
+/**
+ * Requires a finite number > 0.
+ * @throws TypeError when not finite; RangeError when ≤ 0.
+ * @example requirePositive(0.2, 'massFlowKgPerS')
+ */
+export function requirePositive(value: unknown, field: string): number {
+  const v = requireFinite(value, field);
+  if (!(v > 0)) throw new RangeError(`${field} must be greater than 0, got ${show(value)}`);
+  return v;
+}
+
+/**
+ * Requires a finite number ≥ 0.
+ * @throws TypeError when not finite; RangeError when < 0.
+ * @example requireNonNegative(0, 'windMPerS')
+ */
+export function requireNonNegative(value: unknown, field: string): number {
+  const v = requireFinite(value, field);
+  if (!(v >= 0)) throw new RangeError(`${field} must be 0 or more, got ${show(value)}`);
+  return v;
+}
+
+/**
+ * Requires a finite number in the closed interval [min, max].
+ * @throws TypeError when not finite; RangeError when outside the interval.
+ * @example requireInRange(0.5, 'relativeHumidity', 0, 1)
+ */
+export function requireInRange(value: unknown, field: string, min: number, max: number): number {
+  const v = requireFinite(value, field);
+  if (!(v >= min && v <= max)) {
+    throw new RangeError(`${field} must be between ${min} and ${max}, got ${show(value)}`);
+  }
+  return v;
+}
+
+/**
+ * Requires a non-empty array of finite numbers.
+ * @throws TypeError when not an array or an element is not finite; RangeError when empty.
+ * @example requireFiniteArray([74.6, 75.3], 'fillTimesS')
+ */
+export function requireFiniteArray(value: unknown, field: string): number[] {
+  if (!Array.isArray(value) && !(value instanceof Float64Array)) {
+    throw new TypeError(`${field} must be an array of numbers, got ${show(value)}`);
+  }
+  const arr = Array.from(value as ArrayLike<unknown>);
+  if (arr.length === 0) throw new RangeError(`${field} must not be empty`);
+  arr.forEach((x, i) => requireFinite(x, `${field}[${i}]`));
+  return arr as number[];
+}
+
+/** Echo helper for error messages elsewhere in analysis/. */
+export const describeValue = show;

@@ -1,0 +1,46 @@
+/**
+ * The one mathjs instance of analysis/, with the units mathjs lacks defined from NIST SP 811
+ * (2008) Appendix B.8 factors. Everything that parses or converts a quantity goes through it.
+ *
+ * Added units (exact values as SP 811 / NIST Handbook 44 give them):
+ * - `gpm` = US gallon per minute = 3.785411784 L/min (gallon = 231 in³ exactly); `gph` per hour.
+ * - `Btu` = International Table Btu = 1055.05585262 J (mathjs `BTU` is the same unit; `Btu` is the
+ *   spelling practitioners type). `MBtu` = 1000 Btu, `MMBtu` = 10⁶ Btu (trade usage).
+ * - `therm` = 100,000 Btu_IT = 105,505,585.262 J, the convention of US gas bills and of EIA.
+ *   SP 811 also lists `thermEC` = 1.05506 × 10⁸ J (exact, EC definition) and
+ *   `thermUS` = 1.054804 × 10⁸ J; both are defined here under those names.
+ * - `cord` = 128 ft³ (a stacked-wood volume, US customary).
+ * - `degFdiff`, `degCdiff`: temperature *intervals* (1 °F interval = 1/1.8 K).
+ * - `psi` and `hp` are redefined with the exact SP 811 values (lbf/in², 550 ft·lbf/s).
+ */
+import { all, create, type MathJsInstance, type Unit } from 'mathjs';
+
+export const math: MathJsInstance = create(all, {});
+
+let defined = false;
+function defineUnits(): void {
+  if (defined) return;
+  defined = true;
+  math.createUnit({
+    gpm: { definition: '3.785411784 L/min' },
+    gph: { definition: '3.785411784 L/hour' },
+    Btu: { definition: '1055.05585262 J', aliases: ['btu'] },
+    MBtu: { definition: '1055055.85262 J' },
+    MMBtu: { definition: '1055055852.62 J' },
+    therm: { definition: '105505585.262 J', aliases: ['therms', 'thm'] },
+    thermEC: { definition: '105506000 J' },
+    thermUS: { definition: '105480400 J' },
+    cord: { definition: '128 ft^3', aliases: ['cords'] },
+    degFdiff: { definition: '0.5555555555555556 K' },
+    degCdiff: { definition: '1 K' },
+  });
+  // mathjs's own psi and hp are a few parts in 1e11 off the exact SP 811 values; replace them.
+  math.createUnit('psi', { definition: '6894.757293168361 Pa' }, { override: true });
+  math.createUnit('hp', { definition: '745.69987158227022 W' }, { override: true });
+}
+defineUnits();
+
+/** Parses a unit expression such as `"4.5 gpm"` or `"500 W/K"` with the shared instance. */
+export function unit(text: string): Unit {
+  return math.unit(text);
+}
