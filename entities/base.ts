@@ -1,0 +1,24 @@
+import { randomUUID } from 'node:crypto';
+import { defineEntity, p } from '@mikro-orm/core';
+
+/**
+ * Abstract base of every table: a uuid primary key and creation/update times (timestamptz).
+ * Entities use `defineEntity` with an explicit `name` and `tableName`, because production
+ * bundling renames classes (see ../shared/STACK.md).
+ */
+export const BaseSchema = defineEntity({
+  name: 'BaseEntity',
+  abstract: true,
+  properties: {
+    id: p.uuid().primary().onCreate(() => randomUUID()),
+    createdAt: p.datetime().columnType('timestamptz').onCreate(() => new Date()),
+    updatedAt: p
+      .datetime()
+      .columnType('timestamptz')
+      .onCreate(() => new Date())
+      .onUpdate(() => new Date()),
+  },
+});
+
+/** A double-precision column read back as a JS number (MikroORM's default for double is string). */
+export const num = () => p.double().runtimeType('number').$type<number>();

@@ -1,0 +1,10 @@
+/**
+ * Every migration, in order. `npm run migration:create` writes a new file here; add it to this
+ * list (the list is what runs, so the migrator works from inside the Next bundle too).
+ */
+import type { MigrationObject } from '@mikro-orm/core';
+import { Migration20261201222811 } from './Migration20261201222811';
+
+export const migrationsList: MigrationObject[] = [
+  { name: 'Migration20261201222811', class: Migration20261201222811 },
+];

@@ -1,0 +1,31 @@
+import { defineEntity, p } from '@mikro-orm/core';
+import { BaseSchema } from './base';
+import { Lab } from './lab';
+
+export const HEAT_SOURCES = ['wood-fire', 'propane-burner', 'natural-gas', 'solar-collector', 'electric', 'heat-pump', 'other'] as const;
+export type HeatSource = (typeof HEAT_SOURCES)[number];
+
+/** Free-form construction details of a rig (coil or collector), stored as JSON. */
+export interface RigDetails {
+  coilLengthM?: number;
+  tubeInnerDiameterM?: number;
+  tubeMaterial?: string;
+  collectorAreaM2?: number;
+  [key: string]: unknown;
+}
+
+/** A heater set-up under test. Trials belong to a rig; a rig belongs to a lab. */
+export const Rig = defineEntity({
+  name: 'Rig',
+  tableName: 'rig',
+  extends: BaseSchema,
+  uniques: [{ properties: ['lab', 'name'] }],
+  properties: {
+    lab: () => p.manyToOne(Lab).deleteRule('cascade'),
+    name: p.string().length(120),
+    heatSource: p.enum(() => [...HEAT_SOURCES]).$type<HeatSource>(),
+    description: p.text().default(''),
+    details: p.json<RigDetails>().default('{}'),
+    notes: p.text().default(''),
+  },
+});

@@ -1,0 +1,15 @@
+// @ts-check
+/** @type {import('next').NextConfig} */
+const nextConfig = {
+  poweredByHeader: false,
+  // The build type-checks the app's own sources; test/typecheck.test.ts checks everything else.
+  typescript: { tsconfigPath: 'tsconfig.build.json' },
+  reactStrictMode: true,
+  // Server-only packages with native code or dynamic requires stay outside the bundle.
+  serverExternalPackages: [
+    '@mikro-orm/core', '@mikro-orm/knex', '@mikro-orm/postgresql', '@mikro-orm/migrations', 'knex', 'pg',
+    'pg-boss', 'pg-copy-streams', '@node-rs/argon2', 'nodemailer', 'exceljs', 'linkedom',
+  ],
+  experimental: { serverActions: { bodySizeLimit: '1mb' } },
+};
+module.exports = nextConfig;

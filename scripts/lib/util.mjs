@@ -1,0 +1,62 @@
+// Small helpers shared by the lifecycle scripts. Node built-ins only: these run before `npm ci`.
+import { spawnSync, spawn } from 'node:child_process';
+import { createServer } from 'node:net';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+export const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
+
+/** A fault the user can act on: printed as one clear line, then the process exits 1. */
+export class SetupError extends Error {
+  name = 'SetupError';
+}
+
+export function fail(message) {
+  throw new SetupError(message);
+}
+
+export function step(message) {
+  console.log(`\x1b[33m▸\x1b[0m ${message}`);
+}
+
+/** Runs a command to completion; returns { status, stdout, stderr }. */
+export function run(cmd, args, opts = {}) {
+  const r = spawnSync(cmd, args, { encoding: 'utf8', cwd: root, ...opts });
+  if (r.error && r.error.code === 'ENOENT') return { status: 127, stdout: '', stderr: `${cmd}: not found` };
+  return { status: r.status ?? 1, stdout: r.stdout ?? '', stderr: r.stderr ?? '' };
+}
+
+/** Runs a command with inherited output; throws SetupError with `what` when it fails. */
+export function runVisible(cmd, args, what, opts = {}) {
+  const r = spawnSync(cmd, args, { stdio: 'inherit', cwd: root, ...opts });
+  if (r.status !== 0) fail(what);
+}
+
+/** Resolves true when nothing listens on host:port. */
+export function portIsFree(port, host = '127.0.0.1') {
+  return new Promise((resolve) => {
+    const srv = createServer();
+    srv.once('error', () => resolve(false));
+    srv.listen(port, host, () => srv.close(() => resolve(true)));
+  });
+}
+
+/** Resolves an ephemeral free port on 127.0.0.1. */
+export function freePort() {
+  return new Promise((resolve, reject) => {
+    const srv = createServer();
+    srv.once('error', reject);
+    srv.listen(0, '127.0.0.1', () => {
+      const { port } = srv.address();
+      srv.close(() => resolve(port));
+    });
+  });
+}
+
+export const isRoot = () => typeof process.getuid === 'function' && process.getuid() === 0;
+
+export function lastLines(text, n = 3) {
+  return text.trim().split('\n').slice(-n).join(' | ');
+}
+
+export { spawn };

@@ -1,0 +1,24 @@
+/**
+ * Applies pending migrations (each in its own transaction, all or nothing) and loads the demo
+ * lab when it is not there yet. Run by scripts/start.mjs and scripts/test.mjs with DATABASE_URL set.
+ */
+import { MikroORM } from '@mikro-orm/postgresql';
+import config from '../mikro-orm.config';
+import { seedDemoLab } from './seed';
+
+async function main() {
+  const orm = await MikroORM.init(config);
+  try {
+    const applied = await orm.getMigrator().up();
+    console.log(applied.length ? `  applied ${applied.length} migration(s): ${applied.map((m) => m.name).join(', ')}` : '  migrations current');
+    const seeded = await seedDemoLab(orm.em.fork());
+    console.log(seeded ? '  demo lab loaded' : '  demo lab already present');
+  } finally {
+    await orm.close(true);
+  }
+}
+
+main().catch((e) => {
+  console.error(e instanceof Error ? e.message : e);
+  process.exit(1);
+});

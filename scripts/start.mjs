@@ -1,0 +1,92 @@
+#!/usr/bin/env node
+// `npm start`: packages, PostgreSQL (installed and started privately unless DATABASE_URL is set),
+// migrations, demo data, local fakes of hosted services, a build when sources changed, then
+// the web server on http://127.0.0.1:3000. Ctrl-C stops everything it started.
+import path from 'node:path';
+import { root, step, portIsFree, SetupError, spawn, fail } from './lib/util.mjs';
+import { bootstrap } from './lib/bootstrap.mjs';
+import { buildIfChanged } from './lib/build.mjs';
+import { startFakes } from './lib/fakes.mjs';
+
+const port = Number(process.env.PORT ?? 3000);
+const host = '127.0.0.1';
+const t0 = Date.now();
+
+async function main() {
+  if (!(await portIsFree(port, host))) fail(`port ${port} on ${host} is already taken; stop whatever uses it or set PORT`);
+  const db = await bootstrap({ database: 'emberline' });
+  const stops = [db.stop];
+  const stopAll = () => {
+    while (stops.length) {
+      try {
+        stops.pop()();
+      } catch {
+        /* keep stopping the rest */
+      }
+    }
+  };
+  try {
+    const fakes = await startFakes();
+    stops.push(fakes.stop);
+    buildIfChanged();
+    const env = {
+      ...process.env,
+      ...fakes.env,
+      DATABASE_URL: db.databaseUrl,
+      NEXT_TELEMETRY_DISABLED: '1',
+      NODE_ENV: 'production',
+      EMBERLINE_DEMO: process.env.EMBERLINE_DEMO ?? (db.external ? 'false' : 'true'),
+    };
+    const web = spawn(process.execPath, [path.join(root, 'node_modules/next/dist/bin/next'), 'start', '-H', host, '-p', String(port)], {
+      cwd: root,
+      env,
+      stdio: ['ignore', 'inherit', 'inherit'],
+    });
+    stops.push(() => web.exitCode === null && web.kill('SIGTERM'));
+    const shutdown = (signal) => {
+      console.log(`\n${signal}: stopping the web server and the database`);
+      stopAll();
+      process.exit(0);
+    };
+    process.on('SIGINT', () => shutdown('SIGINT'));
+    process.on('SIGTERM', () => shutdown('SIGTERM'));
+    web.on('exit', (code) => {
+      if (code !== null && code !== 0) console.error(`the web server exited with code ${code}`);
+      stopAll();
+      process.exit(code ?? 0);
+    });
+    await waitForHealth(`http://${host}:${port}/api/health`);
+    const { printDemoSignIns } = await import('./lib/demo-accounts.mjs');
+    console.log(`\n\x1b[1mEmberline is ready at http://${host}:${port}\x1b[0m  (${((Date.now() - t0) / 1000).toFixed(1)} s)`);
+    if (env.EMBERLINE_DEMO === 'true') printDemoSignIns();
+    console.log('Press Ctrl-C to stop.\n');
+  } catch (e) {
+    stopAll();
+    throw e;
+  }
+}
+
+async function waitForHealth(url) {
+  const deadline = Date.now() + 60_000;
+  let last = '';
+  while (Date.now() < deadline) {
+    try {
+      const r = await fetch(url);
+      if (r.ok) return;
+      last = await r.text();
+    } catch (e) {
+      last = e.message;
+    }
+    await new Promise((r) => setTimeout(r, 300));
+  }
+  fail(`the web server did not become healthy within 60 s (${last})`);
+}
+
+main().catch((e) => {
+  if (e instanceof SetupError) {
+    console.error(`\x1b[31m✖ ${e.message}\x1b[0m`);
+    process.exit(1);
+  }
+  console.error(e);
+  process.exit(1);
+});

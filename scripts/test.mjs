@@ -1,0 +1,107 @@
+#!/usr/bin/env node
+// `npm test`: the same bootstrapping as `npm start` with a fresh test database, then unit,
+// integration (real PostgreSQL) and browser tests (headless Debian Chromium) in one vitest run.
+// Extra arguments go to vitest (e.g. `npm test -- --project unit`). Ends with the runner's
+// summary and a plain "N passed, N failed" line; exits non-zero on any failure.
+import path from 'node:path';
+import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
+import { root, step, SetupError, spawn, freePort, fail } from './lib/util.mjs';
+import { ensureNodeModules, ensureChromium } from './lib/install.mjs';
+import { bootstrap } from './lib/bootstrap.mjs';
+import { buildIfChanged } from './lib/build.mjs';
+import { startFakes } from './lib/fakes.mjs';
+
+async function main() {
+  ensureNodeModules();
+  const chromium = ensureChromium();
+  const db = await bootstrap({ database: 'emberline_test', fresh: true });
+  const stops = [db.stop];
+  const stopAll = () => {
+    while (stops.length) {
+      try {
+        stops.pop()();
+      } catch {
+        /* keep stopping the rest */
+      }
+    }
+  };
+  process.on('SIGINT', () => {
+    stopAll();
+    process.exit(130);
+  });
+  try {
+    const fakes = await startFakes({ test: true });
+    stops.push(fakes.stop);
+    buildIfChanged();
+    const port = await freePort();
+    const baseUrl = `http://127.0.0.1:${port}`;
+    const env = {
+      ...process.env,
+      ...fakes.env,
+      DATABASE_URL: db.databaseUrl,
+      NEXT_TELEMETRY_DISABLED: '1',
+      EMBERLINE_DEMO: 'true',
+      TZ: 'UTC',
+    };
+    const web = spawn(process.execPath, [path.join(root, 'node_modules/next/dist/bin/next'), 'start', '-H', '127.0.0.1', '-p', String(port)], {
+      cwd: root,
+      env: { ...env, NODE_ENV: 'production' },
+      stdio: ['ignore', 'ignore', 'inherit'],
+    });
+    stops.push(() => web.exitCode === null && web.kill('SIGTERM'));
+    await waitForHealth(`${baseUrl}/api/health`, web);
+    const resultsDir = path.join(root, 'test-results');
+    mkdirSync(resultsDir, { recursive: true });
+    const jsonFile = path.join(resultsDir, 'vitest.json');
+    rmSync(jsonFile, { force: true });
+    step('running the tests');
+    const code = await new Promise((resolve) => {
+      const vitest = spawn(
+        process.execPath,
+        [path.join(root, 'node_modules/vitest/vitest.mjs'), 'run', '--reporter=default', '--reporter=json', `--outputFile.json=${jsonFile}`, ...process.argv.slice(2)],
+        { cwd: root, env: { ...env, NODE_ENV: 'test', EMBERLINE_URL: baseUrl, CHROMIUM_PATH: chromium }, stdio: 'inherit' },
+      );
+      vitest.on('exit', (c) => resolve(c ?? 1));
+    });
+    stopAll();
+    if (existsSync(jsonFile)) {
+      const r = JSON.parse(readFileSync(jsonFile, 'utf8'));
+      const skipped = (r.numPendingTests ?? 0) + (r.numTodoTests ?? 0);
+      console.log(`\nemberline: ${r.numPassedTests} passed, ${r.numFailedTests} failed, ${skipped} skipped`);
+      if (r.numTotalTests === 0) {
+        console.error('no test ran');
+        process.exit(1);
+      }
+    }
+    process.exit(code);
+  } catch (e) {
+    stopAll();
+    throw e;
+  }
+}
+
+async function waitForHealth(url, web) {
+  const deadline = Date.now() + 60_000;
+  let last = '';
+  while (Date.now() < deadline) {
+    if (web.exitCode !== null) fail(`the web server exited with code ${web.exitCode} before it was healthy`);
+    try {
+      const r = await fetch(url);
+      if (r.ok) return;
+      last = await r.text();
+    } catch (e) {
+      last = e.message;
+    }
+    await new Promise((r) => setTimeout(r, 300));
+  }
+  fail(`the web server did not become healthy within 60 s (${last})`);
+}
+
+main().catch((e) => {
+  if (e instanceof SetupError) {
+    console.error(`\x1b[31m✖ ${e.message}\x1b[0m`);
+    process.exit(1);
+  }
+  console.error(e);
+  process.exit(1);
+});
