@@ -9,6 +9,8 @@
  * - `therm` = 100,000 Btu_IT = 105,505,585.262 J, the convention of US gas bills and of EIA.
  *   SP 811 also lists `thermEC` = 1.05506 × 10⁸ J (exact, EC definition) and
  *   `thermUS` = 1.054804 × 10⁸ J; both are defined here under those names.
+ * - `inHg` = conventional inch of mercury, 13,595.1 kg/m³ × g_n × 0.0254 m = 3386.388640341 Pa
+ *   (SP 811 prints 3.386 389 E+03).
  * - `cord` = 128 ft³ (a stacked-wood volume, US customary).
  * - `degFdiff`, `degCdiff`: temperature *intervals* (1 °F interval = 1/1.8 K).
  * - `psi` and `hp` are redefined with the exact SP 811 values (lbf/in², 550 ft·lbf/s).
@@ -31,6 +33,7 @@ function defineUnits(): void {
     thermEC: { definition: '105506000 J' },
     thermUS: { definition: '105480400 J' },
     cord: { definition: '128 ft^3', aliases: ['cords'] },
+    inHg: { definition: '3386.388640341 Pa' },
     degFdiff: { definition: '0.5555555555555556 K' },
     degCdiff: { definition: '1 K' },
   });

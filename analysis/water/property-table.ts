@@ -5,6 +5,7 @@
  */
 import { if97Region1 } from './if97-region1';
 import { STANDARD_ATMOSPHERE_PA } from './water-properties';
+import { saturationState } from './latent-heat';
 
 const STEP_K = 0.05;
 const COUNT = Math.round(100 / STEP_K) + 1;
@@ -46,4 +47,19 @@ export function fastDensityKgPerM3(tempC: number): number {
 export function fastCpJPerKgK(tempC: number): number {
   if (cp === null) build();
   return lookup(cp as Float64Array, tempC);
+}
+
+let latent: Float64Array | null = null;
+
+/**
+ * Latent heat of vaporisation by table interpolation (SR1-86 auxiliary equations, see
+ * latent-heat.ts), J/kg; input clamped to 0–100 °C.
+ * @example fastLatentHeatJPerKg(26.67) // ≈ 2.438e6
+ */
+export function fastLatentHeatJPerKg(tempC: number): number {
+  if (latent === null) {
+    latent = new Float64Array(COUNT);
+    for (let i = 0; i < COUNT; i++) latent[i] = saturationState(Math.max(i * STEP_K, 0.01)).latentHeatJPerKg;
+  }
+  return lookup(latent, tempC);
 }
