@@ -1,0 +1,80 @@
+/**
+ * Cost per useful therm (100,000 Btu delivered to the water) and per degree of a pool
+ * (DOMAIN.md §6): c = price / (heat content per unit × η), with η the COP for a heat pump.
+ * Money is in whatever currency the price is in; results are not rounded (round at display).
+ */
+import { requireFinite, requireNonNegative, requirePositive } from '../units/guards';
+import { convert } from '../units/parse-quantity';
+import { energyPerDegreeJPerK } from '../pool/energy-per-degree';
+import { FUELS, type FuelKind } from './fuels';
+
+/** Joules in one useful therm (100,000 Btu_IT, the EIA therm). */
+export const USEFUL_THERM_J = convert(100_000, 'Btu', 'J');
+
+/** Inputs of the cost of useful heat. */
+export interface UsefulHeatCostInput {
+  fuel: FuelKind;
+  /** price per the fuel's price unit (therm, gal, kWh, cord) */
+  pricePerUnit: number;
+  /** efficiency 0–1, or COP for the heat pump; default from FUELS */
+  efficiency?: number;
+  /** heat content per price unit, J (HHV); default from FUELS */
+  heatContentJ?: number;
+}
+
+/** Cost of useful heat. */
+export interface UsefulHeatCost {
+  perUsefulTherm: number;
+  perUsefulKWh: number;
+  efficiency: number;
+  heatContentJ: number;
+  basis: 'HHV';
+  priceUnit: string;
+}
+
+/**
+ * @throws TypeError / RangeError naming the field: negative price, efficiency outside (0, 1]
+ *   for a burner or resistance heater, COP ≤ 0, heat content ≤ 0, unknown fuel.
+ * @example usefulHeatCost({ fuel: 'heat-pump', pricePerUnit: 0.15, efficiency: 5 }).perUsefulTherm // 0.879
+ */
+export function usefulHeatCost(i: UsefulHeatCostInput): UsefulHeatCost {
+  const info = FUELS[i.fuel];
+  if (!info) throw new RangeError(`fuel must be one of ${Object.keys(FUELS).join(', ')}, got ${JSON.stringify(i.fuel)}`);
+  const price = requireNonNegative(i.pricePerUnit, 'pricePerUnit');
+  const eff = requirePositive(i.efficiency ?? info.defaultEfficiency, i.fuel === 'heat-pump' ? 'cop' : 'efficiency');
+  if (i.fuel !== 'heat-pump' && eff > 1) throw new RangeError(`efficiency must be at most 1, got ${eff}`);
+  const hc = requirePositive(i.heatContentJ ?? info.heatContentJ, 'heatContentJ');
+  const perJ = price / (hc * eff);
+  return { perUsefulTherm: perJ * USEFUL_THERM_J, perUsefulKWh: perJ * 3.6e6, efficiency: eff, heatContentJ: hc, basis: 'HHV', priceUnit: info.priceUnit };
+}
+
+/**
+ * Cost to raise a body of water by one degree (losses during heat-up not included).
+ * @param volumeM3 water volume, m³
+ * @param perUsefulTherm cost of one useful therm
+ * @param tempC water temperature for ρ and cp, °C (default 25)
+ * @returns { perDegF, perK }
+ * @example costPerDegree(56.78, 1.83) // { perDegF: 2.29, … } (15,000 gal, gas)
+ */
+export function costPerDegree(volumeM3: number, perUsefulTherm: number, tempC = 25): { perDegF: number; perK: number } {
+  const c = requireNonNegative(perUsefulTherm, 'perUsefulTherm');
+  const perK = (energyPerDegreeJPerK(volumeM3, tempC) / USEFUL_THERM_J) * c;
+  return { perDegF: perK / 1.8, perK };
+}
+
+/**
+ * Useful heat implied by a fuel bill: therms bought × η.
+ * @example usefulThermsFromBill(2810, 1, 0.8) // 2248 (DOE Atlanta cover table, check value #15)
+ */
+export function usefulThermsFromBill(billCost: number, pricePerTherm: number, efficiency: number): number {
+  return (requireNonNegative(billCost, 'billCost') / requirePositive(pricePerTherm, 'pricePerTherm')) * requirePositive(efficiency, 'efficiency');
+}
+
+/**
+ * Fractional saving of `after` against `before`.
+ * @example savingFraction(2810, 530) // 0.811
+ */
+export function savingFraction(before: number, after: number): number {
+  const b = requirePositive(before, 'before');
+  return (b - requireFinite(after, 'after')) / b;
+}
