@@ -1,0 +1,178 @@
+import { linearLeastSquares } from './linear-least-squares';
+
+/** Data a built-in start-value rule sees (covariates already filled with their defaults). */
+export interface StartData {
+  x: Float64Array;
+  y: Float64Array;
+  covariates: Record<string, Float64Array>;
+}
+
+/** A built-in model: its expression, parameters with units, covariates and automatic start rule. */
+export interface BuiltinModel {
+  name: string;
+  description: string;
+  expression: string;
+  parameters: string[];
+  parameterUnits: Record<string, string>;
+  /** covariates the model needs on every point */
+  requiredCovariates: string[];
+  /** covariates with a documented default used only when the input does not give them */
+  defaultCovariates: Record<string, number>;
+  /** polynomial degree when the model is linear in its parameters */
+  polynomialDegree?: number;
+  /** candidate starting points, best first (empty when no rule applies) */
+  starts(data: StartData): number[][];
+}
+
+/** Density (kg/m³) and specific heat (J/(kg·K)) used by `coil` only when the input gives none. */
+export const DEFAULT_RHO_KG_PER_M3 = 1000;
+export const DEFAULT_CP_J_PER_KG_K = 4186;
+
+const mean = (v: ArrayLike<number>) => {
+  let s = 0;
+  for (let i = 0; i < v.length; i++) s += v[i];
+  return s / v.length;
+};
+const max = (v: ArrayLike<number>) => Math.max(...Array.from(v));
+const min = (v: ArrayLike<number>) => Math.min(...Array.from(v));
+
+/** Rates k to try for exp(−k·x): spread over three decades around 1/(x range). */
+function rateGrid(x: Float64Array): number[] {
+  const span = max(x) - min(x) || Math.abs(max(x)) || 1;
+  return [0.05, 0.1, 0.2, 0.35, 0.5, 0.75, 1, 1.5, 2, 3, 5, 8, 12, 20].map((c) => c / span);
+}
+
+function coilStarts({ x, y, covariates }: StartData): number[][] {
+  const tin = covariates.Tin;
+  const rho = covariates.rho;
+  const cp = covariates.cp;
+  const tMax = max(y);
+  const spread = Math.max(tMax - mean(tin), 1);
+  const scored: { rss: number; p: number[] }[] = [];
+  for (const c of [0.003, 0.01, 0.03, 0.1, 0.3, 1, 3]) {
+    const ts = tMax + c * spread;
+    // §1.5(a): with Ts fixed, −ln[(Ts − Tout)/(Ts − Tin)] = UA · 1/(ṁ cp), a regression through the origin
+    let szu = 0;
+    let suu = 0;
+    for (let i = 0; i < x.length; i++) {
+      const ratio = (ts - y[i]) / (ts - tin[i]);
+      if (!(ratio > 0 && ratio < 1) || !(x[i] > 0)) continue;
+      const u = 1 / (rho[i] * x[i] * cp[i]);
+      szu += -Math.log(ratio) * u;
+      suu += u * u;
+    }
+    if (!(suu > 0) || !(szu > 0)) continue;
+    const ua = szu / suu;
+    let rss = 0;
+    for (let i = 0; i < x.length; i++) {
+      const f = ts - (ts - tin[i]) * Math.exp(-ua / (rho[i] * x[i] * cp[i]));
+      rss += (f - y[i]) ** 2;
+    }
+    if (Number.isFinite(rss)) scored.push({ rss, p: [ts, ua] });
+  }
+  return scored.sort((a, b) => a.rss - b.rss).map((s) => s.p);
+}
+
+function expApproachStarts({ x, y }: StartData): number[][] {
+  const scored: { rss: number; p: number[] }[] = [];
+  for (const k of rateGrid(x)) {
+    const e = Array.from(x, (xi) => Math.exp(-k * xi));
+    const r = linearLeastSquares([new Float64Array(x.length).fill(1), e], y);
+    if (r.ok) scored.push({ rss: r.rss, p: [r.coefficients[0], r.coefficients[1], k] });
+  }
+  return scored.sort((a, b) => a.rss - b.rss).map((s) => s.p);
+}
+
+function expInletStarts({ x, y, covariates }: StartData): number[][] {
+  const tin = covariates.Tin;
+  const scored: { rss: number; p: number[] }[] = [];
+  for (const k of rateGrid(x)) {
+    let sde = 0;
+    let see = 0;
+    for (let i = 0; i < x.length; i++) {
+      const e = Math.exp(-k * x[i]);
+      sde += (y[i] - tin[i]) * e;
+      see += e * e;
+    }
+    if (!(see > 0)) continue;
+    const a = sde / see;
+    let rss = 0;
+    for (let i = 0; i < x.length; i++) rss += (tin[i] + a * Math.exp(-k * x[i]) - y[i]) ** 2;
+    if (Number.isFinite(rss)) scored.push({ rss, p: [a, k] });
+  }
+  return scored.sort((a, b) => a.rss - b.rss).map((s) => s.p);
+}
+
+function powerStarts({ x, y }: StartData): number[][] {
+  const ok = Array.from(x).every((v, i) => v > 0 && y[i] > 0);
+  if (ok) {
+    const r = linearLeastSquares([new Float64Array(x.length).fill(1), Array.from(x, Math.log)], Array.from(y, Math.log));
+    if (r.ok) return [[Math.exp(r.coefficients[0]), r.coefficients[1]]];
+  }
+  return [[mean(y) || 1, 1]];
+}
+
+const HEATER = 'x: volume flow (m³/s); y: outlet temperature (°C)';
+
+/** The built-in models by name. */
+export const BUILTIN_MODELS: Record<string, BuiltinModel> = {
+  coil: {
+    name: 'coil',
+    description: `constant-source coil, effectiveness–NTU with Cr → 0: Tout = Ts − (Ts − Tin)·exp(−UA/(ρ·x·cp)); ${HEATER}`,
+    expression: 'Ts - (Ts - Tin) * exp(-UA / (rho * x * cp))',
+    parameters: ['Ts', 'UA'],
+    parameterUnits: { Ts: '°C', UA: 'W/K' },
+    requiredCovariates: ['Tin'],
+    defaultCovariates: { rho: DEFAULT_RHO_KG_PER_M3, cp: DEFAULT_CP_J_PER_KG_K },
+    starts: coilStarts,
+  },
+  'exp-approach': {
+    name: 'exp-approach',
+    description: `exponential approach to an asymptote: Tout = Tinf + A·exp(−k·x); ${HEATER}`,
+    expression: 'Tinf + A * exp(-k * x)',
+    parameters: ['Tinf', 'A', 'k'],
+    parameterUnits: { Tinf: '°C', A: 'K', k: 's/m³' },
+    requiredCovariates: [],
+    defaultCovariates: {},
+    starts: expApproachStarts,
+  },
+  'exp-inlet': {
+    name: 'exp-inlet',
+    description: `exponential decay toward the inlet temperature: Tout = Tin + A·exp(−k·x); ${HEATER}`,
+    expression: 'Tin + A * exp(-k * x)',
+    parameters: ['A', 'k'],
+    parameterUnits: { A: 'K', k: 's/m³' },
+    requiredCovariates: ['Tin'],
+    defaultCovariates: {},
+    starts: expInletStarts,
+  },
+  poly1: polynomial(1),
+  poly2: polynomial(2),
+  poly3: polynomial(3),
+  power: {
+    name: 'power',
+    description: 'power law y = a·x^b (x > 0)',
+    expression: 'a * x ^ b',
+    parameters: ['a', 'b'],
+    parameterUnits: { a: 'unit of y per (unit of x)^b', b: '1' },
+    requiredCovariates: [],
+    defaultCovariates: {},
+    starts: powerStarts,
+  },
+};
+
+function polynomial(degree: number): BuiltinModel {
+  const parameters = Array.from({ length: degree + 1 }, (_, k) => `b${k}`);
+  const terms = parameters.map((b, k) => (k === 0 ? b : k === 1 ? `${b} * x` : `${b} * x ^ ${k}`));
+  return {
+    name: `poly${degree}`,
+    description: `polynomial of degree ${degree} in x, solved by QR`,
+    expression: terms.join(' + '),
+    parameters,
+    parameterUnits: Object.fromEntries(parameters.map((b, k) => [b, `unit of y per (unit of x)^${k}`])),
+    requiredCovariates: [],
+    defaultCovariates: {},
+    polynomialDegree: degree,
+    starts: () => [],
+  };
+}

@@ -1,0 +1,238 @@
+import { compensatedSum, compensatedSumOfSquares } from '../stats/compensated-sum';
+import { studentTQuantile, studentTSf } from '../stats/distributions';
+import { informationCriteria } from './information-criteria';
+import { extendedResiduals } from './extended-residuals';
+import { analyseJacobian } from './jacobian-analysis';
+import { lackOfFit } from './lack-of-fit';
+import { polishSolution } from './polish-solution';
+import { predictAt } from './predict-at';
+import { prepareProblem, type Problem } from './prepare-problem';
+import { groupReplicates } from './replicates';
+import { solveProblem, type Solution } from './solve-problem';
+import type { FitFailure, FitInput, FitResult, FitSpec, FitSuccess, FitWarning, ParameterEstimate } from './types';
+
+const CORRELATION_WARNING = 0.95;
+const ILL_CONDITIONED = 1e8;
+
+/**
+ * Fits a model to (x, y) by weighted least squares and returns everything a reviewer needs:
+ * parameters with standard errors, t intervals, covariance and correlation; RSS, residual SD, R²,
+ * AIC/AICc/BIC; residual diagnostics (standardized, studentized, leverage, Cook's distance, flags);
+ * confidence and prediction bands on a grid; replicate groups with the pure-error lack-of-fit test;
+ * the solver's iterations and stopping reason; and warnings.
+ *
+ * Method: polynomials by Householder QR with iterative refinement; everything else by
+ * Levenberg–Marquardt (MINPACK design, analytic Jacobian from mathjs `derivative`), with
+ * automatic starting values for every built-in. Standard errors use s² = RSS/df and (JᵀJ)⁻¹ from a
+ * pivoted QR of the final weighted Jacobian. Units are the caller's: SI for the heater built-ins
+ * (x in m³/s, temperatures in °C, UA in W/K).
+ *
+ * Degenerate input (non-finite cells, mismatched lengths, too few points, all x equal, unknown
+ * symbols or syntax errors, no convergence, unidentifiable parameters) gives
+ * `{ ok: false, code, reason }`; the function never throws and never returns NaN.
+ *
+ * @param input - data, model and options, see {@link FitInput}
+ * @returns {@link FitSuccess} or {@link FitFailure}
+ * @example fitModel({ x: flows, y: tout, model: 'coil', covariates: { Tin: tin, rho, cp } })
+ */
+export function fitModel(input: FitInput): FitResult {
+  try {
+    const prep = prepareProblem(input);
+    if (!prep.ok) return prep;
+    const level = input.level ?? 0.95;
+    if (typeof level !== 'number' || !(level > 0 && level < 1)) return { ok: false, code: 'invalid-input', reason: `level must be in (0, 1), got ${level}` };
+    const problem = prep.problem;
+    const sol = solveProblem(problem);
+    if (!sol.converged) {
+      const evaluable = Number.isFinite(sol.rss);
+      return {
+        ok: false,
+        code: evaluable ? 'no-convergence' : 'bad-start',
+        reason: evaluable
+          ? `the fit did not converge (${sol.reason} after ${sol.evaluations} evaluations); try other start values or a simpler model`
+          : `the model gives non-finite values at the starting values tried (${problem.parameters.join(', ')}); give start values where it can be evaluated`,
+      };
+    }
+    return summarise(problem, sol, input, level);
+  } catch (e) {
+    return { ok: false, code: 'invalid-input', reason: `the fit could not be done: ${(e as Error).message}` };
+  }
+}
+
+/** Builds the full result from a converged solution. */
+export function summarise(problem: Problem, solved: Solution, input: FitInput, level: number): FitSuccess | FitFailure {
+  const { x, y, sw, weights, compiled, parameters: names } = problem;
+  let sol = solved;
+  const m = x.length;
+  const n = names.length;
+  if (sol.method === 'levenberg-marquardt') sol = { ...sol, p: polishSolution(problem, sol.p) };
+  const f = new Float64Array(m);
+  const jac = new Float64Array(m * n);
+  compiled.values(sol.p, x, problem.cov, f);
+  compiled.gradient(sol.p, x, problem.cov, jac);
+  for (let j = 0; j < n; j++) for (let i = 0; i < m; i++) jac[i + j * m] *= sw[i];
+  if (!f.every(Number.isFinite) || !sol.p.every(Number.isFinite)) {
+    return { ok: false, code: 'no-convergence', reason: 'the fit ended where the model is not finite' };
+  }
+  const ja = analyseJacobian(jac, m, n, names);
+  if (!ja.ok) return { ok: false, code: 'singular', reason: ja.reason };
+  const { inverse, leverage, conditionNumber } = ja.analysis;
+  const precise = new Float64Array(m);
+  const extended = extendedResiduals(problem.expression, names, compiled.covariates, sol.p, x, problem.cov, y, precise);
+  const residuals = Array.from(y, (v, i) => (extended ? precise[i] : v - f[i]));
+  const wres = residuals.map((e, i) => sw[i] * e);
+  const rss = compensatedSumOfSquares(wres);
+  const df = m - n;
+  const s2 = rss / df;
+  const s = Math.sqrt(s2);
+  const t = studentTQuantile((1 + level) / 2, df);
+  const warnings: FitWarning[] = [...problem.warnings];
+
+  const covariance = names.map((_, i) => names.map((__, j) => s2 * inverse[i * n + j]));
+  const se = names.map((_, j) => Math.sqrt(Math.max(0, covariance[j][j])));
+  const correlation = names.map((_, i) => names.map((__, j) => (i === j ? 1 : se[i] > 0 && se[j] > 0 ? covariance[i][j] / (se[i] * se[j]) : 0)));
+  const params: Record<string, ParameterEstimate> = {};
+  names.forEach((k, j) => {
+    const v = sol.p[j];
+    const [lo, hi] = problem.bounds[j];
+    const tol = 1e-6 * (Number.isFinite(hi - lo) ? hi - lo : Math.max(1, Math.abs(v)));
+    const atBound = v - lo <= tol ? 'lower' : hi - v <= tol ? 'upper' : null;
+    if (atBound) warnings.push({ code: 'at-bound', message: `${k} = ${v.toPrecision(6)} sits on its ${atBound} bound: its standard error and interval are not reliable` });
+    params[k] = {
+      value: v,
+      stdErr: se[j],
+      ciLow: v - t * se[j],
+      ciHigh: v + t * se[j],
+      tValue: se[j] > 0 ? v / se[j] : null,
+      pValue: se[j] > 0 ? Math.min(1, 2 * studentTSf(Math.abs(v / se[j]), df)) : null,
+      atBound,
+    };
+  });
+  for (let i = 0; i < n; i++) {
+    for (let j = i + 1; j < n; j++) {
+      if (Math.abs(correlation[i][j]) > CORRELATION_WARNING) {
+        warnings.push({ code: 'high-correlation', message: `${names[i]} and ${names[j]} are strongly correlated (r = ${correlation[i][j].toFixed(3)}): the data cannot tell them apart well; report the covariance, not two separate errors` });
+      }
+    }
+  }
+  if (conditionNumber > ILL_CONDITIONED) warnings.push({ code: 'ill-conditioned', message: `the Jacobian is ill-conditioned (condition number ${conditionNumber.toExponential(1)}): parameters are poorly determined and sensitive to the data` });
+  if (!compiled.analytic.every(Boolean)) warnings.push({ code: 'numeric-jacobian', message: `no analytic derivative for ${names.filter((_, j) => !compiled.analytic[j]).join(', ')}: central differences were used` });
+  if (!problem.userStart && !problem.builtin) warnings.push({ code: 'auto-start', message: `no start values given: ${sol.startsTried} automatic starting points were tried and the best fit kept; check it is the one you expect` });
+  physicalChecks(problem, sol.p, warnings);
+
+  const sumW = weights ? compensatedSum(weights) : m;
+  const yBar = weights ? compensatedSum(Array.from(y, (v, i) => v * weights[i])) / sumW : compensatedSum(y) / m;
+  const sst = compensatedSumOfSquares(Array.from(y, (v, i) => sw[i] * (v - yBar)));
+  const r2 = sst > 0 ? 1 - rss / sst : null;
+  const adjustedR2 = r2 === null ? null : 1 - ((1 - r2) * (m - 1)) / df;
+  const sumLogW = weights ? compensatedSum(Array.from(weights, Math.log)) : 0;
+  const ic = informationCriteria(rss, m, n, sumLogW);
+  if (rss === 0) warnings.push({ code: 'exact-fit', message: 'the model passes exactly through every point: residual-based statistics are zero and information criteria undefined' });
+
+  const standardizedResiduals: (number | null)[] = [];
+  const studentizedResiduals: (number | null)[] = [];
+  const cooksDistance: (number | null)[] = [];
+  const flags = { highLeverage: [] as number[], influential: [] as number[], outliers: [] as number[] };
+  for (let i = 0; i < m; i++) {
+    const h = leverage[i];
+    const ok = s > 0 && h < 1 - 1e-10;
+    const r = ok ? wres[i] / (s * Math.sqrt(1 - h)) : null;
+    standardizedResiduals.push(r);
+    const denom = r === null ? 0 : df - 1 > 0 ? df - r * r : 0;
+    const ti = r !== null && denom > 0 ? r * Math.sqrt((df - 1) / denom) : null;
+    studentizedResiduals.push(ti);
+    const d = r === null ? null : (r * r * h) / (n * (1 - h));
+    cooksDistance.push(d);
+    if (h > (2 * n) / m) flags.highLeverage.push(i);
+    if (d !== null && d > 4 / m) flags.influential.push(i);
+    if (ti !== null && Math.abs(ti) > 3) flags.outliers.push(i);
+  }
+
+  const xMin = Math.min(...x);
+  const xMax = Math.max(...x);
+  const covariateMeans: Record<string, number> = {};
+  for (const [k, v] of Object.entries(problem.covariates)) covariateMeans[k] = compensatedSum(v) / m;
+  const spec: FitSpec = {
+    model: problem.modelName,
+    expression: problem.expression,
+    parameterNames: names,
+    covariateNames: compiled.covariates,
+    x: Array.from(x),
+    y: Array.from(y),
+    weights: weights ? Array.from(weights) : null,
+    covariates: Object.fromEntries(Object.entries(problem.covariates).map(([k, v]) => [k, Array.from(v)])),
+    bounds: Object.fromEntries(names.map((k, j) => [k, problem.bounds[j]])),
+    covariateMeans,
+    predictionVarianceFactor: weights ? compensatedSum(Array.from(weights, (w) => 1 / w)) / m : 1,
+  };
+  const groups = groupReplicates(x, y, input.replicateTolerance);
+  const replicates = groups.filter((g) => g.n > 1);
+  const result: FitSuccess = {
+    ok: true,
+    model: problem.modelName,
+    expression: problem.expression,
+    method: sol.method,
+    parameterNames: names,
+    params,
+    covariance,
+    correlation,
+    n: m,
+    p: n,
+    df,
+    rss,
+    residualSD: s,
+    r2,
+    adjustedR2,
+    rmse: Math.sqrt(rss / m),
+    ...ic,
+    level,
+    tQuantile: t,
+    fitted: Array.from(f),
+    residuals,
+    standardizedResiduals,
+    studentizedResiduals,
+    leverage: Array.from(leverage),
+    cooksDistance,
+    flags,
+    band: [],
+    iterations: sol.iterations,
+    evaluations: sol.evaluations,
+    converged: true,
+    stoppingReason: sol.reason,
+    conditionNumber,
+    jacobian: sol.method === 'linear-qr' ? 'linear' : compiled.analytic.every(Boolean) ? 'analytic' : compiled.analytic.some(Boolean) ? 'mixed' : 'numeric',
+    xRange: [xMin, xMax],
+    replicates,
+    lackOfFit: replicates.length > 0 ? lackOfFit(y, weights, rss, groups, n) : null,
+    warnings,
+    spec,
+  };
+  const from = input.grid?.from ?? xMin;
+  const to = input.grid?.to ?? xMax;
+  const points = Math.max(2, Math.min(1000, Math.round(input.grid?.points ?? 41)));
+  if (Number.isFinite(from) && Number.isFinite(to) && to > from) {
+    const gx = Array.from({ length: points }, (_, k) => from + ((to - from) * k) / (points - 1));
+    try {
+      result.band = predictAt(result, gx, {}, level);
+    } catch {
+      result.band = [];
+    }
+    if (from < xMin || to > xMax) warnings.push({ code: 'extrapolation', message: `the band runs outside the data range [${xMin}, ${xMax}]: predictions there are extrapolations` });
+  }
+  return result;
+}
+
+/** Physical sanity of the heater built-ins (DOMAIN.md §7 item 6). */
+function physicalChecks(problem: Problem, p: Float64Array, warnings: FitWarning[]): void {
+  const name = problem.builtin?.name;
+  const yMax = Math.max(...problem.y);
+  if (name === 'coil') {
+    if (p[0] < yMax) warnings.push({ code: 'unphysical', message: `fitted source temperature Ts = ${p[0].toFixed(2)} °C is below the hottest observed outlet (${yMax.toFixed(2)} °C)` });
+    if (!(p[1] > 0)) warnings.push({ code: 'unphysical', message: `fitted UA = ${p[1].toPrecision(4)} W/K is not positive` });
+  } else if (name === 'exp-inlet') {
+    warnings.push({ code: 'unphysical', message: 'Tout = Tin + A·exp(−kQ) always puts a heat maximum at Q = 1/k whatever the hardware does; check the residual pattern against the coil model' });
+  } else if (name === 'exp-approach') {
+    const tinMean = problem.covariates.Tin ? Math.min(...problem.covariates.Tin) : null;
+    if (tinMean !== null && p[0] > tinMean) warnings.push({ code: 'unphysical', message: `fitted asymptote Tinf = ${p[0].toFixed(2)} °C is above the inlet: heat would grow without bound at high flow` });
+  }
+}

@@ -1,0 +1,11 @@
+/** Public API of the fitting engine. */
+export { fitModel } from './fit-model';
+export { predictAt } from './predict-at';
+export { compileModel, type CompiledModel } from './model-expression';
+export { BUILTIN_MODELS, DEFAULT_CP_J_PER_KG_K, DEFAULT_RHO_KG_PER_M3, type BuiltinModel } from './builtin-models';
+export { levenbergMarquardt, type LeastSquaresProblem, type LmOptions, type LmResult } from './levenberg-marquardt';
+export { linearLeastSquares, polynomialDesign, type LinearLeastSquaresResult } from './linear-least-squares';
+export { groupReplicates } from './replicates';
+export { lackOfFit } from './lack-of-fit';
+export { informationCriteria } from './information-criteria';
+export type * from './types';
