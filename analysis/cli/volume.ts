@@ -1,0 +1,43 @@
+/** `volume`: water volume and surface area of a pool or tub from dimensions with units. */
+import { InputError } from './input-error';
+import { poolGeometry, type PoolDimensions, type PoolShape } from '../pool/pool-geometry';
+import { asObject, optionalQuantity } from '../units/read-fields';
+import { convert } from '../units/parse-quantity';
+import { energyPerDegreeJPerK } from '../pool/energy-per-degree';
+
+export const help = `pool or tub volume and surface area from dimensions
+input: {"shape":"round","diameter":"18 ft","depth":"4 ft"}
+  shape: round (diameter) | rectangle | ellipse | stadium (length, width) | kidney (length, width, width2)
+  depth, or shallowDepth + deepDepth (water depth, not wall height); optional volume (metered) and area
+output: {"volume_m3", "area_m2", "volume_gal", "area_ft2", "meanDepth_m", "energyPerDegree_J_per_K", "method", "notes"}`;
+
+const SHAPES = ['round', 'rectangle', 'ellipse', 'stadium', 'kidney'];
+
+export function run(input: unknown): unknown {
+  try {
+    const o = asObject(input, 'input');
+    if (typeof o.shape !== 'string' || !SHAPES.includes(o.shape)) {
+      throw new InputError(`shape must be one of ${SHAPES.join(', ')}, got ${JSON.stringify(o.shape)}`);
+    }
+    const d: PoolDimensions = {
+      shape: o.shape as PoolShape,
+      diameterM: optionalQuantity(o, 'diameter', 'length'),
+      lengthM: optionalQuantity(o, 'length', 'length'),
+      widthM: optionalQuantity(o, 'width', 'length'),
+      width2M: optionalQuantity(o, 'width2', 'length'),
+      depthM: optionalQuantity(o, 'depth', 'length'),
+      shallowDepthM: optionalQuantity(o, 'shallowDepth', 'length'),
+      deepDepthM: optionalQuantity(o, 'deepDepth', 'length'),
+      enteredVolumeM3: optionalQuantity(o, 'volume', 'volume'),
+      enteredAreaM2: optionalQuantity(o, 'area', 'area'),
+    };
+    const g = poolGeometry(d);
+    return {
+      volume_m3: g.volumeM3, area_m2: g.areaM2, volume_gal: convert(g.volumeM3, 'm^3', 'gal'), area_ft2: convert(g.areaM2, 'm^2', 'ft^2'),
+      meanDepth_m: g.meanDepthM, energyPerDegree_J_per_K: energyPerDegreeJPerK(g.volumeM3), method: g.volumeMethod, notes: g.notes,
+    };
+  } catch (e) {
+    if (e instanceof TypeError || e instanceof RangeError) throw new InputError(e.message);
+    throw e;
+  }
+}
