@@ -1,10 +1,28 @@
 /** Every entity, listed explicitly: folder globs do not survive bundling. */
+import { ApiToken } from './api-token';
+import { AuditEvent } from './audit-event';
+import { Invitation } from './invitation';
 import { Lab } from './lab';
 import { Membership } from './membership';
+import { PasswordReset } from './password-reset';
+import { RateLimit } from './rate-limit';
 import { Rig } from './rig';
+import { Session } from './session';
 import { Trial } from './trial';
 import { User } from './user';
-import { BaseSchema } from './base';
 
-export { BaseSchema, Lab, Membership, Rig, Trial, User };
-export const entities = [BaseSchema, Lab, User, Membership, Rig, Trial];
+export { ApiToken, AuditEvent, Invitation, Lab, Membership, PasswordReset, RateLimit, Rig, Session, Trial, User };
+export const entities = [Lab, User, Membership, Rig, Trial, Session, Invitation, PasswordReset, ApiToken, AuditEvent, RateLimit];
+
+import type { InferEntity } from '@mikro-orm/core';
+/** Row types of the entities, for code that handles loaded records. */
+export type LabRow = InferEntity<typeof Lab>;
+export type UserRow = InferEntity<typeof User>;
+export type MembershipRow = InferEntity<typeof Membership>;
+export type RigRow = InferEntity<typeof Rig>;
+export type TrialRow = InferEntity<typeof Trial>;
+export type SessionRow = InferEntity<typeof Session>;
+export type InvitationRow = InferEntity<typeof Invitation>;
+export type PasswordResetRow = InferEntity<typeof PasswordReset>;
+export type ApiTokenRow = InferEntity<typeof ApiToken>;
+export type AuditEventRow = InferEntity<typeof AuditEvent>;

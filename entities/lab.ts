@@ -1,5 +1,5 @@
 import { defineEntity, p } from '@mikro-orm/core';
-import { BaseSchema } from './base';
+import { baseProperties } from './base';
 
 /** The unit system a lab or a user prefers for display; numbers are always stored in SI. */
 export const UNIT_SYSTEMS = ['si', 'us'] as const;
@@ -9,8 +9,8 @@ export type UnitSystem = (typeof UNIT_SYSTEMS)[number];
 export const Lab = defineEntity({
   name: 'Lab',
   tableName: 'lab',
-  extends: BaseSchema,
   properties: {
+    ...baseProperties(),
     name: p.string().length(120),
     slug: p.string().length(80).unique(),
     unitSystem: p.enum(() => [...UNIT_SYSTEMS]).default('si').$type<UnitSystem>(),

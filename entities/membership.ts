@@ -1,5 +1,5 @@
 import { defineEntity, p } from '@mikro-orm/core';
-import { BaseSchema } from './base';
+import { baseProperties } from './base';
 import { Lab } from './lab';
 import { User } from './user';
 
@@ -10,9 +10,9 @@ export type Role = (typeof ROLES)[number];
 export const Membership = defineEntity({
   name: 'Membership',
   tableName: 'membership',
-  extends: BaseSchema,
   uniques: [{ properties: ['user', 'lab'] }],
   properties: {
+    ...baseProperties(),
     user: () => p.manyToOne(User).deleteRule('cascade'),
     lab: () => p.manyToOne(Lab).deleteRule('cascade'),
     role: p.enum(() => [...ROLES]).$type<Role>(),

@@ -1,5 +1,5 @@
 import { defineEntity, p } from '@mikro-orm/core';
-import { BaseSchema } from './base';
+import { baseProperties } from './base';
 import { Lab } from './lab';
 
 export const HEAT_SOURCES = ['wood-fire', 'propane-burner', 'natural-gas', 'solar-collector', 'electric', 'heat-pump', 'other'] as const;
@@ -18,9 +18,9 @@ export interface RigDetails {
 export const Rig = defineEntity({
   name: 'Rig',
   tableName: 'rig',
-  extends: BaseSchema,
   uniques: [{ properties: ['lab', 'name'] }],
   properties: {
+    ...baseProperties(),
     lab: () => p.manyToOne(Lab).deleteRule('cascade'),
     name: p.string().length(120),
     heatSource: p.enum(() => [...HEAT_SOURCES]).$type<HeatSource>(),

@@ -1,5 +1,5 @@
 import { defineEntity, p } from '@mikro-orm/core';
-import { BaseSchema, num } from './base';
+import { baseProperties, num } from './base';
 import { Lab } from './lab';
 import { Rig } from './rig';
 
@@ -11,9 +11,9 @@ import { Rig } from './rig';
 export const Trial = defineEntity({
   name: 'Trial',
   tableName: 'trial',
-  extends: BaseSchema,
   indexes: [{ properties: ['rig', 'startedAt'] }],
   properties: {
+    ...baseProperties(),
     lab: () => p.manyToOne(Lab).deleteRule('cascade'),
     rig: () => p.manyToOne(Rig).deleteRule('cascade'),
     startedAt: p.datetime().columnType('timestamptz'),

@@ -1,5 +1,5 @@
 import { defineEntity, p } from '@mikro-orm/core';
-import { BaseSchema } from './base';
+import { baseProperties } from './base';
 import { UNIT_SYSTEMS, type UnitSystem } from './lab';
 
 /**
@@ -9,8 +9,8 @@ import { UNIT_SYSTEMS, type UnitSystem } from './lab';
 export const User = defineEntity({
   name: 'User',
   tableName: 'app_user',
-  extends: BaseSchema,
   properties: {
+    ...baseProperties(),
     email: p.string().length(254).unique(),
     name: p.string().length(120),
     passwordHash: p.string().length(255).hidden(),

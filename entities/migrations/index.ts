@@ -4,7 +4,9 @@
  */
 import type { MigrationObject } from '@mikro-orm/core';
 import { Migration20261201222811 } from './Migration20261201222811';
+import { Migration20261201223321_accounts } from './Migration20261201223321_accounts';
 
 export const migrationsList: MigrationObject[] = [
   { name: 'Migration20261201222811', class: Migration20261201222811 },
+  { name: 'Migration20261201223321_accounts', class: Migration20261201223321_accounts },
 ];

@@ -1,0 +1,186 @@
+import 'server-only';
+import { NextResponse, type NextRequest } from 'next/server';
+import type { EntityManager } from '@mikro-orm/postgresql';
+import type { z } from 'zod';
+import { ApiToken, Membership, type LabRow } from '@/entities';
+import type { Role } from '@/entities/membership';
+import { config } from './config';
+import { getEm } from './db';
+import { HttpError, errorResponse, forbidden, notFound, unauthorized } from './errors';
+import { can, type Action } from './permissions';
+import { SESSION_COOKIE, readSession, type UserRow } from './session';
+import { sha256 } from './tokens';
+
+export interface Actor {
+  user: UserRow;
+  via: 'session' | 'token';
+  sessionId?: string;
+  /** For a token: the one lab it acts in. */
+  tokenLabId?: string;
+}
+
+export interface Member {
+  lab: LabRow;
+  role: Role;
+}
+
+export interface RouteContext<P> {
+  req: NextRequest;
+  params: P;
+  em: EntityManager;
+  actor: Actor | null;
+  ip: string;
+  secure: boolean;
+  /** The membership checked by `labAction`, when the route has one. */
+  member?: Member;
+  /** Reads and validates the JSON body (size-limited before parsing). */
+  json<S extends z.ZodType>(schema: S): Promise<z.infer<S>>;
+  /** The signed-in actor, or 401. */
+  requireActor(): Actor;
+  /**
+   * The actor's membership of a lab, checked against the permissions table: 404 when the actor is
+   * not a member (or a token of another lab), 403 when the role does not allow the action.
+   */
+  requireMember(labId: string, action: Action): Promise<Member>;
+}
+
+export interface RouteOptions {
+  /** 'public': anyone; 'user': a signed-in actor (session or token); 'session': a browser session only. */
+  auth: 'public' | 'user' | 'session';
+  /** For routes under /api/labs/[labId]: the action checked against that lab before the handler runs. */
+  labAction?: Action;
+  /** Largest body accepted, bytes (default 64 KiB); larger requests get 413 before anything is read. */
+  maxBodyBytes?: number;
+}
+
+const STATE_CHANGING = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
+
+export function clientIp(req: NextRequest): string {
+  const fwd = req.headers.get('x-forwarded-for');
+  if (config.trustProxy && fwd) return fwd.split(',')[0].trim();
+  return req.headers.get('x-real-ip') ?? '';
+}
+
+function expectedOrigin(req: NextRequest): string {
+  if (config.appUrl) return new URL(config.appUrl).origin;
+  const host = req.headers.get('x-forwarded-host') ?? req.headers.get('host') ?? '';
+  const proto = req.headers.get('x-forwarded-proto') ?? new URL(req.url).protocol.replace(':', '');
+  return `${proto}://${host}`;
+}
+
+/** Cookie-authenticated state changes must come from our own origin (CSRF). */
+function checkOrigin(req: NextRequest) {
+  const origin = req.headers.get('origin');
+  if (origin) {
+    if (origin !== expectedOrigin(req)) throw new HttpError(403, 'cross_origin', 'Requests from another site are refused.');
+    return;
+  }
+  const site = req.headers.get('sec-fetch-site');
+  if (site !== 'same-origin') throw new HttpError(403, 'cross_origin', 'Requests from another site are refused.');
+}
+
+async function readLimited(req: NextRequest, max: number): Promise<string> {
+  if (!req.body) return '';
+  const reader = req.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let size = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    size += value.byteLength;
+    if (size > max) {
+      await reader.cancel();
+      throw tooLarge(max);
+    }
+    chunks.push(value);
+  }
+  return Buffer.concat(chunks).toString('utf8');
+}
+
+const tooLarge = (max: number) => new HttpError(413, 'too_large', `The request body is larger than ${Math.round(max / 1024)} KiB.`);
+
+async function resolveActor(req: NextRequest, em: EntityManager): Promise<Actor | null> {
+  const authz = req.headers.get('authorization');
+  if (authz) {
+    const m = /^Bearer\s+(\S+)$/i.exec(authz);
+    if (!m) throw unauthorized('The Authorization header must be "Bearer <token>".');
+    const token = await em.findOne(ApiToken, { tokenHash: sha256(m[1]), revokedAt: null }, { populate: ['user'] });
+    if (!token) throw unauthorized('That API token is not valid or has been revoked.');
+    token.lastUsedAt = new Date();
+    await em.flush();
+    return { user: token.user, via: 'token', tokenLabId: token.lab.id };
+  }
+  const s = await readSession(em, req.cookies.get(SESSION_COOKIE)?.value);
+  return s ? { user: s.user, via: 'session', sessionId: s.session.id } : null;
+}
+
+/**
+ * The one wrapper around every route handler: body-size limit, same-origin check for cookie
+ * requests that change state, the actor (session cookie or Bearer token), the permissions table,
+ * a fresh EntityManager, and one error mapper.
+ */
+export function route<P extends Record<string, string> = Record<string, never>>(
+  options: RouteOptions,
+  handler: (ctx: RouteContext<P>) => Promise<Response>,
+) {
+  return async (req: NextRequest, segment: { params: Promise<P> }): Promise<Response> => {
+    try {
+      const max = options.maxBodyBytes ?? config.maxJsonBytes;
+      const length = Number(req.headers.get('content-length') ?? 0);
+      if (length > max) throw tooLarge(max);
+      const bearer = req.headers.has('authorization');
+      if (STATE_CHANGING.has(req.method) && !bearer) checkOrigin(req);
+      const em = await getEm();
+      const params = (await segment.params) ?? ({} as P);
+      const actor = await resolveActor(req, em);
+      const secure = (req.headers.get('x-forwarded-proto') ?? new URL(req.url).protocol.replace(':', '')) === 'https';
+      const ctx: RouteContext<P> = {
+        req,
+        params,
+        em,
+        actor,
+        ip: clientIp(req),
+        secure,
+        async json(schema) {
+          const text = await readLimited(req, max);
+          let body: unknown;
+          try {
+            body = text ? JSON.parse(text) : {};
+          } catch {
+            throw new HttpError(400, 'bad_json', 'The request body is not valid JSON.');
+          }
+          return schema.parse(body);
+        },
+        requireActor() {
+          if (!actor) throw unauthorized();
+          return actor;
+        },
+        async requireMember(labId, action) {
+          const a = ctx.requireActor();
+          if (!/^[0-9a-f-]{36}$/i.test(labId)) throw notFound();
+          if (a.via === 'token' && a.tokenLabId !== labId) throw notFound();
+          const m = await em.findOne(Membership, { user: a.user.id, lab: labId }, { populate: ['lab'] });
+          if (!m) throw notFound();
+          if (!can(m.role, action)) throw forbidden();
+          return { lab: m.lab, role: m.role };
+        },
+      };
+      if (options.auth !== 'public') {
+        const a = ctx.requireActor();
+        if (options.auth === 'session' && a.via !== 'session') throw forbidden('This needs a signed-in browser session, not an API token.');
+      }
+      if (options.labAction) {
+        const labId = (params as Record<string, string>).labId;
+        if (!labId) throw new Error('labAction needs a [labId] segment');
+        ctx.member = await ctx.requireMember(labId, options.labAction);
+      }
+      const res = await handler(ctx);
+      res.headers.set('Cache-Control', 'no-store');
+      return res;
+    } catch (e) {
+      return errorResponse(e);
+    }
+  };
+}
+
+export const json = (body: unknown, init?: ResponseInit) => NextResponse.json(body, init);

@@ -1,0 +1,12 @@
+import { changePassword } from '@/app/_lib/accounts';
+import { signedIn } from '@/app/_lib/auth-responses';
+import { route } from '@/app/_lib/route';
+import { changePasswordInput } from '@/app/_lib/schemas';
+
+/** POST: change the password; every other session ends, this browser gets a new one. */
+export const POST = route({ auth: 'session' }, async (ctx) => {
+  const { user } = ctx.requireActor();
+  const { currentPassword, newPassword } = await ctx.json(changePasswordInput);
+  await changePassword(ctx.em, user, currentPassword, newPassword, ctx.ip);
+  return signedIn(ctx.em, user, ctx.req.headers.get('user-agent') ?? '', ctx.secure);
+});

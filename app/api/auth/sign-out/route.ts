@@ -1,0 +1,12 @@
+import { Session } from '@/entities';
+import { audit } from '@/app/_lib/audit';
+import { signedOut } from '@/app/_lib/auth-responses';
+import { route } from '@/app/_lib/route';
+
+/** POST: end this browser's session. */
+export const POST = route({ auth: 'session' }, async (ctx) => {
+  const actor = ctx.requireActor();
+  await ctx.em.nativeUpdate(Session, { id: actor.sessionId }, { revokedAt: new Date() });
+  await audit(ctx.em, { kind: 'sign-out', actor: actor.user, subject: actor.user.email, ip: ctx.ip });
+  return signedOut(ctx.secure);
+});

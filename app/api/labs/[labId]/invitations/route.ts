@@ -1,0 +1,20 @@
+import { Invitation } from '@/entities';
+import { invitationDto } from '@/app/_lib/dto';
+import { invite } from '@/app/_lib/labs';
+import { json, route } from '@/app/_lib/route';
+import { inviteInput } from '@/app/_lib/schemas';
+
+type P = { labId: string };
+
+/** GET: invitations of the lab, newest first (owners). */
+export const GET = route<P>({ auth: 'session', labAction: 'member:manage' }, async (ctx) => {
+  const rows = await ctx.em.find(Invitation, { lab: ctx.params.labId }, { orderBy: { createdAt: 'desc' }, limit: 100 });
+  return json({ invitations: rows.map(invitationDto) });
+});
+
+/** POST: invite an e-mail address with a role; the link is mailed, valid 7 days, single use. */
+export const POST = route<P>({ auth: 'session', labAction: 'member:manage' }, async (ctx) => {
+  const { email, role } = await ctx.json(inviteInput);
+  const inv = await invite(ctx.em, ctx.member!.lab, ctx.requireActor().user, email, role, ctx.ip, new URL(ctx.req.url).origin);
+  return json({ invitation: invitationDto(inv) }, { status: 201 });
+});

@@ -1,0 +1,22 @@
+import { labDto } from '@/app/_lib/dto';
+import { createLab, membershipsOf } from '@/app/_lib/labs';
+import { json, route } from '@/app/_lib/route';
+import { createLabInput } from '@/app/_lib/schemas';
+import { LAB_COOKIE } from '@/app/_lib/session';
+
+/** GET: the labs the actor belongs to. */
+export const GET = route({ auth: 'user' }, async (ctx) => {
+  const { user, via, tokenLabId } = ctx.requireActor();
+  const ms = await membershipsOf(ctx.em, user.id);
+  return json({ labs: ms.filter((m) => via === 'session' || m.lab.id === tokenLabId).map((m) => ({ ...labDto(m.lab), role: m.role })) });
+});
+
+/** POST: create a lab; its creator becomes its owner. */
+export const POST = route({ auth: 'session' }, async (ctx) => {
+  const { user } = ctx.requireActor();
+  const { name } = await ctx.json(createLabInput);
+  const lab = await createLab(ctx.em, user, name, ctx.ip);
+  const res = json({ lab: { ...labDto(lab), role: 'owner' } }, { status: 201 });
+  res.cookies.set(LAB_COOKIE, lab.id, { httpOnly: true, sameSite: 'lax', secure: ctx.secure, path: '/', maxAge: 365 * 86400 });
+  return res;
+});

@@ -1,0 +1,11 @@
+import { revokeToken } from '@/app/_lib/api-tokens';
+import { tokenDto } from '@/app/_lib/dto';
+import { notFound } from '@/app/_lib/errors';
+import { json, route } from '@/app/_lib/route';
+
+/** DELETE: revoke one of the user's tokens. */
+export const DELETE = route<{ tokenId: string }>({ auth: 'session' }, async (ctx) => {
+  if (!/^[0-9a-f-]{36}$/i.test(ctx.params.tokenId)) throw notFound();
+  const t = await revokeToken(ctx.em, ctx.requireActor().user, ctx.params.tokenId, ctx.ip);
+  return json({ token: tokenDto(t) });
+});

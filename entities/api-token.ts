@@ -1,0 +1,23 @@
+import { defineEntity, p } from '@mikro-orm/core';
+import { baseProperties } from './base';
+import { Lab } from './lab';
+import { User } from './user';
+
+/**
+ * A personal API token for scripts and data loggers, acting in one lab with its owner's role
+ * there. Shown once; stored as its SHA-256 with a short visible prefix to tell tokens apart.
+ */
+export const ApiToken = defineEntity({
+  name: 'ApiToken',
+  tableName: 'api_token',
+  properties: {
+    ...baseProperties(),
+    user: () => p.manyToOne(User).deleteRule('cascade'),
+    lab: () => p.manyToOne(Lab).deleteRule('cascade'),
+    name: p.string().length(80),
+    prefix: p.string().length(16),
+    tokenHash: p.string().length(64).unique().hidden(),
+    lastUsedAt: p.datetime().columnType('timestamptz').nullable(),
+    revokedAt: p.datetime().columnType('timestamptz').nullable(),
+  },
+});
