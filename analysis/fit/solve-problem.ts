@@ -28,7 +28,7 @@ const MAX_RESTARTS = 3;
  * @param y - responses to fit (the problem's own, or a bootstrap resample)
  * @param start - starting parameters
  */
-export function solveFrom(problem: Problem, y: Float64Array, start: ArrayLike<number>, options: LmOptions = SOLVER_OPTIONS): Solution {
+export function solveFrom(problem: Problem, y: Float64Array, start: ArrayLike<number>, options: LmOptions = SOLVER_OPTIONS, restarts = MAX_RESTARTS): Solution {
   const { compiled, x, cov, sw } = problem;
   const m = x.length;
   const n = problem.parameters.length;
@@ -58,7 +58,7 @@ export function solveFrom(problem: Problem, y: Float64Array, start: ArrayLike<nu
   let res = levenbergMarquardt(lm, u, options);
   let iterations = res.iterations;
   let evaluations = res.evaluations;
-  for (let k = 0; k < MAX_RESTARTS && res.converged; k++) {
+  for (let k = 0; k < restarts && res.converged; k++) {
     const again = levenbergMarquardt(lm, res.p, options);
     iterations += again.iterations;
     evaluations += again.evaluations;
