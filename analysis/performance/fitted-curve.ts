@@ -1,0 +1,97 @@
+/**
+ * A fitted heater curve from the fitting engine (analysis/fit), ready to evaluate at any flow
+ * and inlet temperature with any parameter vector (for delta-method uncertainty of derived
+ * quantities). Covariates: Tin = the chosen inlet temperature; rho and cp (coil model) = IF97 at
+ * the inlet temperature, so mass flow is ρ(Tin)·V̇; any other covariate is held at its mean over
+ * the fitted data.
+ */
+import { compileModel, predictAt, type BandPoint, type FitSuccess } from '../fit';
+import { requireFinite } from '../units/guards';
+import { waterCpJPerKgK, waterDensityKgPerM3 } from '../water/water-properties';
+
+/** A fitted curve with its parameters and covariance. */
+export interface FittedCurve {
+  model: string;
+  parameterNames: string[];
+  values: number[];
+  covariance: number[][];
+  /** [min, max] of the tested volume flows, m³/s */
+  xRange: [number, number];
+  /** the range of inlet temperatures in the fitted data, °C (null when the fit had no Tin) */
+  fittedInletRangeC: [number, number] | null;
+  /** true for the physical coil model, which holds at any inlet temperature */
+  inletTransferable: boolean;
+  /** outlet temperatures, °C, at flows x (m³/s) and one inlet temperature, for parameters p */
+  evaluate(p: ArrayLike<number>, x: number[], inletTempC: number): Float64Array;
+  /** the engine's intervals (confidence for the mean, prediction for one trial) at flows x */
+  band(x: number[], inletTempC: number, level?: number): BandPoint[];
+}
+
+/**
+ * Wraps a successful fit.
+ * @throws RangeError when the fit's expression cannot be compiled (should not happen for a fit
+ *   the engine produced).
+ * @example fittedCurve(fit).evaluate([fit.params.Ts.value, fit.params.UA.value], [2e-4], 20)
+ */
+export function fittedCurve(fit: FitSuccess): FittedCurve {
+  const spec = fit.spec;
+  const compiled = compileModel(spec.expression, { parameters: spec.parameterNames, covariates: spec.covariateNames });
+  if (!compiled.ok) throw new RangeError(`cannot evaluate the fitted model: ${compiled.reason}`);
+  const model = compiled.model;
+  const tin = spec.covariates.Tin;
+  const covFor = (m: number, inletC: number): Record<string, number[]> => {
+    const out: Record<string, number[]> = {};
+    for (const name of model.covariates) {
+      let v: number;
+      if (name === 'Tin') v = inletC;
+      else if (name === 'rho') v = waterDensityKgPerM3(inletC, undefined, 'inletTempC');
+      else if (name === 'cp') v = waterCpJPerKgK(inletC, undefined, 'inletTempC');
+      else v = spec.covariateMeans[name];
+      out[name] = new Array(m).fill(v);
+    }
+    return out;
+  };
+  return {
+    model: fit.model,
+    parameterNames: spec.parameterNames.slice(),
+    values: spec.parameterNames.map((k) => fit.params[k].value),
+    covariance: fit.covariance,
+    xRange: fit.xRange,
+    fittedInletRangeC: tin && tin.length ? [Math.min(...tin), Math.max(...tin)] : null,
+    inletTransferable: fit.model === 'coil',
+    evaluate(p, x, inletTempC) {
+      requireFinite(inletTempC, 'inletTempC');
+      const cov = covFor(x.length, inletTempC);
+      const out = new Float64Array(x.length);
+      model.values(p, x, model.covariates.map((n) => cov[n]), out);
+      return out;
+    },
+    band(x, inletTempC, level = fit.level) {
+      return predictAt(fit, x, covFor(x.length, inletTempC), level);
+    },
+  };
+}
+
+/**
+ * Standard uncertainty of a derived scalar g(p) by the delta method with central differences:
+ * u² = ∇gᵀ·C·∇g, step 1e-3 of each parameter's standard error.
+ * @returns the standard uncertainty, or null when g cannot be evaluated near the estimate
+ * @example deltaMethodU(curve, (p) => 1 / p[1])
+ */
+export function deltaMethodU(curve: Pick<FittedCurve, 'values' | 'covariance'>, g: (p: number[]) => number | null): number | null {
+  const p0 = curve.values;
+  const n = p0.length;
+  const grad: number[] = [];
+  for (let j = 0; j < n; j++) {
+    const se = Math.sqrt(Math.max(curve.covariance[j][j], 0));
+    const h = se > 0 ? se * 1e-3 : Math.max(Math.abs(p0[j]) * 1e-7, 1e-12);
+    const up = p0.slice(); up[j] += h;
+    const dn = p0.slice(); dn[j] -= h;
+    const a = g(up), b = g(dn);
+    if (a === null || b === null || !Number.isFinite(a) || !Number.isFinite(b)) return null;
+    grad.push((a - b) / (2 * h));
+  }
+  let v = 0;
+  for (let a = 0; a < n; a++) for (let b = 0; b < n; b++) v += grad[a] * curve.covariance[a][b] * grad[b];
+  return Math.sqrt(Math.max(v, 0));
+}
