@@ -14,7 +14,7 @@ export interface BoundsTransform {
 }
 
 /**
- * Builds the transform for the given bounds; starting values outside the bounds are moved inside.
+ * Builds the transform for the given bounds; starting values outside or on a bound are moved just inside.
  * @param bounds - per parameter [low, high], ±Infinity for none
  * @returns the transform
  * @example boundsTransform([[0, Infinity]]).toInternal([0]) // [0]
@@ -28,7 +28,9 @@ export function boundsTransform(bounds: [number, number][]): BoundsTransform {
       const u = new Float64Array(n);
       for (let j = 0; j < n; j++) {
         const [lo, hi] = bounds[j];
-        const v = Math.min(Math.max(p[j], lo), hi);
+        // a start on a bound sits where dp/du = 0 and the solver could not move it: nudge it inside
+        const gap = kind[j] === 3 ? 1e-3 * (hi - lo) : 1e-3 * Math.max(1, Math.abs(Number.isFinite(lo) ? lo : hi));
+        const v = Math.min(Math.max(p[j], lo + (kind[j] === 1 || kind[j] === 3 ? gap : 0)), hi - (kind[j] === 2 || kind[j] === 3 ? gap : 0));
         if (kind[j] === 3) u[j] = Math.asin(Math.min(1, Math.max(-1, (2 * (v - lo)) / (hi - lo) - 1)));
         else if (kind[j] === 1) u[j] = Math.sqrt((v - lo + 1) ** 2 - 1);
         else if (kind[j] === 2) u[j] = Math.sqrt((hi - v + 1) ** 2 - 1);

@@ -161,7 +161,7 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
     y: Array.from(y),
     weights: weights ? Array.from(weights) : null,
     covariates: Object.fromEntries(Object.entries(problem.covariates).map(([k, v]) => [k, Array.from(v)])),
-    bounds: Object.fromEntries(names.map((k, j) => [k, problem.bounds[j]])),
+    bounds: Object.fromEntries(names.map((k, j) => [k, problem.bounds[j].map((b) => (Number.isFinite(b) ? b : null)) as [number | null, number | null]])),
     covariateMeans,
     predictionVarianceFactor: weights ? compensatedSum(Array.from(weights, (w) => 1 / w)) / m : 1,
   };

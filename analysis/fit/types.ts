@@ -113,7 +113,8 @@ export interface FitSpec {
   y: number[];
   weights: number[] | null;
   covariates: Record<string, number[]>;
-  bounds: Record<string, [number, number]>;
+  /** bounds by parameter, null for none on that side */
+  bounds: Record<string, [number | null, number | null]>;
   /** mean of each covariate, used when a prediction is asked for without covariates */
   covariateMeans: Record<string, number>;
   /** variance of one new observation relative to s² (1 unweighted; mean 1/w weighted) */
