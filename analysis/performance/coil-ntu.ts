@@ -4,6 +4,7 @@
  *     NTU = UA/(ṁ·cp),  ε = 1 − exp(−NTU),  Tout = Ts − (Ts − Tin)·exp(−NTU),  q = ε·ṁ·cp·(Ts − Tin).
  */
 import { requireFinite, requireNonNegative, requirePositive } from '../units/guards';
+import { temperatureCautions, type Caution } from '../safety/cautions';
 
 /** Inputs of the coil relations, SI. */
 export interface CoilState {
@@ -28,6 +29,8 @@ export interface CoilResult {
   heatW: number;
   /** the ceiling UA·(Ts − Tin) approached at infinite flow, W */
   heatCeilingW: number;
+  /** cautions on the outlet temperature */
+  cautions: Caution[];
 }
 
 /**
@@ -45,10 +48,12 @@ export function coilPerformance(s: CoilState): CoilResult {
   const C = m * cp;
   const ntu = ua / C;
   const eps = -Math.expm1(-ntu);
+  const outletTempC = Ts - (Ts - Tin) * Math.exp(-ntu);
   return {
     ntu,
     effectiveness: eps,
-    outletTempC: Ts - (Ts - Tin) * Math.exp(-ntu),
+    outletTempC,
+    cautions: temperatureCautions(outletTempC, 'outlet'),
     heatW: eps * C * (Ts - Tin),
     heatCeilingW: ua * (Ts - Tin),
   };

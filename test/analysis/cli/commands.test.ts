@@ -138,3 +138,20 @@ describe('cost command', () => {
   });
   test('refuses an unknown fuel', () => expect(() => cost.run({ fuel: 'coal', price: 1 })).toThrow(/fuel must be one of/));
 });
+
+import { spawnSync } from 'node:child_process';
+import path from 'node:path';
+
+describe('the command line itself', () => {
+  const root = path.resolve(__dirname, '..', '..', '..');
+  const cli = (cmd: string, input: unknown) =>
+    spawnSync(process.execPath, [path.join(root, 'node_modules/tsx/dist/cli.mjs'), path.join(root, 'analysis/cli.ts'), cmd], { input: JSON.stringify(input), encoding: 'utf8' });
+  test('prints one JSON object and exits 0; malformed input exits 2 naming the field', () => {
+    const ok = cli('coil', { sourceTemp: '90 degC', inletTemp: '20 degC', UA: '500 W/K', flow: '6 L/min' });
+    expect(ok.status).toBe(0);
+    expect(JSON.parse(ok.stdout).outletTemp_degC).toBeCloseTo(68.85, 1);
+    const bad = cli('coil', { sourceTemp: '90 degC', inletTemp: '20 degC', UA: '500 W/K', flow: '5 kg' });
+    expect(bad.status).toBe(2);
+    expect(bad.stderr).toMatch(/flow: "5 kg" is not a volumeFlow/);
+  });
+});

@@ -107,3 +107,14 @@ describe('choosing a flow', () => {
     expect(e.outletTempC(10 * LPM, 20)).toBeCloseTo(20 + 60 * Math.exp(-1), 1);
   });
 });
+
+describe('empirical fits in the forecast', () => {
+  test('with a known source temperature an exponential fit is re-referenced through its effectiveness', () => {
+    const h = heaterFromFit(expFit(60, 0.1), { sourceTempC: 90 });
+    const atFit = h.outletTempC(10 * LPM, 20);
+    const warmer = h.outletTempC(10 * LPM, 30);
+    expect(atFit - 20).toBeCloseTo(60 * Math.exp(-1), 1);
+    expect((warmer - 30) / (atFit - 20)).toBeCloseTo(60 / 70, 9);
+    expect(() => heaterFromFit(expFit(60, 0.1), { sourceTempC: 10 })).toThrow(/sourceTempC/);
+  });
+});

@@ -30,3 +30,21 @@ describe('temperature cautions (DOMAIN.md §5, §3.7)', () => {
   });
   test('NaN is a TypeError', () => expect(() => temperatureCautions(Number.NaN, 'x')).toThrow(TypeError));
 });
+
+import { planCautions } from '../../../analysis/safety/plan-check';
+
+describe('test-plan check (DOMAIN.md §5 dead-heading)', () => {
+  test('zero flow or a closed valve on a heated coil is a danger; an unheated step is not', () => {
+    const c = planCautions([
+      { flowM3PerS: 1e-4 },
+      { flowM3PerS: 0, label: 'shut-off test' },
+      { flowM3PerS: 1e-4, valveClosed: true },
+      { flowM3PerS: 0, heated: false },
+    ]);
+    expect(c.map((x) => x.where)).toEqual(['shut-off test', 'step 3']);
+    expect(c.every((x) => x.level === 'danger' && x.code === 'dead-heading')).toBe(true);
+  });
+  test('a NaN flow is a TypeError naming the step', () => {
+    expect(() => planCautions([{ flowM3PerS: Number.NaN }])).toThrow(/steps\[0\]\.flowM3PerS/);
+  });
+});
