@@ -17,36 +17,11 @@ import { waterDensityKgPerM3 } from '../water/water-properties';
 import {
   deadHeadingCaution, mergeCautions, sourceAboveBoilingCaution, temperatureCautions, type Caution,
 } from '../safety/cautions';
-import { convectionCoefficient, evaporationWPerM2, skyRadiationWPerM2, STEFAN_BOLTZMANN, type ConvectionModel } from './surface-losses';
-import { normaliseWeather, type WeatherPoint, type WeatherSeries } from './weather';
+import { convectionCoefficient, evaporationWPerM2, skyRadiationWPerM2 } from './surface-losses';
+import { hourMask, resolveTerms, type LossOptions } from './loss-terms';
+import { equilibriumTempC } from './equilibrium-temperature';
 
-/** A pool cover and the hours of the day it is on. */
-export interface CoverOptions {
-  /** hours of the day (0–23, local, counted from `startHourOfDay`) with the cover on */
-  coveredHours: number[];
-  /** multiplier on evaporation while covered; default 0.1 (covers cut evaporation 90–95 %, DOMAIN.md §3.4 [4c]) */
-  evaporationFactor?: number;
-  /** multiplier on solar gain while covered; default 0.8 (opaque covers cut absorption 20–40 % [4d]; a clear bubble cover admits more) */
-  solarFactor?: number;
-  /** multiplier on convection while covered; default 1 (no sourced value: set it from your own data) */
-  convectionFactor?: number;
-  /** multiplier on sky radiation while covered; default 1 (no sourced value) */
-  radiationFactor?: number;
-}
-
-/** Loss and gain terms. Every term can be switched off with `false`. */
-export interface LossOptions {
-  weather: WeatherPoint | WeatherPoint[];
-  /** water surface area, m² */
-  surfaceAreaM2: number;
-  evaporation?: false | { activityFactor?: number; correction?: number };
-  convection?: false | { model?: ConvectionModel };
-  radiation?: false | { emissivity?: number };
-  /** conduction through walls/floor: U·A·(Tp − T_ground or air) */
-  walls?: false | { areaM2: number; uWPerM2K: number; groundTempC?: number };
-  solar?: false | { absorptance?: number };
-  cover?: CoverOptions;
-}
+export type { CoverOptions, LossOptions } from './loss-terms';
 
 /** Everything the forecast needs, SI. */
 export interface ForecastInput {
@@ -112,52 +87,6 @@ export interface ForecastResult {
   equilibriumTempC: number | null;
   equilibriumNote: string;
   cautions: Caution[];
-}
-
-function hourMask(hours: number[] | undefined, field: string, all: boolean): Uint8Array {
-  const m = new Uint8Array(24);
-  if (hours === undefined) { m.fill(all ? 1 : 0); return m; }
-  if (!Array.isArray(hours)) throw new TypeError(`${field} must be an array of hours 0–23`);
-  hours.forEach((h, i) => {
-    if (!Number.isInteger(h) || h < 0 || h > 23) throw new RangeError(`${field}[${i}] must be an integer hour 0–23, got ${h}`);
-    m[h] = 1;
-  });
-  return m;
-}
-
-/** Internal: per-hour multipliers and switches, resolved once. */
-interface Terms {
-  area: number; evap: number; conv: number; convModel: ConvectionModel; rad: number; emis: number;
-  wallUA: number; groundC: number | null; solar: number; cover: Uint8Array;
-  cEvap: number; cSolar: number; cConv: number; cRad: number; weather: WeatherSeries;
-}
-
-function resolveTerms(l: LossOptions): Terms {
-  const area = requirePositive(l.surfaceAreaM2, 'losses.surfaceAreaM2');
-  const weather = normaliseWeather(l.weather);
-  const ev = l.evaporation === false ? null : l.evaporation ?? {};
-  const cv = l.convection === false ? null : l.convection ?? {};
-  const rd = l.radiation === false ? null : l.radiation ?? {};
-  const so = l.solar === false ? null : l.solar ?? {};
-  const w = l.walls ? l.walls : null;
-  const c = l.cover;
-  return {
-    area,
-    evap: ev ? requireNonNegative(ev.activityFactor ?? 1, 'losses.evaporation.activityFactor') * requireNonNegative(ev.correction ?? 1, 'losses.evaporation.correction') : 0,
-    conv: cv ? 1 : 0,
-    convModel: cv?.model ?? 'pool-guidance',
-    rad: rd ? 1 : 0,
-    emis: rd ? requireNonNegative(rd.emissivity ?? 0.95, 'losses.radiation.emissivity') : 0,
-    wallUA: w ? requireNonNegative(w.areaM2, 'losses.walls.areaM2') * requireNonNegative(w.uWPerM2K, 'losses.walls.uWPerM2K') : 0,
-    groundC: w && w.groundTempC !== undefined ? requireFinite(w.groundTempC, 'losses.walls.groundTempC') : null,
-    solar: so ? requireNonNegative(so.absorptance ?? 0.85, 'losses.solar.absorptance') : 0,
-    cover: hourMask(c?.coveredHours, 'losses.cover.coveredHours', false),
-    cEvap: requireNonNegative(c?.evaporationFactor ?? 0.1, 'losses.cover.evaporationFactor'),
-    cSolar: requireNonNegative(c?.solarFactor ?? 0.8, 'losses.cover.solarFactor'),
-    cConv: requireNonNegative(c?.convectionFactor ?? 1, 'losses.cover.convectionFactor'),
-    cRad: requireNonNegative(c?.radiationFactor ?? 1, 'losses.cover.radiationFactor'),
-    weather,
-  };
 }
 
 /**
@@ -251,7 +180,7 @@ export function recirculatingForecast(input: ForecastInput): ForecastResult {
   }
   record(steps, T, lastOut);
 
-  const eq = equilibrium(input, terms, flow, massFlow, heaterOn, cpFixed, startHour, hours);
+  const eq = equilibriumTempC({ heater, terms, flowM3PerS: flow, massFlowKgPerS: massFlow, heaterOn, fixedCpJPerKgK: cpFixed, startHourOfDay: startHour, hours });
   const cautions: Caution[][] = [temperatureCautions(maxT, 'pool')];
   if (maxOut > -Infinity) cautions.push(temperatureCautions(maxOut, 'outlet'));
   if (flow === 0 && heaterOn.some((x) => x === 1)) cautions.push([deadHeadingCaution('the forecast (zero pump flow with the heater on)')]);
@@ -269,48 +198,4 @@ export function recirculatingForecast(input: ForecastInput): ForecastResult {
     hoursToTarget: hitH, equilibriumTempC: eq.tempC, equilibriumNote: eq.note,
     cautions: mergeCautions(...cautions),
   };
-}
-
-/** Net heating rate at pool temperature T under mean conditions, W. */
-function equilibrium(
-  input: ForecastInput, terms: Terms | null, flow: number, massFlow: number, heaterOn: Uint8Array, cpFixed: number, startHour: number, hours: number,
-): { tempC: number | null; note: string } {
-  const nH = Math.max(1, Math.ceil(hours));
-  const duty = Array.from({ length: nH }, (_, h) => heaterOn[(startHour + h) % 24]).reduce((a, b) => a + b, 0) / nH;
-  let ta = 0, pa = 0, wind = 0, sky4 = 0, solar = 0, cov = 0;
-  if (terms) {
-    const w = terms.weather;
-    for (let h = 0; h < nH; h++) {
-      const k = h % w.hours;
-      ta += w.airTempC[k]; pa += w.vapourPressurePa[k]; wind += w.windMPerS[k]; solar += w.solarWPerM2[k];
-      sky4 += (w.skyTempC[k] + 273.15) ** 4;
-      cov += terms.cover[(startHour + h) % 24];
-    }
-    ta /= nH; pa /= nH; wind /= nH; solar /= nH; sky4 /= nH; cov /= nH;
-  }
-  const net = (T: number): number => {
-    const cp = cpFixed || fastCpJPerKgK(T);
-    const rho = fastDensityKgPerM3(T);
-    const vdot = massFlow > 0 ? massFlow / rho : flow;
-    let q = vdot > 0 ? duty * rho * vdot * cp * (input.heater.outletTempC(vdot, T) - T) : 0;
-    if (terms) {
-      const a = terms.area;
-      const f = (c: number) => 1 - cov + cov * c;
-      q += terms.solar * a * solar * f(terms.cSolar);
-      q -= terms.evap * a * evaporationWPerM2(saturationPressureUncheckedPa(T + 273.15), pa, wind) * f(terms.cEvap);
-      q -= terms.conv * a * convectionCoefficient(wind, terms.convModel) * (T - ta) * f(terms.cConv);
-      q -= terms.rad * a * terms.emis * STEFAN_BOLTZMANN * ((T + 273.15) ** 4 - sky4) * f(terms.cRad);
-      q -= terms.wallUA * (T - (terms.groundC ?? ta));
-    }
-    return q;
-  };
-  let lo = 0, hi = 100;
-  const nlo = net(lo), nhi = net(hi);
-  if (!(nlo > 0)) return { tempC: null, note: 'No equilibrium above 0 °C: losses exceed gains even for water at 0 °C.' };
-  if (nhi > 0) return { tempC: null, note: 'No equilibrium below 100 °C: gains exceed losses up to boiling. The water would keep heating; see the cautions.' };
-  for (let i = 0; i < 200 && hi - lo > 1e-9; i++) {
-    const mid = (lo + hi) / 2;
-    if (net(mid) > 0) lo = mid; else hi = mid;
-  }
-  return { tempC: (lo + hi) / 2, note: 'Equilibrium under the mean weather, heater duty and cover fraction of the forecast period.' };
 }

@@ -4,6 +4,7 @@
  *
  * Added units (exact values as SP 811 / NIST Handbook 44 give them):
  * - `gpm` = US gallon per minute = 3.785411784 L/min (gallon = 231 in³ exactly); `gph` per hour.
+ * - `lpm` = L/min; `mph` = mile per hour = 1609.344 m/h (mile exact, SP 811).
  * - `Btu` = International Table Btu = 1055.05585262 J (mathjs `BTU` is the same unit; `Btu` is the
  *   spelling practitioners type). `MBtu` = 1000 Btu, `MMBtu` = 10⁶ Btu (trade usage).
  * - `therm` = 100,000 Btu_IT = 105,505,585.262 J, the convention of US gas bills and of EIA.
@@ -26,6 +27,8 @@ function defineUnits(): void {
   math.createUnit({
     gpm: { definition: '3.785411784 L/min' },
     gph: { definition: '3.785411784 L/hour' },
+    lpm: { definition: '1 L/min' },
+    mph: { definition: '1609.344 m/hour' },
     Btu: { definition: '1055.05585262 J', aliases: ['btu'] },
     MBtu: { definition: '1055055.85262 J' },
     MMBtu: { definition: '1055055852.62 J' },

@@ -32,13 +32,26 @@ export type QuantityKind = keyof typeof SI_UNITS | 'temperatureDifference';
 
 const TEMPERATURE_UNITS = new Set(['K', 'degC', 'degF', 'degR', 'celsius', 'fahrenheit', 'kelvin', 'rankine']);
 
+/**
+ * Spellings people type that mathjs does not read: "75 °F", "75°C", "75 ℉" → degF/degC.
+ * @example normaliseUnitText('75 °F') // '75 degF'
+ */
+export function normaliseUnitText(text: string): string {
+  return text
+    .trim()
+    .replace(/\s*(?:°|º)\s*F\b/g, ' degF')
+    .replace(/\s*(?:°|º)\s*C\b/g, ' degC')
+    .replace(/\s*℉/g, ' degF')
+    .replace(/\s*℃/g, ' degC');
+}
+
 function parseUnit(text: unknown, field: string): Unit {
   if (typeof text !== 'string' || text.trim() === '') {
     throw new TypeError(`${field} must be a quantity with a unit such as "18 ft", got ${describeValue(text)}`);
   }
   let u: Unit;
   try {
-    u = math.unit(text.trim());
+    u = math.unit(normaliseUnitText(text));
   } catch (e) {
     throw new RangeError(`${field}: cannot read ${JSON.stringify(text)} as a quantity (${(e as Error).message})`);
   }

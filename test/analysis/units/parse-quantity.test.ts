@@ -67,6 +67,11 @@ describe('parseQuantity reads what people type', () => {
     ['100000 Btu/h', 'power', 29307.10701722222],
     ['1 therm', 'energy', 105505585.262],
     ['1000 gal', 'volume', 3.785411784],
+    ['75 °F', 'temperature', (75 - 32) / 1.8],
+    ['40°C', 'temperature', 40],
+    ['12 lpm', 'volumeFlow', 2e-4],
+    ['5 mph', 'speed', 5 * 1609.344 / 3600],
+    ['50000 Btu/hr', 'power', 50000 * 1055.05585262 / 3600],
   ] as const)('%s as %s', (text, kind, si) => {
     expect(parseQuantity(text, kind, 'x')).toBeCloseTo(si, 9);
   });
