@@ -6,7 +6,7 @@
  * a deep end (right only for one uniform slope). A volume measured by meter may be entered
  * instead, with the surface area computed from the plan shape or entered too.
  */
-import { requireFinite, requirePositive } from '../units/guards';
+import { requirePositive } from '../units/guards';
 
 export type PoolShape = 'round' | 'rectangle' | 'ellipse' | 'stadium' | 'kidney';
 
