@@ -23,12 +23,13 @@ export type LinearLeastSquaresResult =
  * @param y - responses, length m
  * @param options.columnsLo - optional low-order parts of the columns (hi + lo represents each entry to
  *   about 32 digits, e.g. powers of x from {@link polynomialDesign}); used in the refinement residuals
+ * @param options.maxSteps - solve-and-refine steps (default 20; 1 is a plain QR solve)
  * @returns coefficients (units of y per unit of each column), residuals y − Xb and their sum of squares,
  *   or `{ ok: false }` when the columns are linearly dependent to working precision or fewer rows than columns
  * @throws RangeError when the column lengths differ from y
  * @example linearLeastSquares([[1, 1, 1], [0, 1, 2]], [1, 3, 5]) // coefficients [1, 2]
  */
-export function linearLeastSquares(columns: ArrayLike<number>[], y: ArrayLike<number>, options: { columnsLo?: ArrayLike<number>[] } = {}): LinearLeastSquaresResult {
+export function linearLeastSquares(columns: ArrayLike<number>[], y: ArrayLike<number>, options: { columnsLo?: ArrayLike<number>[]; maxSteps?: number } = {}): LinearLeastSquaresResult {
   const m = y.length;
   const p = columns.length;
   for (const c of columns) if (c.length !== m) throw new RangeError(`linearLeastSquares: a column has ${c.length} rows, y has ${m}`);
@@ -63,7 +64,8 @@ export function linearLeastSquares(columns: ArrayLike<number>[], y: ArrayLike<nu
   const z = new Float64Array(p);
   const acc = new DotAccumulator();
   let steps = 0;
-  for (let it = 0; it < 20; it++) {
+  const maxSteps = options.maxSteps ?? 20;
+  for (let it = 0; it < maxSteps; it++) {
     steps = it + 1;
     for (let i = 0; i < m; i++) {
       acc.reset();

@@ -1,0 +1,93 @@
+import { describe, expect, test } from 'vitest';
+import { compileModel, levenbergMarquardt, linearLeastSquares, polynomialDesign } from '../../../analysis/fit';
+import { householderQr } from '../../../analysis/fit/householder-qr';
+import { singularValues } from '../../../analysis/fit/singular-values';
+import { compensatedSum } from '../../../analysis/stats/compensated-sum';
+
+describe('levenbergMarquardt', () => {
+  test('minimises the Rosenbrock function written as residuals (10(x2 − x1²), 1 − x1) from (−1.2, 1) (Moré, Garbow & Hillstrom 1981, problem 1)', () => {
+    const res = levenbergMarquardt({
+      m: 2, n: 2,
+      residuals: (p, out) => { out[0] = 10 * (p[1] - p[0] * p[0]); out[1] = 1 - p[0]; },
+      jacobian: (p, _r, out) => { out[0] = -20 * p[0]; out[1] = -1; out[2] = 10; out[3] = 0; },
+    }, [-1.2, 1]);
+    expect(res.converged).toBe(true);
+    expect(res.p[0]).toBeCloseTo(1, 12);
+    expect(res.p[1]).toBeCloseTo(1, 12);
+    expect(res.rss).toBeLessThan(1e-28);
+  });
+
+  test('reports a start where the residuals are not finite (info 0) instead of throwing', () => {
+    const res = levenbergMarquardt({ m: 1, n: 1, residuals: (_p, out) => { out[0] = Number.NaN; }, jacobian: () => {} }, [1]);
+    expect(res.info).toBe(0);
+    expect(res.converged).toBe(false);
+  });
+});
+
+describe('linear least squares', () => {
+  test('solves an exact line and returns residuals at rounding level', () => {
+    const r = linearLeastSquares([[1, 1, 1], [0, 1, 2]], [1, 3, 5]);
+    expect(r.ok).toBe(true);
+    if (r.ok) {
+      expect(r.coefficients[0]).toBeCloseTo(1, 15);
+      expect(r.coefficients[1]).toBeCloseTo(2, 15);
+      expect(r.rss).toBeLessThan(1e-30);
+    }
+  });
+
+  test('refuses linearly dependent columns with a reason', () => {
+    const r = linearLeastSquares([[1, 1, 1], [2, 2, 2]], [1, 2, 3]);
+    expect(r.ok).toBe(false);
+  });
+
+  test('polynomial powers carry their low-order parts (hi + lo = exact power; 3^40 computed exactly)', () => {
+    const { columns, columnsLo } = polynomialDesign([3], 40);
+    expect(BigInt(columns[40][0]) + BigInt(columnsLo[40][0])).toBe(3n ** 40n);
+  });
+});
+
+describe('building blocks', () => {
+  test('Householder QR reproduces column norms and |R| diagonal in decreasing order with pivoting', () => {
+    const qr = householderQr(Float64Array.of(1, 0, 0, 0, 3, 4), 3, 2);
+    expect(Math.abs(qr.rdiag[0])).toBeCloseTo(5, 14);
+    expect(qr.ipvt[0]).toBe(1);
+  });
+
+  test('Jacobi singular values of a diagonal and a rank-one matrix', () => {
+    expect(singularValues(Float64Array.of(3, 0, 0, 4), 2, 2)).toEqual([4, 3]);
+    const sv = singularValues(Float64Array.of(1, 2, 2, 4), 2, 2);
+    expect(sv[0]).toBeCloseTo(5, 14);
+    expect(sv[1]).toBeLessThan(1e-15);
+  });
+
+  test('compensated summation keeps what naive summation loses', () => {
+    expect(compensatedSum([1e16, 1, -1e16])).toBe(1);
+    expect(compensatedSum(Array(10).fill(0.1))).toBe(1);
+  });
+
+  test('compileModel derives analytic gradients that match central differences', () => {
+    const c = compileModel('b1*exp(-pow(x-b2,2)/pow(b3,2)) + atan(b2/x)/pi', {});
+    expect(c.ok).toBe(true);
+    if (!c.ok) return;
+    const p = [2, 1.5, 0.7];
+    const x = [0.3, 1.1, 2.5];
+    const g = new Float64Array(9);
+    c.model.gradient(p, x, [], g);
+    const f1 = new Float64Array(3);
+    const f2 = new Float64Array(3);
+    for (let j = 0; j < 3; j++) {
+      const h = 1e-6;
+      const up = p.slice(); up[j] += h;
+      const dn = p.slice(); dn[j] -= h;
+      c.model.values(up, x, [], f1);
+      c.model.values(dn, x, [], f2);
+      for (let i = 0; i < 3; i++) expect(g[i + j * 3]).toBeCloseTo((f1[i] - f2[i]) / (2 * h), 7);
+    }
+  });
+
+  test('compileModel rejects assignments and matrices with a reason', () => {
+    expect(compileModel('a = 3*x').ok).toBe(false);
+    expect(compileModel('[a, x]').ok).toBe(false);
+    expect(compileModel('').ok).toBe(false);
+  });
+});
