@@ -5,9 +5,11 @@ import type { Problem } from './prepare-problem';
 /**
  * Final Gauss–Newton corrections with residuals evaluated in double-double arithmetic: once LM has
  * converged in double precision, p ← p + δ with δ = argmin ‖J δ − √w·(y − f(p))‖ while the
- * extended-precision sum of squares decreases (at most 3 steps). This is iterative refinement for
- * nonlinear least squares: it removes the error that rounding in f leaves in p when the residuals are
- * tiny next to y, and changes nothing measurable otherwise.
+ * the steps are tiny next to the residuals and keep shrinking (at most 10 steps). This is iterative
+ * refinement for nonlinear least squares: near the minimum the sum of squares is too flat for LM's
+ * tests to resolve the last digits of p (its change falls below 1e-16 of itself), and when the
+ * residuals are tiny next to y rounding in f hides them; the Gauss–Newton step works from the
+ * residuals themselves and recovers those digits.
  *
  * @param problem - the prepared problem
  * @param p - converged parameters (not modified)
@@ -29,21 +31,33 @@ export function polishSolution(problem: Problem, p: Float64Array): Float64Array 
   if (!Number.isFinite(bestRss)) return p;
   const jac = new Float64Array(m * n);
   let bestR = Float64Array.from(r);
-  for (let it = 0; it < 3 && bestRss > 0; it++) {
+  let previousShift = Infinity;
+  for (let it = 0; it < 10 && bestRss > 0; it++) {
     const target = Float64Array.from(bestR, (v, i) => sw[i] * v);
     compiled.gradient(best, x, cov, jac);
     const columns = Array.from({ length: n }, (_, j) => Float64Array.from({ length: m }, (_, i) => sw[i] * jac[i + j * m]));
     const step = linearLeastSquares(columns, target, { maxSteps: 2 });
     if (!step.ok) break;
+    // ‖J δ‖: how far the step moves the fitted values; a polish step must be tiny next to ‖r‖ and
+    // shrink from one step to the next (Gauss–Newton converging), else it is left alone
+    let shift = 0;
+    for (let i = 0; i < m; i++) {
+      let v = 0;
+      for (let j = 0; j < n; j++) v += columns[j][i] * step.coefficients[j];
+      shift += v * v;
+    }
+    shift = Math.sqrt(shift);
+    if (!(shift <= 0.1 * Math.sqrt(bestRss)) || !(shift < previousShift)) break;
     const next = Float64Array.from(best, (v, j) => v + step.coefficients[j]);
     if (next.some((v, j) => !Number.isFinite(v) || v < problem.bounds[j][0] || v > problem.bounds[j][1])) break;
+    // the sum of squares cannot resolve changes below ~1e-15 of itself: only refuse clear increases
     const nextRss = rss(next);
-    if (!(nextRss < bestRss)) break;
-    const gain = (bestRss - nextRss) / bestRss;
+    if (!(nextRss <= bestRss * (1 + 1e-13))) break;
     best = next;
-    bestRss = nextRss;
+    bestRss = Math.min(bestRss, nextRss);
     bestR = Float64Array.from(r);
-    if (gain < 1e-12) break;
+    previousShift = shift;
+    if (shift === 0) break;
   }
   return best;
 }
