@@ -1,3 +1,4 @@
+import { extent } from '../stats/extent';
 import { linearLeastSquares } from './linear-least-squares';
 
 /** Data a built-in start-value rule sees (covariates already filled with their defaults). */
@@ -33,8 +34,8 @@ const mean = (v: ArrayLike<number>) => {
   for (let i = 0; i < v.length; i++) s += v[i];
   return s / v.length;
 };
-const max = (v: ArrayLike<number>) => Math.max(...Array.from(v));
-const min = (v: ArrayLike<number>) => Math.min(...Array.from(v));
+const max = (v: ArrayLike<number>) => extent(v)[1];
+const min = (v: ArrayLike<number>) => extent(v)[0];
 
 /** Rates k to try for exp(−k·x): spread over three decades around 1/(x range). */
 function rateGrid(x: Float64Array): number[] {

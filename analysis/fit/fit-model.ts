@@ -1,3 +1,4 @@
+import { extent } from '../stats/extent';
 import { compensatedSum, compensatedSumOfSquares } from '../stats/compensated-sum';
 import { studentTQuantile, studentTSf } from '../stats/distributions';
 import { informationCriteria } from './information-criteria';
@@ -148,8 +149,7 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
     if (ti !== null && Math.abs(ti) > 3) flags.outliers.push(i);
   }
 
-  const xMin = Math.min(...x);
-  const xMax = Math.max(...x);
+  const [xMin, xMax] = extent(x);
   const covariateMeans: Record<string, number> = {};
   for (const [k, v] of Object.entries(problem.covariates)) covariateMeans[k] = compensatedSum(v) / m;
   const spec: FitSpec = {
@@ -225,14 +225,14 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
 /** Physical sanity of the heater built-ins (DOMAIN.md §7 item 6). */
 function physicalChecks(problem: Problem, p: Float64Array, warnings: FitWarning[]): void {
   const name = problem.builtin?.name;
-  const yMax = Math.max(...problem.y);
+  const yMax = extent(problem.y)[1];
   if (name === 'coil') {
     if (p[0] < yMax) warnings.push({ code: 'unphysical', message: `fitted source temperature Ts = ${p[0].toFixed(2)} °C is below the hottest observed outlet (${yMax.toFixed(2)} °C)` });
     if (!(p[1] > 0)) warnings.push({ code: 'unphysical', message: `fitted UA = ${p[1].toPrecision(4)} W/K is not positive` });
   } else if (name === 'exp-inlet') {
     warnings.push({ code: 'unphysical', message: 'Tout = Tin + A·exp(−kQ) always puts a heat maximum at Q = 1/k whatever the hardware does; check the residual pattern against the coil model' });
   } else if (name === 'exp-approach') {
-    const tinMean = problem.covariates.Tin ? Math.min(...problem.covariates.Tin) : null;
-    if (tinMean !== null && p[0] > tinMean) warnings.push({ code: 'unphysical', message: `fitted asymptote Tinf = ${p[0].toFixed(2)} °C is above the inlet: heat would grow without bound at high flow` });
+    const tinMin = problem.covariates.Tin ? extent(problem.covariates.Tin)[0] : null;
+    if (tinMin !== null && p[0] > tinMin) warnings.push({ code: 'unphysical', message: `fitted asymptote Tinf = ${p[0].toFixed(2)} °C is above the inlet: heat would grow without bound at high flow` });
   }
 }

@@ -1,3 +1,4 @@
+import { extent } from '../stats/extent';
 import { fittedCurve, type FittedCurve } from './fitted-curve';
 import type { FitSuccess } from './types';
 
@@ -37,7 +38,7 @@ export function heatOptimum(fit: FitSuccess | FittedCurve, options: { TinC?: num
   if (typeof tin !== 'number' || !Number.isFinite(tin)) throw new RangeError('heatOptimum: an inlet temperature TinC is needed (the fit has no Tin covariate)');
   const rho = options.rhoKgPerM3 ?? spec.covariateMeans.rho ?? 1000;
   const cp = options.cpJPerKgK ?? spec.covariateMeans.cp ?? 4186;
-  const range = options.range ?? [Math.min(...spec.x), Math.max(...spec.x)];
+  const range = options.range ?? extent(spec.x);
   const [a, b] = range;
   if (!(a >= 0 && b > a && Number.isFinite(b))) throw new RangeError(`heatOptimum: range must satisfy 0 ≤ from < to, got [${a}, ${b}]`);
   const cov = { Tin: tin, rho, cp };

@@ -131,8 +131,3 @@ export function applyQ(qr: HouseholderQr, v: Float64Array): void {
     for (let i = j; i < m; i++) v[i] += temp * a[cj + i];
   }
 }
-
-/** R(i, j) for i ≤ j of a factorization (the diagonal comes from rdiag). */
-export function rEntry(qr: HouseholderQr, i: number, j: number): number {
-  return i === j ? qr.rdiag[j] : qr.a[i + j * qr.m];
-}

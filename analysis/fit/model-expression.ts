@@ -26,6 +26,76 @@ const FUNCTIONS: Record<string, string> = {
   square: '((v)=>v*v)', cube: '((v)=>v*v*v)', nthRoot: '((v,k)=>Math.pow(v,1/k))', sec: '((v)=>1/Math.cos(v))',
   csc: '((v)=>1/Math.sin(v))', cot: '((v)=>1/Math.tan(v))',
 };
+/** The same functions as values, for the closure evaluator used where `new Function` is not allowed. */
+const FUNCTION_VALUES: Record<string, (...v: number[]) => number> = {
+  exp: Math.exp, log10: Math.log10, log2: Math.log2, sqrt: Math.sqrt, cbrt: Math.cbrt, sin: Math.sin, cos: Math.cos,
+  tan: Math.tan, asin: Math.asin, acos: Math.acos, atan: Math.atan, atan2: Math.atan2, sinh: Math.sinh, cosh: Math.cosh,
+  tanh: Math.tanh, abs: Math.abs, pow: Math.pow, sign: Math.sign, min: Math.min, max: Math.max, hypot: Math.hypot,
+  expm1: Math.expm1, log1p: Math.log1p, square: (v) => v * v, cube: (v) => v * v * v, nthRoot: (v, k) => Math.pow(v, 1 / k),
+  sec: (v) => 1 / Math.cos(v), csc: (v) => 1 / Math.sin(v), cot: (v) => 1 / Math.tan(v),
+  log: (v, b) => (b === undefined ? Math.log(v) : Math.log(v) / Math.log(b)),
+};
+const CONSTANT_VALUES: Record<string, number> = { pi: Math.PI, PI: Math.PI, e: Math.E, E: Math.E, tau: 2 * Math.PI };
+
+type PointEvaluator = (p: ArrayLike<number>, x: ArrayLike<number>, cov: ArrayLike<number>[], i: number) => number;
+
+/**
+ * Closure tree for a node (slower than generated code, but needs no `new Function`, which some
+ * runtimes forbid). The node has already passed {@link toJs}, so every symbol and function is known.
+ */
+function toClosure(node: MathNode, parameters: string[], covariates: string[]): PointEvaluator {
+  const n = node as MathNode & { fn?: unknown; args?: MathNode[]; name?: string; value?: unknown; content?: MathNode };
+  switch (node.type) {
+    case 'ConstantNode': {
+      const v = Number(n.value);
+      return () => v;
+    }
+    case 'SymbolNode': {
+      const name = n.name as string;
+      if (name === 'x') return (_p, x, _c, i) => x[i];
+      const c = covariates.indexOf(name);
+      if (c >= 0) return (_p, _x, cov, i) => cov[c][i];
+      const k = parameters.indexOf(name);
+      if (k >= 0) return (p) => p[k];
+      const v = CONSTANT_VALUES[name];
+      return () => v;
+    }
+    case 'ParenthesisNode':
+      return toClosure(n.content as MathNode, parameters, covariates);
+    case 'OperatorNode': {
+      const [f, g] = (n.args as MathNode[]).map((a) => toClosure(a, parameters, covariates));
+      switch (n.fn as string) {
+        case 'add': return (p, x, c, i) => f(p, x, c, i) + g(p, x, c, i);
+        case 'subtract': return (p, x, c, i) => f(p, x, c, i) - g(p, x, c, i);
+        case 'multiply': return (p, x, c, i) => f(p, x, c, i) * g(p, x, c, i);
+        case 'divide': return (p, x, c, i) => f(p, x, c, i) / g(p, x, c, i);
+        case 'pow': return (p, x, c, i) => Math.pow(f(p, x, c, i), g(p, x, c, i));
+        case 'unaryMinus': return (p, x, c, i) => -f(p, x, c, i);
+        default: return f;
+      }
+    }
+    default: {
+      const name = ((n.fn as { name?: string }).name ?? '') as string;
+      const fn = FUNCTION_VALUES[name];
+      const args = (n.args as MathNode[]).map((a) => toClosure(a, parameters, covariates));
+      return (p, x, c, i) => fn(...args.map((a) => a(p, x, c, i)));
+    }
+  }
+}
+
+/** Whether this runtime allows generated code (edge runtimes and strict CSP pages do not). */
+let generatedCodeAllowed: boolean | null = null;
+function canGenerateCode(): boolean {
+  if (generatedCodeAllowed === null) {
+    try {
+      generatedCodeAllowed = new Function('return 1')() === 1;
+    } catch {
+      generatedCodeAllowed = false;
+    }
+  }
+  return generatedCodeAllowed;
+}
+
 const BINARY: Record<string, string> = { add: '+', subtract: '-', multiply: '*', divide: '/' };
 
 /** 1-based position of the first whole-word occurrence of `name` in `text`, or 0. */
@@ -88,7 +158,8 @@ function freeSymbols(node: MathNode, out: string[] = []): string[] {
 /**
  * Parses a model written as a mathjs expression in `x`, covariates and named parameters, derives
  * the analytic gradient with mathjs `derivative`, and compiles both to plain JavaScript functions
- * (one `new Function` per model) so that a fit evaluates them at native speed.
+ * (one `new Function` per model) so that a fit evaluates them at native speed; where the runtime
+ * forbids generated code (edge runtimes, strict CSP) it falls back to a closure tree.
  *
  * Policy: a syntax error, an unknown symbol (when `parameters` is given), an unsupported function
  * or operator gives `{ ok: false, reason }` naming the symbol and its 1-based character position.
@@ -97,10 +168,11 @@ function freeSymbols(node: MathNode, out: string[] = []): string[] {
  * @param options.parameters - the parameter names; when absent every free symbol that is not x, a
  *   covariate or a constant (pi, e) is a parameter
  * @param options.covariates - names of per-point covariates available to the expression
+ * @param options.generatedCode - false forces the closure evaluator (default: generated code where allowed)
  * @returns the compiled model or a reason
  * @example compileModel('a*exp(-k*x)').ok // true, parameters ['a', 'k']
  */
-export function compileModel(expression: string, options: { parameters?: string[]; covariates?: string[] } = {}): CompileResult {
+export function compileModel(expression: string, options: { parameters?: string[]; covariates?: string[]; generatedCode?: boolean } = {}): CompileResult {
   if (typeof expression !== 'string' || expression.trim() === '') return { ok: false, reason: 'the model expression is empty' };
   let root: MathNode;
   try {
@@ -136,18 +208,39 @@ export function compileModel(expression: string, options: { parameters?: string[
     const body = toJs(root, sym, expression);
     const analytic: boolean[] = [];
     const columns: string[] = [];
+    const derivatives: (MathNode | null)[] = [];
     parameters.forEach((name, k) => {
       let js: string | null = null;
+      let d: MathNode | null = null;
       try {
-        js = toJs(derivative(root, name), sym, expression);
+        d = derivative(root, name);
+        js = toJs(d, sym, expression);
       } catch {
         js = null;
+        d = null;
       }
       analytic.push(js !== null);
+      derivatives.push(js !== null ? d : null);
       if (js !== null) columns.push(`o=${k}*m;for(let i=0;i<m;i++)out[o+i]=${js};`);
     });
-    const valuesFn = new Function('p', 'x', 'cov', 'out', `${head}const m=x.length;for(let i=0;i<m;i++)out[i]=${body};`) as CompiledModel['values'];
-    const analyticFn = new Function('p', 'x', 'cov', 'out', `${head}const m=x.length;let o=0;${columns.join('')}`) as CompiledModel['gradient'];
+    let valuesFn: CompiledModel['values'];
+    let analyticFn: CompiledModel['gradient'];
+    if ((options.generatedCode ?? true) && canGenerateCode()) {
+      valuesFn = new Function('p', 'x', 'cov', 'out', `${head}const m=x.length;for(let i=0;i<m;i++)out[i]=${body};`) as CompiledModel['values'];
+      analyticFn = new Function('p', 'x', 'cov', 'out', `${head}const m=x.length;let o=0;${columns.join('')}`) as CompiledModel['gradient'];
+    } else {
+      const value = toClosure(root, parameters, covariates);
+      const partials = derivatives.map((d) => (d ? toClosure(d, parameters, covariates) : null));
+      valuesFn = (p, x, cov, out) => {
+        for (let i = 0; i < x.length; i++) out[i] = value(p, x, cov, i);
+      };
+      analyticFn = (p, x, cov, out) => {
+        const m = x.length;
+        partials.forEach((d, k) => {
+          if (d) for (let i = 0; i < m; i++) out[i + k * m] = d(p, x, cov, i);
+        });
+      };
+    }
     const gradient: CompiledModel['gradient'] = (p, x, cov, out) => {
       analyticFn(p, x, cov, out);
       if (analytic.every(Boolean)) return;
@@ -160,7 +253,7 @@ export function compileModel(expression: string, options: { parameters?: string[
   }
 }
 
-/** Central differences for the columns without an analytic derivative; step ∝ ε^(1/3)·max(|p|, 1e-8)... */
+/** Central differences for the columns without an analytic derivative; step ε^(1/3)·max(|p|, 1e-8). */
 function numericColumns(values: CompiledModel['values'], analytic: boolean[], p: ArrayLike<number>, x: ArrayLike<number>, cov: ArrayLike<number>[], out: Float64Array): void {
   const m = x.length;
   const q = Float64Array.from(p);

@@ -20,6 +20,8 @@ export interface Problem {
   covariates: Record<string, Float64Array>;
   bounds: [number, number][];
   userStart: number[] | null;
+  /** built-ins with some start values given: those values, null for the ones the rule supplies */
+  startOverrides: (number | null)[] | null;
   warnings: FitWarning[];
 }
 
@@ -112,11 +114,13 @@ export function prepareProblem(input: FitInput): { ok: true; problem: Problem } 
   if (!compiled.ok) return fail('invalid-expression', compiled.reason);
   const model = compiled.model;
   let userStart: number[] | null = null;
+  let startOverrides: (number | null)[] | null = null;
   if (startNames) {
     for (const k of startNames) if (!model.parameters.includes(k)) return fail('invalid-input', `start.${k} is not a parameter of model "${input.model}" (parameters: ${model.parameters.join(', ')})`);
     const missing = model.parameters.filter((k) => !startNames!.includes(k));
     if (missing.length > 0 && !builtin) return fail('invalid-input', `no start value for ${missing.join(', ')}`);
     if (missing.length === 0) userStart = model.parameters.map((k) => (input.start as Record<string, number>)[k]);
+    else startOverrides = model.parameters.map((k) => (startNames!.includes(k) ? (input.start as Record<string, number>)[k] : null));
   }
   const bounds: [number, number][] = model.parameters.map(() => [-Infinity, Infinity]);
   if (input.bounds !== undefined && input.bounds !== null) {
@@ -141,6 +145,6 @@ export function prepareProblem(input: FitInput): { ok: true; problem: Problem } 
   const cov = model.covariates.map((c) => covariates[c]);
   return {
     ok: true,
-    problem: { modelName: input.model, expression, builtin, compiled: model, parameters: model.parameters, x, y, weights, sw, cov, covariates, bounds, userStart, warnings },
+    problem: { modelName: input.model, expression, builtin, compiled: model, parameters: model.parameters, x, y, weights, sw, cov, covariates, bounds, userStart, startOverrides, warnings },
   };
 }

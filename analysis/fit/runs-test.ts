@@ -1,3 +1,4 @@
+import { extent } from '../stats/extent';
 import { logGamma } from '../stats/log-gamma';
 import { normalCdf } from '../stats/distributions';
 
@@ -43,7 +44,8 @@ function runsProbability(r: number, n1: number, n2: number): number {
 export function runsTest(x: ArrayLike<number>, residuals: ArrayLike<number>): RunsTestResult | null {
   if (x.length !== residuals.length) throw new RangeError(`runsTest: x has ${x.length} values, residuals ${residuals.length}`);
   const order = Array.from({ length: x.length }, (_, i) => i).sort((a, b) => x[a] - x[b]);
-  const scale = Math.max(...Array.from(residuals, Math.abs));
+  const [rLo, rHi] = extent(residuals);
+  const scale = Math.max(-rLo, rHi);
   const signs = order.map((i) => residuals[i]).filter((e) => Math.abs(e) > 1e-12 * scale).map(Math.sign);
   const n1 = signs.filter((s) => s > 0).length;
   const n2 = signs.length - n1;

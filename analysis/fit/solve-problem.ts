@@ -110,7 +110,11 @@ export function solveProblem(problem: Problem, y: Float64Array = problem.y): Sol
     const linear = solvePolynomial(problem, y, degree); // bounded polynomial: start LM at the unbounded solution
     starts = [linear ? Array.from(linear.p) : new Array(problem.parameters.length).fill(0)];
   }
-  else if (problem.builtin) starts = problem.builtin.starts({ x: problem.x, y, covariates: problem.covariates }).slice(0, 3);
+  else if (problem.builtin) {
+    starts = problem.builtin.starts({ x: problem.x, y, covariates: problem.covariates }).slice(0, 3);
+    const over = problem.startOverrides;
+    if (over) starts = (starts.length ? starts : [new Array(over.length).fill(1)]).map((s) => s.map((v, j) => over[j] ?? v));
+  }
   else starts = genericStarts(problem.parameters.length, 24);
   if (starts.length === 0) starts = [new Array(problem.parameters.length).fill(1)];
   let best: Solution | null = null;

@@ -134,3 +134,21 @@ describe('bootstrapDerived', () => {
     expect(() => bootstrapDerived(fit, () => 1, { resamples: 3 })).toThrow(RangeError);
   });
 });
+
+describe('start values for built-ins', () => {
+  test('a partial start overrides only the given parameter; the rule supplies the rest', () => {
+    const f = fitModel({ x, y, model: 'coil', covariates, start: { UA: 300 } });
+    expect(f.ok).toBe(true);
+    if (f.ok) expect(f.params.UA.value).toBeCloseTo(500, 6);
+  });
+
+  test('a start key that is not a parameter of the built-in is rejected', () => {
+    expect(fitModel({ x, y, model: 'coil', covariates, start: { Q: 1 } })).toMatchObject({ ok: false, code: 'invalid-input' });
+  });
+
+  test('exp-inlet without Tin says which covariate is missing', () => {
+    const r = fitModel({ x, y, model: 'exp-inlet' });
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.reason).toMatch(/Tin/);
+  });
+});

@@ -91,3 +91,26 @@ describe('building blocks', () => {
     expect(compileModel('').ok).toBe(false);
   });
 });
+
+describe('compileModel without generated code', () => {
+  test('the closure evaluator gives the same values and gradients as the generated code', () => {
+    const expr = 'Ts - (Ts - Tin) * exp(-UA / (rho * x * cp)) + square(x) * sec(UA/1000) + log(x, 10)';
+    const opts = { parameters: ['Ts', 'UA'], covariates: ['Tin', 'rho', 'cp'] };
+    const a = compileModel(expr, opts);
+    const b = compileModel(expr, { ...opts, generatedCode: false });
+    if (!a.ok || !b.ok) throw new Error('compile failed');
+    const p = [90, 500];
+    const x = [1e-4, 2e-4, 3e-4];
+    const cov = [[20, 21, 22], [998, 997, 996], [4186, 4185, 4184]];
+    const va = new Float64Array(3);
+    const vb = new Float64Array(3);
+    a.model.values(p, x, cov, va);
+    b.model.values(p, x, cov, vb);
+    expect(Array.from(vb)).toEqual(Array.from(va));
+    const ga = new Float64Array(6);
+    const gb = new Float64Array(6);
+    a.model.gradient(p, x, cov, ga);
+    b.model.gradient(p, x, cov, gb);
+    for (let i = 0; i < 6; i++) expect(gb[i]).toBeCloseTo(ga[i], 12);
+  });
+});
