@@ -25,8 +25,9 @@ export interface BuiltinModel {
   starts(data: StartData): number[][];
 }
 
-/** Density (kg/m³) and specific heat (J/(kg·K)) used by `coil` only when the input gives none. */
+/** Water density used by `coil` only when the input gives no `rho` covariate (kg/m³; 1 kg/L, common practice). */
 export const DEFAULT_RHO_KG_PER_M3 = 1000;
+/** Specific heat used by `coil` only when the input gives no `cp` covariate (J/(kg·K); DOMAIN.md §1.2 worked numbers). */
 export const DEFAULT_CP_J_PER_KG_K = 4186;
 
 const mean = (v: ArrayLike<number>) => {

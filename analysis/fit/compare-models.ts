@@ -16,6 +16,7 @@ export interface CompareInput {
 /** One model to compare: a built-in name or expression, or an object with start values and bounds. */
 export type CompareModel = string | { label?: string; model: string; start?: Record<string, number>; bounds?: Record<string, [number | null, number | null]> };
 
+/** One model's place in a comparison: its fit (or why it failed), AICc standing, residual checks and verdict. */
 export interface ComparedModel {
   label: string;
   model: string;
@@ -37,6 +38,7 @@ export interface ComparedModel {
   verdict: string;
 }
 
+/** Result of {@link compareModels}. */
 export interface ModelComparison {
   /** successful fits by increasing AICc, then the failures */
   ranking: ComparedModel[];

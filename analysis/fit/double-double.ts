@@ -5,7 +5,13 @@
  */
 const SPLIT = 134217729; // 2^27 + 1
 
-/** Error-free product: a·b = hi + lo exactly (no overflow checks; |a|,|b| < 2^996). */
+/**
+ * Error-free product: a·b = out[0] + out[1] exactly (no overflow checks; |a|, |b| < 2^996).
+ * @param a - factor
+ * @param b - factor
+ * @param out - receives [hi, lo]
+ * @example const t = new Float64Array(2); twoProduct(0.1, 3, t) // t[0] + t[1] is 0.1·3 exactly
+ */
 export function twoProduct(a: number, b: number, out: Float64Array): void {
   const p = a * b;
   let c = SPLIT * a;

@@ -60,7 +60,16 @@ export function fitModel(input: FitInput): FitResult {
   }
 }
 
-/** Builds the full result from a converged solution. */
+/**
+ * Builds the full result from a converged solution (after the extended-precision polish): all the
+ * statistics, diagnostics, bands, replicates and warnings of {@link FitSuccess}. Used by fitModel.
+ * @param problem - the prepared problem
+ * @param solved - a converged solution of it
+ * @param input - the original input (grid, replicate tolerance)
+ * @param level - confidence level in (0, 1)
+ * @returns the result, or a failure when the Jacobian at the solution is singular or the model not finite
+ * @example summarise(problem, solveProblem(problem), input, 0.95)
+ */
 export function summarise(problem: Problem, solved: Solution, input: FitInput, level: number): FitSuccess | FitFailure {
   const { x, y, sw, weights, compiled, parameters: names } = problem;
   let sol = solved;
@@ -133,6 +142,7 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
   const standardizedResiduals: (number | null)[] = [];
   const studentizedResiduals: (number | null)[] = [];
   const cooksDistance: (number | null)[] = [];
+  const dffits: (number | null)[] = [];
   const flags = { highLeverage: [] as number[], influential: [] as number[], outliers: [] as number[] };
   for (let i = 0; i < m; i++) {
     const h = leverage[i];
@@ -144,6 +154,7 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
     studentizedResiduals.push(ti);
     const d = r === null ? null : (r * r * h) / (n * (1 - h));
     cooksDistance.push(d);
+    dffits.push(ti === null ? null : ti * Math.sqrt(h / (1 - h)));
     if (h > (2 * n) / m) flags.highLeverage.push(i);
     if (d !== null && d > 4 / m) flags.influential.push(i);
     if (ti !== null && Math.abs(ti) > 3) flags.outliers.push(i);
@@ -193,6 +204,7 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
     studentizedResiduals,
     leverage: Array.from(leverage),
     cooksDistance,
+    dffits,
     flags,
     band: [],
     iterations: sol.iterations,

@@ -9,6 +9,8 @@ const DWARF = Number.MIN_VALUE * 2 ** 52; // smallest normalised double, as MINP
  *
  * Method: MINPACK `qrsolv` (Moré, Garbow & Hillstrom, ANL-80-74). `r` is column-major with leading
  * dimension ld; its strict lower triangle is overwritten with Sᵀ, its upper triangle is kept.
+ * Internal to {@link levenbergMarquardt}; arrays are work space of length n.
+ * @example qrSolve(n, fjac, m, ipvt, d, qtf, step, sdiag, work)
  */
 export function qrSolve(n: number, r: Float64Array, ld: number, ipvt: Int32Array, diag: Float64Array, qtb: Float64Array, x: Float64Array, sdiag: Float64Array, wa: Float64Array): void {
   for (let j = 0; j < n; j++) {
@@ -71,6 +73,8 @@ export function qrSolve(n: number, r: Float64Array, ld: number, ipvt: Int32Array
  *
  * Method: MINPACK `lmpar` (J. J. Moré, "The Levenberg–Marquardt algorithm: implementation and
  * theory", Numerical Analysis, Lecture Notes in Mathematics 630, Springer 1978, pp. 105–116).
+ * Internal to {@link levenbergMarquardt}; units are those of the scaled step D·x.
+ * @example par = lmParameter(n, fjac, m, ipvt, diag, qtf, delta, par, step, sdiag, w1, w2)
  */
 export function lmParameter(n: number, r: Float64Array, ld: number, ipvt: Int32Array, diag: Float64Array, qtb: Float64Array, delta: number, parIn: number, x: Float64Array, sdiag: Float64Array, wa1: Float64Array, wa2: Float64Array): number {
   let par = parIn;

@@ -15,6 +15,7 @@ export interface CompiledModel {
   gradient(p: ArrayLike<number>, x: ArrayLike<number>, cov: ArrayLike<number>[], out: Float64Array): void;
 }
 
+/** The compiled model, or why the expression cannot be used. */
 export type CompileResult = { ok: true; model: CompiledModel } | { ok: false; reason: string };
 
 const CONSTANTS: Record<string, string> = { pi: 'Math.PI', PI: 'Math.PI', e: 'Math.E', E: 'Math.E', tau: '(2*Math.PI)' };
@@ -98,7 +99,13 @@ function canGenerateCode(): boolean {
 
 const BINARY: Record<string, string> = { add: '+', subtract: '-', multiply: '*', divide: '/' };
 
-/** 1-based position of the first whole-word occurrence of `name` in `text`, or 0. */
+/**
+ * 1-based character position of the first whole-word occurrence of a symbol in an expression.
+ * @param text - the expression
+ * @param name - the symbol
+ * @returns the position, or 0 when absent
+ * @example symbolPosition('b1*x + offset', 'offset') // 8
+ */
 export function symbolPosition(text: string, name: string): number {
   const re = new RegExp(`(^|[^A-Za-z0-9_.])(${name.replace(/[$]/g, '\\$')})(?![A-Za-z0-9_])`);
   const m = re.exec(text);

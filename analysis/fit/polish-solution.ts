@@ -14,6 +14,7 @@ import type { Problem } from './prepare-problem';
  * @param problem - the prepared problem
  * @param p - converged parameters (not modified)
  * @returns the polished parameters (p itself when no extended evaluation is possible or no step helps)
+ * @example sol.p = polishSolution(problem, sol.p)
  */
 export function polishSolution(problem: Problem, p: Float64Array): Float64Array {
   const { x, y, sw, cov, compiled, parameters, expression } = problem;

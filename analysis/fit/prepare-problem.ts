@@ -27,7 +27,11 @@ export interface Problem {
 
 const cache = new Map<string, CompileResult>();
 
-/** Compiles once per (expression, parameters, covariates); mathjs derivation is the slow part. */
+/**
+ * {@link compileModel} memoised per (expression, parameters, covariates): symbolic differentiation
+ * is the slow part, and predictions and bootstraps recompile the same model.
+ * @example compileCached('a*exp(-k*x)', ['a', 'k'], [])
+ */
 export function compileCached(expression: string, parameters: string[] | undefined, covariates: string[]): CompileResult {
   const key = `${expression}\u0000${parameters?.join(',') ?? '*'}\u0000${covariates.join(',')}`;
   let hit = cache.get(key);
@@ -60,6 +64,9 @@ const isFailure = (v: unknown): v is FitFailure => typeof v === 'object' && v !=
 /**
  * Validates a {@link FitInput} and builds the {@link Problem}. Never throws: anything malformed gives
  * `{ ok: false, code, reason }` naming the offending field, index or symbol.
+ * @param input - see {@link FitInput}
+ * @returns the problem or the failure
+ * @example prepareProblem({ x, y, model: 'coil', covariates: { Tin } })
  */
 export function prepareProblem(input: FitInput): { ok: true; problem: Problem } | FitFailure {
   if (typeof input !== 'object' || input === null) return fail('invalid-input', 'the fit input must be an object');
@@ -113,6 +120,9 @@ export function prepareProblem(input: FitInput): { ok: true; problem: Problem } 
   const compiled = compileCached(expression, builtin ? builtin.parameters : startNames, Object.keys(covariates));
   if (!compiled.ok) return fail('invalid-expression', compiled.reason);
   const model = compiled.model;
+  if (!builtin && !/(^|[^A-Za-z0-9_.])x(?![A-Za-z0-9_])/.test(expression) && model.covariates.length === 0) {
+    return fail('invalid-expression', `model "${input.model}" is neither a built-in (${Object.keys(BUILTIN_MODELS).join(', ')}) nor an expression in x`);
+  }
   let userStart: number[] | null = null;
   let startOverrides: (number | null)[] | null = null;
   if (startNames) {

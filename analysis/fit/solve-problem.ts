@@ -27,6 +27,10 @@ const MAX_RESTARTS = 3;
  * @param problem - the prepared problem
  * @param y - responses to fit (the problem's own, or a bootstrap resample)
  * @param start - starting parameters
+ * @param options - LM tolerances (default {@link SOLVER_OPTIONS})
+ * @param restarts - how many times to restart from the end point (default 3; the bootstrap uses 0)
+ * @returns the solution (converged false when LM did not)
+ * @example solveFrom(problem, problem.y, [90, 500])
  */
 export function solveFrom(problem: Problem, y: Float64Array, start: ArrayLike<number>, options: LmOptions = SOLVER_OPTIONS, restarts = MAX_RESTARTS): Solution {
   const { compiled, x, cov, sw } = problem;
@@ -96,6 +100,10 @@ function genericStarts(n: number, count: number): number[][] {
  * Solves a prepared problem: polynomials by QR; otherwise LM from the user's start, or from the
  * built-in rule's best candidates, or (an expression without start values) from a seeded multi-start,
  * keeping the lowest sum of squares among converged runs.
+ * @param problem - the prepared problem
+ * @param y - responses (default the problem's own)
+ * @returns the best solution found
+ * @example solveProblem(problem).p
  */
 export function solveProblem(problem: Problem, y: Float64Array = problem.y): Solution {
   const degree = problem.builtin?.polynomialDegree;

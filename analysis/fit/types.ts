@@ -24,6 +24,7 @@ export interface FitInput {
   level?: number;
 }
 
+/** When two x values count as the same setting (replicates). */
 export interface ReplicateTolerance {
   /** x values within this fraction of their magnitude agree (default 0.02) */
   relative?: number;
@@ -31,6 +32,7 @@ export interface ReplicateTolerance {
   absolute?: number;
 }
 
+/** Why a fit could not be done. */
 export type FitFailureCode =
   | 'invalid-input'
   | 'invalid-expression'
@@ -40,12 +42,14 @@ export type FitFailureCode =
   | 'no-convergence'
   | 'bad-start';
 
+/** A fit that cannot be done: the code for programs, the reason in plain words for people. */
 export interface FitFailure {
   ok: false;
   code: FitFailureCode;
   reason: string;
 }
 
+/** One fitted parameter (units of the parameter, e.g. W/K for UA). */
 export interface ParameterEstimate {
   value: number;
   stdErr: number;
@@ -60,11 +64,13 @@ export interface ParameterEstimate {
   atBound: 'lower' | 'upper' | null;
 }
 
+/** Something a reviewer should look at; the fit itself succeeded. */
 export interface FitWarning {
   code: 'at-bound' | 'high-correlation' | 'ill-conditioned' | 'extrapolation' | 'exact-fit' | 'default-property' | 'unphysical' | 'auto-start' | 'numeric-jacobian';
   message: string;
 }
 
+/** A prediction with its confidence (mean) and prediction (new observation) intervals, units of y. */
 export interface BandPoint {
   x: number;
   y: number;
@@ -79,6 +85,7 @@ export interface BandPoint {
   extrapolated: boolean;
 }
 
+/** Points at one x setting (see groupReplicates). */
 export interface ReplicateGroup {
   /** indices of the points in the group */
   indices: number[];
@@ -89,6 +96,7 @@ export interface ReplicateGroup {
   ySD: number | null;
 }
 
+/** Pure-error lack-of-fit F test (see lackOfFit). */
 export interface LackOfFitResult {
   ok: true;
   /** number of distinct x groups */
@@ -121,6 +129,7 @@ export interface FitSpec {
   predictionVarianceFactor: number;
 }
 
+/** Everything a successful fit reports (JSON-serialisable; no NaN or Infinity). */
 export interface FitSuccess {
   ok: true;
   model: string;
@@ -160,6 +169,8 @@ export interface FitSuccess {
   studentizedResiduals: (number | null)[];
   leverage: number[];
   cooksDistance: (number | null)[];
+  /** DFFITS = studentized residual · √(h/(1 − h)) (Belsley, Kuh & Welsch 1980); |DFFITS| > 2√(p/n) is influential */
+  dffits: (number | null)[];
   flags: { highLeverage: number[]; influential: number[]; outliers: number[] };
   band: BandPoint[];
   iterations: number;
@@ -177,4 +188,5 @@ export interface FitSuccess {
   spec: FitSpec;
 }
 
+/** What fitModel returns. */
 export type FitResult = FitSuccess | FitFailure;

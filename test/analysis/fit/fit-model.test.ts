@@ -270,3 +270,16 @@ describe('runsTest (NIST/SEMATECH e-Handbook §1.3.5.13)', () => {
     expect(runsTest([1, 2, 3], [1, 1, -1])).toBe(null);
   });
 });
+
+describe('model names', () => {
+  test('a misspelt built-in is not silently fitted as a constant', () => {
+    const r = fitModel({ x: lx, y: ly, model: 'coli' });
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.reason).toMatch(/neither a built-in .*coil.* nor an expression in x/);
+  });
+
+  test('DFFITS follows its definition t·√(h/(1 − h))', () => {
+    const f = mustFit(fitModel({ x: lx, y: ly, model: 'poly1' }));
+    f.dffits.forEach((d, i) => expect(d).toBeCloseTo((f.studentizedResiduals[i] as number) * Math.sqrt(f.leverage[i] / (1 - f.leverage[i])), 12));
+  });
+});
