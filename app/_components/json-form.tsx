@@ -1,7 +1,7 @@
 'use client';
 
 import { useRouter } from 'next/navigation';
-import { useId, useState, type ReactNode } from 'react';
+import { useEffect, useId, useState, type ReactNode } from 'react';
 import { api, ApiError } from './api';
 
 export interface Field {
@@ -43,6 +43,10 @@ export function JsonForm({
   const [fieldErrors, setFieldErrors] = useState<Record<string, string>>({});
   const [done, setDone] = useState<string | null>(null);
   const [result, setResult] = useState<Record<string, unknown> | null>(null);
+  // Until React has hydrated, the button stays disabled: a native submit must never put a
+  // password into the URL.
+  const [ready, setReady] = useState(false);
+  useEffect(() => setReady(true), []);
 
   async function submit(e: React.FormEvent<HTMLFormElement>) {
     e.preventDefault();
@@ -73,7 +77,7 @@ export function JsonForm({
   }
 
   return (
-    <form onSubmit={submit} className={`space-y-4 ${className}`} noValidate aria-describedby={error ? `${id}-error` : undefined}>
+    <form method="post" onSubmit={submit} className={`space-y-4 ${className}`} noValidate aria-describedby={error ? `${id}-error` : undefined}>
       {fields.map((f) =>
         f.type === 'hidden' ? (
           <input key={f.name} type="hidden" name={f.name} value={f.value ?? ''} />
@@ -126,7 +130,7 @@ export function JsonForm({
           {done}
         </p>
       ) : null}
-      <button type="submit" className="btn-primary" disabled={busy}>
+      <button type="submit" className="btn-primary" disabled={busy || !ready}>
         {busy ? 'Working…' : submitLabel}
       </button>
       {children?.(result)}

@@ -6,7 +6,7 @@ import { audit } from './audit';
 import { HttpError, badRequest } from './errors';
 import { linkBase, sendMail } from './mail';
 import { dummyHash, hashPassword, passwordProblem, verifyPassword } from './passwords';
-import { enforceLimits } from './rate-limit';
+import { checkLimit, enforceLimits, hitLimit } from './rate-limit';
 import type { signUpInput } from './schemas';
 import { newSecret, sha256 } from './tokens';
 
@@ -44,14 +44,16 @@ export async function signUp(em: EntityManager, input: z.infer<typeof signUpInpu
  * take the same time. Limited per address and per account.
  */
 export async function signIn(em: EntityManager, emailAddr: string, password: string, ip: string): Promise<UserRow> {
-  await enforceLimits(em, [
-    { key: `sign-in:ip:${ip}`, max: 30, windowS: 900 },
-    { key: `sign-in:account:${emailAddr}`, max: 10, windowS: 900 },
-  ]);
+  // Every attempt counts against the address; only failures count against the account, so that
+  // successful sign-ins never lock a person out.
+  const accountLimit = { key: `sign-in:account:${emailAddr}`, max: 10, windowS: 900 };
+  await enforceLimits(em, [{ key: `sign-in:ip:${ip}`, max: 30, windowS: 900 }]);
+  await checkLimit(em, accountLimit);
   const user = await em.findOne(User, { email: emailAddr });
   const ok = user ? await verifyPassword(user.passwordHash, password) : (await verifyPassword(await dummyHash(), password), false);
   if (!user || !ok) {
     await audit(em, { kind: 'sign-in-failed', actor: user ?? null, subject: emailAddr, ip });
+    await hitLimit(em, accountLimit);
     throw new HttpError(401, 'bad_credentials', WRONG);
   }
   await audit(em, { kind: 'sign-in', actor: user, subject: emailAddr, ip });

@@ -31,6 +31,8 @@ export interface RouteContext<P> {
   actor: Actor | null;
   ip: string;
   secure: boolean;
+  /** The origin the browser used, for links in e-mail. */
+  origin: string;
   /** The membership checked by `labAction`, when the route has one. */
   member?: Member;
   /** Reads and validates the JSON body (size-limited before parsing). */
@@ -56,12 +58,14 @@ export interface RouteOptions {
 const STATE_CHANGING = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
 
 export function clientIp(req: NextRequest): string {
+  // The hop added by our own load balancer is the last one; earlier hops are the client's word.
   const fwd = req.headers.get('x-forwarded-for');
-  if (config.trustProxy && fwd) return fwd.split(',')[0].trim();
+  if (config.trustProxy && fwd) return fwd.split(',').at(-1)!.trim();
   return req.headers.get('x-real-ip') ?? '';
 }
 
-function expectedOrigin(req: NextRequest): string {
+/** The origin the browser used (APP_URL when set): for the same-origin check and links in e-mail. */
+export function publicOrigin(req: NextRequest): string {
   if (config.appUrl) return new URL(config.appUrl).origin;
   const host = req.headers.get('x-forwarded-host') ?? req.headers.get('host') ?? '';
   const proto = req.headers.get('x-forwarded-proto') ?? new URL(req.url).protocol.replace(':', '');
@@ -72,7 +76,7 @@ function expectedOrigin(req: NextRequest): string {
 function checkOrigin(req: NextRequest) {
   const origin = req.headers.get('origin');
   if (origin) {
-    if (origin !== expectedOrigin(req)) throw new HttpError(403, 'cross_origin', 'Requests from another site are refused.');
+    if (origin !== publicOrigin(req)) throw new HttpError(403, 'cross_origin', 'Requests from another site are refused.');
     return;
   }
   const site = req.headers.get('sec-fetch-site');
@@ -141,6 +145,7 @@ export function route<P extends Record<string, string> = Record<string, never>>(
         actor,
         ip: clientIp(req),
         secure,
+        origin: publicOrigin(req),
         async json(schema) {
           const text = await readLimited(req, max);
           let body: unknown;

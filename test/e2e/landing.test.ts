@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import { baseUrl, openBrowser, screenshot } from './support/browser';
+import { openBrowser, screenshot, visit } from './support/browser';
 
 describe('landing page in Chromium', () => {
   let b: Awaited<ReturnType<typeof openBrowser>>;
@@ -9,12 +9,13 @@ describe('landing page in Chromium', () => {
   afterAll(async () => b?.close());
 
   test('says what Emberline does, shows a sample plot and the work areas, with landmarks', async () => {
-    const res = await b.page.goto(baseUrl + '/');
+    const res = await visit(b.page, '/');
     expect(res?.status()).toBe(200);
     await expect(b.page.locator('h1').innerText()).resolves.toMatch(/heater models you can trust/);
     expect(await b.page.locator('main#main').count()).toBe(1);
     expect(await b.page.locator('header').count()).toBeGreaterThan(0);
     const nav = b.page.getByRole('navigation', { name: 'Work areas' });
+    await nav.waitFor();
     for (const area of ['Rigs', 'Trials', 'Fits', 'Forecasts', 'Studies']) {
       expect(await nav.getByRole('link', { name: area, exact: true }).count()).toBe(1);
     }
@@ -30,7 +31,7 @@ describe('landing page in Chromium', () => {
   test('works on a phone-sized screen without sideways scrolling', async () => {
     const phone = await openBrowser({ viewport: { width: 390, height: 844 } });
     try {
-      await phone.page.goto(baseUrl + '/');
+      await visit(phone.page, '/');
       const overflow = await phone.page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
       expect(overflow).toBeLessThanOrEqual(0);
       await screenshot(phone.page, 'landing-phone');

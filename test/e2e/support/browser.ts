@@ -50,3 +50,10 @@ export async function screenshot(page: Page, name: string): Promise<string> {
   await page.screenshot({ path: file, fullPage: true });
   return file;
 }
+
+/** Opens a page and waits until its streamed content (the <main> landmark) has arrived. */
+export async function visit(page: Page, url: string) {
+  const res = await page.goto(url.startsWith('http') ? url : baseUrl + url);
+  await page.locator('main#main').first().waitFor();
+  return res;
+}

@@ -1,0 +1,216 @@
+/**
+ * The authorization matrix: every API route and server action, called by each role of the demo
+ * lab, an anonymous caller, a member of another lab and (where it applies) an API token. The
+ * route files are enumerated from app/api, so a new route without an entry here fails the suite.
+ * Mutating cases send bodies that pass authorization but change nothing (or nothing that matters).
+ */
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import path from 'node:path';
+import { createHash } from 'node:crypto';
+import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { Client, STRONG_PASSWORD, signedIn, uniqueEmail } from './support/client';
+
+const root = path.resolve(__dirname, '..', '..');
+const ROLES = ['owner', 'engineer', 'reviewer', 'viewer'] as const;
+type Caller = 'anon' | (typeof ROLES)[number] | 'outsider' | 'token';
+
+interface Fixture {
+  labId: string;
+  rigId: string;
+  ownerMemberId: string;
+}
+
+interface Case {
+  method: string;
+  url: (f: Fixture) => string;
+  body?: (f: Fixture) => unknown;
+  /** Sign in afresh for this case (it ends sessions). */
+  fresh?: boolean;
+  expect: Partial<Record<Caller, number>> & Record<'anon' | 'owner' | 'engineer' | 'reviewer' | 'viewer' | 'outsider', number>;
+}
+
+const all = (status: number) => ({ anon: status, owner: status, engineer: status, reviewer: status, viewer: status, outsider: status });
+const members = (status: number, anon = 401, outsider = 404) => ({ anon, owner: status, engineer: status, reviewer: status, viewer: status, outsider });
+const uuid0 = '00000000-0000-4000-8000-000000000000';
+
+const MATRIX: Record<string, Case[]> = {
+  'app/api/health/route.ts': [{ method: 'GET', url: () => '/api/health', expect: { ...all(200), token: 200 } }],
+  'app/api/auth/sign-up/route.ts': [{ method: 'POST', url: () => '/api/auth/sign-up', body: () => ({ email: 'not-an-address' }), expect: all(422) }],
+  'app/api/auth/sign-in/route.ts': [{ method: 'POST', url: () => '/api/auth/sign-in', body: () => ({ email: 'nobody' }), expect: all(422) }],
+  'app/api/auth/forgot-password/route.ts': [
+    { method: 'POST', url: () => '/api/auth/forgot-password', body: () => ({ email: uniqueEmail('forgot') }), expect: all(200) },
+  ],
+  'app/api/auth/reset-password/route.ts': [
+    { method: 'POST', url: () => '/api/auth/reset-password', body: () => ({ token: 'rst_not-a-real-token', password: STRONG_PASSWORD }), expect: all(410) },
+  ],
+  'app/api/auth/password/route.ts': [
+    {
+      method: 'POST',
+      url: () => '/api/auth/password',
+      body: () => ({ currentPassword: 'not the password at all', newPassword: STRONG_PASSWORD }),
+      expect: { ...members(422, 401, 422), token: 403 },
+    },
+  ],
+  'app/api/auth/sign-out/route.ts': [{ method: 'POST', url: () => '/api/auth/sign-out', fresh: true, expect: { ...members(200, 401, 200), token: 403 } }],
+  'app/api/auth/sign-out-everywhere/route.ts': [
+    { method: 'POST', url: () => '/api/auth/sign-out-everywhere', fresh: true, expect: { ...members(200, 401, 200), token: 403 } },
+  ],
+  'app/api/me/route.ts': [
+    { method: 'GET', url: () => '/api/me', expect: { ...members(200, 401, 200), token: 200 } },
+    { method: 'PATCH', url: () => '/api/me', body: () => ({ unitSystem: 'si' }), expect: { ...members(200, 401, 200), token: 403 } },
+  ],
+  'app/api/labs/route.ts': [
+    { method: 'GET', url: () => '/api/labs', expect: { ...members(200, 401, 200), token: 200 } },
+    { method: 'POST', url: () => '/api/labs', body: () => ({ name: '' }), expect: { ...members(422, 401, 422), token: 403 } },
+  ],
+  'app/api/labs/current/route.ts': [
+    { method: 'POST', url: () => '/api/labs/current', body: (f) => ({ labId: f.labId }), expect: { ...members(200), token: 403 } },
+  ],
+  'app/api/labs/[labId]/members/route.ts': [{ method: 'GET', url: (f) => `/api/labs/${f.labId}/members`, expect: { ...members(200), token: 200 } }],
+  'app/api/labs/[labId]/members/[memberId]/route.ts': [
+    {
+      method: 'PATCH',
+      url: (f) => `/api/labs/${f.labId}/members/${f.ownerMemberId}`,
+      body: () => ({ role: 'owner' }),
+      expect: { anon: 401, owner: 200, engineer: 403, reviewer: 403, viewer: 403, outsider: 404, token: 403 },
+    },
+    {
+      // The demo lab's only owner: the owner passes authorization and is stopped by the last-owner rule.
+      method: 'DELETE',
+      url: (f) => `/api/labs/${f.labId}/members/${f.ownerMemberId}`,
+      expect: { anon: 401, owner: 409, engineer: 403, reviewer: 403, viewer: 403, outsider: 404, token: 403 },
+    },
+  ],
+  'app/api/labs/[labId]/invitations/route.ts': [
+    { method: 'GET', url: (f) => `/api/labs/${f.labId}/invitations`, expect: { anon: 401, owner: 200, engineer: 403, reviewer: 403, viewer: 403, outsider: 404, token: 403 } },
+    {
+      method: 'POST',
+      url: (f) => `/api/labs/${f.labId}/invitations`,
+      body: () => ({ email: 'not-an-address', role: 'viewer' }),
+      expect: { anon: 401, owner: 422, engineer: 403, reviewer: 403, viewer: 403, outsider: 404, token: 403 },
+    },
+  ],
+  'app/api/invitations/[token]/route.ts': [
+    { method: 'POST', url: () => '/api/invitations/inv_not-a-real-token', expect: { ...members(410, 401, 410), token: 403 } },
+  ],
+  'app/api/labs/[labId]/audit/route.ts': [
+    { method: 'GET', url: (f) => `/api/labs/${f.labId}/audit`, expect: { anon: 401, owner: 200, engineer: 403, reviewer: 403, viewer: 403, outsider: 404, token: 403 } },
+  ],
+  'app/api/labs/[labId]/mail/route.ts': [
+    { method: 'GET', url: (f) => `/api/labs/${f.labId}/mail`, expect: { anon: 401, owner: 200, engineer: 403, reviewer: 403, viewer: 403, outsider: 404, token: 403 } },
+  ],
+  'app/api/labs/[labId]/rigs/route.ts': [{ method: 'GET', url: (f) => `/api/labs/${f.labId}/rigs`, expect: { ...members(200), token: 200 } }],
+  'app/api/rigs/[rigId]/route.ts': [{ method: 'GET', url: (f) => `/api/rigs/${f.rigId}`, expect: { ...members(200), token: 200 } }],
+  'app/api/tokens/route.ts': [
+    { method: 'GET', url: () => '/api/tokens', expect: { ...members(200, 401, 200), token: 403 } },
+    {
+      method: 'POST',
+      url: () => '/api/tokens',
+      body: (f) => ({ name: 'matrix check', labId: f.labId }),
+      expect: { anon: 401, owner: 201, engineer: 201, reviewer: 403, viewer: 403, outsider: 404, token: 403 },
+    },
+  ],
+  'app/api/tokens/[tokenId]/route.ts': [{ method: 'DELETE', url: () => `/api/tokens/${uuid0}`, expect: { ...members(404, 401, 404), token: 403 } }],
+};
+
+/** Server actions ('use server' files) and the cases that cover them; there are none yet. */
+const SERVER_ACTIONS: Record<string, string[]> = {};
+
+function walk(dir: string, out: string[] = []): string[] {
+  for (const e of readdirSync(dir)) {
+    const p = path.join(dir, e);
+    if (statSync(p).isDirectory()) walk(p, out);
+    else out.push(p);
+  }
+  return out;
+}
+
+const routeFiles = walk(path.join(root, 'app', 'api')).filter((f) => f.endsWith('route.ts'));
+const methodsOf = (file: string) => [...readFileSync(file, 'utf8').matchAll(/export (?:const|async function|function) (GET|POST|PUT|PATCH|DELETE)\b/g)].map((m) => m[1]);
+
+describe('every route and server action has an entry in the matrix', () => {
+  test.each(routeFiles.map((f) => [path.relative(root, f)]))('%s', (rel) => {
+    const methods = methodsOf(path.join(root, rel)).sort();
+    expect(MATRIX[rel], `add ${rel} to the authorization matrix`).toBeDefined();
+    expect([...new Set(MATRIX[rel].map((c) => c.method))].sort()).toEqual(methods);
+  });
+  test('no matrix entry names a route that no longer exists', () => {
+    const rels = new Set(routeFiles.map((f) => path.relative(root, f)));
+    expect(Object.keys(MATRIX).filter((k) => !rels.has(k))).toEqual([]);
+  });
+  test('server actions are listed too', () => {
+    const files = walk(path.join(root, 'app')).filter((f) => /\.(ts|tsx)$/.test(f) && /^['"]use server['"]/m.test(readFileSync(f, 'utf8')));
+    expect(files.map((f) => path.relative(root, f)).filter((f) => !SERVER_ACTIONS[f])).toEqual([]);
+  });
+});
+
+describe('authorization matrix', () => {
+  const emails: Record<(typeof ROLES)[number], string> = {
+    owner: 'owner@cinder-hollow.test',
+    engineer: 'engineer@cinder-hollow.test',
+    reviewer: 'reviewer@cinder-hollow.test',
+    viewer: 'viewer@cinder-hollow.test',
+  };
+  const outsider = { email: uniqueEmail('outsider'), password: STRONG_PASSWORD };
+  const clients = new Map<Caller, Client>();
+  const bodies: string[] = [];
+  const secrets: string[] = [];
+  let fx: Fixture;
+
+  async function clientFor(who: Caller, fresh: boolean): Promise<Client> {
+    if (!fresh && clients.has(who)) return clients.get(who)!;
+    let c: Client;
+    if (who === 'anon') c = new Client();
+    else if (who === 'outsider') c = await signedIn(outsider.email, outsider.password);
+    else if (who === 'token') {
+      c = new Client();
+      c.origin = null; // scripts send no Origin
+      c.bearer = secrets[0];
+    } else c = await signedIn(emails[who]);
+    const session = c.cookies.get('emberline_session');
+    if (session) secrets.push(session);
+    if (!fresh) clients.set(who, c);
+    return c;
+  }
+
+  beforeAll(async () => {
+    const signup = await new Client().post('/api/auth/sign-up', { email: outsider.email, name: 'Outside Tester', password: outsider.password, labName: 'Elsewhere Bench' });
+    expect(signup.status).toBe(201);
+    const owner = await clientFor('owner', false);
+    const me = await owner.get('/api/me');
+    const lab = me.body.labs.find((l: { slug: string }) => l.slug === 'cinder-hollow');
+    const rigs = await owner.get(`/api/labs/${lab.id}/rigs`);
+    const mem = await owner.get(`/api/labs/${lab.id}/members`);
+    fx = { labId: lab.id, rigId: rigs.body.rigs[0].id, ownerMemberId: mem.body.members.find((m: { role: string }) => m.role === 'owner').id };
+    const engineer = await clientFor('engineer', false);
+    const tok = await engineer.post('/api/tokens', { name: 'matrix token', labId: fx.labId });
+    expect(tok.status).toBe(201);
+    secrets.unshift(tok.body.secret);
+  });
+
+  const cases = Object.entries(MATRIX).flatMap(([file, list]) =>
+    list.flatMap((c) => (Object.entries(c.expect) as [Caller, number][]).map(([who, status]) => ({ file, c, who, status }))),
+  );
+  // Cases that end sessions run last, each with a session of its own.
+  cases.sort((a, b) => Number(!!a.c.fresh) - Number(!!b.c.fresh));
+
+  test.each(cases.map((x) => [`${x.c.method} ${x.file.replace('app/api', '').replace('/route.ts', '') || '/'} as ${x.who} → ${x.status}`, x] as const))('%s', async (_name, x) => {
+    const client = await clientFor(x.who, !!x.c.fresh);
+    const r = await client.request(x.c.method, x.c.url(fx), x.c.body ? x.c.body(fx) : x.c.method === 'GET' ? undefined : {});
+    bodies.push(r.text);
+    expect(r.status, r.text.slice(0, 300)).toBe(x.status);
+  });
+
+  afterAll(() => {
+    // No JSON response ever carries a password hash, a token hash, a session cookie or a secret.
+    const forbidden = [
+      ...secrets.filter(Boolean),
+      ...secrets.filter(Boolean).map((s) => createHash('sha256').update(s).digest('hex')),
+      process.env.SESSION_SECRET ?? 'no-secret-set',
+    ];
+    const all = bodies.join('\n');
+    expect(all).not.toMatch(/\$argon2/);
+    expect(all).not.toMatch(/passwordHash|password_hash|tokenHash|token_hash/);
+    for (const s of forbidden) expect(all.includes(s), `a response contains a secret (${s.slice(0, 6)}…)`).toBe(false);
+  });
+});
