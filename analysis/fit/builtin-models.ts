@@ -19,6 +19,10 @@ export interface BuiltinModel {
   requiredCovariates: string[];
   /** covariates with a documented default used only when the input does not give them */
   defaultCovariates: Record<string, number>;
+  /** what the data must satisfy, in words, shown when the model cannot be evaluated */
+  requirement?: string;
+  /** every x must be > 0 (flows for the coil; the power law) */
+  positiveX?: boolean;
   /** polynomial degree when the model is linear in its parameters */
   polynomialDegree?: number;
   /** candidate starting points, best first (empty when no rule applies) */
@@ -124,6 +128,8 @@ export const BUILTIN_MODELS: Record<string, BuiltinModel> = {
     expression: 'Ts - (Ts - Tin) * exp(-UA / (rho * x * cp))',
     parameters: ['Ts', 'UA'],
     parameterUnits: { Ts: '°C', UA: 'W/K' },
+    requirement: 'the coil model needs every flow x > 0 (m³/s)',
+    positiveX: true,
     requiredCovariates: ['Tin'],
     defaultCovariates: { rho: DEFAULT_RHO_KG_PER_M3, cp: DEFAULT_CP_J_PER_KG_K },
     starts: coilStarts,
@@ -154,6 +160,8 @@ export const BUILTIN_MODELS: Record<string, BuiltinModel> = {
   power: {
     name: 'power',
     description: 'power law y = a·x^b (x > 0)',
+    requirement: 'the power law needs every x > 0',
+    positiveX: true,
     expression: 'a * x ^ b',
     parameters: ['a', 'b'],
     parameterUnits: { a: 'unit of y per (unit of x)^b', b: '1' },

@@ -45,13 +45,13 @@ export function fitModel(input: FitInput): FitResult {
     const problem = prep.problem;
     const sol = solveProblem(problem);
     if (!sol.converged) {
-      const evaluable = Number.isFinite(sol.rss);
+      const evaluable = Number.isFinite(sol.rss) && !sol.unevaluable;
       return {
         ok: false,
         code: evaluable ? 'no-convergence' : 'bad-start',
         reason: evaluable
           ? `the fit did not converge (${sol.reason} after ${sol.evaluations} evaluations); try other start values or a simpler model`
-          : `the model gives non-finite values at the starting values tried (${problem.parameters.join(', ')}); give start values where it can be evaluated`,
+          : `the model or its derivatives give non-finite values at the starting values tried (${problem.parameters.join(', ')})${problem.builtin?.requirement ? `; ${problem.builtin.requirement}` : ''}; give start values where it can be evaluated`,
       };
     }
     return summarise(problem, sol, input, level);
@@ -98,7 +98,7 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
   const t = studentTQuantile((1 + level) / 2, df);
   const warnings: FitWarning[] = [...problem.warnings];
 
-  const covariance = names.map((_, i) => names.map((__, j) => s2 * inverse[i * n + j]));
+  const covariance = names.map((_, i) => names.map((__, j) => (s2 === 0 ? 0 : s2 * inverse[i * n + j])));
   const se = names.map((_, j) => Math.sqrt(Math.max(0, covariance[j][j])));
   const correlation = names.map((_, i) => names.map((__, j) => (i === j ? 1 : se[i] > 0 && se[j] > 0 ? covariance[i][j] / (se[i] * se[j]) : 0)));
   const params: Record<string, ParameterEstimate> = {};
@@ -231,7 +231,30 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
     }
     if (from < xMin || to > xMax) warnings.push({ code: 'extrapolation', message: `the band runs outside the data range [${xMin}, ${xMax}]: predictions there are extrapolations` });
   }
+  const bad = firstNonFinite(result, 'result');
+  if (bad) {
+    return { ok: false, code: 'out-of-range', reason: `the statistics overflow or underflow double precision (${bad}); rescale x or y (for example to other units) and fit again` };
+  }
   return result;
+}
+
+/** Path of the first NaN or ±Infinity in a plain-data value, or null: NaN never leaves fitModel. */
+function firstNonFinite(v: unknown, path: string): string | null {
+  if (typeof v === 'number') return Number.isFinite(v) ? null : path;
+  if (Array.isArray(v)) {
+    for (let i = 0; i < v.length; i++) {
+      const r = firstNonFinite(v[i], `${path}[${i}]`);
+      if (r) return r;
+    }
+    return null;
+  }
+  if (v && typeof v === 'object') {
+    for (const [k, w] of Object.entries(v)) {
+      const r = firstNonFinite(w, `${path}.${k}`);
+      if (r) return r;
+    }
+  }
+  return null;
 }
 
 /** Physical sanity of the heater built-ins (DOMAIN.md §7 item 6). */

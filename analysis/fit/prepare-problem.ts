@@ -147,6 +147,10 @@ export function prepareProblem(input: FitInput): { ok: true; problem: Problem } 
       bounds[j] = [lo, hi];
     }
   }
+  if (builtin?.positiveX) {
+    const bad = x.findIndex((v) => !(v > 0));
+    if (bad >= 0) return fail('invalid-input', `x[${bad}] = ${x[bad]}: ${builtin.requirement}`);
+  }
   const n = x.length;
   const p = model.parameters.length;
   if (n <= p) return fail('too-few-points', `${n} point${n === 1 ? '' : 's'} cannot fit ${p} parameters with an uncertainty: at least ${p + 1} are needed`);

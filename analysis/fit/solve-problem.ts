@@ -15,11 +15,15 @@ export interface Solution {
   method: 'linear-qr' | 'levenberg-marquardt';
   /** how many starting points were tried */
   startsTried: number;
+  /** the model or its derivatives could not be evaluated at the start */
+  unevaluable: boolean;
 }
 
 /** Solver settings shared by every fit (no per-dataset tuning). */
 export const SOLVER_OPTIONS: LmOptions = { ftol: 1e-15, xtol: 1e-15, gtol: 0, factor: 100 };
 const MAX_RESTARTS = 3;
+/** most model evaluations × points spent on an automatic multi-start (well under a second of work) */
+const MULTI_START_BUDGET = 1e7;
 
 /**
  * Least squares from one start: Levenberg–Marquardt in the bounds-transformed space, restarted
@@ -74,7 +78,7 @@ export function solveFrom(problem: Problem, y: Float64Array, start: ArrayLike<nu
   u = res.p;
   const out = new Float64Array(n);
   t.toExternal(u, out);
-  return { p: out, rss: res.rss, iterations, evaluations, converged: res.converged && Number.isFinite(res.rss), reason: res.reason, method: 'levenberg-marquardt', startsTried: 1 };
+  return { p: out, rss: res.rss, iterations, evaluations, converged: res.converged && Number.isFinite(res.rss), reason: res.reason, method: 'levenberg-marquardt', startsTried: 1, unevaluable: res.info === 0 };
 }
 
 /** Exact weighted polynomial least squares by QR (no iterations). */
@@ -85,7 +89,7 @@ function solvePolynomial(problem: Problem, y: Float64Array, degree: number): Sol
   const wl = columnsLo.map((c) => c.map((v, i) => v * sw[i]));
   const r = linearLeastSquares(wc, y.map((v, i) => v * sw[i]), { columnsLo: wl });
   if (!r.ok) return null;
-  return { p: r.coefficients, rss: r.rss, iterations: 0, evaluations: 1, converged: true, reason: 'exact linear least-squares solution (QR)', method: 'linear-qr', startsTried: 0 };
+  return { p: r.coefficients, rss: r.rss, iterations: 0, evaluations: 1, converged: true, reason: 'exact linear least-squares solution (QR)', method: 'linear-qr', startsTried: 0, unevaluable: false };
 }
 
 /** Starting points for an expression without start values: ones, then seeded log-uniform draws. */
@@ -99,7 +103,8 @@ function genericStarts(n: number, count: number): number[][] {
 /**
  * Solves a prepared problem: polynomials by QR; otherwise LM from the user's start, or from the
  * built-in rule's best candidates, or (an expression without start values) from a seeded multi-start,
- * keeping the lowest sum of squares among converged runs.
+ * keeping the lowest sum of squares among converged runs; the multi-start stops early once the same
+ * minimum has been found four times or a work budget is spent.
  * @param problem - the prepared problem
  * @param y - responses (default the problem's own)
  * @returns the best solution found
@@ -125,14 +130,27 @@ export function solveProblem(problem: Problem, y: Float64Array = problem.y): Sol
   }
   else starts = genericStarts(problem.parameters.length, 24);
   if (starts.length === 0) starts = [new Array(problem.parameters.length).fill(1)];
+  const multiStart = !problem.userStart && !problem.builtin;
+  const m = problem.x.length;
   let best: Solution | null = null;
   let tried = 0;
+  let pointEvaluations = 0;
+  let agreeing = 0;
   for (const s of starts) {
     tried++;
-    const sol = solveFrom(problem, y, s);
+    // a multi-start runs each candidate once and restarts only the winner (below)
+    const sol = solveFrom(problem, y, s, SOLVER_OPTIONS, multiStart ? 0 : MAX_RESTARTS);
+    pointEvaluations += sol.evaluations * m;
+    if (sol.converged && best?.converged && Math.abs(sol.rss - best.rss) <= 1e-10 * best.rss) agreeing++;
     if (sol.converged && (!best || !best.converged || sol.rss < best.rss)) best = sol;
     else if (!best) best = sol;
     if (problem.builtin && best.converged && tried >= 2) break;
+    // enough: the same minimum found three more times, or the work budget spent (no hang on big data)
+    if (multiStart && best.converged && (agreeing >= 3 || pointEvaluations > MULTI_START_BUDGET)) break;
+  }
+  if (multiStart && best?.converged) {
+    const polished = solveFrom(problem, y, best.p);
+    if (polished.converged && polished.rss <= best.rss) best = { ...polished, iterations: best.iterations + polished.iterations, evaluations: best.evaluations + polished.evaluations };
   }
   return { ...(best as Solution), startsTried: tried };
 }

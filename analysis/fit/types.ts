@@ -40,7 +40,8 @@ export type FitFailureCode =
   | 'degenerate-x'
   | 'singular'
   | 'no-convergence'
-  | 'bad-start';
+  | 'bad-start'
+  | 'out-of-range';
 
 /** A fit that cannot be done: the code for programs, the reason in plain words for people. */
 export interface FitFailure {

@@ -86,6 +86,30 @@ describe('bad input never crashes, hangs or returns NaN', () => {
     expect(fitModel({ x: lx, y: ly, model: 'poly1', bounds: { zz: [0, 1] } })).toMatchObject({ ok: false, code: 'invalid-input' });
   });
 
+  test('values beyond what double precision can square give out-of-range, not NaN', () => {
+    expect(fitModel({ x: [1, 2, 3, 4, 5], y: [1e300, -1e300, 1e300, 2, 3], model: 'poly1' })).toMatchObject({ ok: false, code: 'out-of-range' });
+    expect(fitModel({ x: [1e-300, 2e-300, 3e-300], y: [1, 2, 3], model: 'poly1' })).toMatchObject({ ok: false, code: 'out-of-range' });
+  });
+
+  test('a division by zero at the start gives bad-start', () => {
+    expect(fitModel({ x: [1, 2, 3, 4, 5], y: [1, 2, 3, 4, 5], model: 'a/(b - x)', start: { a: 1, b: 3 } })).toMatchObject({ ok: false, code: 'bad-start' });
+  });
+
+  test('the power law and the coil refuse x ≤ 0 and say why', () => {
+    const r = fitModel({ x: [-1, 2, 3, 4], y: [1, 2, 3, 4], model: 'power' });
+    expect(r).toMatchObject({ ok: false, code: 'invalid-input' });
+    if (!r.ok) expect(r.reason).toMatch(/x\[0\] = -1.*x > 0/);
+    expect(fitModel({ x: [0, 1e-4, 2e-4], y: [50, 40, 30], model: 'coil', covariates: { Tin: [20, 20, 20] } })).toMatchObject({ ok: false, code: 'invalid-input' });
+  });
+
+  test('an automatic multi-start on 5,000 points ends (work budget) with a usable fit', () => {
+    const bx = Array.from({ length: 5000 }, (_, i) => i / 250);
+    const by = bx.map((v) => 2 * Math.sin(1.3 * v + 0.4) + 1);
+    const r = fitModel({ x: bx, y: by, model: 'a*sin(b*x+c)+d' });
+    expect(r.ok).toBe(true);
+    if (r.ok) expect(allFinite(r)).toBe(true);
+  });
+
   test('a successful fit holds no NaN or Infinity anywhere and survives JSON', () => {
     const fit = mustFit(fitModel({ x: lx, y: ly, model: 'poly2' }));
     expect(allFinite(fit)).toBe(true);
