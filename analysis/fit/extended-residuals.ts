@@ -1,4 +1,5 @@
 import { parse, type MathNode } from 'mathjs';
+import { ddAdd as add, ddDiv as div, ddExp as exp, ddLog as log, ddMul as mul, ddNeg as neg, ddPow as pow, ddPowInt as powInt, ddSqrt as sqrt, type Dd } from './double-double';
 
 /*
  * Residuals y − f(x; p) evaluated in double-double arithmetic (about 32 digits) for the final
@@ -9,103 +10,7 @@ import { parse, type MathNode } from 'mathjs';
  * evaluated in double precision on the rounded argument (so the result is never worse than double).
  */
 
-type Dd = [number, number];
-const SPLIT = 134217729;
 
-function twoSum(a: number, b: number): Dd {
-  const s = a + b;
-  const bb = s - a;
-  return [s, a - (s - bb) + (b - bb)];
-}
-function quickTwoSum(a: number, b: number): Dd {
-  const s = a + b;
-  return [s, b - (s - a)];
-}
-function twoProd(a: number, b: number): Dd {
-  const p = a * b;
-  let c = SPLIT * a;
-  const ah = c - (c - a);
-  const al = a - ah;
-  c = SPLIT * b;
-  const bh = c - (c - b);
-  const bl = b - bh;
-  return [p, ah * bh - p + ah * bl + al * bh + al * bl];
-}
-function add(a: Dd, b: Dd): Dd {
-  const s = twoSum(a[0], b[0]);
-  const t = twoSum(a[1], b[1]);
-  let r = quickTwoSum(s[0], s[1] + t[0]);
-  r = quickTwoSum(r[0], r[1] + t[1]);
-  return r;
-}
-function neg(a: Dd): Dd {
-  return [-a[0], -a[1]];
-}
-function mul(a: Dd, b: Dd): Dd {
-  const p = twoProd(a[0], b[0]);
-  return quickTwoSum(p[0], p[1] + (a[0] * b[1] + a[1] * b[0]));
-}
-function div(a: Dd, b: Dd): Dd {
-  const q1 = a[0] / b[0];
-  const r = add(a, neg(mul([q1, 0], b)));
-  const q2 = r[0] / b[0];
-  const r2 = add(r, neg(mul([q2, 0], b)));
-  const q3 = r2[0] / b[0];
-  return add(quickTwoSum(q1, q2), [q3, 0]);
-}
-const LN2: Dd = [0.6931471805599453, 2.3190468138462996e-17];
-/** 1/n as double-doubles, n = 0..9 */
-const INVERSE: Dd[] = Array.from({ length: 10 }, (_, n) => (n === 0 ? [0, 0] : div1(n)));
-function div1(n: number): Dd {
-  const q = 1 / n;
-  const p = twoProd(q, n); // q·n = 1 − e exactly
-  return quickTwoSum(q, (1 - p[0] - p[1]) / n);
-}
-function exp(a: Dd): Dd {
-  if (a[0] > 709.78) return [Infinity, 0];
-  if (a[0] < -745.2) return [0, 0];
-  const k = Math.round(a[0] / LN2[0]);
-  let r = add(a, neg(mul([k, 0], LN2)));
-  r = [r[0] / 1024, r[1] / 1024];
-  // s = e^r − 1 by Taylor series (|r| < 3.4e-4, so nine terms reach 1e-32), then
-  // (e^r − 1) → (e^{2r} − 1) = s(s + 2), ten times
-  let term: Dd = r;
-  let s: Dd = r;
-  for (let n = 2; n <= 9; n++) {
-    term = mul(term, mul(r, INVERSE[n]));
-    s = add(s, term);
-  }
-  for (let i = 0; i < 10; i++) s = mul(s, add(s, [2, 0]));
-  const one = add(s, [1, 0]);
-  const scale = 2 ** k;
-  return Number.isFinite(scale) ? [one[0] * scale, one[1] * scale] : [one[0] * 2 ** (k - 60) * 2 ** 60, 0];
-}
-function log(a: Dd): Dd {
-  if (!(a[0] > 0)) return [Math.log(a[0]), 0];
-  const y0 = Math.log(a[0]);
-  return add([y0, 0], add(mul(a, exp([-y0, 0])), [-1, 0]));
-}
-function sqrt(a: Dd): Dd {
-  if (!(a[0] > 0)) return [Math.sqrt(a[0]), 0];
-  const s0 = Math.sqrt(a[0]);
-  return add([s0, 0], div(add(a, neg(twoProd(s0, s0))), [2 * s0, 0]));
-}
-function powInt(a: Dd, k: number): Dd {
-  let result: Dd = [1, 0];
-  let base = a;
-  let e = Math.abs(k);
-  while (e > 0) {
-    if (e & 1) result = mul(result, base);
-    base = mul(base, base);
-    e >>= 1;
-  }
-  return k < 0 ? div([1, 0], result) : result;
-}
-function pow(a: Dd, b: Dd): Dd {
-  if (b[1] === 0 && Number.isInteger(b[0]) && Math.abs(b[0]) <= 64) return powInt(a, b[0]);
-  if (!(a[0] > 0)) return [Math.pow(a[0] + a[1], b[0] + b[1]), 0];
-  return exp(mul(b, log(a)));
-}
 const DOUBLE_FUNCTIONS: Record<string, (...v: number[]) => number> = {
   sin: Math.sin, cos: Math.cos, tan: Math.tan, asin: Math.asin, acos: Math.acos, atan: Math.atan, atan2: Math.atan2,
   sinh: Math.sinh, cosh: Math.cosh, tanh: Math.tanh, abs: Math.abs, sign: Math.sign, min: Math.min, max: Math.max,

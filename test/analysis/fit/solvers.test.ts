@@ -1,5 +1,6 @@
 import { describe, expect, test } from 'vitest';
 import { compileModel, levenbergMarquardt, linearLeastSquares, polynomialDesign } from '../../../analysis/fit';
+import { ddExp, ddLog, ddPow, ddSqrt } from '../../../analysis/fit/double-double';
 import { householderQr } from '../../../analysis/fit/householder-qr';
 import { singularValues } from '../../../analysis/fit/singular-values';
 import { compensatedSum } from '../../../analysis/stats/compensated-sum';
@@ -112,5 +113,21 @@ describe('compileModel without generated code', () => {
     a.model.gradient(p, x, cov, ga);
     b.model.gradient(p, x, cov, gb);
     for (let i = 0; i < 6; i++) expect(gb[i]).toBeCloseTo(ga[i], 12);
+  });
+});
+
+describe('double-double arithmetic', () => {
+  // reference digits computed with mpmath 1.3.0 at 60 digits (hi, lo = nearest doubles of the value and its remainder)
+  test.each([
+    ['e', () => ddExp([1, 0]), 2.718281828459045, 1.4456468917292502e-16],
+    ['ln 2', () => ddLog([2, 0]), 0.6931471805599453, 2.3190468138462996e-17],
+    ['√2', () => ddSqrt([2, 0]), 1.4142135623730951, -9.667293313452913e-17],
+    ['exp(−7.3)', () => ddExp([-7.3, 0]), 0.0006755387751938444, -2.9077504938462766e-20],
+    ['3^0.7', () => ddPow([3, 0], [0.7, 0]), 2.157669279974593, -1.2965239737890466e-16],
+    ['exp(1.15)', () => ddExp([1.15, 0]), 3.158192909689767, 1.662657093459028e-16],
+  ])('%s to about 30 digits', (_n, f, hi, lo) => {
+    const [h, l] = f();
+    expect(h).toBe(hi);
+    expect(Math.abs(l - lo)).toBeLessThan(1e-30 * Math.abs(hi));
   });
 });
