@@ -25,16 +25,16 @@ export function incompleteBeta(a: number, b: number, x: number, y: number = 1 - 
   if (y === 0) return { lower: 1, upper: 0 };
   const logFront = logGamma(a + b) - logGamma(a) - logGamma(b) + a * Math.log(x) + b * Math.log(y);
   if (x < (a + 1) / (a + b + 2)) {
-    const lower = Math.exp(logFront) * betaContinuedFraction(a, b, x, y) / a;
+    const lower = Math.exp(logFront) * betaContinuedFraction(a, b, x) / a;
     return { lower, upper: 1 - lower };
   }
-  const upper = Math.exp(logFront) * betaContinuedFraction(b, a, y, x) / b;
+  const upper = Math.exp(logFront) * betaContinuedFraction(b, a, y) / b;
   return { lower: 1 - upper, upper };
 }
 
 const TINY = 1e-300;
 
-function betaContinuedFraction(a: number, b: number, x: number, y: number): number {
+function betaContinuedFraction(a: number, b: number, x: number): number {
   const qab = a + b;
   const qap = a + 1;
   const qam = a - 1;
@@ -62,6 +62,5 @@ function betaContinuedFraction(a: number, b: number, x: number, y: number): numb
     h *= del;
     if (Math.abs(del - 1) < 1e-16) return h;
   }
-  void y;
   return h;
 }
