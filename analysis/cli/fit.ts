@@ -7,7 +7,7 @@ import { fitModel } from '../fit';
 import type { FitInput, FitSuccess } from '../fit';
 import { InputError } from './input-error';
 
-export const help = `fit: least-squares fit of a model to x/y data (NIST StRD-certified solver)
+export const help = `fit: least-squares fit of a model to x/y data (solver checked against NIST StRD)
 
 usage: npm run -s analysis -- fit < input.json
 
