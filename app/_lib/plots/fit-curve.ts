@@ -1,0 +1,215 @@
+/**
+ * Outlet temperature against flow: trials (excluded ones hollow), replicate means ± SD, one curve
+ * per model, the primary model's confidence and prediction bands, the tested flow range with the
+ * extrapolated region shaded, and reference lines for the inlet, scalding and boiling.
+ */
+import * as Plot from '@observablehq/plot';
+import { predictAt, type BandPoint, type FitSuccess } from '../../../analysis/fit';
+import { CAUTION_THRESHOLDS_C } from '../../../analysis/safety/cautions';
+import { baseOptions, COLORS, DASHES, MODEL_STROKES, type PlotFigure } from './theme';
+import { displayUnits, fmt, sentences, withUnit, type UnitSystem } from './units';
+
+/** One trial, SI: flow m³/s, outlet °C. */
+export interface FitCurveTrial {
+  flowM3PerS: number;
+  outletC: number;
+  /** left out of the fit (drawn hollow) */
+  excluded?: boolean;
+  /** shown in the point's tooltip, e.g. a trial number */
+  label?: string;
+}
+
+/** Replicate trials at one flow setting, SI (n ≥ 2 are drawn as mean ± SD). */
+export interface FitCurveReplicate {
+  flowM3PerS: number;
+  meanC: number;
+  /** sample standard deviation, K (null for a single trial) */
+  sdK: number | null;
+  n: number;
+}
+
+/** One fitted model's curve over the plotted flows (the first model is the primary one). */
+export interface FitCurveModel {
+  label: string;
+  /** predictions with intervals (units of the fit: m³/s, °C), increasing in flow */
+  points: BandPoint[];
+}
+
+/** Everything fitCurvePlot draws, SI. */
+export interface FitCurveInput {
+  trials: FitCurveTrial[];
+  replicates: FitCurveReplicate[];
+  /** primary first; its intervals are drawn as the bands */
+  models: FitCurveModel[];
+  /** [min, max] flow of the fitted trials, m³/s */
+  testedRange: [number, number];
+  /** inlet temperature, °C (null to omit the rule) */
+  inletC: number | null;
+  /** confidence level of the bands, e.g. 0.95 */
+  level: number;
+}
+
+/** Options of the adapter {@link fitCurveInputFromFits}. */
+export interface FitCurveFromFitsOptions {
+  /** trials left out of the fit, SI (drawn hollow) */
+  excluded?: { flowM3PerS: number; outletC: number; label?: string }[];
+  /** labels of the fitted trials, in the fit's point order */
+  labels?: string[];
+  /** inlet temperature for the curves and the rule, °C (default: the primary fit's mean Tin) */
+  inletC?: number;
+  /** flows to draw over, m³/s (default: the tested range widened by 10 % below and 25 % above) */
+  flowRange?: [number, number];
+  /** grid points per curve (default 121) */
+  points?: number;
+}
+
+/**
+ * Adapter from fitting results to {@link FitCurveInput}: curves and bands from `predictAt` over a
+ * grid wider than the tested range (so the extrapolated part shows), replicates from the fit.
+ * @param fits - successful fits to the same trials, primary first, each with a label
+ * @throws RangeError when no fit is given
+ * @example fitCurveInputFromFits([{ label: 'coil', fit }], { excluded })
+ */
+export function fitCurveInputFromFits(fits: { label: string; fit: FitSuccess }[], options: FitCurveFromFitsOptions = {}): FitCurveInput {
+  if (fits.length === 0) throw new RangeError('fitCurveInputFromFits: give at least one fit');
+  const primary = fits[0].fit;
+  const [lo, hi] = primary.xRange;
+  const span = hi - lo || Math.abs(hi) || 1;
+  const range = options.flowRange ?? [Math.max(lo - 0.1 * span, lo / 2), hi + 0.25 * span];
+  const m = Math.max(2, Math.round(options.points ?? 121));
+  const grid = Array.from({ length: m }, (_, i) => range[0] + ((range[1] - range[0]) * i) / (m - 1));
+  const tinMean = primary.spec.covariateMeans.Tin;
+  const inletC = options.inletC ?? (typeof tinMean === 'number' ? tinMean : null);
+  const models = fits.map(({ label, fit }) => ({ label, points: curveOf(fit, grid, inletC) }));
+  const trials: FitCurveTrial[] = primary.spec.x.map((x, i) => ({ flowM3PerS: x, outletC: primary.spec.y[i], label: options.labels?.[i] }));
+  for (const e of options.excluded ?? []) trials.push({ ...e, excluded: true });
+  const replicates = primary.replicates.map((g) => ({ flowM3PerS: g.xMean, meanC: g.yMean, sdK: g.ySD, n: g.n }));
+  return { trials, replicates, models, testedRange: [lo, hi], inletC, level: primary.level };
+}
+
+/** predictAt over the grid; where the model cannot be evaluated (e.g. x ≤ 0 for the coil), those points are left out. */
+function curveOf(fit: FitSuccess, grid: number[], inletC: number | null): BandPoint[] {
+  const needsTin = fit.spec.covariateNames.includes('Tin') && inletC !== null;
+  const at = (xs: number[]) => predictAt(fit, xs, needsTin ? { Tin: xs.map(() => inletC as number) } : {}, fit.level);
+  try {
+    return at(grid);
+  } catch {
+    return grid.flatMap((x) => {
+      try {
+        return at([x]);
+      } catch {
+        return [];
+      }
+    });
+  }
+}
+
+/** Boiling at 1 atm, °C (common practice; analysis uses the IF97 saturation temperature 99.97 °C). */
+const BOILING_C = 100;
+
+/**
+ * Outlet temperature against flow, in the user's units.
+ * @param input - see {@link FitCurveInput} (SI)
+ * @param units - 'si' or 'us'
+ * @returns options for Plot.plot / plotToSvg, a title and a summary for the figcaption
+ * @example plotToSvg(fitCurvePlot(fitCurveInputFromFits([{ label: 'coil', fit }]), 'us').options)
+ */
+export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { width?: number; height?: number } = {}): PlotFigure {
+  const u = displayUnits(units);
+  const F = u.flow.from;
+  const T = u.temp.from;
+  const primary = input.models[0];
+  const [lo, hi] = input.testedRange;
+
+  const band = (primary?.points ?? []).map((p) => ({ x: F(p.x), ci1: T(p.ciLow), ci2: T(p.ciHigh), pi1: T(p.piLow), pi2: T(p.piHigh) }));
+  const curves = input.models.map((m) => m.points.map((p) => ({ x: F(p.x), y: T(p.y) })));
+  const allX = [...input.trials.map((t) => t.flowM3PerS), ...input.models.flatMap((m) => m.points.map((p) => p.x)), lo, hi];
+  const xMin = Math.min(...allX);
+  const xMax = Math.max(...allX);
+  const temps = [
+    ...input.trials.map((t) => t.outletC),
+    ...input.replicates.flatMap((r) => (r.sdK === null ? [r.meanC] : [r.meanC - r.sdK, r.meanC + r.sdK])),
+    ...(primary?.points ?? []).flatMap((p) => [p.piLow, p.piHigh]),
+    ...input.models.slice(1).flatMap((m) => m.points.map((p) => p.y)),
+    ...(input.inletC !== null ? [input.inletC] : []),
+  ].filter(Number.isFinite);
+  let yLo = Math.min(...temps);
+  let yHi = Math.max(...temps);
+  // boiling shown whenever the data come within 15 K of it; scald lines whenever inside the range
+  if (yHi > BOILING_C - 15) yHi = Math.max(yHi, BOILING_C + 2);
+  const pad = 0.04 * (yHi - yLo || 1);
+  yLo -= pad;
+  yHi += pad;
+
+  const refs: { y: number; text: string; stroke: string; dash: string; kind: string }[] = [];
+  if (input.inletC !== null) refs.push({ y: input.inletC, text: `inlet ${withUnit(input.inletC, u.temp)}`, stroke: COLORS.water, dash: '4 4', kind: 'inlet' });
+  const safety = [
+    { c: CAUTION_THRESHOLDS_C.scald, text: 'scald risk above', stroke: COLORS.caution, kind: 'scald' },
+    { c: CAUTION_THRESHOLDS_C.scaldSeconds, text: 'burns in seconds above', stroke: COLORS.danger, kind: 'scald-seconds' },
+    { c: BOILING_C, text: 'boiling at', stroke: COLORS.danger, kind: 'boiling' },
+  ];
+  for (const s of safety) if (s.c >= yLo && s.c <= yHi) refs.push({ y: s.c, text: `${s.text} ${withUnit(s.c, u.temp)}`, stroke: s.stroke, dash: s.kind === 'boiling' ? 'none' : '6 3', kind: s.kind });
+  const refRows = refs.map((r) => ({ ...r, yd: T(r.y) }));
+
+  const extrap = [
+    ...(xMin < lo ? [{ x1: F(xMin), x2: F(lo), side: 'below' }] : []),
+    ...(xMax > hi ? [{ x1: F(hi), x2: F(xMax), side: 'above' }] : []),
+  ];
+  const included = input.trials.filter((t) => !t.excluded);
+  const excluded = input.trials.filter((t) => t.excluded);
+  const tip = (t: FitCurveTrial) => `${t.label ? `${t.label}: ` : ''}${withUnit(t.flowM3PerS, u.flow)}, ${withUnit(t.outletC, u.temp)}${t.excluded ? ' (excluded from the fit)' : ''}`;
+  const dots = (rows: FitCurveTrial[]) => rows.map((t) => ({ x: F(t.flowM3PerS), y: T(t.outletC), tip: tip(t) }));
+  const reps = input.replicates.filter((r) => r.n >= 2 && r.sdK !== null).map((r) => ({
+    x: F(r.flowM3PerS), y: T(r.meanC), y1: T(r.meanC - (r.sdK as number)), y2: T(r.meanC + (r.sdK as number)),
+    tip: `mean of ${r.n} replicates at ${withUnit(r.flowM3PerS, u.flow)}: ${withUnit(r.meanC, u.temp)} ± ${withUnit(r.sdK as number, u.tempDiff, 2)} (SD)`,
+  }));
+  const pct = `${fmt(input.level * 100, 2)} %`;
+
+  const marks: Plot.Markish[] = [
+    Plot.rect(extrap, { x1: 'x1', x2: 'x2', fill: COLORS.paperDeep, fillOpacity: 0.9, ariaDescription: 'extrapolated region' }),
+    Plot.text(extrap, { x: (d: { x1: number; x2: number }) => (d.x1 + d.x2) / 2, frameAnchor: 'bottom', dy: -6, text: () => 'extrapolated', fill: COLORS.inkMuted, ariaDescription: 'extrapolated label' }),
+    Plot.areaY(band, { x: 'x', y1: 'pi1', y2: 'pi2', fill: COLORS.heatPale, fillOpacity: 0.22, ariaDescription: `${pct} prediction band` }),
+    Plot.areaY(band, { x: 'x', y1: 'ci1', y2: 'ci2', fill: COLORS.heatLight, fillOpacity: 0.35, ariaDescription: `${pct} confidence band` }),
+    ...refRows.flatMap((r) => [
+      Plot.ruleY([r.yd], { stroke: r.stroke, strokeDasharray: r.dash, strokeWidth: 1.25, ariaDescription: `${r.kind} line` }),
+      Plot.text([r], {
+        y: 'yd', text: 'text', fill: r.stroke, dy: -7, ariaDescription: `${r.kind} label`,
+        ...(r.kind === 'inlet' ? { frameAnchor: 'right', textAnchor: 'end', dx: -4 } : { frameAnchor: 'left', textAnchor: 'start', dx: 4 }),
+      }),
+    ]),
+    ...curves.map((c, i) => Plot.lineY(c, {
+      x: 'x', y: 'y', stroke: MODEL_STROKES[i % MODEL_STROKES.length], strokeWidth: i === 0 ? 2.5 : 1.75,
+      strokeDasharray: DASHES[i % DASHES.length], ariaDescription: `model ${input.models[i].label}`,
+    })),
+    Plot.text(curves.map((c, i) => ({ ...c[c.length - 1], label: input.models[i].label, stroke: MODEL_STROKES[i % MODEL_STROKES.length] })).filter((d) => d.x !== undefined), {
+      x: 'x', y: 'y', text: 'label', fill: 'stroke', textAnchor: 'end', dy: -8, ariaDescription: 'model labels',
+    }),
+    Plot.ruleX(reps, { x: 'x', y1: 'y1', y2: 'y2', stroke: COLORS.ink, strokeWidth: 1.25, marker: 'tick', ariaDescription: 'replicate error bars' }),
+    Plot.dot(reps, { x: 'x', y: 'y', symbol: 'diamond', r: 4, fill: COLORS.paper, stroke: COLORS.ink, strokeWidth: 1.5, title: 'tip', ariaDescription: 'replicate means' }),
+    Plot.dot(dots(excluded), { x: 'x', y: 'y', r: 4.5, fill: 'none', stroke: COLORS.inkSoft, strokeWidth: 1.5, title: 'tip', ariaDescription: 'excluded trials' }),
+    Plot.dot(dots(included), { x: 'x', y: 'y', r: 4, fill: COLORS.point, stroke: 'white', strokeWidth: 1.25, title: 'tip', ariaDescription: 'trials' }),
+  ];
+
+  const title = `Outlet temperature against flow${primary ? ` — ${input.models.map((m) => m.label).join(', ')}` : ''}`;
+  const parts = [
+    `${included.length} trial${included.length === 1 ? '' : 's'} fitted${excluded.length ? `, ${excluded.length} excluded (hollow)` : ''}`,
+    `tested flows ${withUnit(lo, u.flow)} to ${withUnit(hi, u.flow)}${extrap.length ? '; beyond them the curves are extrapolated (shaded)' : ''}`,
+  ];
+  if (primary) parts.push(`${primary.label} curve with its ${pct} confidence band (mean) and prediction band (one new trial)`);
+  if (input.models.length > 1) parts.push(`also drawn: ${input.models.slice(1).map((m) => m.label).join(', ')} (dashed)`);
+  if (reps.length) parts.push(`${reps.length} replicate mean${reps.length === 1 ? '' : 's'} with ± 1 SD bars`);
+  const warn = refs.filter((r) => r.kind !== 'inlet').map((r) => r.text);
+  if (warn.length) parts.push(`safety lines: ${warn.join('; ')}`);
+  const summary = sentences(parts);
+
+  return {
+    title,
+    summary,
+    options: {
+      ...baseOptions({ ...size, ariaLabel: title, ariaDescription: summary }),
+      x: { label: `Flow (${u.flow.label}) →`, domain: [F(xMin), F(xMax)], grid: true, nice: false },
+      y: { label: `↑ Outlet temperature (${u.temp.label})`, domain: [T(yLo), T(yHi)], grid: true },
+      marks,
+    },
+  };
+}
