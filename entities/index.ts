@@ -9,10 +9,14 @@ import { RateLimit } from './rate-limit';
 import { Rig } from './rig';
 import { Session } from './session';
 import { Trial } from './trial';
+import { SourceFile } from './source-file';
+import { ColumnMapping } from './column-mapping';
+import { TrialChange } from './trial-change';
+import { SensorSample } from './sensor-sample';
 import { User } from './user';
 
-export { ApiToken, AuditEvent, Invitation, Lab, Membership, PasswordReset, RateLimit, Rig, Session, Trial, User };
-export const entities = [Lab, User, Membership, Rig, Trial, Session, Invitation, PasswordReset, ApiToken, AuditEvent, RateLimit];
+export { ColumnMapping, SensorSample, SourceFile, TrialChange, ApiToken, AuditEvent, Invitation, Lab, Membership, PasswordReset, RateLimit, Rig, Session, Trial, User };
+export const entities = [Lab, User, Membership, Rig, Trial, Session, Invitation, PasswordReset, ApiToken, AuditEvent, RateLimit, SourceFile, ColumnMapping, TrialChange, SensorSample];
 
 import type { InferEntity } from '@mikro-orm/core';
 /** Row types of the entities, for code that handles loaded records. */
@@ -26,3 +30,6 @@ export type InvitationRow = InferEntity<typeof Invitation>;
 export type PasswordResetRow = InferEntity<typeof PasswordReset>;
 export type ApiTokenRow = InferEntity<typeof ApiToken>;
 export type AuditEventRow = InferEntity<typeof AuditEvent>;
+export type SourceFileRow = InferEntity<typeof SourceFile>;
+export type ColumnMappingRow = InferEntity<typeof ColumnMapping>;
+export type TrialChangeRow = InferEntity<typeof TrialChange>;

@@ -2,6 +2,7 @@ import { defineEntity, p } from '@mikro-orm/core';
 import { baseProperties, num } from './base';
 import { Lab } from './lab';
 import { Rig } from './rig';
+import { SourceFile } from './source-file';
 
 /**
  * One steady trial of a rig: a flow and the inlet and outlet temperatures it produced.
@@ -30,5 +31,12 @@ export const Trial = defineEntity({
     isReference: p.boolean().default(false),
     excluded: p.boolean().default(false),
     notes: p.text().default(''),
+    /** How the trial came in: a row of a trial sheet, a steady segment of a sensor log, or typed at the rig. */
+    origin: p.enum(() => ['sheet', 'log-segment', 'manual', 'api', 'demo'] as const).default('manual').$type<'sheet' | 'log-segment' | 'manual' | 'api' | 'demo'>(),
+    sourceFile: () => p.manyToOne(SourceFile).nullable().deleteRule('set null'),
+    /** 1-based line of the source file (first line of the segment for logs). */
+    sourceLine: p.integer().nullable(),
+    /** Steady-state criteria and statistics used when the trial was cut from a log. */
+    segment: p.json<Record<string, unknown>>().nullable(),
   },
 });

@@ -16,7 +16,7 @@ export async function seedDemoLab(em: EntityManager): Promise<boolean> {
     }
     for (const plan of rigPlans) {
       const rig = tx.create(Rig, { lab, name: plan.name, heatSource: plan.heatSource, description: plan.description, details: plan.details });
-      for (const t of generateTrials(plan)) tx.create(Trial, { lab, rig, ...t });
+      for (const t of generateTrials(plan)) tx.create(Trial, { lab, rig, origin: 'demo', ...t });
     }
   });
   return true;

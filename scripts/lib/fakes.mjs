@@ -1,5 +1,5 @@
 // Local fakes of hosted services, started only when the production settings are absent:
-// an SMTP fake (unless SMTP_URL is set). Returns the environment the web server needs and a stop().
+// an SMTP fake (unless SMTP_URL is set) and an S3 fake (unless S3_ENDPOINT is set). Returns the environment the web server needs and a stop().
 import { spawn } from 'node:child_process';
 import { existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { randomBytes } from 'node:crypto';
@@ -52,6 +52,25 @@ export async function startFakes({ test = false } = {}) {
       step(`local SMTP fake on 127.0.0.1:${info.port} (messages in ${path.relative(root, dir)}/)`);
     } catch (e) {
       fail(`could not start the local SMTP fake: ${e.message}`);
+    }
+  }
+  if (!process.env.S3_ENDPOINT) {
+    const dir = path.join(root, '.data', test ? 's3-test' : 's3');
+    if (test) rmSync(dir, { recursive: true, force: true });
+    try {
+      const { child, info } = await startChild('s3-fake.mjs', { S3_FAKE_DIR: dir, S3_BUCKET: 'emberline' }, 'the S3 fake');
+      children.push(child);
+      Object.assign(env, {
+        S3_ENDPOINT: `http://127.0.0.1:${info.port}`,
+        S3_BUCKET: 'emberline',
+        S3_REGION: 'us-east-1',
+        S3_ACCESS_KEY_ID: 'S3RVER',
+        S3_SECRET_ACCESS_KEY: 'S3RVER',
+      });
+      step(`local S3 fake on 127.0.0.1:${info.port} (objects in ${path.relative(root, dir)}/)`);
+    } catch (e) {
+      for (const c of children) c.kill('SIGTERM');
+      fail(`could not start the local S3 fake: ${e.message}`);
     }
   }
   return {

@@ -17,6 +17,7 @@ type Caller = 'anon' | (typeof ROLES)[number] | 'outsider' | 'token';
 interface Fixture {
   labId: string;
   rigId: string;
+  trialId: string;
   ownerMemberId: string;
 }
 
@@ -31,6 +32,8 @@ interface Case {
 
 const all = (status: number) => ({ anon: status, owner: status, engineer: status, reviewer: status, viewer: status, outsider: status });
 const members = (status: number, anon = 401, outsider = 404) => ({ anon, owner: status, engineer: status, reviewer: status, viewer: status, outsider });
+/** Owners and engineers get `status`; reviewers and viewers 403; another lab's member 404. */
+const writers = (status: number) => ({ anon: 401, owner: status, engineer: status, reviewer: 403, viewer: 403, outsider: 404 });
 const uuid0 = '00000000-0000-4000-8000-000000000000';
 
 const MATRIX: Record<string, Case[]> = {
@@ -99,8 +102,25 @@ const MATRIX: Record<string, Case[]> = {
   'app/api/labs/[labId]/mail/route.ts': [
     { method: 'GET', url: (f) => `/api/labs/${f.labId}/mail`, expect: { anon: 401, owner: 200, engineer: 403, reviewer: 403, viewer: 403, outsider: 404, token: 403 } },
   ],
-  'app/api/labs/[labId]/rigs/route.ts': [{ method: 'GET', url: (f) => `/api/labs/${f.labId}/rigs`, expect: { ...members(200), token: 200 } }],
-  'app/api/rigs/[rigId]/route.ts': [{ method: 'GET', url: (f) => `/api/rigs/${f.rigId}`, expect: { ...members(200), token: 200 } }],
+  'app/api/labs/[labId]/rigs/route.ts': [
+    { method: 'GET', url: (f) => `/api/labs/${f.labId}/rigs`, expect: { ...members(200), token: 200 } },
+    { method: 'POST', url: (f) => `/api/labs/${f.labId}/rigs`, body: () => ({ name: '' }), expect: { ...writers(422), token: 422 } },
+  ],
+  'app/api/rigs/[rigId]/route.ts': [
+    { method: 'GET', url: (f) => `/api/rigs/${f.rigId}`, expect: { ...members(200), token: 200 } },
+    { method: 'PATCH', url: (f) => `/api/rigs/${f.rigId}`, body: () => ({}), expect: { ...writers(200), token: 200 } },
+  ],
+  'app/api/rigs/[rigId]/trials/route.ts': [
+    { method: 'GET', url: (f) => `/api/rigs/${f.rigId}/trials`, expect: { ...members(200), token: 200 } },
+    { method: 'POST', url: (f) => `/api/rigs/${f.rigId}/trials`, body: () => ({ inlet: 'warm', outlet: 'hot' }), expect: { ...writers(422), token: 422 } },
+  ],
+  'app/api/rigs/[rigId]/trials/bulk/route.ts': [
+    { method: 'POST', url: (f) => `/api/rigs/${f.rigId}/trials/bulk`, body: () => ({ ids: ['not-a-trial'], patch: {} }), expect: { ...writers(422), token: 422 } },
+  ],
+  'app/api/trials/[trialId]/route.ts': [
+    { method: 'GET', url: (f) => `/api/trials/${f.trialId}`, expect: { ...members(200), token: 200 } },
+    { method: 'PATCH', url: (f) => `/api/trials/${f.trialId}`, body: () => ({}), expect: { ...writers(200), token: 200 } },
+  ],
   'app/api/tokens/route.ts': [
     { method: 'GET', url: () => '/api/tokens', expect: { ...members(200, 401, 200), token: 403 } },
     {
@@ -181,7 +201,8 @@ describe('authorization matrix', () => {
     const lab = me.body.labs.find((l: { slug: string }) => l.slug === 'cinder-hollow');
     const rigs = await owner.get(`/api/labs/${lab.id}/rigs`);
     const mem = await owner.get(`/api/labs/${lab.id}/members`);
-    fx = { labId: lab.id, rigId: rigs.body.rigs[0].id, ownerMemberId: mem.body.members.find((m: { role: string }) => m.role === 'owner').id };
+    const trials = await owner.get(`/api/rigs/${rigs.body.rigs[0].id}/trials?pageSize=1`);
+    fx = { labId: lab.id, rigId: rigs.body.rigs[0].id, trialId: trials.body.trials[0].id, ownerMemberId: mem.body.members.find((m: { role: string }) => m.role === 'owner').id };
     const engineer = await clientFor('engineer', false);
     const tok = await engineer.post('/api/tokens', { name: 'matrix token', labId: fx.labId });
     expect(tok.status).toBe(201);

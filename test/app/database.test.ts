@@ -16,7 +16,7 @@ describe('the data layer on the real PostgreSQL', () => {
     const em = orm.em.fork();
     const lab = await em.findOneOrFail(Lab, { slug: demoLab.slug });
     expect(await em.count(Rig, { lab })).toBe(rigPlans.length);
-    expect(await em.count(Trial, { lab })).toBe(rigPlans.reduce((n, p) => n + p.flowsLPerMin.length, 0));
+    expect(await em.count(Trial, { lab, origin: 'demo' })).toBe(rigPlans.reduce((n, p) => n + p.flowsLPerMin.length, 0));
     for (const u of demoUsers) {
       const m = await em.findOneOrFail(Membership, { lab, user: { email: u.email } });
       expect(m.role).toBe(u.role);

@@ -98,4 +98,19 @@ describe('invitation walk-through in Chromium', () => {
     await visit(p, '/help/permissions');
     await screenshot(p, 'permissions-help');
   });
+
+  test('the owner changes the new member’s role in the members table', async () => {
+    const p = owner.page;
+    await visit(p, '/lab/members');
+    const select = p.getByRole('combobox', { name: 'Role of New Reviewer' });
+    await select.selectOption('engineer');
+    await p.waitForResponse((r) => r.url().includes('/members/') && r.request().method() === 'PATCH');
+    await visit(p, '/lab/members');
+    await expect(p.getByRole('combobox', { name: 'Role of New Reviewer' }).inputValue()).resolves.toBe('engineer');
+    await screenshot(p, 'owner-role-changed');
+    // the last owner cannot be demoted: the table says why
+    await p.getByRole('combobox', { name: 'Role of Demo Owner' }).selectOption('viewer');
+    await p.getByRole('alert').filter({ hasText: 'at least one owner' }).waitFor();
+    await screenshot(p, 'owner-last-owner-refused');
+  });
 });

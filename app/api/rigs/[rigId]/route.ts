@@ -1,14 +1,17 @@
-import { Rig } from '@/entities';
 import { rigDto } from '@/app/_lib/dto';
-import { notFound } from '@/app/_lib/errors';
+import { loadRig, rigPatch, updateRig } from '@/app/_lib/rigs';
 import { json, route } from '@/app/_lib/route';
 
+type P = { rigId: string };
+
 /** GET: one rig, for members of its lab (404 for everyone else). */
-export const GET = route<{ rigId: string }>({ auth: 'user' }, async (ctx) => {
-  ctx.requireActor();
-  if (!/^[0-9a-f-]{36}$/i.test(ctx.params.rigId)) throw notFound();
-  const rig = await ctx.em.findOne(Rig, { id: ctx.params.rigId });
-  if (!rig) throw notFound();
-  await ctx.requireMember(rig.lab.id, 'lab:read');
+export const GET = route<P>({ auth: 'user' }, async (ctx) => {
+  const { rig } = await loadRig(ctx, ctx.params.rigId, 'lab:read');
   return json({ rig: rigDto(rig) });
+});
+
+/** PATCH: edit a rig's name, heat source, description, details or notes. */
+export const PATCH = route<P>({ auth: 'user' }, async (ctx) => {
+  const { rig } = await loadRig(ctx, ctx.params.rigId, 'rig:write');
+  return json({ rig: rigDto(await updateRig(ctx, rig, await ctx.json(rigPatch))) });
 });

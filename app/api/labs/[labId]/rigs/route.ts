@@ -1,9 +1,18 @@
 import { Rig } from '@/entities';
 import { rigDto } from '@/app/_lib/dto';
+import { createRig, rigInput } from '@/app/_lib/rigs';
 import { json, route } from '@/app/_lib/route';
 
+type P = { labId: string };
+
 /** GET: the lab's rigs. */
-export const GET = route<{ labId: string }>({ auth: 'user', labAction: 'lab:read' }, async (ctx) => {
+export const GET = route<P>({ auth: 'user', labAction: 'lab:read' }, async (ctx) => {
   const rigs = await ctx.em.find(Rig, { lab: ctx.params.labId }, { orderBy: { name: 'asc' } });
   return json({ rigs: rigs.map(rigDto) });
+});
+
+/** POST: create a rig (engineers and owners). */
+export const POST = route<P>({ auth: 'user', labAction: 'rig:write' }, async (ctx) => {
+  const rig = await createRig(ctx, await ctx.json(rigInput));
+  return json({ rig: rigDto(rig) }, { status: 201 });
 });

@@ -1,0 +1,15 @@
+import { z } from 'zod';
+import { loadRig } from '@/app/_lib/rigs';
+import { json, route } from '@/app/_lib/route';
+import { trialDto, trialPatch, trialsOfRig, updateTrials } from '@/app/_lib/trials';
+
+const body = z.object({ ids: z.array(z.string()).min(1).max(5000), patch: trialPatch }).strict();
+
+/** POST: apply one edit (exclude/include, notes) to many trials of the rig at once. */
+export const POST = route<{ rigId: string }>({ auth: 'user', maxBodyBytes: 512 * 1024 }, async (ctx) => {
+  const { rig } = await loadRig(ctx, ctx.params.rigId, 'trial:write');
+  const { ids, patch } = await ctx.json(body);
+  const trials = await trialsOfRig(ctx.em, rig, ids);
+  await updateTrials(ctx.em, trials, patch, ctx.requireActor().user);
+  return json({ trials: trials.map(trialDto) });
+});

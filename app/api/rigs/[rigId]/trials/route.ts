@@ -1,0 +1,25 @@
+import { z } from 'zod';
+import { loadRig } from '@/app/_lib/rigs';
+import { json, route } from '@/app/_lib/route';
+import { createTrials, listQuery, listTrials, trialDto, trialInput } from '@/app/_lib/trials';
+
+type P = { rigId: string };
+
+/** GET: the rig's trials, paginated, sorted and filtered on the server. */
+export const GET = route<P>({ auth: 'user' }, async (ctx) => {
+  const { rig } = await loadRig(ctx, ctx.params.rigId, 'lab:read');
+  const q = listQuery.parse(Object.fromEntries(ctx.req.nextUrl.searchParams));
+  const r = await listTrials(ctx.em, rig, q);
+  return json({ trials: r.rows.map(trialDto), total: r.total, page: r.page, pageSize: r.pageSize });
+});
+
+const batch = z.object({ trials: z.array(trialInput).min(1, 'Send at least one trial.').max(1000, 'Send at most 1,000 trials at once.') }).strict();
+
+/** POST: add one trial or `{ trials: [...] }` (up to 1,000) in one transaction — all or none. */
+export const POST = route<P>({ auth: 'user', maxBodyBytes: 1024 * 1024 }, async (ctx) => {
+  const { rig } = await loadRig(ctx, ctx.params.rigId, 'trial:write');
+  const raw = await ctx.json(z.unknown());
+  const trials = raw && typeof raw === 'object' && 'trials' in raw ? batch.parse(raw).trials : [trialInput.parse(raw)];
+  const { rows, warnings } = await createTrials(ctx.em, rig, trials, ctx.actor?.via === 'token' ? 'api' : 'manual');
+  return json({ trials: rows.map(trialDto), warnings }, { status: 201 });
+});
