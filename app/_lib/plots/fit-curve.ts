@@ -167,14 +167,15 @@ export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { wi
 
   const marks: Plot.Markish[] = [
     Plot.rect(extrap, { x1: 'x1', x2: 'x2', fill: COLORS.paperDeep, fillOpacity: 0.9, ariaDescription: 'extrapolated region' }),
-    Plot.text(extrap, { x: (d: { x1: number; x2: number }) => (d.x1 + d.x2) / 2, frameAnchor: 'bottom', dy: -6, text: () => 'extrapolated', fill: COLORS.inkMuted, ariaDescription: 'extrapolated label' }),
+    Plot.text(extrap.filter((d) => d.x2 - d.x1 >= 0.12 * (F(xMax) - F(xMin))), { x: (d: { x1: number; x2: number }) => (d.x1 + d.x2) / 2, frameAnchor: 'bottom', dy: -6, text: () => 'extrapolated', fill: COLORS.inkMuted, ariaDescription: 'extrapolated label' }),
     Plot.areaY(band, { x: 'x', y1: 'pi1', y2: 'pi2', fill: COLORS.heatPale, fillOpacity: 0.22, ariaDescription: `${pct} prediction band` }),
     Plot.areaY(band, { x: 'x', y1: 'ci1', y2: 'ci2', fill: COLORS.heatLight, fillOpacity: 0.35, ariaDescription: `${pct} confidence band` }),
     ...refRows.flatMap((r) => [
       Plot.ruleY([r.yd], { stroke: r.stroke, strokeDasharray: r.dash, strokeWidth: 1.25, ariaDescription: `${r.kind} line` }),
       Plot.text([r], {
         y: 'yd', text: 'text', fill: r.stroke, dy: -7, ariaDescription: `${r.kind} label`,
-        ...(r.kind === 'inlet' ? { frameAnchor: 'right', textAnchor: 'end', dx: -4 } : { frameAnchor: 'left', textAnchor: 'start', dx: 4 }),
+        // inlet label on the left (the curve is high there), safety labels on the right (the curve is low there)
+        ...(r.kind === 'inlet' ? { frameAnchor: 'left', textAnchor: 'start', dx: 4 } : { frameAnchor: 'right', textAnchor: 'end', dx: -4 }),
       }),
     ]),
     ...curves.map((c, i) => Plot.lineY(c, {
