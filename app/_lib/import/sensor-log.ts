@@ -113,6 +113,10 @@ export function createSensorLogBuilder(mapping: unknown, header: readonly string
           continue;
         }
         const s = r.data;
+        if (hasAmbient && s.ambientTempC === undefined) {
+          reject({ line, severity: 'error', code: 'invalid', field: 'ambientTempC', column: mapper.columnOf.ambientTempC, message: 'ambient temperature is missing' });
+          continue;
+        }
         if (!(s.timeS > prev)) {
           reject({ line, severity: 'error', code: 'time_not_increasing', field: 'timeS', column: mapper.columnOf.time, message: `time does not increase (${s.timeS} s after ${prev} s); the sample is left out` });
           continue;
