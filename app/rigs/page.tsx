@@ -1,20 +1,12 @@
 import Link from 'next/link';
 import { Rig, Trial } from '@/entities';
 import { AppPage } from '../_components/app-page';
+import { HEAT_SOURCE_LABELS } from '../_lib/labels';
 import { requireLabAction } from '../_lib/viewer';
 
 export const metadata = { title: 'Rigs' };
 export const dynamic = 'force-dynamic';
 
-const SOURCE_LABEL: Record<string, string> = {
-  'wood-fire': 'Wood fire',
-  'propane-burner': 'Propane burner',
-  'natural-gas': 'Natural gas',
-  'solar-collector': 'Solar collector',
-  electric: 'Electric',
-  'heat-pump': 'Heat pump',
-  other: 'Other',
-};
 
 export default async function RigsPage() {
   const v = await requireLabAction('/rigs', 'lab:read');
@@ -25,18 +17,29 @@ export default async function RigsPage() {
     <AppPage
       viewer={v}
       title="Rigs"
-      lead={v.can('rig:write') ? 'The heater set-ups under test in this lab. As an engineer you import trials and fit them.' : 'The heater set-ups under test in this lab.'}
+      lead="The heater set-ups under test in this lab."
+      actions={
+        v.can('rig:write') ? (
+          <Link className="btn-primary" href="/rigs/new">
+            New rig
+          </Link>
+        ) : null
+      }
     >
       <ul className="grid gap-4 md:grid-cols-2">
         {rigs.map((r) => (
           <li key={r.id} className="card p-5">
             <div className="flex items-start justify-between gap-3">
-              <h2 className="text-lg">{r.name}</h2>
-              <span className="rounded-full bg-ember-50 px-2.5 py-0.5 text-xs font-semibold text-ember-700 ring-1 ring-ember-100">{SOURCE_LABEL[r.heatSource]}</span>
+              <h2 className="text-lg">
+                <Link href={`/rigs/${r.id}`} className="text-ink">
+                  {r.name}
+                </Link>
+              </h2>
+              <span className="rounded-full bg-ember-50 px-2.5 py-0.5 text-xs font-semibold text-ember-700 ring-1 ring-ember-100">{HEAT_SOURCE_LABELS[r.heatSource]}</span>
             </div>
             <p className="mt-2 text-ink-soft">{r.description}</p>
             <p className="mt-3 text-sm">
-              <Link href={`/trials?rig=${r.id}`}>
+              <Link href={`/rigs/${r.id}`}>
                 <span className="num">{counts.get(r.id)}</span> trials
               </Link>
             </p>

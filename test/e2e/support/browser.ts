@@ -57,3 +57,12 @@ export async function visit(page: Page, url: string) {
   await page.locator('main#main').first().waitFor();
   return res;
 }
+
+/** Signs in through the sign-in form, as a person does. */
+export async function signInAs(page: Page, email: string, password = 'ember-demo-lab-2026') {
+  await visit(page, '/sign-in');
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL('**/rigs');
+}

@@ -1,0 +1,182 @@
+'use client';
+
+import { useState } from 'react';
+import { api, ApiError } from './api';
+import { DEFAULT_TRIAL_QUERY, useTrials, type TrialQuery, type TrialRowDto } from './use-trials';
+import { dtOut, dtUnit, flowOut, flowUnit, tempOut, tempUnit, type Units } from './units';
+
+const fmt = (v: number, d: number) => v.toFixed(d);
+
+/** The trials of one rig: server-side paging, sorting and filtering; writers edit notes and exclude trials. */
+export function TrialsTable({ rigId, units, canWrite }: { rigId: string; units: Units; canWrite: boolean }) {
+  const [q, setQ] = useState<TrialQuery>(DEFAULT_TRIAL_QUERY);
+  const [selected, setSelected] = useState<Set<string>>(new Set());
+  const [error, setError] = useState<string | null>(null);
+  const { data, mutate, isLoading } = useTrials(rigId, q);
+  const rows = data?.trials ?? [];
+  const pages = data ? Math.max(1, Math.ceil(data.total / data.pageSize)) : 1;
+  const set = (patch: Partial<TrialQuery>) => setQ((old) => ({ ...old, page: 1, ...patch }));
+  const sortBy = (sort: TrialQuery['sort']) => set({ sort, dir: q.sort === sort && q.dir === 'asc' ? 'desc' : 'asc' });
+  const arrow = (s: TrialQuery['sort']) => (q.sort === s ? (q.dir === 'asc' ? ' ▲' : ' ▼') : '');
+  const ariaSort = (s: TrialQuery['sort']) => (q.sort === s ? (q.dir === 'asc' ? 'ascending' : 'descending') : 'none');
+
+  async function bulk(excluded: boolean) {
+    setError(null);
+    try {
+      await api(`/api/rigs/${rigId}/trials/bulk`, { body: { ids: [...selected], patch: { excluded } } });
+      setSelected(new Set());
+      await mutate();
+    } catch (e) {
+      setError(e instanceof ApiError ? e.message : 'The server could not be reached.');
+    }
+  }
+
+  async function saveNotes(t: TrialRowDto, notes: string) {
+    if (notes === t.notes) return;
+    try {
+      await api(`/api/trials/${t.id}`, { method: 'PATCH', body: { notes } });
+      await mutate();
+    } catch (e) {
+      setError(e instanceof ApiError ? e.message : 'The server could not be reached.');
+    }
+  }
+
+  const Th = ({ s, children, right }: { s?: TrialQuery['sort']; children: React.ReactNode; right?: boolean }) => (
+    <th scope="col" className={right ? 'text-right' : ''} aria-sort={s ? ariaSort(s) : undefined}>
+      {s ? (
+        <button type="button" className="font-semibold text-ink-soft hover:text-ink" onClick={() => sortBy(s)}>
+          {children}
+          {arrow(s)}
+        </button>
+      ) : (
+        children
+      )}
+    </th>
+  );
+
+  return (
+    <div className="space-y-3">
+      <div className="flex flex-wrap items-end gap-3" role="search">
+        <label className="text-sm">
+          <span className="field-label">Show</span>
+          <select className="field-input" value={q.excluded} onChange={(e) => set({ excluded: e.target.value as TrialQuery['excluded'] })}>
+            <option value="all">all trials</option>
+            <option value="included">included only</option>
+            <option value="excluded">excluded only</option>
+          </select>
+        </label>
+        <label className="flex items-center gap-2 pb-2 text-sm">
+          <input type="checkbox" checked={q.reference === 'only'} onChange={(e) => set({ reference: e.target.checked ? 'only' : 'all' })} />
+          reference flows only
+        </label>
+        <label className="text-sm">
+          <span className="field-label">Notes contain</span>
+          <input className="field-input" value={q.q} onChange={(e) => set({ q: e.target.value })} placeholder="e.g. wind" />
+        </label>
+        {canWrite ? (
+          <div className="flex gap-2 pb-0.5">
+            <button type="button" className="btn-quiet" disabled={!selected.size} onClick={() => bulk(true)}>
+              Exclude {selected.size || ''}
+            </button>
+            <button type="button" className="btn-quiet" disabled={!selected.size} onClick={() => bulk(false)}>
+              Include {selected.size || ''}
+            </button>
+          </div>
+        ) : null}
+      </div>
+      {error ? <p role="alert" className="rounded-lg border border-danger-line bg-danger-bg px-3 py-2 text-sm text-danger-text">{error}</p> : null}
+      <div className="card overflow-x-auto" aria-busy={isLoading}>
+        <table className="data-table">
+          <thead>
+            <tr>
+              {canWrite ? (
+                <th scope="col">
+                  <input
+                    type="checkbox"
+                    aria-label="Select all trials on this page"
+                    checked={rows.length > 0 && rows.every((r) => selected.has(r.id))}
+                    onChange={(e) => setSelected(e.target.checked ? new Set(rows.map((r) => r.id)) : new Set())}
+                  />
+                </th>
+              ) : null}
+              <Th s="startedAt">Started (UTC)</Th>
+              <Th s="flowM3PerS" right>Flow ({flowUnit(units)})</Th>
+              <Th s="inletC" right>Inlet ({tempUnit(units)})</Th>
+              <Th s="outletC" right>Outlet ({tempUnit(units)})</Th>
+              <Th right>ΔT ({dtUnit(units)})</Th>
+              <Th>Notes</Th>
+            </tr>
+          </thead>
+          <tbody>
+            {rows.map((t) => (
+              <tr key={t.id} className={t.excluded ? 'bg-paper-deep text-ink-muted' : ''}>
+                {canWrite ? (
+                  <td>
+                    <input
+                      type="checkbox"
+                      aria-label={`Select trial of ${t.startedAt.slice(0, 16).replace('T', ' ')}`}
+                      checked={selected.has(t.id)}
+                      onChange={(e) => {
+                        const next = new Set(selected);
+                        if (e.target.checked) next.add(t.id);
+                        else next.delete(t.id);
+                        setSelected(next);
+                      }}
+                    />
+                  </td>
+                ) : null}
+                <td className="num whitespace-nowrap">
+                  {t.startedAt.slice(0, 16).replace('T', ' ')}
+                  {t.excluded ? <span className="ml-2 rounded bg-white px-1.5 py-0.5 text-xs text-ink-muted ring-1 ring-paper-line">excluded</span> : null}
+                </td>
+                <td className="num text-right">{fmt(flowOut(t.flowM3PerS, units), 2)}</td>
+                <td className="num text-right">{fmt(tempOut(t.inletC, units), 1)}</td>
+                <td className="num text-right">{fmt(tempOut(t.outletC, units), 1)}</td>
+                <td className="num text-right">{fmt(dtOut(t.outletC - t.inletC, units), 1)}</td>
+                <td className="min-w-[14rem] text-sm">
+                  {t.isReference ? <span className="mr-1 rounded bg-water-50 px-1.5 py-0.5 text-xs font-medium text-water-800">reference</span> : null}
+                  {t.warnings.map((w) => (
+                    <span key={w} title={w} className="mr-1 rounded bg-caution-bg px-1.5 py-0.5 text-xs text-caution-text">
+                      check
+                    </span>
+                  ))}
+                  {canWrite ? (
+                    <input
+                      aria-label="Notes"
+                      className="w-full rounded border border-transparent bg-transparent px-1 py-0.5 hover:border-paper-line focus:border-ember-500"
+                      defaultValue={t.notes}
+                      onBlur={(e) => saveNotes(t, e.target.value)}
+                    />
+                  ) : (
+                    t.notes
+                  )}
+                </td>
+              </tr>
+            ))}
+            {!isLoading && rows.length === 0 ? (
+              <tr>
+                <td colSpan={7} className="text-ink-muted">No trials match.</td>
+              </tr>
+            ) : null}
+          </tbody>
+        </table>
+      </div>
+      <nav aria-label="Pages" className="flex items-center justify-between text-sm">
+        <span className="text-ink-muted">
+          <span className="num">{data?.total ?? 0}</span> trials
+        </span>
+        <span className="flex items-center gap-2">
+          <button type="button" className="btn-quiet" disabled={q.page <= 1} onClick={() => setQ({ ...q, page: q.page - 1 })}>
+            Previous
+          </button>
+          <span className="num">
+            {q.page} / {pages}
+          </span>
+          <button type="button" className="btn-quiet" disabled={q.page >= pages} onClick={() => setQ({ ...q, page: q.page + 1 })}>
+            Next
+          </button>
+        </span>
+      </nav>
+    </div>
+  );
+}

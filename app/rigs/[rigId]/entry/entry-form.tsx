@@ -1,0 +1,163 @@
+'use client';
+
+import { useEffect, useRef, useState } from 'react';
+import { api, ApiError } from '../../../_components/api';
+import { flowOut, flowUnit, tempOut, tempUnit, volOut, volUnit, type Units } from '../../../_components/units';
+
+interface Previous {
+  bucketVolumeM3: number | null;
+  inletC: number;
+  ambientC: number | null;
+}
+
+const unitText = (u: Units) => ({ vol: u === 'us' ? 'gal' : 'L', temp: u === 'us' ? 'degF' : 'degC', flow: u === 'us' ? 'gpm' : 'L/min' });
+
+/**
+ * Entry at the rig, sized for a phone: a fill timer (start when the bucket goes under the
+ * stream, stop when it is full), the bucket volume, the temperatures, and the previous trial's
+ * values offered.
+ */
+export function EntryForm({ rigId, units, previous }: { rigId: string; units: Units; previous: Previous | null }) {
+  const t = unitText(units);
+  const [fills, setFills] = useState<number[]>([]);
+  const [runningSince, setRunningSince] = useState<number | null>(null);
+  const [now, setNow] = useState(0);
+  const [message, setMessage] = useState<string | null>(null);
+  const [warnings, setWarnings] = useState<string[]>([]);
+  const [error, setError] = useState<string | null>(null);
+  const [fieldErrors, setFieldErrors] = useState<Record<string, string>>({});
+  const [busy, setBusy] = useState(false);
+  const formRef = useRef<HTMLFormElement>(null);
+
+  useEffect(() => {
+    if (runningSince === null) return;
+    const id = setInterval(() => setNow(performance.now()), 100);
+    return () => clearInterval(id);
+  }, [runningSince]);
+
+  const toggleTimer = () => {
+    if (runningSince === null) {
+      const t0 = performance.now();
+      setRunningSince(t0);
+      setNow(t0);
+    } else {
+      const s = Math.round((performance.now() - runningSince) / 100) / 10;
+      setFills([...fills, s]);
+      setRunningSince(null);
+    }
+  };
+
+  async function submit(e: React.FormEvent<HTMLFormElement>) {
+    e.preventDefault();
+    const f = new FormData(e.currentTarget);
+    const num = (k: string) => String(f.get(k) ?? '').trim().replace(',', '.');
+    const body: Record<string, unknown> = {
+      inlet: num('inlet') && `${num('inlet')} ${t.temp}`,
+      outlet: num('outlet') && `${num('outlet')} ${t.temp}`,
+      notes: String(f.get('notes') ?? ''),
+      isReference: f.get('isReference') === 'on',
+    };
+    if (num('ambient')) body.ambient = `${num('ambient')} ${t.temp}`;
+    if (num('flow')) body.flow = `${num('flow')} ${t.flow}`;
+    else {
+      if (num('bucket')) body.bucketVolume = `${num('bucket')} ${t.vol}`;
+      if (fills.length) body.fillTimesS = fills;
+    }
+    setBusy(true);
+    setError(null);
+    setFieldErrors({});
+    setMessage(null);
+    setWarnings([]);
+    try {
+      const r = await api<{ trials: { flowM3PerS: number; outletC: number; inletC: number }[]; warnings: { messages: string[] }[] }>(`/api/rigs/${rigId}/trials`, { body });
+      const saved = r.trials[0];
+      setMessage(`Saved: ${flowOut(saved.flowM3PerS, units).toFixed(2)} ${flowUnit(units)}, rise ${(tempOut(saved.outletC, units) - tempOut(saved.inletC, units)).toFixed(1)} ${units === 'us' ? '°F' : 'K'}.`);
+      setWarnings(r.warnings.flatMap((w) => w.messages));
+      setFills([]);
+      const outlet = formRef.current?.elements.namedItem('outlet') as HTMLInputElement | null;
+      if (outlet) outlet.value = '';
+    } catch (err) {
+      if (err instanceof ApiError) {
+        setError(err.message);
+        setFieldErrors(err.fields);
+      } else setError('The server could not be reached: nothing was saved. Try again when you have signal.');
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  const elapsed = runningSince === null ? null : (now - runningSince) / 1000;
+  const fe = (k: string) => (fieldErrors[k] ? <p className="mt-1 text-sm text-danger-text">{fieldErrors[k]}</p> : null);
+
+  return (
+    <form ref={formRef} onSubmit={submit} className="space-y-5" method="post">
+      <fieldset className="card space-y-4 p-4">
+        <legend className="px-1 text-lg font-semibold">Flow</legend>
+        <label className="block">
+          <span className="field-label">Bucket volume ({volUnit(units)})</span>
+          <input name="bucket" inputMode="decimal" className="field-input num text-lg" defaultValue={previous?.bucketVolumeM3 ? +volOut(previous.bucketVolumeM3, units).toFixed(2) : ''} />
+          {fe('bucketVolume')}
+        </label>
+        <div>
+          <button
+            type="button"
+            onClick={toggleTimer}
+            className={`w-full rounded-xl py-5 text-xl font-semibold text-white ${runningSince === null ? 'bg-water-600 hover:bg-water-800' : 'bg-ember-600 hover:bg-ember-700'}`}
+            aria-live="polite"
+          >
+            {runningSince === null ? (fills.length ? 'Start another fill' : 'Start fill timer') : `Stop · ${elapsed!.toFixed(1)} s`}
+          </button>
+          <ul className="mt-3 flex flex-wrap gap-2" aria-label="Fill times">
+            {fills.map((s, i) => (
+              <li key={i} className="num flex items-center gap-1 rounded-full bg-paper-deep px-3 py-1 text-sm">
+                {s.toFixed(1)} s
+                <button type="button" aria-label={`Remove fill ${i + 1}`} className="text-ink-muted hover:text-danger-text" onClick={() => setFills(fills.filter((_, j) => j !== i))}>
+                  ×
+                </button>
+              </li>
+            ))}
+          </ul>
+          <p className="mt-2 text-xs text-ink-muted">Time three fills or more and aim for 30 s or longer each: human timing error is then under 1 %.</p>
+          {fe('fillTimesS')}
+        </div>
+        <label className="block">
+          <span className="field-label">…or a flow reading ({flowUnit(units)})</span>
+          <input name="flow" inputMode="decimal" className="field-input num" />
+          {fe('flow')}
+        </label>
+      </fieldset>
+      <fieldset className="card grid grid-cols-2 gap-4 p-4">
+        <legend className="px-1 text-lg font-semibold">Temperatures ({tempUnit(units)})</legend>
+        <label>
+          <span className="field-label">Inlet</span>
+          <input name="inlet" inputMode="decimal" required className="field-input num text-lg" defaultValue={previous ? +tempOut(previous.inletC, units).toFixed(1) : ''} />
+          {fe('inlet')}
+        </label>
+        <label>
+          <span className="field-label">Outlet</span>
+          <input name="outlet" inputMode="decimal" required className="field-input num text-lg" />
+          {fe('outlet')}
+        </label>
+        <label>
+          <span className="field-label">Ambient</span>
+          <input name="ambient" inputMode="decimal" className="field-input num" defaultValue={previous?.ambientC != null ? +tempOut(previous.ambientC, units).toFixed(1) : ''} />
+        </label>
+        <label className="flex items-end gap-2 pb-2 text-sm">
+          <input type="checkbox" name="isReference" /> reference flow
+        </label>
+        <label className="col-span-2">
+          <span className="field-label">Notes</span>
+          <input name="notes" className="field-input" placeholder="fuel added, wind, sun…" />
+        </label>
+      </fieldset>
+      {error ? <p role="alert" className="rounded-lg border border-danger-line bg-danger-bg px-3 py-2 text-sm text-danger-text">{error}</p> : null}
+      {message ? <p role="status" className="rounded-lg bg-ok-bg px-3 py-2 text-sm text-ok-text">{message}</p> : null}
+      {warnings.map((w) => (
+        <p key={w} className="rounded-lg border border-caution-line bg-caution-bg px-3 py-2 text-sm text-caution-text">{w}</p>
+      ))}
+      <button type="submit" className="btn-primary w-full py-3 text-base" disabled={busy}>
+        {busy ? 'Saving…' : 'Save trial'}
+      </button>
+    </form>
+  );
+}

@@ -1,0 +1,28 @@
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { Rig, Trial } from '@/entities';
+import { AppPage } from '../../../_components/app-page';
+import { UUID } from '../../../_lib/rigs';
+import { requireLabAction } from '../../../_lib/viewer';
+import { EntryForm } from './entry-form';
+
+export const metadata = { title: 'Add a trial' };
+export const dynamic = 'force-dynamic';
+
+export default async function EntryPage({ params }: { params: Promise<{ rigId: string }> }) {
+  const { rigId } = await params;
+  const v = await requireLabAction(`/rigs/${rigId}/entry`, 'trial:write');
+  const rig = UUID.test(rigId) ? await v.em.findOne(Rig, { id: rigId, lab: v.current.lab }) : null;
+  if (!rig) notFound();
+  const last = await v.em.findOne(Trial, { rig }, { orderBy: { startedAt: 'desc' } });
+  return (
+    <AppPage viewer={v} title="Add a trial" lead={<Link href={`/rigs/${rig.id}`}>{rig.name}</Link>}>
+      <div className="mx-auto max-w-lg">
+        <p className="mb-4 rounded-lg border border-caution-line bg-caution-bg px-3 py-2 text-sm text-caution-text">
+          Keep water flowing through a heated coil at all times and stay clear of the outlet: it can be scalding.
+        </p>
+        <EntryForm rigId={rig.id} units={v.user.unitSystem} previous={last ? { bucketVolumeM3: last.bucketVolumeM3 ?? null, inletC: last.inletC, ambientC: last.ambientC ?? null } : null} />
+      </div>
+    </AppPage>
+  );
+}

@@ -1,0 +1,87 @@
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { Rig, SourceFile } from '@/entities';
+import { AppPage } from '../../_components/app-page';
+import { RigForm } from '../../_components/rig-form';
+import { HEAT_SOURCE_LABELS } from '../../_lib/labels';
+import { TrialsTable } from '../../_components/trials-table';
+import { rigDto } from '../../_lib/dto';
+import { UUID } from '../../_lib/rigs';
+import { requireLabAction } from '../../_lib/viewer';
+
+export const dynamic = 'force-dynamic';
+
+export default async function RigPage({ params, searchParams }: { params: Promise<{ rigId: string }>; searchParams: Promise<{ edit?: string }> }) {
+  const { rigId } = await params;
+  const { edit } = await searchParams;
+  const v = await requireLabAction(`/rigs/${rigId}`, 'lab:read');
+  const rig = UUID.test(rigId) ? await v.em.findOne(Rig, { id: rigId, lab: v.current.lab }) : null;
+  if (!rig) notFound();
+  const files = await v.em.find(SourceFile, { rig, purpose: 'trials' }, { orderBy: { createdAt: 'desc' }, limit: 10 });
+  const write = v.can('trial:write');
+  const d = rig.details ?? {};
+  const facts = [
+    d.coilLengthM ? `${d.coilLengthM} m of tube` : null,
+    d.tubeInnerDiameterM ? `${(Number(d.tubeInnerDiameterM) * 1000).toFixed(1)} mm bore` : null,
+    d.tubeMaterial ? String(d.tubeMaterial) : null,
+    d.collectorAreaM2 ? `${d.collectorAreaM2} m² collector` : null,
+    d.burnerRatingW ? `${Number(d.burnerRatingW) / 1000} kW burner` : null,
+  ].filter(Boolean);
+  return (
+    <AppPage
+      viewer={v}
+      title={rig.name}
+      lead={
+        <>
+          <span className="mr-2 rounded-full bg-ember-50 px-2.5 py-0.5 text-xs font-semibold text-ember-700 ring-1 ring-ember-100">{HEAT_SOURCE_LABELS[rig.heatSource]}</span>
+          {rig.description}
+          {facts.length ? <span className="mt-1 block text-sm text-ink-muted">{facts.join(' · ')}</span> : null}
+        </>
+      }
+      actions={
+        write ? (
+          <>
+            <Link className="btn-primary" href={`/rigs/${rig.id}/entry`}>
+              Add a trial
+            </Link>
+            <Link className="btn-quiet" href={`/rigs/${rig.id}/import`}>
+              Import a file
+            </Link>
+            {v.can('rig:write') ? (
+              <Link className="btn-quiet" href={`/rigs/${rig.id}?edit=1`}>
+                Edit rig
+              </Link>
+            ) : null}
+          </>
+        ) : null
+      }
+    >
+      {edit && v.can('rig:write') ? (
+        <section className="card mb-6 max-w-2xl p-6" aria-label="Edit rig">
+          <RigForm labId={v.current.lab.id} rig={rigDto(rig) as Parameters<typeof RigForm>[0]['rig']} />
+        </section>
+      ) : null}
+      <TrialsTable rigId={rig.id} units={v.user.unitSystem} canWrite={write} />
+      {rig.notes ? (
+        <section className="card mt-6 p-5">
+          <h2 className="text-lg">Notes</h2>
+          <p className="mt-2 whitespace-pre-wrap text-ink-soft">{rig.notes}</p>
+        </section>
+      ) : null}
+      {files.length ? (
+        <section className="mt-6">
+          <h2 className="text-lg">Imported files</h2>
+          <ul className="mt-2 space-y-1 text-sm">
+            {files.map((f) => (
+              <li key={f.id} className="flex flex-wrap gap-x-3">
+                <span>{f.filename}</span>
+                <span className="num text-ink-muted">{f.sha256.slice(0, 12)}…</span>
+                <span className="text-ink-muted">{f.state}, {f.rowsImported} rows</span>
+              </li>
+            ))}
+          </ul>
+        </section>
+      ) : null}
+    </AppPage>
+  );
+}
