@@ -13,10 +13,16 @@ import { SourceFile } from './source-file';
 import { ColumnMapping } from './column-mapping';
 import { TrialChange } from './trial-change';
 import { SensorSample } from './sensor-sample';
+import { Fit } from './fit';
+import { Study } from './study';
+import { Comment } from './comment';
+import { ReviewEvent } from './review-event';
+import { Notice } from './notice';
+import { ShareLink } from './share-link';
 import { User } from './user';
 
-export { ColumnMapping, SensorSample, SourceFile, TrialChange, ApiToken, AuditEvent, Invitation, Lab, Membership, PasswordReset, RateLimit, Rig, Session, Trial, User };
-export const entities = [Lab, User, Membership, Rig, Trial, Session, Invitation, PasswordReset, ApiToken, AuditEvent, RateLimit, SourceFile, ColumnMapping, TrialChange, SensorSample];
+export { Comment, Fit, Notice, ReviewEvent, ShareLink, Study, ColumnMapping, SensorSample, SourceFile, TrialChange, ApiToken, AuditEvent, Invitation, Lab, Membership, PasswordReset, RateLimit, Rig, Session, Trial, User };
+export const entities = [Lab, User, Membership, Rig, Trial, Session, Invitation, PasswordReset, ApiToken, AuditEvent, RateLimit, SourceFile, ColumnMapping, TrialChange, SensorSample, Fit, Study, Comment, ReviewEvent, Notice, ShareLink];
 
 import type { InferEntity } from '@mikro-orm/core';
 /** Row types of the entities, for code that handles loaded records. */
@@ -33,3 +39,9 @@ export type AuditEventRow = InferEntity<typeof AuditEvent>;
 export type SourceFileRow = InferEntity<typeof SourceFile>;
 export type ColumnMappingRow = InferEntity<typeof ColumnMapping>;
 export type TrialChangeRow = InferEntity<typeof TrialChange>;
+export type FitRow = InferEntity<typeof Fit>;
+export type StudyRow = InferEntity<typeof Study>;
+export type CommentRow = InferEntity<typeof Comment>;
+export type ReviewEventRow = InferEntity<typeof ReviewEvent>;
+export type NoticeRow = InferEntity<typeof Notice>;
+export type ShareLinkRow = InferEntity<typeof ShareLink>;
