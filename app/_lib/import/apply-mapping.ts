@@ -203,8 +203,6 @@ export function createRowMapper(mapping: ConfirmedMapping, headerLength: number)
     map(cells, line) {
       const row: MappedTrialRow = {};
       const issues: RowIssue[] = [];
-      const err = (p: ColumnPlan, message: string, field?: string) =>
-        issues.push({ line, severity: 'error', code: 'unreadable_cell', field, column: p.header, message });
       for (let c = headerLength; c < cells.length; c++) {
         const v = cells[c];
         if (v !== null && String(v).trim() !== '') {
@@ -220,14 +218,14 @@ export function createRowMapper(mapping: ConfirmedMapping, headerLength: number)
           case 'notes': row.notes = String(raw).trim(); break;
           case 'time': {
             const t = readTime(p, raw);
-            if (typeof t === 'string') err(p, t, 'time'); else row.time = t;
+            if (typeof t === 'string') issues.push(cellError(line, p, t, 'time')); else row.time = t;
             break;
           }
           case 'fillTime': break;
           default: {
             const v = readQuantity(p, raw, line);
             const f = ROW_FIELD[p.field] as keyof MappedTrialRow;
-            if (typeof v === 'string') err(p, v, f);
+            if (typeof v === 'string') issues.push(cellError(line, p, v, f));
             else (row as Record<string, unknown>)[f] = v;
           }
         }
@@ -238,7 +236,7 @@ export function createRowMapper(mapping: ConfirmedMapping, headerLength: number)
           const raw = cells[p.index];
           if (raw === null || raw === undefined || (typeof raw === 'string' && raw.trim() === '')) continue;
           const v = readQuantity(p, raw, line);
-          if (typeof v === 'string') err(p, v, 'fillTimesS'); else fills.push(v);
+          if (typeof v === 'string') issues.push(cellError(line, p, v, 'fillTimesS')); else fills.push(v);
         }
         if (fills.length) row.fillTimesS = fills;
       }
@@ -256,6 +254,10 @@ export function createRowMapper(mapping: ConfirmedMapping, headerLength: number)
       return out;
     },
   };
+}
+
+function cellError(line: number, p: ColumnPlan, message: string, field?: string): RowIssue {
+  return { line, severity: 'error', code: 'unreadable_cell', field, column: p.header, message };
 }
 
 /** A sentence for a mixed-unit column: `column "Outlet": 6 cells in °C (lines 5, 6, …), 2 in °F (lines 11, 12); each was converted by its own unit`. */

@@ -52,27 +52,34 @@ function hour12(h: number, ampm: string | undefined): number {
   return pm ? h + 12 : h;
 }
 
+function daysInMonth(y: number, mo: number): number {
+  if (mo === 2) return (y % 4 === 0 && y % 100 !== 0) || y % 400 === 0 ? 29 : 28;
+  return mo === 4 || mo === 6 || mo === 9 || mo === 11 ? 30 : 31;
+}
+
 function build(y: number, mo: number, d: number, h: number, mi: number, s: number, frac: string | undefined, zone: string | undefined, opt: DateOptions): DateReading {
   if (mo < 1 || mo > 12) return { ok: false, reason: `month ${mo} is not 1–12` };
   if (h > 23 || mi > 59 || s > 59) return { ok: false, reason: `time ${pad(h)}:${pad(mi)}:${pad(s)} is not a time of day` };
+  if (d < 1 || d > daysInMonth(y, mo)) return { ok: false, reason: `day ${d} does not exist in ${y}-${pad(mo)}` };
   const ms = frac ? Math.round(Number(`0.${frac}`) * 1000) : 0;
   const t = Date.UTC(y, mo - 1, d, h, mi, s, ms);
-  const check = new Date(t);
-  if (check.getUTCFullYear() !== y || check.getUTCMonth() !== mo - 1 || check.getUTCDate() !== d) {
-    return { ok: false, reason: `day ${d} does not exist in ${y}-${pad(mo)}` };
-  }
   let offsetMin: number;
   if (zone === undefined) offsetMin = opt.utcOffsetMinutes ?? 0;
-  else if (zone.toUpperCase() === 'Z') offsetMin = 0;
+  else if (zone === 'Z' || zone === 'z') offsetMin = 0;
   else {
     const m = /^([+-])(\d{2}):?(\d{2})?$/.exec(zone)!;
     offsetMin = (m[1] === '-' ? -1 : 1) * (Number(m[2]) * 60 + Number(m[3] ?? 0));
   }
   const epochMs = t - offsetMin * 60_000;
-  // zone-less: the wall-clock text as written; with a zone: the instant in UTC
-  let iso = new Date(zone === undefined ? t : epochMs).toISOString();
-  if (ms === 0) iso = iso.replace('.000Z', 'Z');
-  if (zone === undefined) iso = iso.slice(0, -1);
+  let iso: string;
+  if (zone === undefined) {
+    // the wall-clock text as written, without a zone
+    iso = `${String(y).padStart(4, '0')}-${pad(mo)}-${pad(d)}T${pad(h)}:${pad(mi)}:${pad(s)}${ms ? `.${String(ms).padStart(3, '0')}` : ''}`;
+  } else {
+    // the instant, in UTC
+    iso = new Date(epochMs).toISOString();
+    if (ms === 0) iso = iso.replace('.000Z', 'Z');
+  }
   return { ok: true, kind: 'datetime', iso, epochS: epochMs / 1000 };
 }
 
