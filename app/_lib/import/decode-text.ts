@@ -32,17 +32,16 @@ export interface DecodedText {
 const ZIP_MAGIC = [0x50, 0x4b, 0x03, 0x04];
 
 function controlCharCount(bytes: Uint8Array, limit: number): { nul: number; other: number; at: number } {
-  let nul = 0, other = 0, at = -1;
+  let nul = 0, other = 0, firstNul = -1, firstOther = -1;
   const n = Math.min(bytes.length, limit);
   for (let i = 0; i < n; i++) {
     const b = bytes[i];
     if (b < 0x20 && b !== 0x09 && b !== 0x0a && b !== 0x0d && b !== 0x0c) {
-      if (b === 0) nul++;
-      else other++;
-      if (at < 0) at = i;
+      if (b === 0) { nul++; if (firstNul < 0) firstNul = i; }
+      else { other++; if (firstOther < 0) firstOther = i; }
     }
   }
-  return { nul, other, at };
+  return { nul, other, at: nul > 0 ? firstNul : firstOther };
 }
 
 function isValidUtf8(bytes: Uint8Array, atEnd: boolean): boolean {

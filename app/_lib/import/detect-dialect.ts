@@ -54,7 +54,9 @@ export function detectDelimiter(sample: string, newline: Newline, complete: bool
     let mode = 1, modeN = 0;
     for (const [k, n] of counts) if (n > modeN || (n === modeN && k > mode)) { mode = k; modeN = n; }
     if (mode < 2) continue;
-    const score = (modeN / tail.length) * 1000 + Math.min(mode, 50);
+    // consistency of the lower half first (metadata lines sit above), then of all rows, then width
+    const all = rows.filter((r) => r.length === mode).length / rows.length;
+    const score = (modeN / tail.length) * 1000 + all * 100 + Math.min(mode, 50);
     if (score > bestScore) { bestScore = score; best = d; }
   }
   return best;
@@ -79,13 +81,15 @@ export function findHeaderRow(rows: string[][], maxScan = 60): number {
     const below = rows.slice(r + 1, r + 11).filter((x) => nonEmpty(x) > 0);
     if (below.length === 0) return r;
     const width = Math.max(...below.map((x) => x.length));
-    let covers = true;
-    for (let c = 0; c < width && covers; c++) {
+    // a metadata line ("Date;2026-05-02;;") leaves data columns unnamed; a header may miss one
+    // name if it names at least three quarters of the columns
+    let unnamed = 0;
+    for (let c = 0; c < width; c++) {
       let used = 0;
       for (const b of below) if ((b[c] ?? '').trim() !== '') used++;
-      if (used * 2 > below.length && (row[c] ?? '').trim() === '') covers = false;
+      if (used * 2 > below.length && (row[c] ?? '').trim() === '') unnamed++;
     }
-    if (covers) return r;
+    if (unnamed === 0 || (unnamed === 1 && filled >= 3 && filled >= 0.75 * width)) return r;
   }
   return -1;
 }
