@@ -1,0 +1,121 @@
+/**
+ * The Performance table, Forecast series and Costs sheets, and the forecast's scalar results for
+ * the Summary; each takes the analysis result as it is (analysis/performance, analysis/forecast,
+ * analysis/cost) and converts to the display units.
+ */
+import type { ExportColumn, ExportRow } from './columns';
+import { displayUnit, spreadToDisplay, toDisplay, type UnitSystem } from './display-units';
+import { FMT, quantityColumn } from './quantity-columns';
+import type { CostExport, ForecastExport, PerformanceExport } from './types';
+import type { SheetSpec, SummaryItem } from './xlsx';
+
+/** The Performance table sheet: every row of every table, intervals, heat and cautions. */
+export function performanceSheet(tables: readonly PerformanceExport[], system: UnitSystem): SheetSpec {
+  const t = (key: string, header: string) => quantityColumn(key, header, 'temperature', system);
+  const q = (key: string, header: string) => quantityColumn(key, header, 'power', system);
+  const columns: ExportColumn[] = [
+    { key: 'model', header: 'Model' }, t('inlet', 'Inlet temperature'), quantityColumn('flow', 'Flow', 'volumeFlow', system),
+    t('outlet', 'Outlet temperature'), t('outletCiLow', 'Outlet CI low'), t('outletCiHigh', 'Outlet CI high'),
+    t('outletPiLow', 'Outlet PI low'), t('outletPiHigh', 'Outlet PI high'),
+    quantityColumn('deltaT', 'Temperature rise', 'temperatureDifference', system),
+    q('heat', 'Heat rate'), q('heatCiLow', 'Heat CI low'), q('heatCiHigh', 'Heat CI high'), q('heatPiLow', 'Heat PI low'), q('heatPiHigh', 'Heat PI high'),
+    { key: 'level', header: 'Level', numFmt: '0%' }, { key: 'extrapolated', header: 'Extrapolated' }, { key: 'cautions', header: 'Cautions' },
+  ];
+  const T = (v: number) => toDisplay(v, 'temperature', system), Q = (v: number) => toDisplay(v, 'power', system);
+  const rows = tables.flatMap(({ label, table }) => table.rows.map((r): ExportRow => ({
+    model: label ?? table.model, inlet: T(table.inletTempC), flow: toDisplay(r.flowM3PerS, 'volumeFlow', system),
+    outlet: T(r.outletTempC), outletCiLow: T(r.outletCiC[0]), outletCiHigh: T(r.outletCiC[1]), outletPiLow: T(r.outletPiC[0]), outletPiHigh: T(r.outletPiC[1]),
+    deltaT: spreadToDisplay(r.deltaTK, 'temperatureDifference', system),
+    heat: Q(r.heatW), heatCiLow: Q(r.heatCiW[0]), heatCiHigh: Q(r.heatCiW[1]), heatPiLow: Q(r.heatPiW[0]), heatPiHigh: Q(r.heatPiW[1]),
+    level: table.level, extrapolated: r.extrapolated, cautions: r.cautions.map((c) => c.message).join(' ') || null,
+  })));
+  const notes = tables.flatMap(({ label, table }) => table.notes.map((n) => (tables.length > 1 ? `${label ?? table.model}: ${n}` : n)));
+  return { name: 'Performance', columns, rows, notes };
+}
+
+/** The Forecast series sheet: pool and outlet temperature at the sample times of every forecast. */
+export function forecastSheet(forecasts: readonly ForecastExport[], system: UnitSystem): SheetSpec {
+  const stamped = forecasts.some((f) => f.startTime);
+  const columns: ExportColumn[] = [
+    { key: 'forecast', header: 'Forecast' },
+    ...(stamped ? [{ key: 'time', header: 'Time (UTC)', csvName: 'timestamp_utc' }] : []),
+    { key: 'hours', header: 'Elapsed', unit: 'h', numFmt: FMT.hours },
+    quantityColumn('pool', 'Pool temperature', 'temperature', system),
+    quantityColumn('outlet', 'Heater outlet temperature', 'temperature', system),
+  ];
+  const rows: ExportRow[] = [];
+  forecasts.forEach((f, k) => {
+    const r = f.result, name = f.label ?? `Forecast ${k + 1}`;
+    for (let i = 0; i < r.timeH.length; i++) {
+      rows.push({
+        forecast: name, hours: r.timeH[i], time: f.startTime ? new Date(f.startTime.getTime() + r.timeH[i] * 3_600_000) : null,
+        pool: toDisplay(r.tempC[i], 'temperature', system), outlet: toDisplay(r.outletTempC[i], 'temperature', system),
+      });
+    }
+  });
+  return { name: 'Forecast', columns, rows, notes: forecasts.flatMap((f) => f.result.cautions.map((c) => c.message)) };
+}
+
+/** Scalar forecast results (energy budget by term, hours to target, equilibrium) for the Summary. */
+export function forecastSummaryItems(forecasts: readonly ForecastExport[], system: UnitSystem): SummaryItem[] {
+  const temp = displayUnit('temperature', system).label, energy = displayUnit('energy', system).label;
+  return forecasts.flatMap((f, k) => {
+    const r = f.result, section = `Forecast: ${f.label ?? `Forecast ${k + 1}`}`, e = r.energy;
+    const E = (key: string, v: number): SummaryItem => ({ section, key, value: toDisplay(v, 'energy', system), unit: energy, numFmt: '0.00' });
+    return [
+      { section, key: 'Final pool temperature', value: toDisplay(r.finalTempC, 'temperature', system), unit: temp, numFmt: '0.00' },
+      { section, key: 'Highest pool temperature', value: toDisplay(r.maxTempC, 'temperature', system), unit: temp, numFmt: '0.00' },
+      { section, key: 'Highest outlet temperature', value: toDisplay(r.maxOutletTempC, 'temperature', system), unit: temp, numFmt: '0.00' },
+      { section, key: 'Hours to target', value: r.hoursToTarget, unit: 'h', numFmt: FMT.hours },
+      { section, key: 'Equilibrium temperature', value: toDisplay(r.equilibriumTempC, 'temperature', system), unit: temp, numFmt: '0.00' },
+      { section, key: 'Equilibrium note', value: r.equilibriumNote },
+      { section, key: 'Pool water mass', value: toDisplay(r.poolMassKg, 'mass', system), unit: displayUnit('mass', system).label, numFmt: '#,##0' },
+      E('Heater energy', e.heaterJ), E('Solar gain', e.solarJ), E('Evaporation loss', e.evaporationJ), E('Convection loss', e.convectionJ),
+      E('Radiation loss', e.radiationJ), E('Wall loss', e.wallsJ), E('Net stored energy', e.netJ),
+      { section, key: 'Water evaporated', value: toDisplay(e.evaporatedKg, 'mass', system), unit: displayUnit('mass', system).label, numFmt: '0.0' },
+    ];
+  });
+}
+
+/** The Costs sheet: build lines with subtotals, tax and total; running cost; payback. */
+export function costsSheet(c: CostExport, system: UnitSystem): SheetSpec {
+  const cur = c.currency;
+  const columns: ExportColumn[] = [
+    { key: 'section', header: 'Section' }, { key: 'group', header: 'Group' }, { key: 'item', header: 'Item' },
+    { key: 'quantity', header: 'Quantity', numFmt: '0.##' }, { key: 'unitCost', header: 'Unit cost', unit: cur, numFmt: FMT.money },
+    { key: 'amount', header: 'Amount', numFmt: FMT.money }, { key: 'per', header: 'Unit' }, { key: 'taxable', header: 'Taxable' },
+  ];
+  const rows: ExportRow[] = [];
+  if (c.build) {
+    const b = c.build;
+    for (const l of b.lines) rows.push({ section: 'Build', group: l.subassembly, item: l.description, quantity: l.quantity, unitCost: l.unitCost, amount: l.extended, per: cur, taxable: l.taxable });
+    for (const s of b.subtotals) rows.push({ section: 'Build', group: s.subassembly, item: 'Subtotal', amount: s.subtotal, per: cur });
+    rows.push({ section: 'Build', item: 'Subtotal', amount: b.subtotal, per: cur }, { section: 'Build', item: 'Tax', amount: b.tax, per: cur },
+      { section: 'Build', item: 'Total', amount: b.total, per: cur });
+  }
+  if (c.usefulHeat) {
+    const u = c.usefulHeat;
+    rows.push(
+      { section: 'Running', group: u.fuel, item: 'Cost per useful therm (100,000 Btu delivered)', amount: u.perUsefulTherm, per: `${cur}/therm` },
+      { section: 'Running', group: u.fuel, item: 'Cost per useful kWh', amount: u.perUsefulKWh, per: `${cur}/kWh` },
+      { section: 'Running', group: u.fuel, item: u.fuel === 'heat-pump' ? 'COP' : `Efficiency (${u.basis})`, amount: u.efficiency, per: '' },
+    );
+  }
+  if (c.perDegree) {
+    rows.push(system === 'us'
+      ? { section: 'Running', item: 'Cost per degree of the pool', amount: c.perDegree.perDegF, per: `${cur}/°F` }
+      : { section: 'Running', item: 'Cost per degree of the pool', amount: c.perDegree.perK, per: `${cur}/K` });
+  }
+  if (c.payback) {
+    const p = c.payback;
+    rows.push(
+      { section: 'Payback', item: 'Annual running cost, this heater', amount: p.annualCostThis, per: `${cur}/year` },
+      { section: 'Payback', item: 'Annual running cost, the other', amount: p.annualCostOther, per: `${cur}/year` },
+      { section: 'Payback', item: 'Annual saving', amount: p.annualSaving, per: `${cur}/year` },
+      { section: 'Payback', item: 'Simple payback', amount: p.years, per: p.years === null ? 'never pays back' : 'years' },
+      { section: 'Payback', item: 'Capital per useful therm over the life', amount: p.capitalPerUsefulTherm, per: `${cur}/therm` },
+    );
+  }
+  const notes = c.usefulHeat || c.perDegree ? ['Running costs exclude losses during heat-up; heat content on the higher heating value (HHV).'] : [];
+  return { name: 'Costs', columns, rows, notes };
+}
