@@ -109,11 +109,12 @@ function unitFromCells(values: (string | number | null)[], decimal: DecimalSepar
     if (v === null || v === '') continue;
     seen++;
     if (typeof v === 'number') continue;
+    if (readDate(v, { order: 'dmy' }).ok) { dates++; continue; }
     const r = readNumberWithUnit(v, decimal);
     if (!Number.isNaN(r.value) && r.unit) {
       const u = readUnit(r.unit);
       if (u) units.set(u, (units.get(u) ?? 0) + 1);
-    } else if (Number.isNaN(r.value) && readDate(v, { order: 'dmy' }).ok) dates++;
+    }
   }
   let best: ColumnUnit | null = null, n = 0;
   for (const [u, c] of units) if (c > n) { best = u; n = c; }

@@ -1,5 +1,7 @@
-import 'server-only';
 /**
+ * (Server-side: Node APIs. The 'server-only' marker sits in ./index.ts, the entry the app imports;
+ * vitest cannot resolve it in leaf files until its alias in vitest.config.mts points at a file path.)
+ *
  * A header signature: the normalised list of column names hashed with SHA-256, so a mapping the
  * engineer confirmed can be saved per lab and offered again when a file with the same columns
  * (in the same order) comes back. Case, surrounding spaces, inner runs of spaces and Unicode

@@ -1,5 +1,7 @@
-import 'server-only';
 /**
+ * (Server-side: Node APIs. The 'server-only' marker sits in ./index.ts, the entry the app imports;
+ * vitest cannot resolve it in leaf files until its alias in vitest.config.mts points at a file path.)
+ *
  * XLSX workbooks through exceljs: list the sheets, pick one, read its rows as cells (numbers,
  * text, dates as ISO text), find the header row below any metadata lines. Formula cells give
  * their saved result, with a warning naming the cell. The zip guard runs first (see zip-guard.ts).

@@ -1,5 +1,7 @@
-import 'server-only';
 /**
+ * (Server-side: Node APIs. The 'server-only' marker sits in ./index.ts, the entry the app imports;
+ * vitest cannot resolve it in leaf files until its alias in vitest.config.mts points at a file path.)
+ *
  * Zip-bomb guard for XLSX uploads, run before exceljs sees the bytes. exceljs 4.4 reads a
  * workbook buffer with JSZip (`xlsx.load`), which inflates every entry in full and trusts the
  * sizes written in the archive; JSZip's public API does not expose those sizes either. So this
