@@ -56,7 +56,10 @@ export interface XlsxOptions {
 async function load(buf: Uint8Array, opt: XlsxOptions): Promise<ExcelJS.Workbook> {
   const file = opt.fileName;
   if (buf.length === 0) throw new ImportError('empty_file', 'the file is empty (0 bytes)', { file });
-  checkZip(buf, opt.zipLimits ?? DEFAULT_ZIP_LIMITS, file);
+  const entries = checkZip(buf, opt.zipLimits ?? DEFAULT_ZIP_LIMITS, file);
+  if (!entries.some((e) => e.name === 'xl/workbook.xml')) {
+    throw new ImportError('not_xlsx', 'this zip archive holds no workbook (xl/workbook.xml is missing); save the file again as .xlsx', { file });
+  }
   const wb = new ExcelJS.Workbook();
   try {
     await wb.xlsx.load(Buffer.from(buf.buffer, buf.byteOffset, buf.byteLength) as unknown as ArrayBuffer);
