@@ -1,5 +1,6 @@
 import { defineConfig } from 'vitest/config';
 import { fileURLToPath } from 'node:url';
+import path from 'node:path';
 
 const root = fileURLToPath(new URL('.', import.meta.url));
 
@@ -9,7 +10,7 @@ export default defineConfig({
   resolve: {
     alias: {
       '@/': root,
-      'server-only': 'server-only/empty.js',
+      'server-only': path.join(root, 'node_modules/server-only/empty.js'),
     },
   },
   test: {

@@ -1,5 +1,8 @@
 import Link from 'next/link';
+import { Fit } from '@/entities';
 import { AppPage } from '../_components/app-page';
+import { StateBadge } from '../_components/review-panel';
+import { modelLabel } from '../_lib/fit-analysis';
 import { requireLabAction } from '../_lib/viewer';
 
 export const metadata = { title: 'Fits' };
@@ -7,14 +10,43 @@ export const dynamic = 'force-dynamic';
 
 export default async function FitsPage() {
   const v = await requireLabAction('/fits', 'lab:read');
+  const fits = await v.em.find(Fit, { lab: v.current.lab }, { populate: ['rig', 'createdBy'], orderBy: { createdAt: 'desc' }, limit: 200 });
   return (
-    <AppPage viewer={v} title="Fits" lead="Fitted models of outlet temperature against flow, with residuals, uncertainty and review state.">
-      <div className="card p-6 text-ink-soft">
-        <p>No fits in {v.current.lab.name} yet.</p>
-        <p className="mt-2 text-sm">
-          Meanwhile the <Link href="/trials">trials</Link> of each rig are ready to be fitted.
-        </p>
-      </div>
+    <AppPage viewer={v} title="Fits" lead="Saved fits of this lab: each records its trials, model, settings and results, and goes through review.">
+      {fits.length ? (
+        <div className="card overflow-x-auto">
+          <table className="data-table">
+            <thead>
+              <tr>
+                <th scope="col">Fit</th>
+                <th scope="col">Rig</th>
+                <th scope="col">Model</th>
+                <th scope="col">State</th>
+                <th scope="col">Saved (UTC)</th>
+              </tr>
+            </thead>
+            <tbody>
+              {fits.map((f) => (
+                <tr key={f.id}>
+                  <td>
+                    <Link href={`/fits/${f.id}`}>{f.title}</Link> <span className="num text-xs text-ink-muted">v{f.version}</span>
+                  </td>
+                  <td>{f.rig.name}</td>
+                  <td>{modelLabel(f.model)}</td>
+                  <td>
+                    <StateBadge state={f.reviewState} />
+                  </td>
+                  <td className="num whitespace-nowrap">{f.createdAt.toISOString().slice(0, 16).replace('T', ' ')}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      ) : (
+        <div className="card p-6 text-ink-soft">
+          No saved fits yet. Open a rig and choose <strong>Fit models</strong>: <Link href="/rigs">rigs of this lab</Link>.
+        </div>
+      )}
     </AppPage>
   );
 }

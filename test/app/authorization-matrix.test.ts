@@ -18,6 +18,7 @@ interface Fixture {
   labId: string;
   rigId: string;
   trialId: string;
+  fitId: string;
   ownerMemberId: string;
 }
 
@@ -117,6 +118,33 @@ const MATRIX: Record<string, Case[]> = {
   'app/api/rigs/[rigId]/trials/bulk/route.ts': [
     { method: 'POST', url: (f) => `/api/rigs/${f.rigId}/trials/bulk`, body: () => ({ ids: ['not-a-trial'], patch: {} }), expect: { ...writers(422), token: 422 } },
   ],
+  'app/api/rigs/[rigId]/analyze/route.ts': [
+    { method: 'POST', url: (f) => `/api/rigs/${f.rigId}/analyze`, body: () => ({ models: ['coil'] }), expect: { ...members(200), token: 200 } },
+  ],
+  'app/api/labs/[labId]/fits/route.ts': [
+    { method: 'GET', url: (f) => `/api/labs/${f.labId}/fits`, expect: { ...members(200), token: 200 } },
+    { method: 'POST', url: (f) => `/api/labs/${f.labId}/fits`, body: () => ({ title: '' }), expect: { ...writers(422), token: 422 } },
+  ],
+  'app/api/fits/[fitId]/route.ts': [{ method: 'GET', url: (f) => `/api/fits/${f.fitId}`, expect: { ...members(200), token: 200 } }],
+  'app/api/fits/[fitId]/export/route.ts': [{ method: 'GET', url: (f) => `/api/fits/${f.fitId}/export`, expect: { ...members(200), token: 200 } }],
+  'app/api/fits/[fitId]/review/route.ts': [
+    {
+      // A draft cannot be approved: deciders pass authorization and meet the state rule (409).
+      method: 'POST',
+      url: (f) => `/api/fits/${f.fitId}/review`,
+      body: () => ({ move: 'approve' }),
+      expect: { anon: 401, owner: 409, engineer: 403, reviewer: 409, viewer: 403, outsider: 404, token: 403 },
+    },
+  ],
+  'app/api/fits/[fitId]/comments/route.ts': [
+    { method: 'GET', url: (f) => `/api/fits/${f.fitId}/comments`, expect: { ...members(200), token: 200 } },
+    {
+      method: 'POST',
+      url: (f) => `/api/fits/${f.fitId}/comments`,
+      body: () => ({ body: '' }),
+      expect: { anon: 401, owner: 422, engineer: 422, reviewer: 422, viewer: 403, outsider: 404, token: 403 },
+    },
+  ],
   'app/api/trials/[trialId]/route.ts': [
     { method: 'GET', url: (f) => `/api/trials/${f.trialId}`, expect: { ...members(200), token: 200 } },
     { method: 'PATCH', url: (f) => `/api/trials/${f.trialId}`, body: () => ({}), expect: { ...writers(200), token: 200 } },
@@ -201,8 +229,15 @@ describe('authorization matrix', () => {
     const lab = me.body.labs.find((l: { slug: string }) => l.slug === 'cinder-hollow');
     const rigs = await owner.get(`/api/labs/${lab.id}/rigs`);
     const mem = await owner.get(`/api/labs/${lab.id}/members`);
-    const trials = await owner.get(`/api/rigs/${rigs.body.rigs[0].id}/trials?pageSize=1`);
-    fx = { labId: lab.id, rigId: rigs.body.rigs[0].id, trialId: trials.body.trials[0].id, ownerMemberId: mem.body.members.find((m: { role: string }) => m.role === 'owner').id };
+    const trials = await owner.get(`/api/rigs/${rigs.body.rigs[0].id}/trials?pageSize=500&excluded=included`);
+    const saved = await owner.post(`/api/labs/${lab.id}/fits`, {
+      rigId: rigs.body.rigs[0].id,
+      title: 'matrix fit',
+      model: 'coil',
+      trialIds: trials.body.trials.map((t: { id: string }) => t.id),
+    });
+    expect(saved.status, saved.text).toBe(201);
+    fx = { labId: lab.id, rigId: rigs.body.rigs[0].id, trialId: trials.body.trials[0].id, fitId: saved.body.fit.id, ownerMemberId: mem.body.members.find((m: { role: string }) => m.role === 'owner').id };
     const engineer = await clientFor('engineer', false);
     const tok = await engineer.post('/api/tokens', { name: 'matrix token', labId: fx.labId });
     expect(tok.status).toBe(201);

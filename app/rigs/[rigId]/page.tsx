@@ -39,7 +39,11 @@ export default async function RigPage({ params, searchParams }: { params: Promis
         </>
       }
       actions={
-        write ? (
+        <>
+          <Link className={write ? 'btn-quiet' : 'btn-primary'} href={`/rigs/${rig.id}/fit`}>
+            Fit models
+          </Link>
+          {write ? (
           <>
             <Link className="btn-primary" href={`/rigs/${rig.id}/entry`}>
               Add a trial
@@ -53,7 +57,8 @@ export default async function RigPage({ params, searchParams }: { params: Promis
               </Link>
             ) : null}
           </>
-        ) : null
+          ) : null}
+        </>
       }
     >
       {edit && v.can('rig:write') ? (

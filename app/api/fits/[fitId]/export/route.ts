@@ -1,0 +1,63 @@
+import type { FitSuccess } from '@/analysis/fit';
+import type { PerformanceTable } from '@/analysis/performance/performance-table';
+import { fitWorkbook } from '@/app/_lib/export';
+import { loadFit } from '@/app/_lib/fit-access';
+import { modelLabel } from '@/app/_lib/fit-analysis';
+import { route } from '@/app/_lib/route';
+import { Rig } from '@/entities';
+
+interface StoredTrial {
+  id: string;
+  startedAt: string;
+  flowM3PerS: number;
+  inletC: number;
+  outletC: number;
+  bucketVolumeM3: number | null;
+  fillTimesS: number[] | null;
+  ambientC: number | null;
+  notes: string;
+}
+
+/** GET: the saved fit as an XLSX workbook (Summary, Trials, Fit, Residuals, Performance), in the user's units. */
+export const GET = route<{ fitId: string }>({ auth: 'user' }, async (ctx) => {
+  const { fit, member } = await loadFit(ctx, 'lab:export');
+  const rig = await ctx.em.findOneOrFail(Rig, { id: fit.rig.id });
+  const r = fit.result as { fit: FitSuccess; performance: PerformanceTable; trials: StoredTrial[] };
+  const label = modelLabel(fit.model);
+  const buf = await fitWorkbook({
+    unitSystem: ctx.requireActor().user.unitSystem,
+    provenance: {
+      lab: member.lab.name,
+      rig: rig.name,
+      fitId: fit.id,
+      fitVersion: fit.version,
+      model: label,
+      fitTime: fit.createdAt,
+      softwareVersion: fit.softwareVersion,
+      dataHash: fit.trialsHash,
+    },
+    trials: r.trials.map((t, i) => ({
+      id: t.id,
+      order: i + 1,
+      timestamp: new Date(t.startedAt),
+      included: true,
+      flowM3PerS: t.flowM3PerS,
+      inletTempC: t.inletC,
+      outletTempC: t.outletC,
+      ambientTempC: t.ambientC,
+      bucketVolumeM3: t.bucketVolumeM3,
+      fillTimesS: t.fillTimesS,
+      notes: t.notes,
+    })),
+    fits: [{ label, fit: r.fit, pointIds: r.trials.map((t) => t.id) }],
+    performance: [{ label, table: r.performance }],
+    notes: [`Review state: ${fit.reviewState}.`],
+  });
+  const name = `${fit.title.replace(/[^\w.-]+/g, '-').slice(0, 60)}-v${fit.version}.xlsx`;
+  return new Response(new Uint8Array(buf), {
+    headers: {
+      'Content-Type': 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+      'Content-Disposition': `attachment; filename="${name}"`,
+    },
+  });
+});

@@ -1,0 +1,24 @@
+import { Fit } from '@/entities';
+import { fitListDto, saveFit, saveFitInput } from '@/app/_lib/fits';
+import { loadRig } from '@/app/_lib/rigs';
+import { json, route } from '@/app/_lib/route';
+import { z } from 'zod';
+
+type P = { labId: string };
+
+/** GET: the lab's saved fits, newest first. */
+export const GET = route<P>({ auth: 'user', labAction: 'lab:read' }, async (ctx) => {
+  const fits = await ctx.em.find(Fit, { lab: ctx.params.labId }, { populate: ['createdBy'], orderBy: { createdAt: 'desc' }, limit: 200 });
+  return json({ fits: fits.map(fitListDto) });
+});
+
+const body = saveFitInput.extend({ rigId: z.string() });
+
+/** POST: save a fit (recomputed on the server) as an immutable record; same title → next version. */
+export const POST = route<P>({ auth: 'user', labAction: 'fit:write', maxBodyBytes: 256 * 1024 }, async (ctx) => {
+  const { rigId, ...input } = await ctx.json(body);
+  const { rig } = await loadRig(ctx, rigId, 'fit:write');
+  if (rig.lab.id !== ctx.params.labId) return json({ error: 'not_found', message: 'Not found.' }, { status: 404 });
+  const fit = await saveFit(ctx.em, rig, ctx.requireActor().user, input);
+  return json({ fit: fitListDto(fit) }, { status: 201 });
+});

@@ -1,0 +1,97 @@
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { Fit, Rig } from '@/entities';
+import type { FitSuccess } from '@/analysis/fit';
+import type { FlowChoice as Choice } from '@/analysis/performance/choose-flow';
+import { AppPage } from '../../_components/app-page';
+import { Cautions, ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTableView, type ComparisonView, type PerformanceView } from '../../_components/fit-report';
+import { PlotFigure } from '../../_components/plot-figure';
+import { ReviewPanel } from '../../_components/review-panel';
+import { modelLabel } from '../../_lib/fit-analysis';
+import { reviewTrail } from '../../_lib/fits';
+import { plotToSvg } from '../../_lib/plot-svg';
+import { fitCurveInputFromFits, fitCurvePlot, heatInputFromFit, heatPlot, residualInputFromFit, residualPlots, type PlotFigure as Figure } from '../../_lib/plots';
+import { UUID } from '../../_lib/rigs';
+import { requireLabAction } from '../../_lib/viewer';
+
+export const metadata = { title: 'Saved fit' };
+export const dynamic = 'force-dynamic';
+
+const svg = (f: Figure) => ({ title: f.title, summary: f.summary, svg: plotToSvg(f.options) });
+
+export default async function SavedFitPage({ params }: { params: Promise<{ fitId: string }> }) {
+  const { fitId } = await params;
+  const v = await requireLabAction(`/fits/${fitId}`, 'lab:read');
+  const row = UUID.test(fitId) ? await v.em.findOne(Fit, { id: fitId, lab: v.current.lab }, { populate: ['createdBy'] }) : null;
+  if (!row) notFound();
+  const rig = await v.em.findOneOrFail(Rig, { id: row.rig.id });
+  const r = row.result as { fit: FitSuccess; comparison: ComparisonView; choice: Choice; performance: PerformanceView; trials: { startedAt: string }[] };
+  const u = v.user.unitSystem;
+  const label = modelLabel(row.model);
+  const labels = r.trials.map((t) => t.startedAt.slice(0, 16).replace('T', ' '));
+  const inletC = r.choice.inletTempC;
+  const curve = svg(fitCurvePlot(fitCurveInputFromFits([{ label, fit: r.fit }], { labels, inletC }), u));
+  const heat = svg(heatPlot(heatInputFromFit(r.fit, { inletC, choice: r.choice, labels }), u));
+  const res = residualPlots(residualInputFromFit(r.fit, { labels, times: r.trials.map((t) => new Date(t.startedAt)) }), u);
+  const trail = await reviewTrail(v.em, 'fit', row.id);
+  return (
+    <AppPage
+      viewer={v}
+      title={`${row.title} · v${row.version}`}
+      lead={
+        <>
+          {label} on <Link href={`/rigs/${rig.id}`}>{rig.name}</Link>, {row.trialIds.length} trials, saved {row.createdAt.toISOString().slice(0, 16).replace('T', ' ')} UTC by{' '}
+          {row.createdBy?.name ?? 'a former member'}. <span className="num text-xs">{row.softwareVersion} · trials {row.trialsHash.slice(0, 12)}</span>
+        </>
+      }
+      actions={
+        <>
+          <a className="btn-quiet" href={`/api/fits/${row.id}/export`}>
+            Download XLSX
+          </a>
+          <Link className="btn-quiet" href={`/rigs/${rig.id}/fit`}>
+            Refit
+          </Link>
+        </>
+      }
+    >
+      <div className="grid gap-6 xl:grid-cols-[1fr_20rem]">
+        <div className="min-w-0 space-y-6">
+          <PlotFigure {...curve} filename="outlet-vs-flow" />
+          <section className="card space-y-4 p-4">
+            <ParameterTable fit={{ ...r.fit, label }} />
+            <FitStats fit={{ ...r.fit, label }} units={u} />
+          </section>
+          <section className="card p-4">
+            <h2 className="mb-3 text-lg">Model comparison</h2>
+            <ComparisonTable comparison={r.comparison} units={u} />
+          </section>
+          <div className="grid gap-4 lg:grid-cols-2">
+            {[res.vsFlow, res.vsFitted, res.vsOrder, res.qq].map((f, i) => (
+              <PlotFigure key={i} {...svg(f)} filename={`residuals-${i}`} />
+            ))}
+          </div>
+          <PlotFigure {...heat} filename="heat-vs-flow" />
+          <section className="card p-4">
+            <h2 className="mb-3 text-lg">Choosing a flow</h2>
+            <FlowChoice choice={r.choice} units={u} />
+          </section>
+          <section className="card space-y-3 p-4">
+            <PerformanceTableView table={r.performance} units={u} />
+            <Cautions cautions={r.performance.cautions} />
+          </section>
+        </div>
+        <ReviewPanel
+          kind="fit"
+          id={row.id}
+          state={row.reviewState}
+          canSubmit={v.can('fit:write')}
+          canDecide={v.can('review:decide')}
+          canComment={v.can('review:comment')}
+          comments={trail.comments}
+          events={trail.events}
+        />
+      </div>
+    </AppPage>
+  );
+}

@@ -1,0 +1,185 @@
+'use client';
+
+import { useRouter } from 'next/navigation';
+import { useEffect, useState } from 'react';
+import { api, ApiError } from '../../../_components/api';
+import { Cautions, ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTableView, type ChoiceView, type ComparisonView, type FitView, type PerformanceView } from '../../../_components/fit-report';
+import { PlotFigure } from '../../../_components/plot-figure';
+import { tempIn, tempOut, tempUnit, type Units } from '../../../_components/units';
+
+interface Figure {
+  title: string;
+  summary: string;
+  svg: string;
+}
+interface Analysis {
+  trialIds: string[];
+  n: number;
+  planInletC: number;
+  comparison: ComparisonView & { best: string | null };
+  fits: FitView[];
+  choice: ChoiceView | null;
+  performance: PerformanceView | null;
+  plots: Record<string, Figure>;
+}
+
+const MODELS: { id: string; label: string }[] = [
+  { id: 'coil', label: 'Constant-source coil (ε–NTU)' },
+  { id: 'exp-inlet', label: 'Exponential toward the inlet' },
+  { id: 'exp-approach', label: 'Exponential approach' },
+  { id: 'poly2', label: 'Quadratic' },
+  { id: 'poly3', label: 'Cubic' },
+  { id: 'power', label: 'Power law' },
+];
+
+/** Fit and compare models live on a rig's included trials; save the chosen fit as a record. */
+export function FitWorkbench({ rigId, rigName, labId, units, canSave }: { rigId: string; rigName: string; labId: string; units: Units; canSave: boolean }) {
+  const router = useRouter();
+  const [models, setModels] = useState<string[]>(['coil', 'exp-inlet']);
+  const [inlet, setInlet] = useState<string>('');
+  const [result, setResult] = useState<Analysis | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  const [title, setTitle] = useState(`${rigName} — coil fit`);
+  const [primary, setPrimary] = useState('coil');
+  const [saveError, setSaveError] = useState<string | null>(null);
+
+  useEffect(() => {
+    if (!models.length) return;
+    const planInletC = inlet.trim() ? tempIn(Number(inlet.replace(',', '.')), units) : undefined;
+    if (planInletC !== undefined && !Number.isFinite(planInletC)) return;
+    let live = true;
+    setBusy(true);
+    api<Analysis>(`/api/rigs/${rigId}/analyze`, { body: { models, ...(planInletC !== undefined ? { planInletC } : {}) } })
+      .then((r) => {
+        if (!live) return;
+        setResult(r);
+        setError(null);
+        if (!inlet) setInlet(tempOut(r.planInletC, units).toFixed(1));
+      })
+      .catch((e) => live && setError(e instanceof ApiError ? e.message : 'The server could not be reached.'))
+      .finally(() => live && setBusy(false));
+    return () => {
+      live = false;
+    };
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [models.join(','), inlet, rigId]);
+
+  const fitsOk = result?.fits ?? [];
+  const first = fitsOk[0];
+
+  async function save() {
+    setSaveError(null);
+    try {
+      const planInletC = inlet.trim() ? tempIn(Number(inlet), units) : undefined;
+      const r = await api<{ fit: { id: string } }>(`/api/labs/${labId}/fits`, {
+        body: { rigId, title, model: primary, trialIds: result?.trialIds, compareWith: models.filter((m) => m !== primary), ...(planInletC !== undefined ? { planInletC } : {}) },
+      });
+      router.push(`/fits/${r.fit.id}`);
+    } catch (e) {
+      setSaveError(e instanceof ApiError ? e.message : 'The server could not be reached.');
+    }
+  }
+
+  return (
+    <div className="grid gap-6 lg:grid-cols-[17rem_1fr]">
+      <aside className="space-y-5">
+        <fieldset className="card space-y-2 p-4">
+          <legend className="px-1 font-semibold">Models</legend>
+          {MODELS.map((m) => (
+            <label key={m.id} className="flex items-start gap-2 text-sm">
+              <input
+                type="checkbox"
+                className="mt-1"
+                checked={models.includes(m.id)}
+                onChange={(e) => setModels(e.target.checked ? [...models, m.id] : models.filter((x) => x !== m.id))}
+              />
+              {m.label}
+            </label>
+          ))}
+        </fieldset>
+        <label className="card block p-4">
+          <span className="field-label">Plan for an inlet of ({tempUnit(units)})</span>
+          <input className="field-input num" inputMode="decimal" value={inlet} onChange={(e) => setInlet(e.target.value)} />
+          <span className="mt-1 block text-xs text-ink-muted">Used for the heat curve, the flow choice and the performance table.</span>
+        </label>
+        {canSave && first ? (
+          <section className="card space-y-3 p-4" aria-labelledby="save-h">
+            <h2 id="save-h" className="font-semibold">Save a fit</h2>
+            <label className="block">
+              <span className="field-label">Title</span>
+              <input className="field-input" value={title} onChange={(e) => setTitle(e.target.value)} />
+            </label>
+            <label className="block">
+              <span className="field-label">Model to save</span>
+              <select className="field-input" value={primary} onChange={(e) => setPrimary(e.target.value)}>
+                {fitsOk.map((f) => (
+                  <option key={f.model} value={f.model}>
+                    {f.label}
+                  </option>
+                ))}
+              </select>
+            </label>
+            <p className="text-xs text-ink-muted">The saved fit records these {result?.n} trials and cannot change; refitting makes a new version.</p>
+            {saveError ? <p role="alert" className="text-sm text-danger-text">{saveError}</p> : null}
+            <button type="button" className="btn-primary w-full" onClick={save}>
+              Save fit
+            </button>
+          </section>
+        ) : null}
+      </aside>
+      <div className="min-w-0 space-y-6" aria-busy={busy}>
+        {error ? <p role="alert" className="rounded-lg border border-danger-line bg-danger-bg px-3 py-2 text-danger-text">{error}</p> : null}
+        {!result && !error ? <p role="status" className="text-ink-muted">Fitting…</p> : null}
+        {result ? (
+          <>
+            <p className="text-sm text-ink-muted">
+              {result.n} included trials. Excluded trials are drawn hollow and not fitted; change them on the rig page.
+            </p>
+            {result.plots.curve ? <PlotFigure {...result.plots.curve} filename="outlet-vs-flow" /> : null}
+            <section className="card p-4" aria-labelledby="cmp-h">
+              <h2 id="cmp-h" className="mb-3 text-lg">Model comparison</h2>
+              <ComparisonTable comparison={result.comparison} units={units} />
+            </section>
+            {first ? (
+              <section className="card space-y-4 p-4" aria-labelledby="best-h">
+                <h2 id="best-h" className="text-lg">{first.label}</h2>
+                <ParameterTable fit={first} />
+                <FitStats fit={first} units={units} />
+              </section>
+            ) : null}
+            <section aria-labelledby="res-h">
+              <h2 id="res-h" className="mb-3 text-lg">Residuals of {first?.label}</h2>
+              <div className="grid gap-4 xl:grid-cols-2">
+                {['resFlow', 'resFitted', 'resOrder', 'qq'].map((k) => (result.plots[k] ? <PlotFigure key={k} {...result.plots[k]} filename={`residuals-${k}`} /> : null))}
+              </div>
+            </section>
+            {result.plots.heat ? <PlotFigure {...result.plots.heat} filename="heat-vs-flow" /> : null}
+            {result.choice ? (
+              <section className="card p-4" aria-labelledby="choice-h">
+                <h2 id="choice-h" className="mb-3 text-lg">Choosing a flow</h2>
+                <FlowChoice choice={result.choice} units={units} />
+              </section>
+            ) : null}
+            {result.performance ? (
+              <section className="card space-y-3 p-4" aria-labelledby="perf-h">
+                <h2 id="perf-h" className="text-lg">Performance table</h2>
+                <PerformanceTableView table={result.performance} units={units} />
+                <Cautions cautions={result.performance.cautions} />
+              </section>
+            ) : null}
+            {fitsOk.slice(1).map((fv) => (
+              <details key={fv.model} className="card p-4">
+                <summary className="cursor-pointer font-semibold">{fv.label}: parameters and statistics</summary>
+                <div className="mt-3 space-y-4">
+                  <ParameterTable fit={fv} />
+                  <FitStats fit={fv} units={units} />
+                </div>
+              </details>
+            ))}
+          </>
+        ) : null}
+      </div>
+    </div>
+  );
+}

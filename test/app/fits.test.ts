@@ -1,0 +1,58 @@
+import { describe, expect, test } from 'vitest';
+import { signedIn, mailTo } from './support/client';
+
+describe('fitting on the server and saved fits', () => {
+  test('the demo coil rig: the coil model wins and the exponential shows patterned residuals', async () => {
+    const eng = await signedIn('engineer@cinder-hollow.test');
+    const lab = (await eng.get('/api/me')).body.labs[0];
+    const rig = (await eng.get(`/api/labs/${lab.id}/rigs`)).body.rigs.find((r: { name: string }) => r.name === 'Blue Ring Burner Loop');
+    const r = await eng.post(`/api/rigs/${rig.id}/analyze`, { models: ['coil', 'exp-inlet'] });
+    expect(r.status, r.text).toBe(200);
+    // The demo trials were generated from the coil model with Ts = 135 °C, UA = 260 W/K
+    // (fixtures/README.md): the fit must recover them within its own 95 % intervals.
+    const coil = r.body.fits.find((f: { model: string }) => f.model === 'coil');
+    expect(coil.params.Ts.ciLow).toBeLessThan(135);
+    expect(coil.params.Ts.ciHigh).toBeGreaterThan(135);
+    expect(coil.params.UA.ciLow).toBeLessThan(260);
+    expect(coil.params.UA.ciHigh).toBeGreaterThan(260);
+    expect(r.body.comparison.ranking[0].model).toBe('coil');
+    expect(r.body.plots.curve.svg).toMatch(/^<svg/);
+    expect(r.body.plots.curve.svg).not.toMatch(/NaN/);
+    // the coil model has no interior optimum (DOMAIN.md §1.2): a ceiling-fraction flow instead
+    expect(r.body.choice.optimum).toBeNull();
+    expect(r.body.choice.ceiling.fraction).toBe(0.9);
+  });
+
+  test('a saved fit is recomputed from stored trials, versioned by title, reviewed, and the author is told', async () => {
+    const eng = await signedIn('engineer@cinder-hollow.test');
+    const lab = (await eng.get('/api/me')).body.labs[0];
+    const rig = (await eng.get(`/api/labs/${lab.id}/rigs`)).body.rigs.find((r: { name: string }) => r.name === 'Stovepipe Coil A');
+    const ids = (await eng.get(`/api/rigs/${rig.id}/trials?pageSize=500&excluded=included`)).body.trials.map((t: { id: string }) => t.id);
+    const title = `review walk ${Date.now()}`;
+    const v1 = await eng.post(`/api/labs/${lab.id}/fits`, { rigId: rig.id, title, model: 'coil', trialIds: ids, compareWith: ['exp-inlet'] });
+    expect(v1.status, v1.text).toBe(201);
+    const v2 = await eng.post(`/api/labs/${lab.id}/fits`, { rigId: rig.id, title, model: 'coil', trialIds: ids.slice(1) });
+    expect(v2.body.fit.version).toBe(2);
+    const saved = (await eng.get(`/api/fits/${v1.body.fit.id}`)).body.fit;
+    expect(saved.trialIds).toEqual(ids);
+    expect(saved.trialsHash).toMatch(/^[0-9a-f]{64}$/);
+    expect(saved.softwareVersion).toMatch(/^emberline /);
+    expect(saved.result.fit.params.UA.value).toBeGreaterThan(0);
+
+    expect((await eng.post(`/api/fits/${v1.body.fit.id}/review`, { move: 'submit' })).body.reviewState).toBe('in-review');
+    const rev = await signedIn('reviewer@cinder-hollow.test');
+    expect((await rev.post(`/api/fits/${v1.body.fit.id}/comments`, { body: 'Residuals look random; Ts well determined.' })).status).toBe(201);
+    const approved = await rev.post(`/api/fits/${v1.body.fit.id}/review`, { move: 'approve', note: 'Fine.' });
+    expect(approved.body.reviewState).toBe('approved');
+    const again = await rev.post(`/api/fits/${v1.body.fit.id}/review`, { move: 'approve' });
+    expect(again.status).toBe(409);
+    const trail = (await eng.get(`/api/fits/${v1.body.fit.id}`)).body;
+    expect(trail.events.map((e: { to: string }) => e.to)).toEqual(['in-review', 'approved']);
+    expect(trail.comments[0].by).toBe('Demo Reviewer');
+    await new Promise((r) => setTimeout(r, 300));
+    expect(mailTo('engineer@cinder-hollow.test').some((m) => m.subject === `Approved: ${title} v1`)).toBe(true);
+    const xlsx = await fetch(`${process.env.EMBERLINE_URL}/api/fits/${v1.body.fit.id}/export`, { headers: { Cookie: [...eng.cookies].map(([k, v]) => `${k}=${v}`).join('; ') } });
+    expect(xlsx.status).toBe(200);
+    expect(xlsx.headers.get('content-type')).toMatch(/spreadsheetml/);
+  });
+});
