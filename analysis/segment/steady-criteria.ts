@@ -90,7 +90,7 @@ export function resolveCriteria(preset: PresetName, edits: Partial<Omit<SteadyCr
   const positive: (keyof SteadyCriteria)[] = ['windowS', 'blockS', 'minDurationS'];
   for (const k of positive) {
     const v = c[k] as number;
-    if (typeof v !== 'number' || !Number.isFinite(v) || v <= 0) throw new RangeError(`${k} must be a number greater than 0, got ${JSON.stringify(v)}`);
+    if (typeof v !== 'number' || !Number.isFinite(v) || v <= 0) throw new RangeError(`${k} must be a number greater than 0, got ${typeof v === 'number' ? String(v) : JSON.stringify(v)}`);
   }
   const nonNeg: (keyof SteadyCriteria)[] = [
     'maxOutletSlopeKPerS', 'maxInletSlopeKPerS', 'inletTolK', 'inletTolFraction', 'flowTolFraction', 'flowTolAbsM3PerS',
@@ -99,7 +99,7 @@ export function resolveCriteria(preset: PresetName, edits: Partial<Omit<SteadyCr
   for (const k of nonNeg) {
     const v = c[k];
     if (v === null) continue;
-    if (typeof v !== 'number' || !Number.isFinite(v) || v < 0) throw new RangeError(`${k} must be a number of 0 or more (or null), got ${JSON.stringify(v)}`);
+    if (typeof v !== 'number' || !Number.isFinite(v) || v < 0) throw new RangeError(`${k} must be a number of 0 or more (or null), got ${typeof v === 'number' ? String(v) : JSON.stringify(v)}`);
   }
   return c;
 }
