@@ -8,7 +8,7 @@ import {
   DEFAULT_UNIT, FIELD_KIND, kindOfUnit, readUnit, unitFitsField,
   type ColumnUnit, type TrialField,
 } from './column-units';
-import { readDate } from './read-date';
+import { detectDateOrder, readDate, type DateOrder } from './read-date';
 import { readNumberWithUnit } from './read-number';
 import type { DecimalSeparator } from './detect-dialect';
 
@@ -36,8 +36,9 @@ export function splitHeader(header: string): HeaderParts {
   if (glued && readUnit(glued[2])) return { name: glued[1], unitText: glued[2], unit: readUnit(glued[2]) };
   const sp = /^(.*\S)[\s_]+(\S+)$/.exec(h);
   if (sp && readUnit(sp[2])) return { name: sp[1], unitText: sp[2], unit: readUnit(sp[2]) };
+  // a header that is only a flow or temperature unit ("gpm", "°C"); "date" or "min" stay names
   const whole = readUnit(h);
-  if (whole && h.length > 1) return { name: '', unitText: h, unit: whole };
+  if (whole && h.length > 1 && (kindOfUnit(whole) === 'volumeFlow' || kindOfUnit(whole) === 'temperature')) return { name: '', unitText: h, unit: whole };
   return { name: h, unitText: null, unit: null };
 }
 
@@ -93,6 +94,12 @@ export interface MappingSuggestion {
   columns: ColumnSuggestion[];
   /** fields a trial sheet still lacks, in words ("inlet temperature", "flow or bucket volume and fill time") */
   missing: string[];
+  /**
+   * How the time column's slashed dates read: settled by the sample ('dmy' / 'mdy'), 'ambiguous'
+   * (every date has both parts ≤ 12: the engineer must choose), 'conflict' (values point both
+   * ways), or null (no slashed dates). Pass the choice as `dateOrder` in the mapping.
+   */
+  dateOrder: DateOrder | 'ambiguous' | 'conflict' | null;
 }
 
 function byName(tokens: string[], joined: string): { field: TrialField; strength: number } | null {
@@ -174,7 +181,9 @@ export function suggestMapping(header: string[], sample: (string | number | null
       c.field = null; c.unit = null; c.unitSource = null; c.confidence = 0;
     }
   }
-  return { columns: cols, missing: missingTrialFields(cols.filter((c) => c.field).map((c) => c.field!)) };
+  const timeCol = cols.find((c) => c.field === 'time');
+  const dateOrder = timeCol ? detectDateOrder(sample.map((r) => r[timeCol.column]).filter((v): v is string => typeof v === 'string')) : null;
+  return { columns: cols, missing: missingTrialFields(cols.filter((c) => c.field).map((c) => c.field!)), dateOrder };
 }
 
 /** What a trial sheet lacks, in words, given the mapped fields. */

@@ -10,6 +10,7 @@ import ExcelJS from 'exceljs';
 import { checkHeader, columnLetter } from './check-header';
 import { findHeaderRow } from './detect-dialect';
 import { ImportError } from './import-error';
+import { formatBytes } from './decode-text';
 import { checkZip, DEFAULT_ZIP_LIMITS, type ZipLimits } from './zip-guard';
 import type { CellValue } from './apply-mapping';
 import type { MetadataLine } from './read-delimited';
@@ -51,11 +52,16 @@ export interface XlsxOptions {
   maxRows?: number;
   /** sheet row number of the header, when the guess is wrong */
   headerLine?: number;
+  /** refuse files larger than this many bytes (default: no limit; the upload route enforces its own while streaming) */
+  maxBytes?: number;
 }
 
 async function load(buf: Uint8Array, opt: XlsxOptions): Promise<ExcelJS.Workbook> {
   const file = opt.fileName;
   if (buf.length === 0) throw new ImportError('empty_file', 'the file is empty (0 bytes)', { file });
+  if (opt.maxBytes !== undefined && buf.length > opt.maxBytes) {
+    throw new ImportError('too_large', `the file is larger than the limit of ${formatBytes(opt.maxBytes)}`, { file });
+  }
   const entries = checkZip(buf, opt.zipLimits ?? DEFAULT_ZIP_LIMITS, file);
   if (!entries.some((e) => e.name === 'xl/workbook.xml')) {
     throw new ImportError('not_xlsx', 'this zip archive holds no workbook (xl/workbook.xml is missing); save the file again as .xlsx', { file });

@@ -71,6 +71,12 @@ describe('auto-mapping from header names and unit hints', () => {
     expect(s.missing).toEqual([]);
   });
 
+  test('reports how slashed dates in the time column read, so the page can ask when they are ambiguous', () => {
+    expect(suggestMapping(['Time', 'inlet'], [['05/14/2026 9:40 AM', '59'], ['05/02/2026', '60']]).dateOrder).toBe('mdy');
+    expect(suggestMapping(['Time', 'inlet'], [['05/02/2026', '59'], ['06/03/2026', '60']]).dateOrder).toBe('ambiguous');
+    expect(suggestMapping(['Time', 'inlet'], [['2026-05-02', '59']]).dateOrder).toBeNull();
+  });
+
   test('says what a trial sheet still lacks', () => {
     expect(suggestMapping(['time', 'outlet (°C)', 'bucket (L)']).missing).toEqual(['inlet temperature', 'flow, or bucket volume and at least one fill time']);
   });

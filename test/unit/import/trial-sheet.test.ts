@@ -63,6 +63,14 @@ describe('trial sheets saved by LibreOffice, mapped and converted to SI', () => 
     expect(second.row.outletTempC).toBeCloseTo(37, 12); // 98.6 °F = 37 °C (SP 811 B.9)
   });
 
+  test('ambiguous slashed dates are errors until the engineer chooses the order, then they read', async () => {
+    const t = await readDelimited('date,inlet (°C),outlet (°C),flow (L/min)\n05/02/2026 10:00,15,35,10\n');
+    const ask = importTrialSheet(t, acceptSuggestions(t, '.'));
+    expect(ask.rows[0].issues.map((i) => [i.column, i.message])).toEqual([['date', '"05/02/2026 10:00" could be day/month or month/day; choose the date order']]);
+    const dmy = importTrialSheet(t, acceptSuggestions(t, '.', { dateOrder: 'dmy' })).rows[0];
+    expect(dmy.ok && dmy.row.time).toMatchObject({ iso: '2026-02-05T10:00:00' });
+  });
+
   test('metadata lines above the header and clock times (fixtures/import/trials-metadata.csv)', async () => {
     const t = await readDelimited(fixture('trials-metadata.csv'));
     const r = importTrialSheet(t, acceptSuggestions(t, '.'));

@@ -106,6 +106,12 @@ describe('XLSX: bad input', () => {
     expect((await importErrorOf(() => listSheets(new Uint8Array(0), { fileName: 'e.xlsx' }))).message).toBe('e.xlsx: the file is empty (0 bytes)');
   });
 
+  test('a file over the byte limit is refused before it is unpacked', async () => {
+    const e = await importErrorOf(() => listSheets(fixture('trials-workbook.xlsx'), { fileName: 'w.xlsx', maxBytes: 1000 }));
+    expect(e.code).toBe('too_large');
+    expect(e.message).toBe('w.xlsx: the file is larger than the limit of 1 kB');
+  });
+
   test('a CSV named .xlsx', async () => {
     const e = await importErrorOf(() => listSheets(fixture('trials-de.csv'), { fileName: 'trials.xlsx' }));
     expect(e.code).toBe('not_xlsx');
