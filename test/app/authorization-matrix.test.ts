@@ -145,6 +145,14 @@ const MATRIX: Record<string, Case[]> = {
       expect: { anon: 401, owner: 422, engineer: 422, reviewer: 422, viewer: 403, outsider: 404, token: 403 },
     },
   ],
+  'app/api/rigs/[rigId]/uploads/route.ts': [{ method: 'POST', url: (f) => `/api/rigs/${f.rigId}/uploads`, expect: { ...writers(400), token: 400 } }],
+  'app/api/rigs/[rigId]/uploads/[fileId]/preview/route.ts': [
+    { method: 'POST', url: (f) => `/api/rigs/${f.rigId}/uploads/${uuid0}/preview`, expect: { anon: 401, owner: 404, engineer: 404, reviewer: 403, viewer: 403, outsider: 404, token: 404 } },
+  ],
+  'app/api/rigs/[rigId]/uploads/[fileId]/confirm/route.ts': [
+    { method: 'POST', url: (f) => `/api/rigs/${f.rigId}/uploads/${uuid0}/confirm`, expect: { anon: 401, owner: 404, engineer: 404, reviewer: 403, viewer: 403, outsider: 404, token: 404 } },
+  ],
+  'app/api/rigs/[rigId]/imports/route.ts': [{ method: 'POST', url: (f) => `/api/rigs/${f.rigId}/imports`, expect: { ...writers(400), token: 400 } }],
   'app/api/trials/[trialId]/route.ts': [
     { method: 'GET', url: (f) => `/api/trials/${f.trialId}`, expect: { ...members(200), token: 200 } },
     { method: 'PATCH', url: (f) => `/api/trials/${f.trialId}`, body: () => ({}), expect: { ...writers(200), token: 200 } },

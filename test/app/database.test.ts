@@ -15,7 +15,7 @@ describe('the data layer on the real PostgreSQL', () => {
   test('the fresh test database holds the demo lab with its rigs, trials and members', async () => {
     const em = orm.em.fork();
     const lab = await em.findOneOrFail(Lab, { slug: demoLab.slug });
-    expect(await em.count(Rig, { lab })).toBe(rigPlans.length);
+    expect(await em.count(Rig, { lab, name: { $in: rigPlans.map((p) => p.name) } })).toBe(rigPlans.length);
     expect(await em.count(Trial, { lab, origin: 'demo' })).toBe(rigPlans.reduce((n, p) => n + p.flowsLPerMin.length, 0));
     for (const u of demoUsers) {
       const m = await em.findOneOrFail(Membership, { lab, user: { email: u.email } });

@@ -1,0 +1,170 @@
+import 'server-only';
+import type { EntityManager } from '@mikro-orm/postgresql';
+import { z } from 'zod';
+import { ColumnMapping, SourceFile, Trial, type LabRow, type RigRow, type SourceFileRow, type UserRow } from '@/entities';
+import { HttpError } from './errors';
+import {
+  ImportError, confirmedMappingSchema, headerSignature, importTrialSheet, listSheets, readDelimited, readXlsxSheet, suggestMapping,
+  type CellTable, type TrialSheetResult,
+} from './import';
+import { getObjectBuffer, putFile, spool } from './storage';
+
+/** Upload size limit (IMPORT_MAX_BYTES, default 100 MB), enforced while the body streams in. */
+export const maxUploadBytes = () => Number(process.env.IMPORT_MAX_BYTES ?? 100 * 1024 * 1024);
+/** Trial sheets up to this size are previewed and imported within the request. */
+const INLINE_MAX_BYTES = 20 * 1024 * 1024;
+
+export const sourceFileDto = (f: SourceFileRow) => ({
+  id: f.id,
+  filename: f.filename,
+  sizeBytes: f.sizeBytes,
+  sha256: f.sha256,
+  state: f.state,
+  rowsImported: f.rowsImported,
+  createdAt: f.createdAt.toISOString(),
+});
+
+/** Stores an upload unchanged (streamed, hashed, size-limited). The same bytes uploaded twice in a lab are recognised. */
+export async function storeUpload(em: EntityManager, rig: RigRow, user: UserRow, body: ReadableStream<Uint8Array> | null, filename: string, contentType: string) {
+  const spooled = await spool(body, maxUploadBytes());
+  try {
+    if (spooled.sizeBytes === 0) throw new HttpError(422, 'empty', `"${filename}" is empty: there is nothing to import.`);
+    const existing = await em.findOne(SourceFile, { lab: rig.lab, sha256: spooled.sha256, purpose: 'trials' });
+    if (existing) return { file: existing, duplicate: true };
+    const storageKey = await putFile(spooled, rig.lab.id, contentType);
+    const file = em.create(SourceFile, { lab: rig.lab, rig, uploadedBy: user, filename: filename.slice(0, 255), contentType: contentType.slice(0, 120), sizeBytes: spooled.sizeBytes, sha256: spooled.sha256, storageKey });
+    await em.flush();
+    return { file, duplicate: false };
+  } finally {
+    await spooled.cleanup();
+  }
+}
+
+const isZip = (b: Buffer) => b.length > 4 && b[0] === 0x50 && b[1] === 0x4b && b[2] === 0x03 && b[3] === 0x04;
+
+async function readTable(file: SourceFileRow, sheet?: string) {
+  if (file.sizeBytes > INLINE_MAX_BYTES) throw new HttpError(413, 'too_large_inline', 'Files over 20 MB are imported as sensor logs in the background, which is not available yet here.');
+  const buf = await getObjectBuffer(file.storageKey);
+  try {
+    if (isZip(buf)) {
+      const sheets = await listSheets(buf, { fileName: file.filename });
+      const t = await readXlsxSheet(buf, sheet ?? sheets[0]?.name, { fileName: file.filename });
+      return { kind: 'xlsx' as const, sheets, table: t as CellTable, header: t.header, metadata: t.metadata, warnings: t.cellWarnings.map((w) => w.message), decimal: '.' as const, dialect: null };
+    }
+    const t = await readDelimited(buf, { fileName: file.filename });
+    return { kind: 'text' as const, sheets: [], table: t as CellTable, header: t.header, metadata: t.metadata, warnings: t.warnings, decimal: t.dialect.decimal, dialect: t.dialect };
+  } catch (e) {
+    if (e instanceof ImportError) throw new HttpError(422, 'unreadable', e.message);
+    throw e;
+  }
+}
+
+const rowsView = (r: TrialSheetResult, limit = 500) => ({
+  okCount: r.okCount,
+  errorCount: r.errorCount,
+  warningCount: r.warningCount,
+  notices: r.notices,
+  issues: r.rows.flatMap((x) => x.issues).slice(0, limit),
+  preview: r.rows.slice(0, 8).map((x) => (x.ok ? { line: x.line, ok: true, row: x.row } : { line: x.line, ok: false })),
+});
+
+/** What the mapping screen shows: sheets, header, metadata, the suggested (or saved) mapping and the check of every row. */
+export async function previewImport(em: EntityManager, lab: LabRow, file: SourceFileRow, opts: { sheet?: string; mapping?: unknown }) {
+  const t = await readTable(file, opts.sheet);
+  const signature = headerSignature(t.header);
+  const saved = await em.findOne(ColumnMapping, { lab, headerSignature: signature });
+  const suggestion = suggestMapping(t.header, t.table.rows.slice(0, 50) as (string | number | null)[][], t.decimal);
+  const mapping =
+    opts.mapping ??
+    saved?.mapping ?? {
+      shape: 'trialSheet',
+      decimal: t.decimal,
+      columns: suggestion.columns.filter((c) => c.field).map((c) => ({ column: c.column, header: c.header, field: c.field, ...(c.unit ? { unit: c.unit } : {}) })),
+    };
+  let check: ReturnType<typeof rowsView> | null = null;
+  let mappingError: string | null = null;
+  try {
+    check = rowsView(importTrialSheet(t.table, mapping, { file: file.filename, sheet: t.kind === 'xlsx' ? opts.sheet : undefined }));
+  } catch (e) {
+    if (!(e instanceof ImportError)) throw e;
+    mappingError = e.message;
+  }
+  return {
+    file: sourceFileDto(file),
+    kind: t.kind,
+    sheets: t.sheets,
+    header: t.header,
+    metadata: t.metadata,
+    warnings: t.warnings,
+    dialect: t.dialect,
+    rowCount: t.table.rows.length,
+    suggestion,
+    savedMapping: !!saved,
+    mapping,
+    mappingError,
+    check,
+  };
+}
+
+export const confirmInput = z.object({ sheet: z.string().max(100).optional(), mapping: confirmedMappingSchema, excludedLines: z.array(z.number().int().positive()).max(100_000).default([]) }).strict();
+
+/**
+ * Writes the checked rows as trials in one transaction, each linked to its file and line; any
+ * error in a row that is not excluded refuses the whole import and nothing is written.
+ */
+export async function confirmImport(em: EntityManager, rig: RigRow, file: SourceFileRow, input: z.infer<typeof confirmInput>) {
+  if (file.state === 'imported') throw new HttpError(409, 'already_imported', `"${file.filename}" has already been imported into this lab (${file.rowsImported} trials).`);
+  const t = await readTable(file, input.sheet);
+  let result: TrialSheetResult;
+  try {
+    result = importTrialSheet(t.table, input.mapping, { file: file.filename, sheet: input.sheet });
+  } catch (e) {
+    if (e instanceof ImportError) throw new HttpError(422, 'bad_mapping', e.message);
+    throw e;
+  }
+  const skip = new Set(input.excludedLines);
+  const kept = result.rows.filter((r) => !skip.has(r.line));
+  const bad = kept.filter((r) => !r.ok);
+  if (bad.length) {
+    throw new HttpError(422, 'row_errors', `${bad.length} row(s) still have errors; fix them in the file or exclude them. Nothing was imported.`, {
+      issues: bad.flatMap((r) => r.issues).slice(0, 200),
+    });
+  }
+  if (!kept.length) throw new HttpError(422, 'nothing', 'Every row is excluded: there is nothing to import.');
+  const fallback = file.createdAt.getTime();
+  const n = await em.transactional(async (tx) => {
+    for (const r of kept) {
+      if (!r.ok) continue;
+      const row = r.row;
+      const startedAt = row.time?.kind === 'datetime' ? new Date(row.time.iso) : row.time?.kind === 'elapsed' ? new Date(fallback + row.time.seconds * 1000) : new Date(fallback + r.line * 1000);
+      tx.create(Trial, {
+        lab: rig.lab,
+        rig,
+        origin: 'sheet',
+        sourceFile: file,
+        sourceLine: r.line,
+        startedAt,
+        bucketVolumeM3: row.bucketVolumeM3 ?? null,
+        fillTimesS: row.fillTimesS ?? null,
+        flowM3PerS: row.flowM3PerS,
+        inletC: row.inletTempC,
+        outletC: row.outletTempC,
+        ambientC: row.ambientTempC ?? null,
+        notes: row.notes ?? '',
+      });
+    }
+    const signature = headerSignature(t.header);
+    const saved = await tx.findOne(ColumnMapping, { lab: rig.lab, headerSignature: signature });
+    if (saved) saved.mapping = input.mapping as Record<string, unknown>;
+    else tx.create(ColumnMapping, { lab: rig.lab, headerSignature: signature, headers: t.header, mapping: input.mapping as Record<string, unknown> });
+    tx.assign(file, { state: 'imported', rowsImported: kept.length, rig });
+    return kept.length;
+  });
+  return { imported: n, warnings: result.warningCount };
+}
+
+export async function loadFile(em: EntityManager, rig: RigRow, fileId: string) {
+  const file = /^[0-9a-f-]{36}$/i.test(fileId) ? await em.findOne(SourceFile, { id: fileId, lab: rig.lab }) : null;
+  if (!file) throw new HttpError(404, 'not_found', 'No such upload in this lab.');
+  return file;
+}
