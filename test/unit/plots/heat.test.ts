@@ -81,5 +81,5 @@ test('flows too low to keep the outlet below boiling are shaded red (DOMAIN.md Â
   const { doc, x } = renderPlot(fig.options);
   const rect = group(doc, 'unsafe flows')[0].querySelector('rect');
   expect(num(rect, 'x') + num(rect, 'width')).toBeCloseTo(x(3), 0);
-  expect(fig.summary).toMatch(/below 3\.00 L\/min the outlet may boil \(shaded red\)/);
+  expect(fig.summary).toMatch(/Below 3\.00 L\/min the outlet may boil \(shaded red\)/);
 });
