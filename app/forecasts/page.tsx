@@ -1,20 +1,21 @@
-import Link from 'next/link';
+import { Fit } from '@/entities';
 import { AppPage } from '../_components/app-page';
 import { requireLabAction } from '../_lib/viewer';
+import { ForecastForm } from './forecast-form';
 
 export const metadata = { title: 'Forecasts' };
 export const dynamic = 'force-dynamic';
 
 export default async function ForecastsPage() {
   const v = await requireLabAction('/forecasts', 'lab:read');
+  const fits = await v.em.find(Fit, { lab: v.current.lab, model: 'coil' }, { populate: ['rig'], orderBy: { createdAt: 'desc' }, limit: 50 });
   return (
-    <AppPage viewer={v} title="Forecasts" lead="How fast a pool or tub will warm with a rig, with losses, cautions and cost.">
-      <div className="card p-6 text-ink-soft">
-        <p>No forecasts in {v.current.lab.name} yet.</p>
-        <p className="mt-2 text-sm">
-          Meanwhile the <Link href="/trials">trials</Link> of each rig are ready to be fitted.
-        </p>
-      </div>
+    <AppPage
+      viewer={v}
+      title="Forecasts"
+      lead="How fast a pool or tub warms: the pool feeds the heater, the coil model gives the outlet at every inlet temperature, and the weather takes heat away."
+    >
+      <ForecastForm labId={v.current.lab.id} units={v.user.unitSystem} fits={fits.map((f) => ({ id: f.id, label: `${f.rig.name}: ${f.title} v${f.version}` }))} />
     </AppPage>
   );
 }

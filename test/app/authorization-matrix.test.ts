@@ -153,6 +153,9 @@ const MATRIX: Record<string, Case[]> = {
     { method: 'POST', url: (f) => `/api/rigs/${f.rigId}/uploads/${uuid0}/confirm`, expect: { anon: 401, owner: 404, engineer: 404, reviewer: 403, viewer: 403, outsider: 404, token: 404 } },
   ],
   'app/api/rigs/[rigId]/imports/route.ts': [{ method: 'POST', url: (f) => `/api/rigs/${f.rigId}/imports`, expect: { ...writers(400), token: 400 } }],
+  'app/api/labs/[labId]/forecast/route.ts': [
+    { method: 'POST', url: (f) => `/api/labs/${f.labId}/forecast`, body: () => ({ hours: 'soon' }), expect: { ...members(422), token: 422 } },
+  ],
   'app/api/trials/[trialId]/route.ts': [
     { method: 'GET', url: (f) => `/api/trials/${f.trialId}`, expect: { ...members(200), token: 200 } },
     { method: 'PATCH', url: (f) => `/api/trials/${f.trialId}`, body: () => ({}), expect: { ...writers(200), token: 200 } },
@@ -237,15 +240,17 @@ describe('authorization matrix', () => {
     const lab = me.body.labs.find((l: { slug: string }) => l.slug === 'cinder-hollow');
     const rigs = await owner.get(`/api/labs/${lab.id}/rigs`);
     const mem = await owner.get(`/api/labs/${lab.id}/members`);
-    const trials = await owner.get(`/api/rigs/${rigs.body.rigs[0].id}/trials?pageSize=500&excluded=included`);
+    // the demo rig, whatever other tests add to the lab meanwhile
+    const demoRig = rigs.body.rigs.find((r: { name: string }) => r.name === 'Stovepipe Coil A');
+    const trials = await owner.get(`/api/rigs/${demoRig.id}/trials?pageSize=500&excluded=included`);
     const saved = await owner.post(`/api/labs/${lab.id}/fits`, {
-      rigId: rigs.body.rigs[0].id,
+      rigId: demoRig.id,
       title: 'matrix fit',
       model: 'coil',
       trialIds: trials.body.trials.map((t: { id: string }) => t.id),
     });
     expect(saved.status, saved.text).toBe(201);
-    fx = { labId: lab.id, rigId: rigs.body.rigs[0].id, trialId: trials.body.trials[0].id, fitId: saved.body.fit.id, ownerMemberId: mem.body.members.find((m: { role: string }) => m.role === 'owner').id };
+    fx = { labId: lab.id, rigId: demoRig.id, trialId: trials.body.trials[0].id, fitId: saved.body.fit.id, ownerMemberId: mem.body.members.find((m: { role: string }) => m.role === 'owner').id };
     const engineer = await clientFor('engineer', false);
     const tok = await engineer.post('/api/tokens', { name: 'matrix token', labId: fx.labId });
     expect(tok.status).toBe(201);

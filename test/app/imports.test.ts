@@ -8,7 +8,8 @@ import path from 'node:path';
 import { describe, expect, test } from 'vitest';
 import { baseUrl, signedIn, type Client } from './support/client';
 
-const fixture = (name: string) => readFileSync(path.resolve(__dirname, '..', '..', 'fixtures', 'import', name));
+// A run-unique trailing blank line makes each upload new bytes (other tests import the same fixtures into this lab).
+const fixture = (name: string) => Buffer.concat([readFileSync(path.resolve(__dirname, '..', '..', 'fixtures', 'import', name)), Buffer.from(`\n`.repeat(1 + (Date.now() % 7)))]);
 
 async function setup() {
   const eng = await signedIn('engineer@cinder-hollow.test');
@@ -32,7 +33,8 @@ const count = async (c: Client, rigId: string) => (await c.get(`/api/rigs/${rigI
 describe('trial-sheet import', () => {
   test('a semicolon CSV with decimal commas is mapped, converted to SI and imported with links to its lines', async () => {
     const { eng, rig } = await setup();
-    const up = await upload(eng, rig.id, 'trials-de.csv', fixture('trials-de.csv'));
+    const sameBytes = fixture('trials-de.csv');
+    const up = await upload(eng, rig.id, 'trials-de.csv', sameBytes);
     expect(up.status).toBe(201);
     expect(up.body.file.sha256).toMatch(/^[0-9a-f]{64}$/);
     const pv = await eng.post(`/api/rigs/${rig.id}/uploads/${up.body.file.id}/preview`, {});
@@ -49,7 +51,7 @@ describe('trial-sheet import', () => {
     expect(first.inletC).toBeCloseTo(14.2, 10);
     expect(first.notes).toBe('Holz nachgelegt');
     // the same bytes again: recognised, and not imported twice
-    const again = await upload(eng, rig.id, 'copy-of-trials.csv', fixture('trials-de.csv'));
+    const again = await upload(eng, rig.id, 'copy-of-trials.csv', sameBytes);
     expect(again.body.duplicate).toBe(true);
     const twice = await eng.post(`/api/rigs/${rig.id}/uploads/${again.body.file.id}/confirm`, { mapping: pv.body.mapping });
     expect(twice.status).toBe(409);

@@ -1,0 +1,178 @@
+'use client';
+
+import { useState } from 'react';
+import { api, ApiError } from '../_components/api';
+import { Cautions } from '../_components/fit-report';
+import { PlotFigure } from '../_components/plot-figure';
+import { tempOut, tempUnit, type Units } from '../_components/units';
+
+interface Result {
+  finalTemp_degC: number;
+  maxOutletTemp_degC: number;
+  hoursToTarget_h: number | null;
+  equilibriumTemp_degC: number | null;
+  equilibriumNote?: string;
+  evaporated_kg: number;
+  fitNote: string | null;
+  pool: { volume_m3: number; area_m2: number } | null;
+  cautions: { code: string; level: string; message: string }[];
+  plots: Record<'trajectory' | 'budget', { title: string; summary: string; svg: string }>;
+}
+
+/** Pool or tub warm-up forecast: shape and size, temperatures, flow, heater (a saved coil fit or Ts/UA), weather and cover. */
+export function ForecastForm({ labId, units, fits }: { labId: string; units: Units; fits: { id: string; label: string }[] }) {
+  const us = units === 'us';
+  const L = us ? 'ft' : 'm';
+  const T = us ? 'degF' : 'degC';
+  const [res, setRes] = useState<Result | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  const [shape, setShape] = useState('round');
+  const [losses, setLosses] = useState(true);
+
+  async function submit(e: React.FormEvent<HTMLFormElement>) {
+    e.preventDefault();
+    const f = new FormData(e.currentTarget);
+    const v = (k: string) => String(f.get(k) ?? '').trim().replace(',', '.');
+    const q = (k: string, unit: string) => (v(k) ? `${v(k)} ${unit}` : undefined);
+    const pool: Record<string, unknown> = { shape, depth: q('depth', L) };
+    if (shape === 'round') pool.diameter = q('diameter', L);
+    else Object.assign(pool, { length: q('length', L), width: q('width', L) });
+    const body: Record<string, unknown> = {
+      pool,
+      startTemp: q('startTemp', T),
+      targetTemp: q('targetTemp', T),
+      hours: Number(v('hours')),
+      flow: q('flow', us ? 'gpm' : 'L/min'),
+      losses: losses
+        ? {
+            weather: { airTemp: q('airTemp', T), relativeHumidity: Number(v('rh')) / 100, wind: q('wind', us ? 'mph' : 'm/s'), solar: q('solar', 'W/m^2') },
+            ...(f.get('cover') === 'on' ? { cover: { coveredHours: [0, 1, 2, 3, 4, 5, 6, 20, 21, 22, 23] } } : {}),
+          }
+        : false,
+    };
+    const fitId = v('fitId');
+    if (fitId) body.fitId = fitId;
+    else body.heater = { model: 'coil', sourceTemp: q('ts', T), UA: q('ua', 'W/K') };
+    setBusy(true);
+    setError(null);
+    try {
+      setRes(await api<Result>(`/api/labs/${labId}/forecast`, { body }));
+    } catch (err) {
+      setError(err instanceof ApiError ? err.message : 'The server could not be reached.');
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  const field = (name: string, label: string, def: string, unit: string) => (
+    <label className="block">
+      <span className="field-label">
+        {label} <span className="text-xs text-ink-muted">({unit})</span>
+      </span>
+      <input name={name} defaultValue={def} inputMode="decimal" className="field-input num" />
+    </label>
+  );
+
+  return (
+    <div className="grid gap-6 lg:grid-cols-[20rem_1fr]">
+      <form onSubmit={submit} method="post" className="space-y-4">
+        <fieldset className="card space-y-3 p-4">
+          <legend className="px-1 font-semibold">Pool or tub</legend>
+          <label className="block">
+            <span className="field-label">Shape</span>
+            <select className="field-input" value={shape} onChange={(e) => setShape(e.target.value)}>
+              <option value="round">Round</option>
+              <option value="rectangle">Rectangle</option>
+              <option value="ellipse">Oval (ellipse)</option>
+              <option value="stadium">Stadium</option>
+            </select>
+          </label>
+          {shape === 'round' ? field('diameter', 'Diameter', us ? '18' : '5.5', L) : (
+            <div className="grid grid-cols-2 gap-3">
+              {field('length', 'Length', us ? '32' : '10', L)}
+              {field('width', 'Width', us ? '16' : '5', L)}
+            </div>
+          )}
+          {field('depth', 'Water depth', us ? '4' : '1.2', L)}
+        </fieldset>
+        <fieldset className="card space-y-3 p-4">
+          <legend className="px-1 font-semibold">Heating</legend>
+          <div className="grid grid-cols-2 gap-3">
+            {field('startTemp', 'Start', us ? '68' : '20', tempUnit(units))}
+            {field('targetTemp', 'Target', us ? '82' : '28', tempUnit(units))}
+            {field('hours', 'Hours', '48', 'h')}
+            {field('flow', 'Pump flow', us ? '3' : '12', us ? 'gpm' : 'L/min')}
+          </div>
+          <label className="block">
+            <span className="field-label">Heater</span>
+            <select name="fitId" className="field-input" defaultValue={fits[0]?.id ?? ''}>
+              {fits.map((x) => (
+                <option key={x.id} value={x.id}>
+                  {x.label}
+                </option>
+              ))}
+              <option value="">Enter Ts and UA</option>
+            </select>
+          </label>
+          <div className="grid grid-cols-2 gap-3">
+            {field('ts', 'Source Ts', us ? '194' : '90', tempUnit(units))}
+            {field('ua', 'UA', '500', 'W/K')}
+          </div>
+          <p className="text-xs text-ink-muted">Ts and UA are used only when no saved fit is chosen.</p>
+        </fieldset>
+        <fieldset className="card space-y-3 p-4">
+          <legend className="px-1 font-semibold">Weather and cover</legend>
+          <label className="flex items-center gap-2 text-sm">
+            <input type="checkbox" checked={losses} onChange={(e) => setLosses(e.target.checked)} /> include losses (evaporation, convection, radiation) and sun
+          </label>
+          {losses ? (
+            <div className="grid grid-cols-2 gap-3">
+              {field('airTemp', 'Air', us ? '72' : '22', tempUnit(units))}
+              {field('rh', 'Humidity', '60', '%')}
+              {field('wind', 'Wind', us ? '2' : '1', us ? 'mph' : 'm/s')}
+              {field('solar', 'Mean sun', '150', 'W/m²')}
+              <label className="col-span-2 flex items-center gap-2 text-sm">
+                <input type="checkbox" name="cover" defaultChecked /> covered at night (20:00–07:00)
+              </label>
+            </div>
+          ) : null}
+        </fieldset>
+        <button type="submit" className="btn-primary w-full" disabled={busy}>
+          {busy ? 'Forecasting…' : 'Forecast'}
+        </button>
+      </form>
+      <div className="min-w-0 space-y-5" aria-live="polite">
+        {error ? <p role="alert" className="rounded-lg border border-danger-line bg-danger-bg px-3 py-2 text-danger-text">{error}</p> : null}
+        {res ? (
+          <>
+            <dl className="grid gap-3 sm:grid-cols-3">
+              {[
+                ['Final temperature', `${tempOut(res.finalTemp_degC, units).toFixed(1)} ${tempUnit(units)}`],
+                ['Hours to target', res.hoursToTarget_h == null ? 'not reached' : `${res.hoursToTarget_h.toFixed(1)} h`],
+                ['Equilibrium', res.equilibriumTemp_degC == null ? '—' : `${tempOut(res.equilibriumTemp_degC, units).toFixed(1)} ${tempUnit(units)}`],
+              ].map(([k, val]) => (
+                <div key={k} className="card p-4">
+                  <dt className="text-sm text-ink-soft">{k}</dt>
+                  <dd className="num mt-1 text-2xl text-ink">{val}</dd>
+                </div>
+              ))}
+            </dl>
+            {res.fitNote ? <p className="text-sm text-ink-soft">{res.fitNote}</p> : null}
+            {res.pool ? (
+              <p className="text-sm text-ink-soft">
+                Pool: <span className="num">{us ? (res.pool.volume_m3 * 264.172).toFixed(0) + ' gal' : res.pool.volume_m3.toFixed(1) + ' m³'}</span>, surface{' '}
+                <span className="num">{us ? (res.pool.area_m2 * 10.7639).toFixed(0) + ' ft²' : res.pool.area_m2.toFixed(1) + ' m²'}</span>.
+              </p>
+            ) : null}
+            <Cautions cautions={res.cautions} />
+            <PlotFigure {...res.plots.trajectory} filename="forecast" />
+            <PlotFigure {...res.plots.budget} filename="energy-budget" />
+          </>
+        ) : (
+          <p className="text-ink-muted">Set the pool and the heater, then forecast.</p>
+        )}
+      </div>
+    </div>
+  );
+}

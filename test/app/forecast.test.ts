@@ -1,0 +1,49 @@
+import { describe, expect, test } from 'vitest';
+import { signedIn } from './support/client';
+
+describe('forecast API', () => {
+  test('the loss-free recirculating case matches the exact solution of DOMAIN.md §3.3 (check value #13)', async () => {
+    const v = await signedIn('viewer@cinder-hollow.test');
+    const lab = (await v.get('/api/me')).body.labs[0];
+    // DOMAIN.md §8 #13 (computed): 15,000 gal (M = 56,588 kg), Ts 90 °C, UA 500 W/K, 0.2 kg/s, from 20 °C, no losses, 24 h → 28.98 °C.
+    const r = await v.post(`/api/labs/${lab.id}/forecast`, {
+      poolMass: '56588 kg',
+      startTemp: '20 degC',
+      hours: 24,
+      flow: `${0.2 / 998.2} m^3/s`,
+      heater: { model: 'coil', sourceTemp: '90 degC', UA: '500 W/K' },
+      losses: false,
+    });
+    expect(r.status, r.text).toBe(200);
+    expect(r.body.finalTemp_degC).toBeCloseTo(28.98, 1);
+    expect(r.body.plots.trajectory.svg).toMatch(/^<svg/);
+    // the outlet of a 90 °C source is above the scald limits: the result says so (DOMAIN.md §5)
+    expect(r.body.cautions.map((c: { code: string }) => c.code)).toContain('scald');
+  });
+
+  test('a pool given by its shape in feet, with weather losses and a night cover', async () => {
+    const v = await signedIn('viewer@cinder-hollow.test');
+    const lab = (await v.get('/api/me')).body.labs[0];
+    const r = await v.post(`/api/labs/${lab.id}/forecast`, {
+      pool: { shape: 'round', diameter: '15 ft', depth: '4 ft' },
+      startTemp: '68 degF',
+      targetTemp: '80 degF',
+      hours: 72,
+      flow: '3 gpm',
+      heater: { model: 'coil', sourceTemp: '90 degC', UA: '500 W/K' },
+      losses: { weather: { airTemp: '22 degC', relativeHumidity: 0.6, wind: '1 m/s', solar: '150 W/m^2' }, cover: { coveredHours: [0, 1, 2, 3, 4, 5, 22, 23] } },
+    });
+    expect(r.status, r.text).toBe(200);
+    // DOMAIN.md §8 #5: round 15 ft × 4 ft is 5,288 gal exact
+    expect(r.body.pool.volume_m3 / 3.785411784e-3).toBeCloseTo(5288, -1);
+    expect(r.body.finalTemp_degC).toBeGreaterThan(20);
+  });
+
+  test('a unit that does not fit the quantity is refused with the field named', async () => {
+    const v = await signedIn('viewer@cinder-hollow.test');
+    const lab = (await v.get('/api/me')).body.labs[0];
+    const r = await v.post(`/api/labs/${lab.id}/forecast`, { poolVolume: '15000 gal', startTemp: '20 degC', hours: 24, flow: '5 kg', heater: { model: 'coil', sourceTemp: '90 degC', UA: '500 W/K' }, losses: false });
+    expect(r.status).toBe(422);
+    expect(r.body.message).toMatch(/flow/);
+  });
+});
