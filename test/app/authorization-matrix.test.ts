@@ -19,6 +19,7 @@ interface Fixture {
   rigId: string;
   trialId: string;
   fitId: string;
+  studyId: string;
   ownerMemberId: string;
 }
 
@@ -156,6 +157,33 @@ const MATRIX: Record<string, Case[]> = {
   'app/api/labs/[labId]/forecast/route.ts': [
     { method: 'POST', url: (f) => `/api/labs/${f.labId}/forecast`, body: () => ({ hours: 'soon' }), expect: { ...members(422), token: 422 } },
   ],
+  'app/api/labs/[labId]/studies/route.ts': [
+    { method: 'GET', url: (f) => `/api/labs/${f.labId}/studies`, expect: { ...members(200), token: 200 } },
+    { method: 'POST', url: (f) => `/api/labs/${f.labId}/studies`, body: () => ({ title: '' }), expect: { ...writers(422), token: 403 } },
+  ],
+  'app/api/studies/[studyId]/route.ts': [
+    { method: 'GET', url: (f) => `/api/studies/${f.studyId}`, expect: { ...members(200), token: 200 } },
+    { method: 'PUT', url: (f) => `/api/studies/${f.studyId}`, body: () => ({ title: '' }), expect: { ...writers(422), token: 403 } },
+  ],
+  'app/api/studies/[studyId]/review/route.ts': [
+    {
+      method: 'POST',
+      url: (f) => `/api/studies/${f.studyId}/review`,
+      body: () => ({ move: 'approve' }),
+      expect: { anon: 401, owner: 409, engineer: 403, reviewer: 409, viewer: 403, outsider: 404, token: 403 },
+    },
+  ],
+  'app/api/studies/[studyId]/comments/route.ts': [
+    { method: 'GET', url: (f) => `/api/studies/${f.studyId}/comments`, expect: { ...members(200), token: 200 } },
+    { method: 'POST', url: (f) => `/api/studies/${f.studyId}/comments`, body: () => ({ body: '' }), expect: { anon: 401, owner: 422, engineer: 422, reviewer: 422, viewer: 403, outsider: 404, token: 403 } },
+  ],
+  'app/api/studies/[studyId]/shares/route.ts': [
+    { method: 'GET', url: (f) => `/api/studies/${f.studyId}/shares`, expect: { ...writers(200), token: 403 } },
+    { method: 'POST', url: (f) => `/api/studies/${f.studyId}/shares`, body: () => ({ days: 0 }), expect: { ...writers(422), token: 403 } },
+  ],
+  'app/api/studies/[studyId]/export/route.ts': [{ method: 'GET', url: (f) => `/api/studies/${f.studyId}/export`, expect: { ...members(200), token: 200 } }],
+  'app/api/shares/[shareId]/route.ts': [{ method: 'DELETE', url: () => `/api/shares/${uuid0}`, expect: { ...members(404, 401, 404), token: 403 } }],
+  'app/api/share/[token]/export/route.ts': [{ method: 'GET', url: () => '/api/share/shr_not-a-real-token/export', expect: { ...all(404), token: 404 } }],
   'app/api/trials/[trialId]/route.ts': [
     { method: 'GET', url: (f) => `/api/trials/${f.trialId}`, expect: { ...members(200), token: 200 } },
     { method: 'PATCH', url: (f) => `/api/trials/${f.trialId}`, body: () => ({}), expect: { ...writers(200), token: 200 } },
@@ -250,7 +278,9 @@ describe('authorization matrix', () => {
       trialIds: trials.body.trials.map((t: { id: string }) => t.id),
     });
     expect(saved.status, saved.text).toBe(201);
-    fx = { labId: lab.id, rigId: demoRig.id, trialId: trials.body.trials[0].id, fitId: saved.body.fit.id, ownerMemberId: mem.body.members.find((m: { role: string }) => m.role === 'owner').id };
+    const study = await owner.post(`/api/labs/${lab.id}/studies`, { title: 'matrix study' });
+    expect(study.status, study.text).toBe(201);
+    fx = { labId: lab.id, rigId: demoRig.id, trialId: trials.body.trials[0].id, fitId: saved.body.fit.id, studyId: study.body.study.id, ownerMemberId: mem.body.members.find((m: { role: string }) => m.role === 'owner').id };
     const engineer = await clientFor('engineer', false);
     const tok = await engineer.post('/api/tokens', { name: 'matrix token', labId: fx.labId });
     expect(tok.status).toBe(201);

@@ -1,0 +1,17 @@
+import { ShareLink } from '@/entities';
+import { notFound } from '@/app/_lib/errors';
+import { UUID } from '@/app/_lib/rigs';
+import { json, route } from '@/app/_lib/route';
+import { shareDto } from '@/app/_lib/studies';
+
+/** DELETE: revoke a share link at once. */
+export const DELETE = route<{ shareId: string }>({ auth: 'session' }, async (ctx) => {
+  ctx.requireActor();
+  if (!UUID.test(ctx.params.shareId)) throw notFound();
+  const link = await ctx.em.findOne(ShareLink, { id: ctx.params.shareId });
+  if (!link) throw notFound();
+  await ctx.requireMember(link.lab.id, 'share:manage');
+  link.revokedAt ??= new Date();
+  await ctx.em.flush();
+  return json({ share: shareDto(link) });
+});

@@ -1,0 +1,19 @@
+import { review, reviewInput } from '@/app/_lib/fits';
+import { json, route } from '@/app/_lib/route';
+import { loadStudy } from '@/app/_lib/studies';
+
+/** POST: submit the study for review (authors), approve or request changes (reviewers, owners). */
+export const POST = route<{ studyId: string }>({ auth: 'session' }, async (ctx) => {
+  const { study, member } = await loadStudy(ctx, 'lab:read');
+  const moveTo = await review(
+    ctx.em,
+    { kind: 'study', id: study.id, title: study.title, lab: member.lab, reviewState: study.reviewState, authorId: study.createdBy?.id ?? null, link: `/studies/${study.id}` },
+    ctx.requireActor().user,
+    member.role,
+    await ctx.json(reviewInput),
+    ctx.origin,
+  );
+  study.reviewState = moveTo;
+  await ctx.em.flush();
+  return json({ reviewState: moveTo });
+});
