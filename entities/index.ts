@@ -20,9 +20,10 @@ import { ReviewEvent } from './review-event';
 import { Notice } from './notice';
 import { ShareLink } from './share-link';
 import { User } from './user';
+import { ImportJob } from './import-job';
 
-export { Comment, Fit, Notice, ReviewEvent, ShareLink, Study, ColumnMapping, SensorSample, SourceFile, TrialChange, ApiToken, AuditEvent, Invitation, Lab, Membership, PasswordReset, RateLimit, Rig, Session, Trial, User };
-export const entities = [Lab, User, Membership, Rig, Trial, Session, Invitation, PasswordReset, ApiToken, AuditEvent, RateLimit, SourceFile, ColumnMapping, TrialChange, SensorSample, Fit, Study, Comment, ReviewEvent, Notice, ShareLink];
+export { Comment, Fit, Notice, ReviewEvent, ShareLink, Study, ColumnMapping, SensorSample, SourceFile, TrialChange, ApiToken, AuditEvent, Invitation, Lab, Membership, PasswordReset, RateLimit, Rig, Session, Trial, User, ImportJob };
+export const entities = [Lab, User, Membership, Rig, Trial, Session, Invitation, PasswordReset, ApiToken, AuditEvent, RateLimit, SourceFile, ColumnMapping, TrialChange, SensorSample, Fit, Study, Comment, ReviewEvent, Notice, ShareLink, ImportJob];
 
 import type { InferEntity } from '@mikro-orm/core';
 /** Row types of the entities, for code that handles loaded records. */
@@ -45,3 +46,4 @@ export type CommentRow = InferEntity<typeof Comment>;
 export type ReviewEventRow = InferEntity<typeof ReviewEvent>;
 export type NoticeRow = InferEntity<typeof Notice>;
 export type ShareLinkRow = InferEntity<typeof ShareLink>;
+export type ImportJobRow = InferEntity<typeof ImportJob>;

@@ -7,10 +7,12 @@ import { Migration20261201222811 } from './Migration20261201222811';
 import { Migration20261201223321_accounts } from './Migration20261201223321_accounts';
 import { Migration20261201225447_trial_import } from './Migration20261201225447_trial_import';
 import { Migration20261201230509_fits_studies_review } from './Migration20261201230509_fits_studies_review';
+import { Migration20261201235511_import_jobs } from './Migration20261201235511_import_jobs';
 
 export const migrationsList: MigrationObject[] = [
   { name: 'Migration20261201222811', class: Migration20261201222811 },
   { name: 'Migration20261201223321_accounts', class: Migration20261201223321_accounts },
   { name: 'Migration20261201225447_trial_import', class: Migration20261201225447_trial_import },
   { name: 'Migration20261201230509_fits_studies_review', class: Migration20261201230509_fits_studies_review },
+  { name: 'Migration20261201235511_import_jobs', class: Migration20261201235511_import_jobs },
 ];

@@ -153,6 +153,14 @@ const MATRIX: Record<string, Case[]> = {
   'app/api/rigs/[rigId]/uploads/[fileId]/confirm/route.ts': [
     { method: 'POST', url: (f) => `/api/rigs/${f.rigId}/uploads/${uuid0}/confirm`, expect: { anon: 401, owner: 404, engineer: 404, reviewer: 403, viewer: 403, outsider: 404, token: 404 } },
   ],
+  'app/api/rigs/[rigId]/uploads/[fileId]/log-import/route.ts': [
+    { method: 'POST', url: (f) => `/api/rigs/${f.rigId}/uploads/${uuid0}/log-import`, expect: { anon: 401, owner: 404, engineer: 404, reviewer: 403, viewer: 403, outsider: 404, token: 404 } },
+  ],
+  'app/api/jobs/[jobId]/route.ts': [
+    // no such job: members and outsiders alike get 404 (test/app/sensor-import.test.ts checks a real job's lab scope)
+    { method: 'GET', url: () => `/api/jobs/${uuid0}`, expect: { ...members(404, 401, 404), token: 404 } },
+    { method: 'DELETE', url: () => `/api/jobs/${uuid0}`, expect: { ...members(404, 401, 404), token: 404 } },
+  ],
   'app/api/rigs/[rigId]/imports/route.ts': [{ method: 'POST', url: (f) => `/api/rigs/${f.rigId}/imports`, expect: { ...writers(400), token: 400 } }],
   'app/api/labs/[labId]/forecast/route.ts': [
     { method: 'POST', url: (f) => `/api/labs/${f.labId}/forecast`, body: () => ({ hours: 'soon' }), expect: { ...members(422), token: 422 } },

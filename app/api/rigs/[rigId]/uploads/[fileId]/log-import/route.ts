@@ -1,0 +1,17 @@
+import { loadFile } from '@/app/_lib/imports';
+import { importJobDto, startSensorImport } from '@/app/_lib/jobs';
+import { loadRig } from '@/app/_lib/rigs';
+import { json, route } from '@/app/_lib/route';
+import { logImportInput } from '@/app/_lib/sensor-import';
+
+/**
+ * POST: import a stored sensor log in the background (mapping, preset and criteria edits, excluded
+ * lines, optionally the accepted periods). Answers 202 with the job; poll GET /api/jobs/{id}.
+ */
+export const POST = route<{ rigId: string; fileId: string }>({ auth: 'user', maxBodyBytes: 1024 * 1024 }, async (ctx) => {
+  const { rig } = await loadRig(ctx, ctx.params.rigId, 'trial:write');
+  const file = await loadFile(ctx.em, rig, ctx.params.fileId);
+  const input = await ctx.json(logImportInput);
+  const job = await startSensorImport(ctx.em, rig, file, ctx.requireActor().user, input);
+  return json({ job: importJobDto(job) }, { status: 202 });
+});

@@ -1,0 +1,235 @@
+/**
+ * Sensor-log import as a background job, against the real PostgreSQL, the S3 fake and pg-boss:
+ * samples written with COPY and steady segments as trials in one transaction; a row that fails
+ * halfway through the COPY (or a cancellation) leaves nothing; a job sent while no worker runs is
+ * finished by the worker of the next process.
+ *
+ * The logs come from `writeSensorLogCsv` (bench/import-parse.ts): 1 Hz plateaus of 1200 s whose
+ * set-points cycle through outlet 30 + 3k °C (k = 0…6) and flow 9 + 3k L/min (k = 0…4), with
+ * ±0.02 K and ±0.2 % seeded noise — so every steady trial must sit on one of those set-points
+ * (our generator, checked against its own definition).
+ */
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import pg from 'pg';
+import { afterAll, describe, expect, test } from 'vitest';
+import { writeSensorLogCsv } from '../../bench/import-parse';
+import { getEm, getOrm } from '@/app/_lib/db';
+import { createImportJobRow, enqueueSensorImport, newBoss, startBoss, workSensorImports } from '@/app/_lib/jobs';
+import { ImportCancelled, copyPool, importSensorLog, logImportInput } from '@/app/_lib/sensor-import';
+import { ImportError } from '@/app/_lib/import/import-error';
+import { Rig, SourceFile, User } from '@/entities';
+import { Client, baseUrl, signedIn } from './support/client';
+
+const db = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 2 });
+const tmp = mkdtempSync(path.join(os.tmpdir(), 'emberline-sensor-test-'));
+
+afterAll(async () => {
+  rmSync(tmp, { recursive: true, force: true });
+  await db.end();
+  await copyPool().end();
+  await (await getOrm()).close(true);
+});
+
+const MAPPING = {
+  shape: 'sensorLog',
+  decimal: '.',
+  columns: [
+    { column: 0, header: 'timestamp', field: 'time', unit: 'datetime' },
+    { column: 1, header: 'T_in [C]', field: 'inletTemp', unit: 'degC' },
+    { column: 2, header: 'T_out [C]', field: 'outletTemp', unit: 'degC' },
+    { column: 3, header: 'flow [l/min]', field: 'flow', unit: 'L/min' },
+    { column: 4, header: 'ambient [C]', field: 'ambientTemp', unit: 'degC' },
+  ],
+};
+
+let seq = 0;
+/** A generated log; `seed` varies per call so that each upload is new bytes. */
+async function makeLog(rows: number, edit?: (lines: string[]) => void): Promise<Buffer> {
+  const file = path.join(tmp, `log-${seq++}.csv`);
+  await writeSensorLogCsv(file, { rows, seed: Date.now() % 100_000 + seq });
+  if (!edit) return readFileSync(file);
+  const lines = readFileSync(file, 'utf8').split('\n');
+  edit(lines);
+  writeFileSync(file, lines.join('\n'));
+  return readFileSync(file);
+}
+
+async function setup() {
+  const eng = await signedIn('engineer@cinder-hollow.test');
+  const lab = (await eng.get('/api/me')).body.labs[0];
+  const name = `Log rig ${Date.now().toString(36)}${Math.random().toString(36).slice(2, 6)}`;
+  const rig = (await eng.post(`/api/labs/${lab.id}/rigs`, { name, heatSource: 'propane-burner' })).body.rig;
+  expect(rig?.id).toBeTruthy();
+  return { eng, lab, rig };
+}
+
+async function upload(c: Client, rigId: string, name: string, body: Buffer) {
+  const res = await fetch(`${baseUrl}/api/rigs/${rigId}/uploads?filename=${encodeURIComponent(name)}`, {
+    method: 'POST',
+    headers: { Origin: baseUrl, Cookie: [...c.cookies].map(([k, v]) => `${k}=${v}`).join('; '), 'Content-Type': 'text/csv', 'X-Forwarded-For': c.ip },
+    body: new Uint8Array(body),
+  });
+  const json = await res.json();
+  expect(res.status, JSON.stringify(json)).toBe(201);
+  return json.file as { id: string; sizeBytes: number };
+}
+
+/** Polls the job until it has finished (the worker picks it up within about a second). */
+async function finished(c: Client, jobId: string, limitMs = 90_000) {
+  const until = Date.now() + limitMs;
+  for (;;) {
+    const r = await c.get(`/api/jobs/${jobId}`);
+    expect(r.status, r.text).toBe(200);
+    if (['completed', 'failed', 'cancelled'].includes(r.body.job.state)) return r.body.job;
+    if (Date.now() > until) throw new Error(`job ${jobId} still ${r.body.job.state} after ${limitMs} ms`);
+    await new Promise((res) => setTimeout(res, 250));
+  }
+}
+
+const stored = async (fileId: string) => {
+  const s = await db.query('SELECT count(*)::int AS n FROM sensor_sample WHERE source_file_id = $1', [fileId]);
+  const t = await db.query('SELECT count(*)::int AS n FROM trial WHERE source_file_id = $1', [fileId]);
+  const f = await db.query('SELECT state, rows_imported FROM source_file WHERE id = $1', [fileId]);
+  return { samples: s.rows[0].n as number, trials: t.rows[0].n as number, fileState: f.rows[0].state as string };
+};
+
+const L_PER_MIN = 1e-3 / 60;
+
+describe('sensor-log import', () => {
+  test('a log with plateaus is stored as samples, and its steady segments become trials with their criteria', { timeout: 120_000 }, async () => {
+    const { eng, rig } = await setup();
+    const file = await upload(eng, rig.id, 'plateaus.csv', await makeLog(6000));
+    const started = await eng.post(`/api/rigs/${rig.id}/uploads/${file.id}/log-import`, { mapping: MAPPING, preset: 'field' });
+    expect(started.status, started.text).toBe(202);
+    const job = await finished(eng, started.body.job.id);
+    expect(job.state, job.error).toBe('completed');
+    expect(job.result.samples).toBe(6000);
+    expect(job.progress.fraction).toBe(1);
+    // five plateaus of 1200 s: each is steady once the first-order step (60 s) has settled
+    expect(job.result.trials).toBeGreaterThanOrEqual(4);
+    expect(await stored(file.id)).toEqual({ samples: 6000, trials: job.result.trials, fileState: 'imported' });
+
+    const trials = (await eng.get(`/api/rigs/${rig.id}/trials?pageSize=50&sort=startedAt&dir=asc`)).body.trials;
+    expect(trials).toHaveLength(job.result.trials);
+    for (const t of trials) {
+      expect(t.origin).toBe('log-segment');
+      expect(t.sourceFileId).toBe(file.id);
+      expect(t.sourceLine).toBeGreaterThan(1);
+      // on a set-point of the generator, within 0.1 K and 0.5 % (noise averages out over ≥ 300 samples)
+      const k = Math.round((t.outletC - 30) / 3);
+      expect(Math.abs(t.outletC - (30 + 3 * k))).toBeLessThan(0.1);
+      const j = Math.round((t.flowM3PerS / L_PER_MIN - 9) / 3);
+      expect(Math.abs(t.flowM3PerS - (9 + 3 * j) * L_PER_MIN) / t.flowM3PerS).toBeLessThan(0.005);
+    }
+    const seg = await db.query('SELECT segment FROM trial WHERE source_file_id = $1 ORDER BY source_line LIMIT 1', [file.id]);
+    expect(seg.rows[0].segment.criteria.preset).toBe('field');
+    expect(seg.rows[0].segment.startLine).toBe(trials[0].sourceLine);
+    expect(seg.rows[0].segment.n).toBeGreaterThanOrEqual(300);
+
+    // a viewer of the lab reads the job but cannot cancel it; a finished job is not cancelled
+    const viewer = await signedIn('viewer@cinder-hollow.test');
+    expect((await viewer.get(`/api/jobs/${job.id}`)).status).toBe(200);
+    expect((await viewer.request('DELETE', `/api/jobs/${job.id}`)).status).toBe(403);
+    expect((await eng.request('DELETE', `/api/jobs/${job.id}`)).status).toBe(409);
+    // the same file again is refused
+    expect((await eng.post(`/api/rigs/${rig.id}/uploads/${file.id}/log-import`, { mapping: MAPPING, preset: 'field' })).status).toBe(409);
+  });
+
+  test('a row that fails halfway through the COPY leaves nothing behind: no samples, no trials', { timeout: 120_000 }, async () => {
+    const { eng, rig } = await setup();
+    // 30,000 rows: the reader yields batches of 8192, so three batches are already in the COPY when line 25,000 is read
+    const file = await upload(eng, rig.id, 'bad-row.csv', await makeLog(30_000, (lines) => {
+      const cells = lines[24_999].split(',');
+      cells[2] = 'n/a';
+      lines[24_999] = cells.join(',');
+    }));
+    const started = await eng.post(`/api/rigs/${rig.id}/uploads/${file.id}/log-import`, { mapping: MAPPING, preset: 'field' });
+    expect(started.status, started.text).toBe(202);
+    const job = await finished(eng, started.body.job.id);
+    expect(job.state).toBe('failed');
+    expect(job.error).toMatch(/line 25000/);
+    expect(job.error).toMatch(/nothing was imported/);
+    expect(await stored(file.id)).toEqual({ samples: 0, trials: 0, fileState: 'uploaded' });
+    expect((await eng.get(`/api/rigs/${rig.id}/trials?pageSize=1`)).body.total).toBe(0);
+
+    // The same import called directly, to see that rows really were streamed before the failure.
+    const target = { fileId: file.id, rigId: rig.id, labId: rig.labId, filename: 'bad-row.csv', storageKey: (await db.query('SELECT storage_key FROM source_file WHERE id = $1', [file.id])).rows[0].storage_key, sizeBytes: file.sizeBytes, uploadedAt: new Date() };
+    let rowsInCopy = 0;
+    const err = await importSensorLog(target, logImportInput.parse({ mapping: MAPPING, preset: 'field' }), { progressMs: 0, onProgress: (p) => void (rowsInCopy = p.rowsDone) }).catch((e: unknown) => e);
+    expect(err).toBeInstanceOf(ImportError);
+    expect(rowsInCopy).toBeGreaterThanOrEqual(3 * 8192);
+    expect(await stored(file.id)).toEqual({ samples: 0, trials: 0, fileState: 'uploaded' });
+
+    // excluding the line lets the rest in
+    const again = await eng.post(`/api/rigs/${rig.id}/uploads/${file.id}/log-import`, { mapping: MAPPING, preset: 'field', excludedLines: [25_000] });
+    const ok = await finished(eng, again.body.job.id);
+    expect(ok.state, ok.error).toBe('completed');
+    expect(ok.result.samples).toBe(29_999);
+    expect(ok.result.excludedRows).toBe(1);
+  });
+
+  test('a cancelled import is rolled back between two batches', { timeout: 120_000 }, async () => {
+    const { eng, rig } = await setup();
+    const file = await upload(eng, rig.id, 'cancel.csv', await makeLog(20_000));
+    const key = (await db.query('SELECT storage_key FROM source_file WHERE id = $1', [file.id])).rows[0].storage_key;
+    const target = { fileId: file.id, rigId: rig.id, labId: rig.labId, filename: 'cancel.csv', storageKey: key, sizeBytes: file.sizeBytes, uploadedAt: new Date() };
+    let calls = 0;
+    const err = await importSensorLog(target, logImportInput.parse({ mapping: MAPPING, preset: 'field' }), { progressMs: 0, onProgress: () => ++calls >= 2 }).catch((e: unknown) => e);
+    expect(err).toBeInstanceOf(ImportCancelled);
+    expect(await stored(file.id)).toEqual({ samples: 0, trials: 0, fileState: 'uploaded' });
+  });
+
+  test('a job sent while no worker runs is finished by the worker of the next process', { timeout: 120_000 }, async () => {
+    // How the restart is staged: the web server under test runs its own worker on the queue
+    // "sensor-import" and would take the job at once, so this test uses a queue of its own with the
+    // same code. Process A (a PgBoss here) records the job and sends it, then stops without any
+    // worker — as a web process that accepted the request and went down. Process B (a fresh PgBoss,
+    // as after a restart) starts the worker; the job, kept in PostgreSQL meanwhile, is picked up
+    // and completes.
+    const { eng, rig } = await setup();
+    const file = await upload(eng, rig.id, 'restart.csv', await makeLog(4000));
+    const queue = `sensor-import-restart-${Date.now().toString(36)}`;
+    const em = await getEm();
+    const job = await createImportJobRow(
+      em,
+      await em.findOneOrFail(Rig, { id: rig.id }),
+      await em.findOneOrFail(SourceFile, { id: file.id }),
+      await em.findOneOrFail(User, { email: 'engineer@cinder-hollow.test' }),
+      logImportInput.parse({ mapping: MAPPING, preset: 'field' }),
+    );
+    const a = await startBoss(newBoss(), queue);
+    await enqueueSensorImport(a, job.id, queue);
+    await a.stop({ graceful: false, wait: true });
+
+    const waiting = await eng.get(`/api/jobs/${job.id}`);
+    expect(waiting.body.job.state).toBe('queued');
+    expect(await stored(file.id)).toEqual({ samples: 0, trials: 0, fileState: 'uploaded' });
+
+    const b = await startBoss(newBoss(), queue);
+    try {
+      await workSensorImports(b, queue);
+      const done = await finished(eng, job.id);
+      expect(done.state, done.error).toBe('completed');
+      expect(done.attempts).toBe(1);
+      expect(await stored(file.id)).toEqual({ samples: 4000, trials: done.result.trials, fileState: 'imported' });
+    } finally {
+      await b.stop({ graceful: true, wait: true });
+    }
+  });
+
+  test('jobs are not visible outside their lab', async () => {
+    const { eng, rig } = await setup();
+    const file = await upload(eng, rig.id, 'scoped.csv', await makeLog(1000));
+    const started = await eng.post(`/api/rigs/${rig.id}/uploads/${file.id}/log-import`, { mapping: MAPPING, preset: 'field' });
+    const other = new Client();
+    const email = `elsewhere-${Date.now().toString(36)}@example.test`;
+    const signup = await other.post('/api/auth/sign-up', { email, name: 'Other Lab Tester', password: 'copper coil over a slow fire', labName: 'Other Bench' });
+    expect(signup.status).toBe(201);
+    const outsider = await signedIn(email, 'copper coil over a slow fire');
+    expect((await outsider.get(`/api/jobs/${started.body.job.id}`)).status).toBe(404);
+    expect((await outsider.request('DELETE', `/api/jobs/${started.body.job.id}`)).status).toBe(404);
+    await finished(eng, started.body.job.id);
+  });
+});
