@@ -67,7 +67,9 @@ async function main() {
     if (existsSync(jsonFile)) {
       const r = JSON.parse(readFileSync(jsonFile, 'utf8'));
       const skipped = (r.numPendingTests ?? 0) + (r.numTodoTests ?? 0);
-      console.log(`\nemberline: ${r.numPassedTests} passed, ${r.numFailedTests} failed, ${skipped} skipped`);
+      // a file whose setup failed has no failed test of its own: count it as one failure
+      const brokenFiles = r.testResults.filter((f) => f.status === 'failed' && !f.assertionResults.some((a) => a.status === 'failed')).length;
+      console.log(`\nemberline: ${r.numPassedTests} passed, ${r.numFailedTests + brokenFiles} failed, ${skipped} skipped`);
       if (r.numTotalTests === 0) {
         console.error('no test ran');
         process.exit(1);
