@@ -2,8 +2,10 @@
  * Structured safety cautions that travel with every predicted or measured water temperature.
  * Thresholds follow DOMAIN.md §5 and §3.7: 40 °C spa limit (CPSC advisory, UL 1563), 49 °C scald
  * caution and 60 °C "burns in seconds" (scald-time tables after Henriques & Moritz), 95 °C near
- * boiling with a steam risk. Wording is Emberline's own and defers to local codes.
+ * boiling with a steam risk. Scald cautions also state the time to a serious scald at the
+ * temperature (scald-time.ts, DOMAIN.md §5 [39]). Wording is Emberline's own and defers to local codes.
  */
+import { scaldTime } from './scald-time';
 
 /** How serious a caution is: `notice` < `warning` < `danger`. */
 export type CautionLevel = 'notice' | 'warning' | 'danger';
@@ -45,9 +47,14 @@ function fmt(c: number): string {
   return `${c.toFixed(1)} °C (${(c * 1.8 + 32).toFixed(0)} °F)`;
 }
 
+function exposure(c: number): string {
+  return `At this temperature a serious scald takes ${scaldTime(c).text} of contact (published scald-time table), and less for children and older people.`;
+}
+
 /**
  * Cautions for a water temperature that people may touch or that sits in a heater. Returns one
  * entry per threshold crossed (strictly above), most severe first; an empty array below 40 °C.
+ * The `scald` and `scald-seconds` messages include the time to a serious scald (scald-time.ts).
  * @param tempC the predicted or measured temperature, °C
  * @param where what the temperature is, e.g. 'outlet', 'pool', 'tub'
  * @throws TypeError when `tempC` is not a finite number.
@@ -68,13 +75,13 @@ export function temperatureCautions(tempC: number, where: string): Caution[] {
   if (tempC > T.scaldSeconds) {
     out.push({
       code: 'scald-seconds', level: 'danger', thresholdC: T.scaldSeconds, valueC: tempC, where,
-      message: `The ${where} water reaches ${fmt(tempC)}: above 60 °C (140 °F) water burns skin in seconds. Keep it away from anyone's reach. ${DEFER}`,
+      message: `The ${where} water reaches ${fmt(tempC)}: above 60 °C (140 °F) water burns skin in seconds. ${exposure(tempC)} Keep it away from anyone's reach. ${DEFER}`,
     });
   }
   if (tempC > T.scald) {
     out.push({
       code: 'scald', level: 'warning', thresholdC: T.scald, valueC: tempC, where,
-      message: `The ${where} water reaches ${fmt(tempC)}: above 49 °C (120 °F) water can scald; keep water people touch below it. ${DEFER}`,
+      message: `The ${where} water reaches ${fmt(tempC)}: above 49 °C (120 °F) water can scald; keep water people touch below it. ${exposure(tempC)} ${DEFER}`,
     });
   }
   if (tempC > T.spaLimit) {
