@@ -48,7 +48,8 @@ function fmt(c: number): string {
 }
 
 function exposure(c: number): string {
-  return `At this temperature a serious scald takes ${scaldTime(c).text} of contact (published scald-time table), and less for children and older people.`;
+  const t = scaldTime(c).text.replace(/^longer than/, 'more than').replace(/^shorter than/, 'less than');
+  return `At this temperature a serious scald takes ${t} of contact (published scald-time table), and less for children and older people.`;
 }
 
 /**

@@ -60,19 +60,21 @@ describe('time to a serious scald (DOMAIN.md §5, children\'s hospital table [39
 });
 
 describe('scald cautions state the exposure time (DOMAIN.md §5 [39])', () => {
-  test('at 61 °C (142 °F) both scald messages say shorter than about 4.1 s; codes and levels unchanged', () => {
+  test('at 61 °C (142 °F) both scald messages say less than about 4.2 s; codes and levels unchanged', () => {
     const c = temperatureCautions(61, 'outlet');
     expect(c.map((x) => [x.code, x.level])).toEqual([['scald-seconds', 'danger'], ['scald', 'warning'], ['spa-limit', 'warning']]);
     const text = scaldTime(61).text;
     expect(text).toMatch(/^shorter than 4\.\d s$/);
-    expect(c[0].message).toContain(`a serious scald takes ${text}`);
-    expect(c[1].message).toContain(`a serious scald takes ${text}`);
+    const said = text.replace('shorter than', 'less than');
+    expect(c[0].message).toContain(`a serious scald takes ${said} of contact`);
+    expect(c[1].message).toContain(`a serious scald takes ${said} of contact`);
     expect(c[2].message).not.toContain('serious scald');
   });
   test('at 54.44 °C (130 °F) the scald message says 30 s [39]', () => {
     expect(temperatureCautions(fToC(130), 'tub')[0].message).toContain('a serious scald takes 30 s of contact');
   });
-  test('at 50 °C (122 °F) the scald caution still defers to local codes', () => {
+  test('at 50 °C (122 °F) the scald caution gives the interpolated range and still defers to local codes', () => {
+    expect(temperatureCautions(49.5, 'pool')[0].message).toMatch(/takes about 3\.\d–4\.\d min of contact/);
     const [scald] = temperatureCautions(50, 'pool');
     expect(scald.code).toBe('scald');
     expect(scald.message).toMatch(/about 3\.1–3\.5 min/);
