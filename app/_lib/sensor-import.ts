@@ -15,7 +15,7 @@ import { getObjectStream } from './storage';
  * steady periods, and each accepted period becomes a trial — all in one transaction on one
  * connection, so a bad row halfway through, a database error or a cancellation leaves nothing.
  * Memory stays bounded: one text chunk and one batch of rows at a time, plus the channels as
- * Float64Arrays for the segmenter (about 44 bytes a sample).
+ * Float64Arrays for the segmenter (about 44 bytes a sample). Rows go to COPY in its binary format.
  */
 
 const g = globalThis as typeof globalThis & { __emberlinePgPool?: pg.Pool };
@@ -112,7 +112,23 @@ class Grow<T extends Float64Array | Int32Array> {
 }
 const f64 = (n = 1 << 16) => new Grow(new Float64Array(n), (k) => new Float64Array(k));
 
-const COPY_SQL = 'COPY sensor_sample (source_file_id, line, rig_id, taken_at, inlet_c, outlet_c, flow_m3_per_s, ambient_c) FROM STDIN';
+const COPY_SQL = 'COPY sensor_sample (source_file_id, line, rig_id, taken_at, inlet_c, outlet_c, flow_m3_per_s, ambient_c) FROM STDIN (FORMAT binary)';
+
+/*
+ * COPY's binary format (PostgreSQL manual, "COPY", Binary Format): a signature and two int32
+ * words, then per row an int16 field count and each field as int32 length + bytes (-1 = NULL),
+ * then an int16 -1. Binary spares both sides the number and timestamp text: uuid is its 16 bytes,
+ * int4 big-endian, timestamptz int64 microseconds since 2000-01-01 UTC, float8 IEEE big-endian.
+ */
+const COPY_SIGNATURE = Buffer.concat([Buffer.from('PGCOPY\n\xff\r\n\0', 'latin1'), Buffer.alloc(8)]);
+const COPY_TRAILER = Buffer.from([0xff, 0xff]);
+const ROW_BYTES = 2 + (4 + 16) + (4 + 4) + (4 + 16) + (4 + 8) + 4 * (4 + 8);
+const PG_EPOCH_S = 946_684_800;
+const uuidBytes = (id: string) => {
+  const b = Buffer.from(id.replace(/-/g, ''), 'hex');
+  if (b.length !== 16) throw new TypeError(`not a uuid: ${id}`);
+  return b;
+};
 
 function rowError(issue: RowIssue, file: string): ImportError {
   return new ImportError('unreadable', `${issue.message}; nothing was imported (fix the file or exclude the line)`, { file, line: issue.line, column: issue.column });
@@ -177,7 +193,9 @@ export async function importSensorLog(target: SensorImportTarget, input: LogImpo
       if (await options.onProgress({ bytesDone, bytesTotal, rowsDone: t.n })) throw new ImportCancelled();
     };
 
-    async function* copyText(): AsyncGenerator<string> {
+    const fileUuid = uuidBytes(fileId), rigUuid = uuidBytes(rigId);
+    async function* copyData(): AsyncGenerator<Buffer> {
+      yield COPY_SIGNATURE;
       for await (const batch of src.batches()) {
         // One builder per batch: the samples it accepts are exactly this batch's (the builder
         // counts time from its first sample, which we turn back into epoch seconds below).
@@ -202,7 +220,9 @@ export async function importSensorLog(target: SensorImportTarget, input: LogImpo
           if (base < prevEpoch - 43_200) { clockDay += 86_400; base += 86_400; }
         }
         if (log.ambientTempC) hasAmbient = true;
-        let out = '';
+        const buf = Buffer.allocUnsafe(log.n * ROW_BYTES);
+        const dv = new DataView(buf.buffer, buf.byteOffset, buf.byteLength);
+        let at = 0;
         for (let i = 0; i < log.n; i++) {
           const line = log.lines[i];
           if (excluded.has(line)) { excludedRows++; continue; }
@@ -213,17 +233,29 @@ export async function importSensorLog(target: SensorImportTarget, input: LogImpo
           prevEpoch = epoch;
           if (t0Epoch === null) t0Epoch = epoch;
           const a = log.ambientTempC ? log.ambientTempC[i] : NaN;
-          t.push(epoch - t0Epoch); tin.push(log.inletTempC[i]); tout.push(log.outletTempC[i]); q.push(log.flowM3PerS[i]); amb.push(a);
+          const ti = log.inletTempC[i], to = log.outletTempC[i], qi = log.flowM3PerS[i];
+          t.push(epoch - t0Epoch); tin.push(ti); tout.push(to); q.push(qi); amb.push(a);
           lines.push(line);
-          out += `${fileId}\t${line}\t${rigId}\t${new Date(Math.round(epoch * 1000)).toISOString()}\t${log.inletTempC[i]}\t${log.outletTempC[i]}\t${log.flowM3PerS[i]}\t${Number.isNaN(a) ? '\\N' : a}\n`;
+          dv.setInt16(at, 8); at += 2;
+          dv.setInt32(at, 16); fileUuid.copy(buf, at + 4); at += 20;
+          dv.setInt32(at, 4); dv.setInt32(at + 4, line); at += 8;
+          dv.setInt32(at, 16); rigUuid.copy(buf, at + 4); at += 20;
+          const us = Math.round((epoch - PG_EPOCH_S) * 1e6);
+          const hi = Math.floor(us / 4294967296);
+          dv.setInt32(at, 8); dv.setInt32(at + 4, hi); dv.setUint32(at + 8, us - hi * 4294967296); at += 12;
+          dv.setInt32(at, 8); dv.setFloat64(at + 4, ti); at += 12;
+          dv.setInt32(at, 8); dv.setFloat64(at + 4, to); at += 12;
+          dv.setInt32(at, 8); dv.setFloat64(at + 4, qi); at += 12;
+          if (Number.isNaN(a)) { dv.setInt32(at, -1); at += 4; } else { dv.setInt32(at, 8); dv.setFloat64(at + 4, a); at += 12; }
         }
-        if (out) yield out;
+        if (at) yield buf.subarray(0, at);
         await report();
       }
+      yield COPY_TRAILER;
     }
 
     try {
-      await pipeline(Readable.from(copyText()), client.query(copyFrom(COPY_SQL)));
+      await pipeline(Readable.from(copyData()), client.query(copyFrom(COPY_SQL)));
     } catch (e) {
       broken = !(e instanceof ImportError || e instanceof ImportCancelled);
       if (e instanceof Error && 'code' in e && typeof (e as { code?: unknown }).code === 'string' && /^[0-9A-Z]{5}$/.test((e as { code: string }).code)) {

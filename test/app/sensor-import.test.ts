@@ -100,7 +100,8 @@ const L_PER_MIN = 1e-3 / 60;
 describe('sensor-log import', () => {
   test('a log with plateaus is stored as samples, and its steady segments become trials with their criteria', { timeout: 120_000 }, async () => {
     const { eng, rig } = await setup();
-    const file = await upload(eng, rig.id, 'plateaus.csv', await makeLog(6000));
+    const log = await makeLog(6000);
+    const file = await upload(eng, rig.id, 'plateaus.csv', log);
     const started = await eng.post(`/api/rigs/${rig.id}/uploads/${file.id}/log-import`, { mapping: MAPPING, preset: 'field' });
     expect(started.status, started.text).toBe(202);
     const job = await finished(eng, started.body.job.id);
@@ -110,6 +111,16 @@ describe('sensor-log import', () => {
     // five plateaus of 1200 s: each is steady once the first-order step (60 s) has settled
     expect(job.result.trials).toBeGreaterThanOrEqual(4);
     expect(await stored(file.id)).toEqual({ samples: 6000, trials: job.result.trials, fileState: 'imported' });
+
+    // each sample as written in the file, in SI: line 3 is the generator's second sample (start + 1 s)
+    const cells = log.toString('utf8').split('\n')[2].split(',');
+    const sample = (await db.query('SELECT taken_at, inlet_c, outlet_c, flow_m3_per_s, ambient_c FROM sensor_sample WHERE source_file_id = $1 AND line = 3', [file.id])).rows[0];
+    expect(sample.taken_at.toISOString()).toBe('2026-06-01T08:00:01.000Z');
+    expect(cells[0]).toBe('2026-06-01 08:00:01');
+    expect(sample.inlet_c).toBe(Number(cells[1]));
+    expect(sample.outlet_c).toBe(Number(cells[2]));
+    expect(sample.flow_m3_per_s).toBeCloseTo(Number(cells[3]) * L_PER_MIN, 15);
+    expect(sample.ambient_c).toBe(Number(cells[4]));
 
     const trials = (await eng.get(`/api/rigs/${rig.id}/trials?pageSize=50&sort=startedAt&dir=asc`)).body.trials;
     expect(trials).toHaveLength(job.result.trials);

@@ -1,0 +1,143 @@
+/**
+ * `npm run bench -- import [rows]`: the full sensor-log import against `psql \copy`, in one run.
+ *
+ * 1. writes a synthetic 1 Hz log (1,000,000 rows, about 55 MB) with `writeSensorLogCsv`;
+ * 2. `psql \copy` of that CSV into a scratch table of the same columns (no indexes: the plain
+ *    speed of PostgreSQL's COPY on this machine) — the baseline;
+ * 3. our import path on the same file: read in chunks, parse, map to SI, validate every row, COPY
+ *    into `sensor_sample` (with its primary key and index), segment (field preset) and write the
+ *    trials, in one transaction — `importSensorLog` as the background worker runs it, reading a
+ *    local file instead of object storage;
+ * 4. for comparison, `psql \copy` of the rows we stored into a copy of `sensor_sample` with the same
+ *    primary key, index and foreign keys (what the storage itself costs);
+ * 5. the first page of that rig's trials, queried as the trials table does (`listTrials`).
+ * Prints peak RSS of this process (target < 512 MB) and the page time (target < 300 ms); the last
+ * line is the ratio of our rows/s to psql's into the plain scratch table (target >= 0.5).
+ * Everything it creates is removed. TRACE=1 prints the rows written every second.
+ *
+ * Connection: DATABASE_URL, or the private cluster of `npm start` (.data/pg-password, port 54329,
+ * database emberline) with its migrations applied.
+ */
+import { spawnSync } from 'node:child_process';
+import { createReadStream, existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+
+const root = path.resolve(__dirname, '..');
+
+// app/_lib modules start with `import 'server-only'`, which resolves to an empty module only
+// under the react-server condition (as inside Next): run ourselves again with it.
+if (!process.env.EMBERLINE_BENCH_CHILD) {
+  if (!process.env.DATABASE_URL) {
+    const pw = path.join(root, '.data', 'pg-password');
+    if (!existsSync(pw)) {
+      console.error('import bench: set DATABASE_URL or run `npm start` once so that the private cluster exists');
+      process.exit(2);
+    }
+    process.env.DATABASE_URL = `postgres://emberline:${encodeURIComponent(readFileSync(pw, 'utf8').trim())}@127.0.0.1:54329/emberline`;
+  }
+  const r = spawnSync(process.execPath, [path.join(root, 'node_modules/tsx/dist/cli.mjs'), __filename, ...process.argv.slice(2)], {
+    stdio: 'inherit',
+    env: { ...process.env, EMBERLINE_BENCH_CHILD: '1', TZ: 'UTC', NODE_OPTIONS: `${process.env.NODE_OPTIONS ?? ''} --conditions=react-server`.trim() },
+  });
+  process.exit(r.status ?? 1);
+}
+
+async function main() {
+  const { writeSensorLogCsv } = await import('./import-parse');
+  const { getEm, getOrm } = await import('@/app/_lib/db');
+  const { copyPool, importSensorLog, logImportInput } = await import('@/app/_lib/sensor-import');
+  const { listTrials, listQuery } = await import('@/app/_lib/trials');
+  const { Lab, Rig, SourceFile } = await import('@/entities');
+
+  const rows = Number(process.argv[2] ?? 1_000_000);
+  const url = process.env.DATABASE_URL!;
+  const dir = mkdtempSync(path.join(os.tmpdir(), 'emberline-import-bench-'));
+  const file = path.join(dir, 'sensor-log.csv');
+  const scratch = `bench_copy_${process.pid}`;
+  const pool = copyPool();
+  const em = await getEm();
+  let rigId: string | null = null;
+  let fileId: string | null = null;
+  try {
+    const bytes = await writeSensorLogCsv(file, { rows });
+    console.log(`generated ${rows.toLocaleString('en')} rows, ${(bytes / 1e6).toFixed(1)} MB`);
+
+    // baseline: psql \copy of the same rows
+    await pool.query(`CREATE TABLE ${scratch} (taken_at timestamp, inlet_c double precision, outlet_c double precision, flow_l_per_min double precision, ambient_c double precision, pump_w integer, status text)`);
+    const p0 = performance.now();
+    const psql = spawnSync('/usr/bin/psql', [url, '-v', 'ON_ERROR_STOP=1', '-q', '-c', `\\copy ${scratch} FROM '${file}' WITH (FORMAT csv, HEADER true)`], { encoding: 'utf8' });
+    const psqlS = (performance.now() - p0) / 1000;
+    if (psql.status !== 0) throw new Error(`psql \\copy failed: ${psql.stderr}`);
+    const copied = Number((await pool.query(`SELECT count(*) AS n FROM ${scratch}`)).rows[0].n);
+    const psqlRate = copied / psqlS;
+    console.log(`psql \\copy: ${copied.toLocaleString('en')} rows in ${psqlS.toFixed(2)} s = ${Math.round(psqlRate).toLocaleString('en')} rows/s`);
+
+    // our path
+    const [lab] = await em.find(Lab, {}, { orderBy: { createdAt: 'asc' }, limit: 1 });
+    if (!lab) throw new Error('the database has no lab: run `npm start` once to load the demo lab');
+    const rig = em.create(Rig, { lab, name: `import bench ${process.pid} ${Date.now()}`, heatSource: 'other' });
+    const source = em.create(SourceFile, { lab, rig, filename: 'sensor-log.csv', contentType: 'text/csv', sizeBytes: bytes, sha256: `bench${process.pid}${Date.now()}`.padEnd(64, '0').slice(0, 64), storageKey: 'bench/local-file' });
+    await em.flush();
+    rigId = rig.id;
+    fileId = source.id;
+    const input = logImportInput.parse({
+      preset: 'field',
+      mapping: {
+        shape: 'sensorLog',
+        decimal: '.',
+        columns: [
+          { column: 0, header: 'timestamp', field: 'time', unit: 'datetime' },
+          { column: 1, header: 'T_in [C]', field: 'inletTemp', unit: 'degC' },
+          { column: 2, header: 'T_out [C]', field: 'outletTemp', unit: 'degC' },
+          { column: 3, header: 'flow [l/min]', field: 'flow', unit: 'L/min' },
+          { column: 4, header: 'ambient [C]', field: 'ambientTemp', unit: 'degC' },
+        ],
+      },
+    });
+    const rssBefore = process.memoryUsage().rss;
+    const i0 = performance.now();
+    const result = await importSensorLog(
+      { fileId: source.id, rigId: rig.id, labId: lab.id, filename: 'sensor-log.csv', storageKey: source.storageKey, sizeBytes: bytes, uploadedAt: new Date() },
+      input,
+      { open: async () => createReadStream(file, { highWaterMark: 1 << 16 }), ...(process.env.TRACE ? { progressMs: 1000, onProgress: (p: { rowsDone: number }) => void console.log(`${((performance.now() - i0) / 1000).toFixed(2)} s ${p.rowsDone}`) } : {}) },
+    );
+    const importS = (performance.now() - i0) / 1000;
+    const peakMB = process.resourceUsage().maxRSS / 1024;
+    const rate = result.samples / importS;
+    console.log(`import (parse, map, validate, COPY, segment, trials; one transaction): ${result.samples.toLocaleString('en')} samples, ${result.trials} trials in ${importS.toFixed(2)} s = ${Math.round(rate).toLocaleString('en')} rows/s`);
+    console.log(`memory: rss ${(rssBefore / 1048576).toFixed(0)} MB before the import, peak RSS ${peakMB.toFixed(0)} MB (target < 512 MB)`);
+
+    // the same rows once more with psql, into a copy of sensor_sample with its keys and foreign keys
+    const rowsFile = path.join(dir, 'rows.txt');
+    const exp = spawnSync('/usr/bin/psql', [url, '-v', 'ON_ERROR_STOP=1', '-q', '-c', `\\copy (SELECT * FROM sensor_sample WHERE source_file_id = '${source.id}' ORDER BY line) TO '${rowsFile}'`], { encoding: 'utf8' });
+    if (exp.status !== 0) throw new Error(`psql export failed: ${exp.stderr}`);
+    await pool.query(`CREATE TABLE ${scratch}_keys (LIKE sensor_sample INCLUDING ALL)`);
+    await pool.query(`ALTER TABLE ${scratch}_keys ADD FOREIGN KEY (source_file_id) REFERENCES source_file (id) ON DELETE CASCADE, ADD FOREIGN KEY (rig_id) REFERENCES rig (id) ON DELETE CASCADE`);
+    const k0 = performance.now();
+    const keyed = spawnSync('/usr/bin/psql', [url, '-v', 'ON_ERROR_STOP=1', '-q', '-c', `\\copy ${scratch}_keys FROM '${rowsFile}'`], { encoding: 'utf8' });
+    const keyedS = (performance.now() - k0) / 1000;
+    if (keyed.status !== 0) throw new Error(`psql \\copy failed: ${keyed.stderr}`);
+    console.log(`psql \\copy of the stored rows into a copy of sensor_sample (primary key, index, both foreign keys): ${Math.round(result.samples / keyedS).toLocaleString('en')} rows/s — our import reaches ${(rate / (result.samples / keyedS)).toFixed(2)} of that`);
+
+    const pageEm = await getEm();
+    const pageRig = await pageEm.findOneOrFail(Rig, { id: rig.id });
+    const q0 = performance.now();
+    const page = await listTrials(pageEm, pageRig, listQuery.parse({}));
+    const pageMs = performance.now() - q0;
+    console.log(`first page of the rig's trials: ${page.rows.length} of ${page.total} in ${pageMs.toFixed(1)} ms (target < 300 ms)`);
+    console.log(`import ratio: ${(rate / psqlRate).toFixed(2)} (target >= 0.5)`);
+  } finally {
+    await pool.query(`DROP TABLE IF EXISTS ${scratch}, ${scratch}_keys`).catch(() => undefined);
+    if (fileId) await pool.query('DELETE FROM source_file WHERE id = $1', [fileId]).catch(() => undefined);
+    if (rigId) await pool.query('DELETE FROM rig WHERE id = $1', [rigId]).catch(() => undefined);
+    rmSync(dir, { recursive: true, force: true });
+    await pool.end();
+    await (await getOrm()).close(true);
+  }
+}
+
+main().catch((e) => {
+  console.error(e);
+  process.exit(1);
+});
