@@ -15,6 +15,9 @@ export function AppPage({ viewer, title, lead, actions, children }: { viewer: Vi
         right={
           <>
             <LabSwitcher labs={labs} currentId={viewer.current?.lab.id ?? null} />
+            <Link href="/notices" className="rounded-md px-2 py-1.5 text-sm text-paper-deep no-underline hover:bg-coal-raised hover:text-white hover:no-underline" aria-label={`Notices, ${viewer.unreadNotices} unread`}>
+              Notices{viewer.unreadNotices ? <span className="num ml-1 rounded-full bg-ember-500 px-1.5 text-xs text-white">{viewer.unreadNotices}</span> : null}
+            </Link>
             <Link href="/account" className="rounded-md px-2 py-1.5 text-sm text-paper-deep no-underline hover:bg-coal-raised hover:text-white hover:no-underline">
               {viewer.user.name}
             </Link>

@@ -3,7 +3,8 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { Fit, Rig, type StudyRow } from '@/entities';
 import type { FitSuccess } from '@/analysis/fit';
 import type { PerformanceTable } from '@/analysis/performance/performance-table';
-import { studyWorkbook, type FitExport, type PerformanceExport, type TrialExportRow } from './export';
+import { STUDY_SHEETS, studyCsv, studyWorkbook, type FitExport, type PerformanceExport, type StudyExport, type StudySheetName, type TrialExportRow } from './export';
+import { HttpError } from './errors';
 import { modelLabel, SOFTWARE_VERSION } from './fit-analysis';
 
 interface StoredTrial {
@@ -24,8 +25,8 @@ export async function studyFits(em: EntityManager, study: StudyRow) {
   return ids.map((id) => rows.find((r) => r.id === id)).filter((r): r is NonNullable<typeof r> => !!r);
 }
 
-/** The study as an XLSX workbook: Summary (provenance), Trials, Fit, Residuals, Performance. */
-export async function studyXlsx(em: EntityManager, study: StudyRow, labName: string, unitSystem: 'si' | 'us'): Promise<Buffer> {
+/** The study's tables (Summary with provenance, Trials, Fit, Residuals, Performance) as export data. */
+export async function studyExportData(em: EntityManager, study: StudyRow, labName: string, unitSystem: 'si' | 'us'): Promise<StudyExport> {
   const fits = await studyFits(em, study);
   const rigs = fits.length ? await em.find(Rig, { id: { $in: fits.map((f) => f.rig.id) } }) : [];
   const trials: TrialExportRow[] = [];
@@ -40,7 +41,7 @@ export async function studyXlsx(em: EntityManager, study: StudyRow, labName: str
     fitExports.push({ label, fit: r.fit, pointIds: r.trials.map((t) => t.id) });
     performance.push({ label, table: r.performance });
   }
-  return studyWorkbook({
+  return {
     unitSystem,
     provenance: {
       lab: labName,
@@ -55,7 +56,21 @@ export async function studyXlsx(em: EntityManager, study: StudyRow, labName: str
     fits: fitExports,
     performance,
     notes: [`Study revision ${study.revision}, review state: ${study.reviewState}.`],
-  });
+  };
+}
+
+/**
+ * The export response: XLSX by default; `?format=csv&table=Trials` (or Fit, Residuals,
+ * Performance, Summary) gives one table as CSV, units in the header names.
+ */
+export async function exportResponse(data: StudyExport, title: string, search: URLSearchParams): Promise<Response> {
+  if (search.get('format') !== 'csv') return xlsxResponse(await studyWorkbook(data), title);
+  const table = search.get('table') ?? 'Trials';
+  if (!(STUDY_SHEETS as readonly string[]).includes(table)) throw new HttpError(422, 'invalid', `No table "${table}": choose one of ${STUDY_SHEETS.join(', ')}.`);
+  const csv = studyCsv(data, table as StudySheetName);
+  if (csv === null) throw new HttpError(404, 'not_found', `This export has no ${table} table.`);
+  const name = `${title.replace(/[^\w.-]+/g, '-').slice(0, 50) || 'export'}-${table.toLowerCase()}.csv`;
+  return new Response(csv, { headers: { 'Content-Type': 'text/csv; charset=utf-8', 'Content-Disposition': `attachment; filename="${name}"` } });
 }
 
 export function xlsxResponse(buf: Buffer, title: string) {

@@ -2,6 +2,7 @@ import 'server-only';
 import { cache } from 'react';
 import { cookies } from 'next/headers';
 import { redirect } from 'next/navigation';
+import { Notice } from '@/entities';
 import { getEm } from './db';
 import { membershipsOf } from './labs';
 import { can, type Action } from './permissions';
@@ -19,7 +20,8 @@ export const getViewer = cache(async () => {
   const memberships = await membershipsOf(em, s.user.id);
   const wanted = jar.get(LAB_COOKIE)?.value;
   const current = memberships.find((m) => m.lab.id === wanted) ?? memberships[0] ?? null;
-  return { em, user: s.user, memberships, current, can: (action: Action) => can(current?.role, action) };
+  const unreadNotices = await em.count(Notice, { user: s.user, readAt: null });
+  return { em, user: s.user, memberships, current, unreadNotices, can: (action: Action) => can(current?.role, action) };
 });
 
 export type Viewer = NonNullable<Awaited<ReturnType<typeof getViewer>>>;

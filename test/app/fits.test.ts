@@ -59,3 +59,29 @@ describe('fitting on the server and saved fits', () => {
     expect(xlsx.headers.get('content-type')).toMatch(/spreadsheetml/);
   });
 });
+
+describe('fit exports', () => {
+  test('CSV of a table carries units in the header and neutralises formula-like text (OWASP CSV injection)', async () => {
+    const eng = await signedIn('engineer@cinder-hollow.test');
+    const lab = (await eng.get('/api/me')).body.labs[0];
+    const rig = (await eng.post(`/api/labs/${lab.id}/rigs`, { name: `CSV rig ${Date.now()}`, heatSource: 'electric' })).body.rig;
+    // trials from the coil model of DOMAIN.md §1.2 (Ts 90 °C, UA 500 W/K, Tin 20 °C, ρ 1000, cp 4186), rounded to 0.01 K
+    const trials = [3, 6, 9, 12, 15].map((lpm) => ({
+      flow: `${lpm} L/min`,
+      inlet: 20,
+      outlet: Math.round((90 - 70 * Math.exp(-500 / ((lpm / 60) * 4186))) * 100) / 100,
+      notes: lpm === 3 ? '=HYPERLINK("http://attacker.example","x")' : '',
+    }));
+    const made = await eng.post(`/api/rigs/${rig.id}/trials`, { trials });
+    expect(made.status, made.text).toBe(201);
+    const fit = (await eng.post(`/api/labs/${lab.id}/fits`, { rigId: rig.id, title: 'csv', model: 'coil', trialIds: made.body.trials.map((t: { id: string }) => t.id) })).body.fit;
+    const get = (q: string) => fetch(`${process.env.EMBERLINE_URL}/api/fits/${fit.id}/export${q}`, { headers: { Cookie: [...eng.cookies].map(([k, v]) => `${k}=${v}`).join('; ') } });
+    const res = await get('?format=csv&table=Trials');
+    expect(res.status).toBe(200);
+    const csv = await res.text();
+    expect(csv.split('\n')[0]).toMatch(/flow_L_per_min/);
+    expect(csv).not.toMatch(/(^|,)"?=HYPERLINK/m);
+    expect(csv).toContain("'=HYPERLINK");
+    expect((await get('?format=csv&table=Nope')).status).toBe(422);
+  });
+});

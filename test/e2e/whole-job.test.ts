@@ -88,6 +88,10 @@ describe('the whole job in Chromium', () => {
       await r.close();
     }
     await waitForMailLink('engineer@cinder-hollow.test', /Approved: Burner loop study/);
+    // …and an in-app notice
+    await visit(eng.page, '/notices');
+    await eng.page.getByText(/approved the study "Burner loop study/).first().waitFor();
+    await screenshot(eng.page, 'job-6b-author-notice');
   });
 
   test('a viewer opens the share link and downloads the XLSX; its numbers equal the API’s', async () => {

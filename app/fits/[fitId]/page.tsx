@@ -49,6 +49,14 @@ export default async function SavedFitPage({ params }: { params: Promise<{ fitId
           <a className="btn-quiet" href={`/api/fits/${row.id}/export`}>
             Download XLSX
           </a>
+          <span className="flex items-center gap-2 text-sm">
+            CSV:
+            {['Trials', 'Fit', 'Residuals', 'Performance'].map((t) => (
+              <a key={t} href={`/api/fits/${row.id}/export?format=csv&table=${t}`}>
+                {t}
+              </a>
+            ))}
+          </span>
           <Link className="btn-quiet" href={`/rigs/${rig.id}/fit`}>
             Refit
           </Link>

@@ -1,6 +1,6 @@
 import type { FitSuccess } from '@/analysis/fit';
 import type { PerformanceTable } from '@/analysis/performance/performance-table';
-import { fitWorkbook } from '@/app/_lib/export';
+import { exportResponse } from '@/app/_lib/study-export';
 import { loadFit } from '@/app/_lib/fit-access';
 import { modelLabel } from '@/app/_lib/fit-analysis';
 import { route } from '@/app/_lib/route';
@@ -18,13 +18,13 @@ interface StoredTrial {
   notes: string;
 }
 
-/** GET: the saved fit as an XLSX workbook (Summary, Trials, Fit, Residuals, Performance), in the user's units. */
+/** GET: the saved fit as XLSX (Summary, Trials, Fit, Residuals, Performance) in the user's units, or one table as CSV (`?format=csv&table=Fit`). */
 export const GET = route<{ fitId: string }>({ auth: 'user' }, async (ctx) => {
   const { fit, member } = await loadFit(ctx, 'lab:export');
   const rig = await ctx.em.findOneOrFail(Rig, { id: fit.rig.id });
   const r = fit.result as { fit: FitSuccess; performance: PerformanceTable; trials: StoredTrial[] };
   const label = modelLabel(fit.model);
-  const buf = await fitWorkbook({
+  const data = {
     unitSystem: ctx.requireActor().user.unitSystem,
     provenance: {
       lab: member.lab.name,
@@ -52,12 +52,6 @@ export const GET = route<{ fitId: string }>({ auth: 'user' }, async (ctx) => {
     fits: [{ label, fit: r.fit, pointIds: r.trials.map((t) => t.id) }],
     performance: [{ label, table: r.performance }],
     notes: [`Review state: ${fit.reviewState}.`],
-  });
-  const name = `${fit.title.replace(/[^\w.-]+/g, '-').slice(0, 60)}-v${fit.version}.xlsx`;
-  return new Response(new Uint8Array(buf), {
-    headers: {
-      'Content-Type': 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
-      'Content-Disposition': `attachment; filename="${name}"`,
-    },
-  });
+  };
+  return exportResponse(data, `${fit.title}-v${fit.version}`, ctx.req.nextUrl.searchParams);
 });

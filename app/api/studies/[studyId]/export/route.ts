@@ -1,9 +1,9 @@
 import { route } from '@/app/_lib/route';
-import { studyXlsx, xlsxResponse } from '@/app/_lib/study-export';
+import { exportResponse, studyExportData } from '@/app/_lib/study-export';
 import { loadStudy } from '@/app/_lib/studies';
 
-/** GET: the study as XLSX in the user's units. */
+/** GET: the study as XLSX in the user's units, or one table as CSV (`?format=csv&table=Fit`). */
 export const GET = route<{ studyId: string }>({ auth: 'user' }, async (ctx) => {
   const { study, member } = await loadStudy(ctx, 'lab:export');
-  return xlsxResponse(await studyXlsx(ctx.em, study, member.lab.name, ctx.requireActor().user.unitSystem), study.title);
+  return exportResponse(await studyExportData(ctx.em, study, member.lab.name, ctx.requireActor().user.unitSystem), study.title, ctx.req.nextUrl.searchParams);
 });
