@@ -4,6 +4,12 @@ import { Fit, type LabRow } from '@/entities';
 import type { FitSuccess } from '@/analysis/fit';
 import { run as runForecast } from '@/analysis/cli/forecast';
 import { run as runVolume } from '@/analysis/cli/volume';
+import { costPerDegree, usefulHeatCost, USEFUL_THERM_J } from '@/analysis/cost/useful-heat-cost';
+import type { FuelKind } from '@/analysis/cost/fuels';
+import { coilHeater } from '@/analysis/performance/heater-model';
+import { risePerHourTable } from '@/analysis/pool/mixing';
+import { parseQuantity } from '@/analysis/units/parse-quantity';
+import { z } from 'zod';
 import { HttpError } from './errors';
 import { plotToSvg } from './plot-svg';
 import { energyBudgetInput, energyBudgetPlot, forecastPlot, type UnitSystem } from './plots';
@@ -38,6 +44,8 @@ export async function forecast(em: EntityManager, lab: LabRow, body: Record<stri
     fitNote = `Heater: saved fit "${fit.title}" v${fit.version} (Ts ${p.Ts.value.toFixed(1)} °C, UA ${p.UA.value.toFixed(0)} W/K).`;
     delete input.fitId;
   }
+  const costInput = input.cost;
+  delete input.cost;
   let out: ForecastOutput;
   let pool: { volume_m3: number; area_m2: number } | null = null;
   try {
@@ -77,11 +85,13 @@ export async function forecast(em: EntityManager, lab: LabRow, body: Record<stri
     units,
   );
   const { series, ...summary } = out;
+  const extras = await forecastExtras(input, pool, out, costInput);
   return {
     ...summary,
     samples: series.length,
     fitNote,
     pool,
+    ...extras,
     plots: {
       trajectory: { title: trajectory.title, summary: trajectory.summary, svg: plotToSvg(trajectory.options) },
       budget: { title: budget.title, summary: budget.summary, svg: plotToSvg(budget.options) },
@@ -94,4 +104,38 @@ function parseTarget(v: unknown): number | null {
   const m = /^\s*(-?[\d.]+)\s*(degC|degF)\s*$/.exec(v);
   if (!m) return null;
   return m[2] === 'degF' ? ((Number(m[1]) - 32) * 5) / 9 : Number(m[1]);
+}
+
+const costSchema = z.object({ fuel: z.enum(['natural-gas', 'propane', 'electric-resistance', 'heat-pump', 'wood']), pricePerUnit: z.number().positive(), efficiency: z.number().positive().max(10).optional() }).strict();
+
+/**
+ * The rise per hour by flow × pool size (coil heater, at the start temperature) and, with a fuel
+ * price, the cost of a useful therm, of one degree and of this forecast's heat.
+ */
+async function forecastExtras(input: Record<string, unknown>, pool: { volume_m3: number } | null, out: ForecastOutput, costInput: unknown) {
+  const heater = input.heater as { model?: string; sourceTemp?: string; UA?: string } | undefined;
+  let riseTable: { flowsM3PerS: number[]; volumesM3: number[]; risePerHourK: number[][] } | null = null;
+  let volumeM3: number | null = pool?.volume_m3 ?? null;
+  try {
+    if (volumeM3 === null && typeof input.poolVolume === 'string') volumeM3 = parseQuantity(input.poolVolume, 'volume', 'poolVolume');
+    if (heater?.model === 'coil' && heater.sourceTemp && heater.UA && volumeM3 && typeof input.flow === 'string' && typeof input.startTemp === 'string') {
+      const coil = coilHeater({ sourceTempC: parseQuantity(heater.sourceTemp, 'temperature', 'heater.sourceTemp'), uaWPerK: parseQuantity(heater.UA, 'conductance', 'heater.UA') });
+      const q = parseQuantity(input.flow, 'volumeFlow', 'flow');
+      const flowsM3PerS = [0.5, 1, 1.5, 2].map((k) => q * k);
+      const volumesM3 = [0.5, 1, 2].map((k) => volumeM3! * k);
+      riseTable = { flowsM3PerS, volumesM3, risePerHourK: risePerHourTable(coil, flowsM3PerS, volumesM3, parseQuantity(input.startTemp, 'temperature', 'startTemp')) };
+    }
+  } catch {
+    riseTable = null;
+  }
+  let cost: { perUsefulTherm: number; perDegF: number; perK: number; forecastHeatCost: number; basis: string } | null = null;
+  if (costInput !== undefined) {
+    const c = costSchema.safeParse(costInput);
+    if (!c.success) throw new HttpError(422, 'invalid', 'cost: give a fuel, a price per unit and optionally an efficiency (COP for a heat pump).', { fields: { cost: c.error.issues[0]?.message ?? 'invalid' } });
+    const u = usefulHeatCost({ fuel: c.data.fuel as FuelKind, pricePerUnit: c.data.pricePerUnit, efficiency: c.data.efficiency });
+    const d = volumeM3 ? costPerDegree(volumeM3, u.perUsefulTherm) : { perDegF: NaN, perK: NaN };
+    cost = { perUsefulTherm: u.perUsefulTherm, perDegF: d.perDegF, perK: d.perK, forecastHeatCost: ((out.energy_J.heater_J ?? 0) / USEFUL_THERM_J) * u.perUsefulTherm, basis: 'HHV' };
+    if (!Number.isFinite(cost.perK)) cost = { ...cost, perDegF: 0, perK: 0 };
+  }
+  return { riseTable, cost };
 }

@@ -4,7 +4,7 @@ import { useState } from 'react';
 import { api, ApiError } from '../_components/api';
 import { Cautions } from '../_components/fit-report';
 import { PlotFigure } from '../_components/plot-figure';
-import { tempOut, tempUnit, type Units } from '../_components/units';
+import { flowOut, flowUnit, tempOut, tempUnit, type Units } from '../_components/units';
 
 interface Result {
   finalTemp_degC: number;
@@ -16,6 +16,8 @@ interface Result {
   fitNote: string | null;
   pool: { volume_m3: number; area_m2: number } | null;
   cautions: { code: string; level: string; message: string }[];
+  riseTable: { flowsM3PerS: number[]; volumesM3: number[]; risePerHourK: number[][] } | null;
+  cost: { perUsefulTherm: number; perDegF: number; perK: number; forecastHeatCost: number } | null;
   plots: Record<'trajectory' | 'budget', { title: string; summary: string; svg: string }>;
 }
 
@@ -51,6 +53,7 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
           }
         : false,
     };
+    if (v('price')) body.cost = { fuel: v('fuel'), pricePerUnit: Number(v('price')), ...(v('efficiency') ? { efficiency: Number(v('efficiency')) } : {}) };
     const fitId = v('fitId');
     if (fitId) body.fitId = fitId;
     else body.heater = { model: 'coil', sourceTemp: q('ts', T), UA: q('ua', 'W/K') };
@@ -138,6 +141,24 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
             </div>
           ) : null}
         </fieldset>
+        <fieldset className="card space-y-3 p-4">
+          <legend className="px-1 font-semibold">Running cost (optional)</legend>
+          <label className="block">
+            <span className="field-label">Fuel</span>
+            <select name="fuel" className="field-input" defaultValue="propane">
+              <option value="propane">Propane (price per gal)</option>
+              <option value="natural-gas">Natural gas (per therm)</option>
+              <option value="electric-resistance">Electric resistance (per kWh)</option>
+              <option value="heat-pump">Heat pump (per kWh; efficiency = COP)</option>
+              <option value="wood">Wood (per cord)</option>
+            </select>
+          </label>
+          <div className="grid grid-cols-2 gap-3">
+            {field('price', 'Price', '', 'per unit')}
+            {field('efficiency', 'Efficiency', '', '0–1 or COP')}
+          </div>
+          <p className="text-xs text-ink-muted">Heating values are higher heating values (EIA). The efficiency defaults to the fuel’s typical value.</p>
+        </fieldset>
         <button type="submit" className="btn-primary w-full" disabled={busy}>
           {busy ? 'Forecasting…' : 'Forecast'}
         </button>
@@ -168,6 +189,51 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
             <Cautions cautions={res.cautions} />
             <PlotFigure {...res.plots.trajectory} filename="forecast" />
             <PlotFigure {...res.plots.budget} filename="energy-budget" />
+            {res.cost ? (
+              <dl className="grid gap-3 sm:grid-cols-3">
+                {[
+                  ['Per useful therm', res.cost.perUsefulTherm.toFixed(2)],
+                  [`Per degree (${us ? '°F' : 'K'})`, (us ? res.cost.perDegF : res.cost.perK).toFixed(2)],
+                  ['Heat of this forecast', res.cost.forecastHeatCost.toFixed(2)],
+                ].map(([k, val]) => (
+                  <div key={k} className="card p-4">
+                    <dt className="text-sm text-ink-soft">{k}</dt>
+                    <dd className="num mt-1 text-xl text-ink">{val}</dd>
+                  </div>
+                ))}
+              </dl>
+            ) : null}
+            {res.riseTable ? (
+              <div className="card overflow-x-auto p-4">
+                <table className="data-table">
+                  <caption className="py-1 text-left text-sm font-semibold text-ink">Rise per hour by pump flow and pool size, at the start temperature</caption>
+                  <thead>
+                    <tr>
+                      <th scope="col">Flow</th>
+                      {res.riseTable.volumesM3.map((vol) => (
+                        <th key={vol} scope="col" className="text-right">
+                          {us ? `${(vol * 264.172).toFixed(0)} gal` : `${vol.toFixed(1)} m³`}
+                        </th>
+                      ))}
+                    </tr>
+                  </thead>
+                  <tbody>
+                    {res.riseTable.flowsM3PerS.map((q, i) => (
+                      <tr key={q}>
+                        <th scope="row" className="num bg-white font-normal">
+                          {flowOut(q, units).toFixed(1)} {flowUnit(units)}
+                        </th>
+                        {res.riseTable!.risePerHourK[i].map((r, j) => (
+                          <td key={j} className="num text-right">
+                            {(us ? r * 1.8 : r).toFixed(2)} {us ? '°F/h' : 'K/h'}
+                          </td>
+                        ))}
+                      </tr>
+                    ))}
+                  </tbody>
+                </table>
+              </div>
+            ) : null}
           </>
         ) : (
           <p className="text-ink-muted">Set the pool and the heater, then forecast.</p>

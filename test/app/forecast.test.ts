@@ -47,3 +47,27 @@ describe('forecast API', () => {
     expect(r.body.message).toMatch(/flow/);
   });
 });
+
+describe('forecast extras', () => {
+  test('rise per hour by flow × pool size and the cost per degree with EIA factors', async () => {
+    const v = await signedIn('viewer@cinder-hollow.test');
+    const lab = (await v.get('/api/me')).body.labs[0];
+    const r = await v.post(`/api/labs/${lab.id}/forecast`, {
+      poolVolume: '15000 gal',
+      startTemp: '20 degC',
+      hours: 24,
+      flow: '12 L/min',
+      heater: { model: 'coil', sourceTemp: '90 degC', UA: '500 W/K' },
+      losses: false,
+      cost: { fuel: 'propane', pricePerUnit: 3, efficiency: 0.82 },
+    });
+    expect(r.status, r.text).toBe(200);
+    expect(r.body.riseTable.risePerHourK).toHaveLength(4);
+    // more flow warms faster; a bigger pool slower (DOMAIN.md §1.2, §3.2)
+    expect(r.body.riseTable.risePerHourK[3][1]).toBeGreaterThan(r.body.riseTable.risePerHourK[0][1]);
+    expect(r.body.riseTable.risePerHourK[1][2]).toBeLessThan(r.body.riseTable.risePerHourK[1][0]);
+    // DOMAIN.md §6 table (EIA factors, computed): propane $3.00/gal at η 0.82 → $4.00 per useful therm, $5.00 per °F for 15,000 gal
+    expect(r.body.cost.perUsefulTherm).toBeCloseTo(4.0, 1);
+    expect(r.body.cost.perDegF).toBeCloseTo(5.0, 1);
+  });
+});
