@@ -13,8 +13,9 @@ import type { Action } from './permissions';
  * Background jobs on PostgreSQL through pg-boss. One PgBoss instance per process (its start
  * promise cached on globalThis, like the ORM); the web server starts the worker from
  * instrumentation.ts. Jobs live in the database, so a job sent before a restart is picked up by
- * the next process; a job that was running when its process died is retried once pg-boss sees it
- * expire (the import is one transaction, so a half-done attempt left nothing to clean up).
+ * the next process; a job that was running when its process died is found by the next worker
+ * (recoverInterruptedJobs) and run again — or, at the latest, retried when pg-boss sees it expire.
+ * The import is one transaction, so a half-done attempt left nothing to clean up.
  */
 
 export const SENSOR_IMPORT_QUEUE = 'sensor-import';
@@ -70,11 +71,53 @@ export function workSensorImports(boss: PgBoss, queue = SENSOR_IMPORT_QUEUE): Pr
   });
 }
 
+/**
+ * Finds imports that were running in a process that has gone (a restart of the web server) and
+ * hands them back to pg-boss at once, instead of waiting for their expiry. A live import holds a
+ * row lock on its source file for its whole transaction, so a `running` job whose file row can be
+ * locked, and whose progress has not moved for `staleS`, has no process left. Returns their ids.
+ */
+export async function recoverInterruptedJobs(boss: PgBoss, queue = SENSOR_IMPORT_QUEUE, staleS = 60): Promise<string[]> {
+  const client = await copyPool().connect();
+  let ids: string[] = [];
+  try {
+    await client.query('BEGIN');
+    const r = await client.query<{ id: string }>(
+      `SELECT j.id FROM import_job j JOIN source_file f ON f.id = j.source_file_id
+        WHERE j.state = 'running' AND j.updated_at < now() - make_interval(secs => $1) FOR UPDATE OF f SKIP LOCKED`,
+      [staleS],
+    );
+    ids = r.rows.map((x) => x.id);
+    if (ids.length) {
+      await client.query(`UPDATE import_job SET state = 'queued', error = 'Interrupted by a restart of the server; started again.', updated_at = now() WHERE id = ANY($1::uuid[])`, [ids]);
+    }
+    await client.query('COMMIT');
+  } catch (e) {
+    await client.query('ROLLBACK').catch(() => undefined);
+    throw e;
+  } finally {
+    client.release();
+  }
+  for (const id of ids) {
+    await boss.fail(queue, id, { message: 'interrupted by a restart' });
+    const j = await boss.getJobById(queue, id);
+    if (j && j.state === 'failed') {
+      await copyPool().query(`UPDATE import_job SET state = 'failed', error = 'Interrupted by restarts too often; nothing was imported.', finished_at = now(), updated_at = now() WHERE id = $1`, [id]);
+    }
+  }
+  return ids;
+}
+
 /** Starts this process's workers once (called from instrumentation.ts when the web server starts). */
 export async function startJobWorkers(): Promise<void> {
   g.__emberlineWorkers ??= new Map();
   if (g.__emberlineWorkers.has(SENSOR_IMPORT_QUEUE)) return void (await g.__emberlineWorkers.get(SENSOR_IMPORT_QUEUE));
-  const w = getBoss().then((boss) => workSensorImports(boss));
+  const w = getBoss().then(async (boss) => {
+    const recover = () => recoverInterruptedJobs(boss).catch((e: unknown) => console.error('jobs: recovery failed:', e instanceof Error ? e.message : e));
+    await recover();
+    setInterval(recover, 60_000).unref();
+    return workSensorImports(boss);
+  });
   g.__emberlineWorkers.set(SENSOR_IMPORT_QUEUE, w);
   w.catch(() => g.__emberlineWorkers?.delete(SENSOR_IMPORT_QUEUE));
   await w;

@@ -192,6 +192,11 @@ const MATRIX: Record<string, Case[]> = {
   'app/api/studies/[studyId]/export/route.ts': [{ method: 'GET', url: (f) => `/api/studies/${f.studyId}/export`, expect: { ...members(200), token: 200 } }],
   'app/api/shares/[shareId]/route.ts': [{ method: 'DELETE', url: () => `/api/shares/${uuid0}`, expect: { ...members(404, 401, 404), token: 403 } }],
   'app/api/share/[token]/export/route.ts': [{ method: 'GET', url: () => '/api/share/shr_not-a-real-token/export', expect: { ...all(404), token: 404 } }],
+  'app/api/rigs/[rigId]/photos/route.ts': [
+    { method: 'GET', url: (f) => `/api/rigs/${f.rigId}/photos`, expect: { ...members(200), token: 200 } },
+    { method: 'POST', url: (f) => `/api/rigs/${f.rigId}/photos`, body: () => 'not a picture', expect: { ...writers(400), token: 400 } },
+  ],
+  'app/api/files/[fileId]/route.ts': [{ method: 'GET', url: () => `/api/files/${uuid0}`, expect: { ...members(404, 401, 404), token: 404 } }],
   'app/api/trials/[trialId]/route.ts': [
     { method: 'GET', url: (f) => `/api/trials/${f.trialId}`, expect: { ...members(200), token: 200 } },
     { method: 'PATCH', url: (f) => `/api/trials/${f.trialId}`, body: () => ({}), expect: { ...writers(200), token: 200 } },

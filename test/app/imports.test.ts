@@ -100,3 +100,26 @@ describe('trial-sheet import', () => {
     expect(await count(eng, rig.id)).toBe(0);
   });
 });
+
+describe('rig photos', () => {
+  // the 8-byte PNG signature (ISO/IEC 15948 §5.2) followed by filler: enough for the magic-number check
+  const png = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.alloc(64, 1)]);
+  const post = (c: Client, rigId: string, body: Buffer, type: string) =>
+    fetch(`${baseUrl}/api/rigs/${rigId}/photos?filename=rig.png`, {
+      method: 'POST',
+      headers: { Origin: baseUrl, Cookie: [...c.cookies].map(([k, v]) => `${k}=${v}`).join('; '), 'Content-Type': type, 'X-Forwarded-For': c.ip },
+      body: new Uint8Array(body),
+    });
+  test('a photo is stored unchanged and served to members only; a text file posing as a PNG is refused', async () => {
+    const { eng, rig } = await setup();
+    const up = await post(eng, rig.id, png, 'image/png');
+    expect(up.status).toBe(201);
+    const { photo } = await up.json();
+    const got = await fetch(`${baseUrl}/api/files/${photo.id}`, { headers: { Cookie: [...eng.cookies].map(([k, v]) => `${k}=${v}`).join('; ') } });
+    expect(got.headers.get('content-type')).toBe('image/png');
+    expect(Buffer.from(await got.arrayBuffer()).equals(png)).toBe(true);
+    expect((await fetch(`${baseUrl}/api/files/${photo.id}`)).status).toBe(401);
+    const fake = await post(eng, rig.id, Buffer.from('hello, not a picture'), 'image/png');
+    expect(fake.status).toBe(422);
+  });
+});

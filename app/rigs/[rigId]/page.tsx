@@ -3,6 +3,7 @@ import { notFound } from 'next/navigation';
 import { Rig, SourceFile } from '@/entities';
 import { AppPage } from '../../_components/app-page';
 import { RigForm } from '../../_components/rig-form';
+import { RigPhotos } from '../../_components/rig-photos';
 import { HEAT_SOURCE_LABELS } from '../../_lib/labels';
 import { TrialsTable } from '../../_components/trials-table';
 import { rigDto } from '../../_lib/dto';
@@ -18,6 +19,7 @@ export default async function RigPage({ params, searchParams }: { params: Promis
   const rig = UUID.test(rigId) ? await v.em.findOne(Rig, { id: rigId, lab: v.current.lab }) : null;
   if (!rig) notFound();
   const files = await v.em.find(SourceFile, { rig, purpose: 'trials' }, { orderBy: { createdAt: 'desc' }, limit: 10 });
+  const photos = await v.em.find(SourceFile, { rig, purpose: 'photo' }, { orderBy: { createdAt: 'desc' }, limit: 24 });
   const write = v.can('trial:write');
   const d = rig.details ?? {};
   const facts = [
@@ -73,13 +75,14 @@ export default async function RigPage({ params, searchParams }: { params: Promis
           <p className="mt-2 whitespace-pre-wrap text-ink-soft">{rig.notes}</p>
         </section>
       ) : null}
+      <RigPhotos rigId={rig.id} photos={photos.map((p) => ({ id: p.id, filename: p.filename }))} canUpload={v.can('rig:write')} />
       {files.length ? (
         <section className="mt-6">
           <h2 className="text-lg">Imported files</h2>
           <ul className="mt-2 space-y-1 text-sm">
             {files.map((f) => (
               <li key={f.id} className="flex flex-wrap gap-x-3">
-                <span>{f.filename}</span>
+                <a href={`/api/files/${f.id}`}>{f.filename}</a>
                 <span className="num text-ink-muted">{f.sha256.slice(0, 12)}…</span>
                 <span className="text-ink-muted">{f.state}, {f.rowsImported} rows</span>
               </li>

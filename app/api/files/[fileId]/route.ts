@@ -1,0 +1,26 @@
+import { Readable } from 'node:stream';
+import { SourceFile } from '@/entities';
+import { notFound } from '@/app/_lib/errors';
+import { UUID } from '@/app/_lib/rigs';
+import { route } from '@/app/_lib/route';
+import { getObjectStream } from '@/app/_lib/storage';
+
+/** GET: a stored file exactly as uploaded (raw trial sheets, rig photos), for members of its lab. */
+export const GET = route<{ fileId: string }>({ auth: 'user' }, async (ctx) => {
+  ctx.requireActor();
+  if (!UUID.test(ctx.params.fileId)) throw notFound();
+  const file = await ctx.em.findOne(SourceFile, { id: ctx.params.fileId });
+  if (!file) throw notFound();
+  await ctx.requireMember(file.lab.id, 'lab:read');
+  const body = Readable.toWeb(await getObjectStream(file.storageKey)) as ReadableStream<Uint8Array>;
+  const inline = file.purpose === 'photo';
+  return new Response(body, {
+    headers: {
+      'Content-Type': inline ? file.contentType : 'application/octet-stream',
+      'Content-Length': String(file.sizeBytes),
+      'Content-Disposition': `${inline ? 'inline' : 'attachment'}; filename="${file.filename.replace(/["\\\r\n]/g, '_')}"`,
+      'X-Content-Type-Options': 'nosniff',
+      ETag: `"${file.sha256}"`,
+    },
+  });
+});
