@@ -9,6 +9,7 @@ import type { FuelKind } from '@/analysis/cost/fuels';
 import { coilHeater } from '@/analysis/performance/heater-model';
 import { risePerHourTable } from '@/analysis/pool/mixing';
 import { parseQuantity } from '@/analysis/units/parse-quantity';
+import { reduceForDisplay } from '@/analysis/reduce';
 import { z } from 'zod';
 import { HttpError } from './errors';
 import { plotToSvg } from './plot-svg';
@@ -66,11 +67,14 @@ export async function forecast(em: EntityManager, lab: LabRow, body: Record<stri
   const hours = out.series.at(-1)?.time_h ?? 0;
   const targetC = typeof out.hoursToTarget_h === 'number' || input.targetTemp ? parseTarget(input.targetTemp) : null;
   const e = out.energy_J;
+  // Long series (a season sampled hourly and finer) are reduced for display, keeping extremes and endpoints.
+  const shown = reduceForDisplay(out.series.map((s) => s.time_h), out.series.map((s) => s.temp_degC));
+  const pick = <T,>(f: (s: ForecastOutput['series'][number]) => T) => Array.from(shown.indices, (i) => f(out.series[i]));
   const trajectory = forecastPlot(
     {
-      timeH: out.series.map((s) => s.time_h),
-      poolC: out.series.map((s) => s.temp_degC),
-      outletC: out.series.map((s) => s.outletTemp_degC),
+      timeH: pick((s) => s.time_h),
+      poolC: pick((s) => s.temp_degC),
+      outletC: pick((s) => s.outletTemp_degC),
       targetC,
       hoursToTarget: out.hoursToTarget_h,
       cautions: out.cautions.filter((c) => c.thresholdC !== null).map((c) => ({ thresholdC: c.thresholdC!, level: c.level, message: c.message })),
@@ -89,6 +93,7 @@ export async function forecast(em: EntityManager, lab: LabRow, body: Record<stri
   return {
     ...summary,
     samples: series.length,
+    shownSamples: shown.indices.length,
     fitNote,
     pool,
     ...extras,

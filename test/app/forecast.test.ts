@@ -71,3 +71,19 @@ describe('forecast extras', () => {
     expect(r.body.cost.perDegF).toBeCloseTo(5.0, 1);
   });
 });
+
+describe('long forecasts', () => {
+  test('a 100-day series is reduced for display to at most 2,000 points (largest-triangle-three-buckets)', async () => {
+    const v = await signedIn('viewer@cinder-hollow.test');
+    const lab = (await v.get('/api/me')).body.labs[0];
+    const r = await v.post(`/api/labs/${lab.id}/forecast`, {
+      poolVolume: '15000 gal', startTemp: '20 degC', hours: 2400, flow: '12 L/min',
+      heater: { model: 'coil', sourceTemp: '90 degC', UA: '500 W/K' },
+      losses: { surfaceArea: '46 m^2', weather: { airTemp: '20 degC', relativeHumidity: 0.6, wind: '1 m/s' } },
+    });
+    expect(r.status, r.text).toBe(200);
+    expect(r.body.samples).toBeGreaterThan(2000);
+    expect(r.body.shownSamples).toBeLessThanOrEqual(2000);
+    expect(r.body.plots.trajectory.svg).not.toMatch(/NaN/);
+  });
+});
