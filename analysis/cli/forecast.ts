@@ -10,7 +10,7 @@ input: {"poolVolume":"15000 gal","startTemp":"20 degC","hours":24,"flow":"12 L/m
         "heater":{"model":"coil","sourceTemp":"90 degC","UA":"500 W/K"},"losses":false}
   heater: {"model":"coil","sourceTemp","UA"} | {"model":"fixed-rise","rise":"10 K"}
   optional: "poolMass":"56588 kg" (instead of poolVolume), "volumeTemp":"26 degC" (water temperature the volume
-  was measured at, default startTemp), "step":"60 s", "targetTemp":"28 degC", "heaterHours":[8,...,17], "startHour":0
+  was measured at, default startTemp), "step":"60 s", "targetTemp":"28 degC", "thermostat":true (heater off at the target), "heaterHours":[8,...,17], "startHour":0
   losses: false | {"surfaceArea":"46.6 m^2", "weather": {"airTemp":"20 degC","relativeHumidity":0.6 | "dewPoint":"12 degC",
            "wind":"1 m/s","solar":"200 W/m^2","cloudCover":0.5,"skyTemp":"5 degC"} or an hourly array of them,
            "evaporation": false | {"activityFactor":1,"correction":0.8}, "convection": false | {"model":"mcadams"},
@@ -96,6 +96,7 @@ export function run(input: unknown): unknown {
       heaterHours: o.heaterHours as number[] | undefined,
       startHourOfDay: plainNumber(o, 'startHour'),
       targetTempC: optionalQuantity(o, 'targetTemp', 'temperature'),
+      thermostat: o.thermostat === true,
       losses: readLosses(o.losses),
     });
     const series = Array.from(r.timeH, (t, i) => ({ time_h: t, temp_degC: r.tempC[i], outletTemp_degC: r.outletTempC[i] }));

@@ -49,6 +49,8 @@ export interface ForecastInput {
   fixedCpJPerKgK?: number;
   /** the target temperature for `hoursToTarget`, °C */
   targetTempC?: number;
+  /** with a target: the heater stops while the pool is at or above it, as a thermostat would (default false) */
+  thermostat?: boolean;
   /** sampling interval of the trajectory, s (default 3600) */
   sampleEveryS?: number;
 }
@@ -118,6 +120,8 @@ export function recirculatingForecast(input: ForecastInput): ForecastResult {
   if (!Number.isInteger(startHour) || startHour < 0 || startHour > 23) throw new RangeError(`startHourOfDay must be an integer 0–23, got ${startHour}`);
   const cpFixed = input.fixedCpJPerKgK === undefined ? 0 : requirePositive(input.fixedCpJPerKgK, 'fixedCpJPerKgK');
   const target = input.targetTempC === undefined ? null : requireFinite(input.targetTempC, 'targetTempC');
+  if (input.thermostat && target === null) throw new RangeError('thermostat: needs a targetTempC to switch at');
+  const thermostat = input.thermostat === true;
   const sampleS = requirePositive(input.sampleEveryS ?? 3600, 'sampleEveryS');
   const terms = input.losses ? resolveTerms(input.losses) : null;
 
@@ -144,7 +148,7 @@ export function recirculatingForecast(input: ForecastInput): ForecastResult {
     const cp = cpFixed || fastCpJPerKgK(T);
     // heater
     let qHeat = 0, tout = T;
-    if (flow > 0 && heaterOn[hod] === 1) {
+    if (flow > 0 && heaterOn[hod] === 1 && !(thermostat && T >= target!)) {
       const rho = fastDensityKgPerM3(T);
       const vdot = massFlow > 0 ? massFlow / rho : flow;
       tout = heater.outletTempC(vdot, T);

@@ -46,6 +46,7 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
       targetTemp: q('targetTemp', T),
       hours: Number(v('hours')),
       flow: q('flow', us ? 'gpm' : 'L/min'),
+      thermostat: f.get('thermostat') === 'on' && !!v('targetTemp'),
       losses: losses
         ? {
             weather: { airTemp: q('airTemp', T), relativeHumidity: Number(v('rh')) / 100, wind: q('wind', us ? 'mph' : 'm/s'), solar: q('solar', 'W/m^2') },
@@ -107,6 +108,9 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
             {field('hours', 'Hours', '48', 'h')}
             {field('flow', 'Pump flow', us ? '3' : '12', us ? 'gpm' : 'L/min')}
           </div>
+          <label className="flex items-center gap-2 text-sm">
+            <input type="checkbox" name="thermostat" defaultChecked /> stop heating at the target (thermostat)
+          </label>
           <label className="block">
             <span className="field-label">Heater</span>
             <select name="fitId" className="field-input" defaultValue={fits[0]?.id ?? ''}>
