@@ -84,8 +84,10 @@ export async function recoverInterruptedJobs(boss: PgBoss, queue = SENSOR_IMPORT
     await client.query('BEGIN');
     const r = await client.query<{ id: string }>(
       `SELECT j.id FROM import_job j JOIN source_file f ON f.id = j.source_file_id
-        WHERE j.state = 'running' AND j.updated_at < now() - make_interval(secs => $1) FOR UPDATE OF f SKIP LOCKED`,
-      [staleS],
+        WHERE j.state = 'running' AND j.updated_at < now() - make_interval(secs => $1)
+          AND EXISTS (SELECT 1 FROM pgboss.job b WHERE b.name = $2 AND b.id = j.id AND b.state = 'active')
+        FOR UPDATE OF f SKIP LOCKED`,
+      [staleS, queue],
     );
     ids = r.rows.map((x) => x.id);
     if (ids.length) {

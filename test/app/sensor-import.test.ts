@@ -16,7 +16,7 @@ import pg from 'pg';
 import { afterAll, describe, expect, test } from 'vitest';
 import { writeSensorLogCsv } from '../../bench/import-parse';
 import { getEm, getOrm } from '@/app/_lib/db';
-import { createImportJobRow, enqueueSensorImport, newBoss, startBoss, workSensorImports } from '@/app/_lib/jobs';
+import { createImportJobRow, enqueueSensorImport, newBoss, recoverInterruptedJobs, startBoss, workSensorImports } from '@/app/_lib/jobs';
 import { ImportCancelled, copyPool, importSensorLog, logImportInput } from '@/app/_lib/sensor-import';
 import { ImportError } from '@/app/_lib/import/import-error';
 import { Rig, SourceFile, User } from '@/entities';
@@ -225,6 +225,76 @@ describe('sensor-log import', () => {
       expect(done.state, done.error).toBe('completed');
       expect(done.attempts).toBe(1);
       expect(await stored(file.id)).toEqual({ samples: 4000, trials: done.result.trials, fileState: 'imported' });
+    } finally {
+      await b.stop({ graceful: true, wait: true });
+    }
+  });
+
+  test('an import that was running when its process died is started again by the next process', { timeout: 120_000 }, async () => {
+    // Staged like the test above, on a queue of its own. Process A takes the job from the queue
+    // (pg-boss marks it active) and "dies" mid-import: its transaction is gone with it, so nothing
+    // is stored, and what it leaves is a job row saying `running` whose progress stopped two
+    // minutes ago. Process B finds it (nobody holds the lock on its source file), hands it back to
+    // pg-boss, and its worker runs the import again from the start.
+    const { eng, rig } = await setup();
+    const file = await upload(eng, rig.id, 'interrupted.csv', await makeLog(4000));
+    const queue = `sensor-import-crash-${Date.now().toString(36)}`;
+    const em = await getEm();
+    const job = await createImportJobRow(
+      em,
+      await em.findOneOrFail(Rig, { id: rig.id }),
+      await em.findOneOrFail(SourceFile, { id: file.id }),
+      await em.findOneOrFail(User, { email: 'engineer@cinder-hollow.test' }),
+      logImportInput.parse({ mapping: MAPPING, preset: 'field' }),
+    );
+    const a = await startBoss(newBoss(), queue);
+    await enqueueSensorImport(a, job.id, queue);
+    const taken = await a.fetch(queue);
+    expect(taken.map((j) => j.id)).toEqual([job.id]);
+    await db.query(`UPDATE import_job SET state = 'running', attempts = 1, rows_done = 8192, started_at = now() - interval '2 minutes', updated_at = now() - interval '2 minutes' WHERE id = $1`, [job.id]);
+    await a.stop({ graceful: false, wait: true });
+
+    const b = await startBoss(newBoss(), queue);
+    try {
+      expect(await recoverInterruptedJobs(b, queue)).toEqual([job.id]);
+      await workSensorImports(b, queue);
+      const done = await finished(eng, job.id);
+      expect(done.state, done.error).toBe('completed');
+      expect(done.attempts).toBe(2);
+      expect(await stored(file.id)).toEqual({ samples: 4000, trials: done.result.trials, fileState: 'imported' });
+      // a running job of a live process is left alone
+      expect(await recoverInterruptedJobs(b, queue)).toEqual([]);
+    } finally {
+      await b.stop({ graceful: true, wait: true });
+    }
+  });
+
+  test('a job cancelled through the API before a worker took it is never run', { timeout: 120_000 }, async () => {
+    // a queue of its own again, so that no worker takes the job before the DELETE
+    const { eng, rig } = await setup();
+    const file = await upload(eng, rig.id, 'cancelled.csv', await makeLog(2000));
+    const queue = `sensor-import-cancel-${Date.now().toString(36)}`;
+    const em = await getEm();
+    const job = await createImportJobRow(
+      em,
+      await em.findOneOrFail(Rig, { id: rig.id }),
+      await em.findOneOrFail(SourceFile, { id: file.id }),
+      await em.findOneOrFail(User, { email: 'engineer@cinder-hollow.test' }),
+      logImportInput.parse({ mapping: MAPPING, preset: 'field' }),
+    );
+    const b = await startBoss(newBoss(), queue);
+    try {
+      await enqueueSensorImport(b, job.id, queue);
+      const del = await eng.request('DELETE', `/api/jobs/${job.id}`);
+      expect(del.status, del.text).toBe(200);
+      expect(del.body.job.state).toBe('cancelled');
+      await workSensorImports(b, queue);
+      // the worker takes the pg-boss job and skips it: the row stays cancelled and nothing is stored
+      const until = Date.now() + 30_000;
+      while ((await b.getJobById(queue, job.id))?.state !== 'completed' && Date.now() < until) await new Promise((r) => setTimeout(r, 200));
+      expect((await b.getJobById(queue, job.id))?.state).toBe('completed');
+      expect((await eng.get(`/api/jobs/${job.id}`)).body.job.state).toBe('cancelled');
+      expect(await stored(file.id)).toEqual({ samples: 0, trials: 0, fileState: 'uploaded' });
     } finally {
       await b.stop({ graceful: true, wait: true });
     }
