@@ -3,7 +3,7 @@
 // migrations, demo data, local fakes of hosted services, a build when sources changed, then
 // the web server on http://127.0.0.1:3000. Ctrl-C stops everything it started.
 import path from 'node:path';
-import { root, step, portIsFree, SetupError, spawn, fail } from './lib/util.mjs';
+import { root, step, portIsFree, SetupError, spawn, fail, waitForHealth } from './lib/util.mjs';
 import { bootstrap } from './lib/bootstrap.mjs';
 import { buildIfChanged } from './lib/build.mjs';
 import { startFakes } from './lib/fakes.mjs';
@@ -55,7 +55,7 @@ async function main() {
       stopAll();
       process.exit(code ?? 0);
     });
-    await waitForHealth(`http://${host}:${port}/api/health`);
+    await waitForHealth(`http://${host}:${port}/api/health`, web);
     const { printDemoSignIns } = await import('./lib/demo-accounts.mjs');
     console.log(`\n\x1b[1mEmberline is ready at http://${host}:${port}\x1b[0m  (${((Date.now() - t0) / 1000).toFixed(1)} s)`);
     if (env.EMBERLINE_DEMO === 'true') printDemoSignIns();
@@ -66,21 +66,6 @@ async function main() {
   }
 }
 
-async function waitForHealth(url) {
-  const deadline = Date.now() + 60_000;
-  let last = '';
-  while (Date.now() < deadline) {
-    try {
-      const r = await fetch(url);
-      if (r.ok) return;
-      last = await r.text();
-    } catch (e) {
-      last = e.message;
-    }
-    await new Promise((r) => setTimeout(r, 300));
-  }
-  fail(`the web server did not become healthy within 60 s (${last})`);
-}
 
 main().catch((e) => {
   if (e instanceof SetupError) {

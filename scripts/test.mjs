@@ -5,7 +5,7 @@
 // summary and a plain "N passed, N failed" line; exits non-zero on any failure.
 import path from 'node:path';
 import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
-import { root, step, SetupError, spawn, freePort, fail } from './lib/util.mjs';
+import { root, step, SetupError, spawn, freePort, fail, waitForHealth } from './lib/util.mjs';
 import { ensureNodeModules, ensureChromium } from './lib/install.mjs';
 import { bootstrap } from './lib/bootstrap.mjs';
 import { buildIfChanged } from './lib/build.mjs';
@@ -82,22 +82,6 @@ async function main() {
   }
 }
 
-async function waitForHealth(url, web) {
-  const deadline = Date.now() + 60_000;
-  let last = '';
-  while (Date.now() < deadline) {
-    if (web.exitCode !== null) fail(`the web server exited with code ${web.exitCode} before it was healthy`);
-    try {
-      const r = await fetch(url);
-      if (r.ok) return;
-      last = await r.text();
-    } catch (e) {
-      last = e.message;
-    }
-    await new Promise((r) => setTimeout(r, 300));
-  }
-  fail(`the web server did not become healthy within 60 s (${last})`);
-}
 
 main().catch((e) => {
   if (e instanceof SetupError) {

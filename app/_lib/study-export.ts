@@ -7,7 +7,8 @@ import { STUDY_SHEETS, studyCsv, studyWorkbook, type FitExport, type Performance
 import { HttpError } from './errors';
 import { modelLabel, SOFTWARE_VERSION } from './fit-analysis';
 
-interface StoredTrial {
+/** A trial as a saved fit keeps it (`result.trials`). */
+export interface StoredTrial {
   id: string;
   startedAt: string;
   flowM3PerS: number;
@@ -16,6 +17,7 @@ interface StoredTrial {
   bucketVolumeM3: number | null;
   fillTimesS: number[] | null;
   ambientC: number | null;
+  notes?: string;
 }
 
 /** The saved fits a study's blocks point at, in block order, once each (lab-scoped). */

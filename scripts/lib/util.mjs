@@ -59,4 +59,22 @@ export function lastLines(text, n = 3) {
   return text.trim().split('\n').slice(-n).join(' | ');
 }
 
+/** Waits until the web server answers its health check (or exits, or 60 s pass). */
+export async function waitForHealth(url, web) {
+  const deadline = Date.now() + 60_000;
+  let last = '';
+  while (Date.now() < deadline) {
+    if (web && web.exitCode !== null) fail(`the web server exited with code ${web.exitCode} before it was healthy`);
+    try {
+      const r = await fetch(url);
+      if (r.ok) return;
+      last = await r.text();
+    } catch (e) {
+      last = e.message;
+    }
+    await new Promise((r) => setTimeout(r, 300));
+  }
+  fail(`the web server did not become healthy within 60 s (${last})`);
+}
+
 export { spawn };

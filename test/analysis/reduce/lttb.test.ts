@@ -3,7 +3,7 @@ import { lttb, lttbIndices } from '../../../analysis/reduce/lttb';
 import { mulberry32 } from '../../../analysis/fit/random';
 
 /**
- * A direct transcription of the algorithm as Steinarsson (2013, "Downsampling Time Series for
+ * A line-by-line rendering of the algorithm as Steinarsson (2013, "Downsampling Time Series for
  * Visual Representation", §4.2 and the reference implementation printed with it) states it: bucket
  * size every = (n − 2)/(threshold − 2), bucket i spans [⌊i·every⌋ + 1, ⌊(i + 1)·every⌋ + 1), the
  * next bucket's mean is the third vertex, triangle area ½|(ax − cx)(by − ay) − (ax − bx)(cy − ay)|.
@@ -54,7 +54,7 @@ describe('lttb', () => {
     expect(idx[target - 1]).toBe(4999);
   });
 
-  // Steinarsson 2013 §4.2 (the algorithm as printed); transcription above.
+  // Steinarsson 2013 §4.2 (the algorithm as printed); the rendering above.
   test.each([[1000, 50, 1], [1001, 37, 2], [20, 7, 3], [12345, 500, 4]])(
     'selects the same points as the paper’s algorithm (n = %i, target = %i, seed %i)',
     (n, target, seed) => {

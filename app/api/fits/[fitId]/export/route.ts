@@ -1,22 +1,11 @@
 import type { FitSuccess } from '@/analysis/fit';
 import type { PerformanceTable } from '@/analysis/performance/performance-table';
-import { exportResponse } from '@/app/_lib/study-export';
+import { exportResponse, type StoredTrial } from '@/app/_lib/study-export';
 import { loadFit } from '@/app/_lib/fit-access';
 import { modelLabel } from '@/app/_lib/fit-analysis';
 import { route } from '@/app/_lib/route';
 import { Rig } from '@/entities';
 
-interface StoredTrial {
-  id: string;
-  startedAt: string;
-  flowM3PerS: number;
-  inletC: number;
-  outletC: number;
-  bucketVolumeM3: number | null;
-  fillTimesS: number[] | null;
-  ambientC: number | null;
-  notes: string;
-}
 
 /** GET: the saved fit as XLSX (Summary, Trials, Fit, Residuals, Performance) in the user's units, or one table as CSV (`?format=csv&table=Fit`). */
 export const GET = route<{ fitId: string }>({ auth: 'user' }, async (ctx) => {
