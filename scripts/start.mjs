@@ -3,7 +3,7 @@
 // migrations, demo data, local fakes of hosted services, a build when sources changed, then
 // the web server on http://127.0.0.1:3000. Ctrl-C stops everything it started.
 import path from 'node:path';
-import { root, step, portIsFree, SetupError, spawn, fail, waitForHealth } from './lib/util.mjs';
+import { root, step, portIsFree, spawn, fail, waitForHealth, stopper, runMain } from './lib/util.mjs';
 import { bootstrap } from './lib/bootstrap.mjs';
 import { buildIfChanged } from './lib/build.mjs';
 import { startFakes } from './lib/fakes.mjs';
@@ -15,19 +15,10 @@ const t0 = Date.now();
 async function main() {
   if (!(await portIsFree(port, host))) fail(`port ${port} on ${host} is already taken; stop whatever uses it or set PORT`);
   const db = await bootstrap({ database: 'emberline' });
-  const stops = [db.stop];
-  const stopAll = () => {
-    while (stops.length) {
-      try {
-        stops.pop()();
-      } catch {
-        /* keep stopping the rest */
-      }
-    }
-  };
+  const { push, stopAll } = stopper(db.stop);
   try {
     const fakes = await startFakes();
-    stops.push(fakes.stop);
+    push(fakes.stop);
     buildIfChanged();
     const env = {
       ...process.env,
@@ -42,7 +33,7 @@ async function main() {
       env,
       stdio: ['ignore', 'inherit', 'inherit'],
     });
-    stops.push(() => web.exitCode === null && web.kill('SIGTERM'));
+    push(() => web.exitCode === null && web.kill('SIGTERM'));
     const shutdown = (signal) => {
       console.log(`\n${signal}: stopping the web server and the database`);
       stopAll();
@@ -66,12 +57,4 @@ async function main() {
   }
 }
 
-
-main().catch((e) => {
-  if (e instanceof SetupError) {
-    console.error(`\x1b[31m✖ ${e.message}\x1b[0m`);
-    process.exit(1);
-  }
-  console.error(e);
-  process.exit(1);
-});
+runMain(main);

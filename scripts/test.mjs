@@ -5,7 +5,7 @@
 // summary and a plain "N passed, N failed" line; exits non-zero on any failure.
 import path from 'node:path';
 import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
-import { root, step, SetupError, spawn, freePort, fail, waitForHealth } from './lib/util.mjs';
+import { root, step, spawn, freePort, fail, waitForHealth, stopper, runMain } from './lib/util.mjs';
 import { ensureNodeModules, ensureChromium } from './lib/install.mjs';
 import { bootstrap } from './lib/bootstrap.mjs';
 import { buildIfChanged } from './lib/build.mjs';
@@ -15,23 +15,14 @@ async function main() {
   ensureNodeModules();
   const chromium = ensureChromium();
   const db = await bootstrap({ database: 'emberline_test', fresh: true });
-  const stops = [db.stop];
-  const stopAll = () => {
-    while (stops.length) {
-      try {
-        stops.pop()();
-      } catch {
-        /* keep stopping the rest */
-      }
-    }
-  };
+  const { push, stopAll } = stopper(db.stop);
   process.on('SIGINT', () => {
     stopAll();
     process.exit(130);
   });
   try {
     const fakes = await startFakes({ test: true });
-    stops.push(fakes.stop);
+    push(fakes.stop);
     buildIfChanged();
     const port = await freePort();
     const baseUrl = `http://127.0.0.1:${port}`;
@@ -48,7 +39,7 @@ async function main() {
       env: { ...env, NODE_ENV: 'production' },
       stdio: ['ignore', 'ignore', 'inherit'],
     });
-    stops.push(() => web.exitCode === null && web.kill('SIGTERM'));
+    push(() => web.exitCode === null && web.kill('SIGTERM'));
     await waitForHealth(`${baseUrl}/api/health`, web);
     const resultsDir = path.join(root, 'test-results');
     mkdirSync(resultsDir, { recursive: true });
@@ -82,12 +73,4 @@ async function main() {
   }
 }
 
-
-main().catch((e) => {
-  if (e instanceof SetupError) {
-    console.error(`\x1b[31m✖ ${e.message}\x1b[0m`);
-    process.exit(1);
-  }
-  console.error(e);
-  process.exit(1);
-});
+runMain(main);

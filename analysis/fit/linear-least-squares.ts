@@ -6,7 +6,7 @@
  * [I A; Aᵀ 0][r; x] = [y; 0] with residuals accumulated in double-double arithmetic
  * (Å. Björck, "Iterative refinement of linear least squares solutions I", BIT 7 (1967) 257–278).
  */
-import { DotAccumulator } from './double-double';
+import { DotAccumulator, twoProduct } from './double-double';
 import { applyQ, applyQt, householderQr } from './householder-qr';
 
 const EPS = 2.220446049250313e-16;
@@ -133,22 +133,15 @@ export function polynomialDesign(x: ArrayLike<number>, degree: number, intercept
     columnsLo.push(lo);
   }
   const t = new Float64Array(2);
-  const SPLIT = 134217729;
+  const p = new Float64Array(2);
   for (let k = 1; k <= degree; k++) {
     const nh = new Float64Array(m);
     const nl = new Float64Array(m);
     for (let i = 0; i < m; i++) {
       // (hi + lo)·x as a double-double
-      const a = hi[i];
-      const b = x[i];
-      const pr = a * b;
-      let c = SPLIT * a;
-      const ah = c - (c - a);
-      const al = a - ah;
-      c = SPLIT * b;
-      const bh = c - (c - b);
-      const bl = b - bh;
-      const err = ah * bh - pr + ah * bl + al * bh + al * bl + lo[i] * b;
+      twoProduct(hi[i], x[i], p);
+      const pr = p[0];
+      const err = p[1] + lo[i] * x[i];
       t[0] = pr + err;
       t[1] = err - (t[0] - pr);
       nh[i] = t[0];

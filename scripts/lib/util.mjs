@@ -77,4 +77,33 @@ export async function waitForHealth(url, web) {
   fail(`the web server did not become healthy within 60 s (${last})`);
 }
 
+/** Things to stop, last started first; `stopAll()` keeps going when one of them fails. */
+export function stopper(first) {
+  const stops = first ? [first] : [];
+  return {
+    push: (fn) => stops.push(fn),
+    stopAll() {
+      while (stops.length) {
+        try {
+          stops.pop()();
+        } catch {
+          /* keep stopping the rest */
+        }
+      }
+    },
+  };
+}
+
+/** Runs a lifecycle script: a SetupError becomes one red line and exit 1. */
+export function runMain(main) {
+  main().catch((e) => {
+    if (e instanceof SetupError) {
+      console.error(`\x1b[31m✖ ${e.message}\x1b[0m`);
+      process.exit(1);
+    }
+    console.error(e);
+    process.exit(1);
+  });
+}
+
 export { spawn };
