@@ -135,6 +135,7 @@ export function TrialsTable({ rigId, units, canWrite }: { rigId: string; units: 
                 <td className="num text-right">{fmt(dtOut(t.outletC - t.inletC, units), 1)}</td>
                 <td className="min-w-[14rem] text-sm">
                   {t.isReference ? <span className="mr-1 rounded bg-water-50 px-1.5 py-0.5 text-xs font-medium text-water-800">reference</span> : null}
+                  {t.origin === 'log-segment' ? <span title={`A steady period of a sensor log, from line ${t.sourceLine ?? '?'}`} className="mr-1 rounded bg-paper-deep px-1.5 py-0.5 text-xs text-ink-soft">logged</span> : null}
                   {t.warnings.map((w) => (
                     <span key={w} title={w} className="mr-1 rounded bg-caution-bg px-1.5 py-0.5 text-xs text-caution-text">
                       check

@@ -5,8 +5,9 @@ import { ColumnMapping, SourceFile, Trial, type LabRow, type RigRow, type Source
 import { HttpError } from './errors';
 import {
   ImportError, confirmedMappingSchema, headerSignature, importTrialSheet, listSheets, readDelimited, readXlsxSheet, suggestMapping,
-  type CellTable, type TrialSheetResult,
+  type CellTable, type SensorLog, type TrialSheetResult,
 } from './import';
+import { logMappingFrom, readLogHead, suggestShape } from './import/suggest-shape';
 import { getObjectBuffer, putFile, spool } from './storage';
 
 /** Upload size limit (IMPORT_MAX_BYTES, default 100 MB), enforced while the body streams in. */
@@ -42,17 +43,26 @@ export async function storeUpload(em: EntityManager, rig: RigRow, user: UserRow,
 
 const isZip = (b: Buffer) => b.length > 4 && b[0] === 0x50 && b[1] === 0x4b && b[2] === 0x03 && b[3] === 0x04;
 
-async function readTable(file: SourceFileRow, sheet?: string) {
-  if (file.sizeBytes > INLINE_MAX_BYTES) throw new HttpError(413, 'too_large_inline', 'Files over 20 MB are imported as sensor logs in the background, which is not available yet here.');
-  const buf = await getObjectBuffer(file.storageKey);
+/** Bytes read from the head of a text file too large to read whole for the mapping screen. */
+const HEAD_BYTES = 512 * 1024;
+
+async function readTable(file: SourceFileRow, sheet?: string, opts: { headOnly?: boolean } = {}) {
+  const large = file.sizeBytes > INLINE_MAX_BYTES;
+  if (large && !opts.headOnly) {
+    throw new HttpError(413, 'too_large_inline', `"${file.filename}" is over ${INLINE_MAX_BYTES / 1024 / 1024} MB: import it as a sensor log (it runs in the background), or split the trial sheet into smaller files.`);
+  }
+  let buf = await getObjectBuffer(file.storageKey, large ? HEAD_BYTES : undefined);
   try {
     if (isZip(buf)) {
+      if (large) throw new HttpError(413, 'too_large_inline', `"${file.filename}" is a workbook over ${INLINE_MAX_BYTES / 1024 / 1024} MB: save the sheet as CSV to import it as a sensor log, or split it.`);
       const sheets = await listSheets(buf, { fileName: file.filename });
       const t = await readXlsxSheet(buf, sheet ?? sheets[0]?.name, { fileName: file.filename });
-      return { kind: 'xlsx' as const, sheets, table: t as CellTable, header: t.header, metadata: t.metadata, warnings: t.cellWarnings.map((w) => w.message), decimal: '.' as const, dialect: null };
+      return { kind: 'xlsx' as const, partial: false, sheets, table: t as CellTable, header: t.header, metadata: t.metadata, warnings: t.cellWarnings.map((w) => w.message), decimal: '.' as const, dialect: null };
     }
+    // only the head of a large file: cut at the last line break, so no row is read half
+    if (large) buf = buf.subarray(0, buf.lastIndexOf(0x0a) + 1);
     const t = await readDelimited(buf, { fileName: file.filename });
-    return { kind: 'text' as const, sheets: [], table: t as CellTable, header: t.header, metadata: t.metadata, warnings: t.warnings, decimal: t.dialect.decimal, dialect: t.dialect };
+    return { kind: 'text' as const, partial: large, sheets: [], table: t as CellTable, header: t.header, metadata: t.metadata, warnings: t.warnings, decimal: t.dialect.decimal, dialect: t.dialect };
   } catch (e) {
     if (e instanceof ImportError) throw new HttpError(422, 'unreadable', e.message);
     throw e;
@@ -68,23 +78,48 @@ const rowsView = (r: TrialSheetResult, limit = 500) => ({
   preview: r.rows.slice(0, 8).map((x) => (x.ok ? { line: x.line, ok: true, row: x.row } : { line: x.line, ok: false })),
 });
 
-/** What the mapping screen shows: sheets, header, metadata, the suggested (or saved) mapping and the check of every row. */
+const logHeadView = (log: SensorLog) => ({
+  accepted: log.n,
+  rejected: log.rejectedCount,
+  issues: log.issues.slice(0, 20),
+  notices: log.notices,
+  rows: Array.from({ length: Math.min(8, log.n) }, (_, i) => ({
+    line: log.lines[i], timeS: log.timeS[i], inletTempC: log.inletTempC[i], outletTempC: log.outletTempC[i], flowM3PerS: log.flowM3PerS[i],
+    ambientTempC: log.ambientTempC ? log.ambientTempC[i] : null,
+  })),
+});
+
+/**
+ * What the mapping screen shows: sheets, header, metadata, the suggested (or saved) mapping, the
+ * shape of data the file seems to hold, and the check of every row (trial sheets) or of the first
+ * rows (sensor logs, which are checked whole when their steady periods are found). Files over the
+ * inline limit are read only from their head here.
+ */
 export async function previewImport(em: EntityManager, lab: LabRow, file: SourceFileRow, opts: { sheet?: string; mapping?: unknown }) {
-  const t = await readTable(file, opts.sheet);
+  const t = await readTable(file, opts.sheet, { headOnly: true });
   const signature = headerSignature(t.header);
   const saved = await em.findOne(ColumnMapping, { lab, headerSignature: signature });
-  const suggestion = suggestMapping(t.header, t.table.rows.slice(0, 50) as (string | number | null)[][], t.decimal);
-  const mapping =
-    opts.mapping ??
-    saved?.mapping ?? {
-      shape: 'trialSheet',
-      decimal: t.decimal,
-      columns: suggestion.columns.filter((c) => c.field).map((c) => ({ column: c.column, header: c.header, field: c.field, ...(c.unit ? { unit: c.unit } : {}) })),
-    };
+  const head = t.table.rows.slice(0, 400) as (string | number | null)[][];
+  const suggestion = suggestMapping(t.header, head.slice(0, 50), t.decimal);
+  const shape = t.kind === 'xlsx'
+    ? { shape: 'trialSheet' as const, reason: 'Workbooks are read as trial sheets; save a logger dump as CSV to import it as a sensor log.', medianIntervalS: null }
+    : suggestShape(suggestion, t.decimal, t.header, head, t.table.lines.slice(0, 400));
+  const sheetMapping = {
+    shape: 'trialSheet',
+    decimal: t.decimal,
+    columns: suggestion.columns.filter((c) => c.field).map((c) => ({ column: c.column, header: c.header, field: c.field, ...(c.unit ? { unit: c.unit } : {}) })),
+    ...(suggestion.dateOrder === 'dmy' || suggestion.dateOrder === 'mdy' ? { dateOrder: suggestion.dateOrder } : {}),
+  };
+  const logMapping = logMappingFrom(suggestion, t.decimal);
+  const mapping = opts.mapping ?? saved?.mapping ?? (shape.shape === 'sensorLog' && logMapping ? logMapping : sheetMapping);
+  const isLog = (mapping as { shape?: unknown }).shape === 'sensorLog';
   let check: ReturnType<typeof rowsView> | null = null;
+  let logHead: ReturnType<typeof logHeadView> | null = null;
   let mappingError: string | null = null;
   try {
-    check = rowsView(importTrialSheet(t.table, mapping, { file: file.filename, sheet: t.kind === 'xlsx' ? opts.sheet : undefined }));
+    if (isLog) logHead = logHeadView(readLogHead(mapping, t.header, head, t.table.lines.slice(0, 400)));
+    else if (!t.partial) check = rowsView(importTrialSheet(t.table, mapping, { file: file.filename, sheet: t.kind === 'xlsx' ? opts.sheet : undefined }));
+    else mappingError = `"${file.filename}" is over ${INLINE_MAX_BYTES / 1024 / 1024} MB: files this large are imported as sensor logs.`;
   } catch (e) {
     if (!(e instanceof ImportError)) throw e;
     mappingError = e.message;
@@ -97,12 +132,17 @@ export async function previewImport(em: EntityManager, lab: LabRow, file: Source
     metadata: t.metadata,
     warnings: t.warnings,
     dialect: t.dialect,
+    /** rows read; only those of the head when `partial` */
     rowCount: t.table.rows.length,
+    partial: t.partial,
     suggestion,
+    shape,
+    alternatives: { trialSheet: sheetMapping, sensorLog: logMapping },
     savedMapping: !!saved,
     mapping,
     mappingError,
     check,
+    logHead,
   };
 }
 
@@ -114,6 +154,7 @@ export const confirmInput = z.object({ sheet: z.string().max(100).optional(), ma
  */
 export async function confirmImport(em: EntityManager, rig: RigRow, file: SourceFileRow, input: z.infer<typeof confirmInput>) {
   if (file.state === 'imported') throw new HttpError(409, 'already_imported', `"${file.filename}" has already been imported into this lab (${file.rowsImported} trials).`);
+  if (input.mapping.shape !== 'trialSheet') throw new HttpError(422, 'wrong_shape', 'This mapping is for a sensor log: find its steady periods and import it as a log.');
   const t = await readTable(file, input.sheet);
   let result: TrialSheetResult;
   try {
@@ -161,6 +202,16 @@ export async function confirmImport(em: EntityManager, rig: RigRow, file: Source
     return kept.length;
   });
   return { imported: n, warnings: result.warningCount };
+}
+
+/** Keeps a sensor-log mapping for the next file with the same headers (upsert per lab and header signature). */
+export async function saveLogMapping(em: EntityManager, lab: LabRow, file: SourceFileRow, mapping: unknown) {
+  const t = await readTable(file, undefined, { headOnly: true });
+  const signature = headerSignature(t.header);
+  const saved = await em.findOne(ColumnMapping, { lab, headerSignature: signature });
+  if (saved) saved.mapping = mapping as Record<string, unknown>;
+  else em.create(ColumnMapping, { lab, headerSignature: signature, headers: t.header, mapping: mapping as Record<string, unknown> });
+  await em.flush();
 }
 
 export async function loadFile(em: EntityManager, rig: RigRow, fileId: string) {

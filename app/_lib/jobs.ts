@@ -1,4 +1,5 @@
 import 'server-only';
+import { wrap } from '@mikro-orm/core';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import PgBoss from 'pg-boss';
 import { ImportJob, type ImportJobRow, type RigRow, type SourceFileRow, type UserRow } from '@/entities';
@@ -208,6 +209,7 @@ export const importJobDto = (j: ImportJobRow) => ({
   state: j.state,
   rigId: j.rig.id,
   fileId: j.sourceFile.id,
+  filename: wrap(j.sourceFile).isInitialized() ? j.sourceFile.filename : null,
   progress: { bytesDone: j.bytesDone, bytesTotal: j.bytesTotal, rowsDone: j.rowsDone, fraction: j.bytesTotal > 0 ? Math.min(1, j.bytesDone / j.bytesTotal) : 0 },
   attempts: j.attempts,
   cancelRequested: j.cancelRequested,
@@ -249,4 +251,9 @@ export async function cancelJob(em: EntityManager, job: ImportJobRow): Promise<I
   }
   await em.refresh(job);
   return job;
+}
+
+/** A rig's latest import jobs, newest first (the rig page shows them with their progress). */
+export async function listRigJobs(em: EntityManager, rig: RigRow, limit = 10): Promise<ImportJobRow[]> {
+  return em.find(ImportJob, { rig }, { populate: ['sourceFile'], orderBy: { createdAt: 'desc' }, limit });
 }

@@ -156,6 +156,10 @@ const MATRIX: Record<string, Case[]> = {
   'app/api/rigs/[rigId]/uploads/[fileId]/log-import/route.ts': [
     { method: 'POST', url: (f) => `/api/rigs/${f.rigId}/uploads/${uuid0}/log-import`, expect: { anon: 401, owner: 404, engineer: 404, reviewer: 403, viewer: 403, outsider: 404, token: 404 } },
   ],
+  'app/api/rigs/[rigId]/uploads/[fileId]/segments/route.ts': [
+    { method: 'POST', url: (f) => `/api/rigs/${f.rigId}/uploads/${uuid0}/segments`, expect: { anon: 401, owner: 404, engineer: 404, reviewer: 403, viewer: 403, outsider: 404, token: 404 } },
+  ],
+  'app/api/rigs/[rigId]/jobs/route.ts': [{ method: 'GET', url: (f) => `/api/rigs/${f.rigId}/jobs`, expect: { ...members(200), token: 200 } }],
   'app/api/jobs/[jobId]/route.ts': [
     // no such job: members and outsiders alike get 404 (test/app/sensor-import.test.ts checks a real job's lab scope)
     { method: 'GET', url: () => `/api/jobs/${uuid0}`, expect: { ...members(404, 401, 404), token: 404 } },

@@ -6,6 +6,8 @@ import { RigForm } from '../../_components/rig-form';
 import { RigPhotos } from '../../_components/rig-photos';
 import { HEAT_SOURCE_LABELS } from '../../_lib/labels';
 import { TrialsTable } from '../../_components/trials-table';
+import { RigJobs } from '../../_components/job-progress';
+import { importJobDto, listRigJobs } from '../../_lib/jobs';
 import { rigDto } from '../../_lib/dto';
 import { UUID } from '../../_lib/rigs';
 import { requireLabAction } from '../../_lib/viewer';
@@ -19,6 +21,7 @@ export default async function RigPage({ params, searchParams }: { params: Promis
   const rig = UUID.test(rigId) ? await v.em.findOne(Rig, { id: rigId, lab: v.current.lab }) : null;
   if (!rig) notFound();
   const files = await v.em.find(SourceFile, { rig, purpose: 'trials' }, { orderBy: { createdAt: 'desc' }, limit: 10 });
+  const jobs = (await listRigJobs(v.em, rig)).map(importJobDto);
   const photos = await v.em.find(SourceFile, { rig, purpose: 'photo' }, { orderBy: { createdAt: 'desc' }, limit: 24 });
   const write = v.can('trial:write');
   const d = rig.details ?? {};
@@ -68,6 +71,7 @@ export default async function RigPage({ params, searchParams }: { params: Promis
           <RigForm labId={v.current.lab.id} rig={rigDto(rig) as Parameters<typeof RigForm>[0]['rig']} />
         </section>
       ) : null}
+      <RigJobs rigId={rig.id} initial={jobs} canCancel={write} />
       <TrialsTable rigId={rig.id} units={v.user.unitSystem} canWrite={write} />
       {rig.notes ? (
         <section className="card mt-6 p-5">

@@ -4,6 +4,7 @@ import Link from 'next/link';
 import { useState } from 'react';
 import { api, ApiError } from '../../../_components/api';
 import { flowOut, flowUnit, tempOut, tempUnit, type Units } from '../../../_components/units';
+import { LogPeriods } from './log-periods';
 
 type Field = 'time' | 'bucketVolume' | 'fillTime' | 'flow' | 'inletTemp' | 'outletTemp' | 'ambientTemp' | 'notes';
 interface MappingColumn {
@@ -12,8 +13,9 @@ interface MappingColumn {
   field: Field;
   unit?: string;
 }
+type Shape = 'trialSheet' | 'sensorLog';
 interface Mapping {
-  shape: 'trialSheet';
+  shape: Shape;
   decimal: '.' | ',';
   dateOrder?: 'dmy' | 'mdy';
   columns: MappingColumn[];
@@ -32,6 +34,11 @@ interface Preview {
   metadata: { line: number; text: string }[];
   warnings: string[];
   rowCount: number;
+  /** only the head of a large file was read */
+  partial: boolean;
+  shape: { shape: Shape; reason: string; medianIntervalS: number | null };
+  alternatives: { trialSheet: Mapping; sensorLog: Mapping | null };
+  logHead: { accepted: number; rejected: number; issues: Issue[]; notices: string[]; rows: { line: number; timeS: number; inletTempC: number; outletTempC: number; flowM3PerS: number }[] } | null;
   suggestion: { columns: { column: number; confidence: number; note?: string }[]; missing: string[]; dateOrder: string | null };
   savedMapping: boolean;
   mapping: Mapping;
@@ -50,6 +57,8 @@ const FIELDS: { id: Field | ''; label: string; units: string[] }[] = [
   { id: 'ambientTemp', label: 'Ambient temperature', units: ['degC', 'degF', 'K'] },
   { id: 'notes', label: 'Notes', units: [] },
 ];
+/** Fields a sensor log maps (time, the two temperatures, flow, optional ambient). */
+const LOG_FIELDS = new Set<Field | ''>(['', 'time', 'flow', 'inletTemp', 'outletTemp', 'ambientTemp']);
 const UNIT_TEXT: Record<string, string> = { degC: '°C', degF: '°F', 'm^3': 'm³', 'ft^3': 'ft³', 'm^3/h': 'm³/h', 'm^3/s': 'm³/s', gal: 'US gal', datetime: 'date/time' };
 
 function uploadWithProgress(url: string, file: File, onProgress: (f: number) => void): Promise<{ file: { id: string }; duplicate: boolean }> {
@@ -173,8 +182,8 @@ export function ImportWizard({ rigId, units, maxMb }: { rigId: string; units: Un
           if (f) void onFile(f);
         }}
       >
-        <span className="text-lg font-semibold text-ink">Drop a trial sheet here, or choose a file</span>
-        <span className="text-sm text-ink-muted">CSV, TSV, TXT or XLSX, up to {maxMb} MB. The file is kept unchanged with its SHA-256.</span>
+        <span className="text-lg font-semibold text-ink">Drop a trial sheet or a sensor log here, or choose a file</span>
+        <span className="text-sm text-ink-muted">CSV, TSV, TXT or XLSX trial sheets; logger dumps as CSV, TSV or TXT; up to {maxMb} MB. The file is kept unchanged with its SHA-256.</span>
         <input type="file" aria-label="Trial file" className="sr-only" accept=".csv,.tsv,.txt,.xlsx" onChange={(e) => e.target.files?.[0] && onFile(e.target.files[0])} />
       </label>
       {progress !== null ? (
@@ -189,7 +198,7 @@ export function ImportWizard({ rigId, units, maxMb }: { rigId: string; units: Un
             <div className="flex flex-wrap items-baseline justify-between gap-2">
               <h2 id="map-h" className="text-lg">Columns of {preview.file.filename}</h2>
               <span className="num text-xs text-ink-muted">
-                {preview.rowCount} rows · sha256 {preview.file.sha256.slice(0, 16)}…
+                {preview.partial ? `${(preview.file.sizeBytes / 1024 / 1024).toFixed(1)} MB, first ${preview.rowCount} rows shown` : `${preview.rowCount} rows`} · sha256 {preview.file.sha256.slice(0, 16)}…
               </span>
             </div>
             {duplicate ? (
@@ -197,6 +206,39 @@ export function ImportWizard({ rigId, units, maxMb }: { rigId: string; units: Un
                 This exact file was uploaded before{preview.file.state === 'imported' ? ` and imported (${preview.file.rowsImported} trials): importing it again is refused` : ''}.
               </p>
             ) : null}
+            <fieldset className="rounded-lg border border-paper-line p-3">
+              <legend className="px-1 text-sm font-semibold">This file holds</legend>
+              <div className="flex flex-wrap gap-x-6 gap-y-2 text-sm">
+                {(
+                  [
+                    ['trialSheet', 'Trial sheet', 'one row per steady trial'],
+                    ['sensorLog', 'Sensor log', 'a time series, split into steady periods'],
+                  ] as const
+                ).map(([id, label, note]) => (
+                  <label key={id} className="flex items-center gap-2">
+                    <input
+                      type="radio"
+                      name="shape"
+                      value={id}
+                      checked={mapping.shape === id}
+                      disabled={(id === 'sensorLog' && preview.kind === 'xlsx') || (id === 'trialSheet' && preview.partial)}
+                      onChange={() => {
+                        const next = preview.alternatives[id] ?? { ...mapping, shape: id, columns: mapping.columns.filter((c) => id === 'trialSheet' || LOG_FIELDS.has(c.field)) };
+                        setMapping(next);
+                        void check(preview.file.id, next, sheet);
+                      }}
+                    />
+                    <span>
+                      <strong>{label}</strong> <span className="text-ink-muted">— {note}</span>
+                    </span>
+                  </label>
+                ))}
+              </div>
+              <p className="mt-1 text-xs text-ink-muted">
+                {preview.shape.shape === mapping.shape ? 'Suggested: ' : 'We would have said otherwise: '}
+                {preview.shape.reason}
+              </p>
+            </fieldset>
             {preview.savedMapping ? <p className="text-sm text-ok-text">These headers came in before: the lab’s saved mapping is applied.</p> : null}
             {preview.sheets.length > 1 ? (
               <label className="block max-w-xs">
@@ -249,7 +291,7 @@ export function ImportWizard({ rigId, units, maxMb }: { rigId: string; units: Un
                         <th scope="row" className="num bg-white font-normal">{h}</th>
                         <td>
                           <select aria-label={`Meaning of column ${h}`} className="rounded border border-paper-line bg-white px-2 py-1" value={m?.field ?? ''} onChange={(e) => setColumn(i, h, e.target.value as Field | '')}>
-                            {FIELDS.map((f) => (
+                            {FIELDS.filter((f) => mapping.shape === 'trialSheet' || LOG_FIELDS.has(f.id)).map((f) => (
                               <option key={f.id} value={f.id}>
                                 {f.label}
                               </option>
@@ -302,7 +344,52 @@ export function ImportWizard({ rigId, units, maxMb }: { rigId: string; units: Un
             </div>
             {preview.mappingError ? <p role="alert" className="text-sm text-danger-text">{preview.mappingError}</p> : null}
           </section>
-          {preview.check ? (
+          {mapping.shape === 'sensorLog' && preview.logHead && preview.mapping.shape === 'sensorLog' ? (
+            <>
+              <section className="card space-y-3 p-4" aria-labelledby="head-h">
+                <h2 id="head-h" className="text-lg">First samples, converted</h2>
+                {preview.logHead.rows.length ? (
+                  <table className="data-table">
+                    <thead>
+                      <tr>
+                        <th scope="col">Line</th>
+                        <th scope="col" className="text-right">Time (s)</th>
+                        <th scope="col" className="text-right">Flow ({flowUnit(units)})</th>
+                        <th scope="col" className="text-right">Inlet ({tempUnit(units)})</th>
+                        <th scope="col" className="text-right">Outlet ({tempUnit(units)})</th>
+                      </tr>
+                    </thead>
+                    <tbody>
+                      {preview.logHead.rows.map((r) => (
+                        <tr key={r.line}>
+                          <td className="num">{r.line}</td>
+                          <td className="num text-right">{r.timeS.toFixed(1)}</td>
+                          <td className="num text-right">{flowOut(r.flowM3PerS, units).toFixed(2)}</td>
+                          <td className="num text-right">{tempOut(r.inletTempC, units).toFixed(2)}</td>
+                          <td className="num text-right">{tempOut(r.outletTempC, units).toFixed(2)}</td>
+                        </tr>
+                      ))}
+                    </tbody>
+                  </table>
+                ) : null}
+                {preview.logHead.issues.length ? (
+                  <ul className="text-sm text-danger-text">
+                    {preview.logHead.issues.slice(0, 5).map((i) => (
+                      <li key={i.line}>
+                        line {i.line}
+                        {i.column ? ` (${i.column})` : ''}: {i.message}
+                      </li>
+                    ))}
+                  </ul>
+                ) : null}
+                {preview.logHead.notices.map((n) => (
+                  <p key={n} className="text-sm text-caution-text">{n}</p>
+                ))}
+              </section>
+              <LogPeriods key={JSON.stringify(preview.mapping)} rigId={rigId} fileId={preview.file.id} fileState={preview.file.state} mapping={preview.mapping as Mapping & { shape: 'sensorLog' }} units={units} />
+            </>
+          ) : null}
+          {mapping.shape === 'trialSheet' && preview.check ? (
             <section className="card space-y-3 p-4" aria-labelledby="check-h">
               <h2 id="check-h" className="text-lg">Check</h2>
               <p className="text-sm">

@@ -1,0 +1,9 @@
+import { importJobDto, listRigJobs } from '@/app/_lib/jobs';
+import { loadRig } from '@/app/_lib/rigs';
+import { json, route } from '@/app/_lib/route';
+
+/** GET: the rig's ten latest background imports with their state and progress (members of its lab). */
+export const GET = route<{ rigId: string }>({ auth: 'user' }, async (ctx) => {
+  const { rig } = await loadRig(ctx, ctx.params.rigId, 'lab:read');
+  return json({ jobs: (await listRigJobs(ctx.em, rig)).map(importJobDto) });
+});

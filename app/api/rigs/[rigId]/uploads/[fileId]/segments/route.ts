@@ -1,0 +1,22 @@
+import { loadFile } from '@/app/_lib/imports';
+import { loadRig } from '@/app/_lib/rigs';
+import { route } from '@/app/_lib/route';
+import { openLog, previewCriteria, previewStream, segmentPreviewInput } from '@/app/_lib/sensor-preview';
+
+/**
+ * POST: read a stored sensor log whole, check its rows and find its steady periods with a preset
+ * and edited thresholds (and measure the engineer's own periods). Nothing is saved. Answers a
+ * stream of JSON lines: progress while the file is read, then the result (or an error). A bad
+ * mapping, a threshold out of range or an unreadable file is refused with 422 before the stream
+ * starts.
+ */
+export const POST = route<{ rigId: string; fileId: string }>({ auth: 'user', maxBodyBytes: 1024 * 1024 }, async (ctx) => {
+  const { rig } = await loadRig(ctx, ctx.params.rigId, 'trial:write');
+  const file = await loadFile(ctx.em, rig, ctx.params.fileId);
+  const input = await ctx.json(segmentPreviewInput);
+  previewCriteria(input); // thresholds out of range: 422 before reading anything
+  const opened = await openLog(file, input);
+  return new Response(previewStream(opened, input, ctx.req.signal), {
+    headers: { 'Content-Type': 'application/x-ndjson; charset=utf-8', 'Cache-Control': 'no-store', 'X-Accel-Buffering': 'no' },
+  });
+});
