@@ -5,6 +5,19 @@ import { api, ApiError } from '../_components/api';
 import { Cautions } from '../_components/fit-report';
 import { PlotFigure } from '../_components/plot-figure';
 import { flowOut, flowUnit, tempOut, tempUnit, type Units } from '../_components/units';
+import { parseWeatherCsv, type WeatherTable } from './weather-csv';
+
+/** Hours of the day from `from` up to (not including) `to`, wrapping past midnight; from = to is all day. */
+function hoursBetween(from: number, to: number): number[] {
+  const out: number[] = [];
+  for (let h = from; out.length < 24; h = (h + 1) % 24) {
+    if (out.length && h === to) break;
+    out.push(h);
+  }
+  return out;
+}
+const HOURS = Array.from({ length: 24 }, (_, h) => h);
+const hh = (h: number) => `${String(h).padStart(2, '0')}:00`;
 
 interface Result {
   finalTemp_degC: number;
@@ -31,6 +44,17 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
   const [busy, setBusy] = useState(false);
   const [shape, setShape] = useState('round');
   const [losses, setLosses] = useState(true);
+  const [weatherMode, setWeatherMode] = useState<'constant' | 'hourly'>('constant');
+  const [table, setTable] = useState<(WeatherTable & { name: string }) | null>(null);
+
+  async function readWeather(file: File | undefined) {
+    if (!file) return;
+    if (file.size > 2 * 1024 * 1024) {
+      setTable({ name: file.name, rows: [], columns: [], issues: [{ line: 1, message: `the file is ${(file.size / 1024 / 1024).toFixed(1)} MB; an hourly table for a year is under 1 MB` }] });
+      return;
+    }
+    setTable({ name: file.name, ...parseWeatherCsv(await file.text(), units) });
+  }
 
   async function submit(e: React.FormEvent<HTMLFormElement>) {
     e.preventDefault();
@@ -40,8 +64,16 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
     const pool: Record<string, unknown> = { shape, depth: q('depth', L) };
     if (shape === 'round') pool.diameter = q('diameter', L);
     else Object.assign(pool, { length: q('length', L), width: q('width', L) });
+    const hourly = weatherMode === 'hourly';
+    if (losses && hourly && !(table && table.rows.length && !table.issues.length)) {
+      setError('Choose an hourly weather table without errors, or use constant weather.');
+      return;
+    }
+    const heaterHours = hoursBetween(Number(v('heaterFrom')), Number(v('heaterTo')));
     const body: Record<string, unknown> = {
       pool,
+      startHour: Number(v('startHour')),
+      ...(heaterHours.length < 24 ? { heaterHours } : {}),
       startTemp: q('startTemp', T),
       targetTemp: q('targetTemp', T),
       hours: Number(v('hours')),
@@ -49,8 +81,8 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
       thermostat: f.get('thermostat') === 'on' && !!v('targetTemp'),
       losses: losses
         ? {
-            weather: { airTemp: q('airTemp', T), relativeHumidity: Number(v('rh')) / 100, wind: q('wind', us ? 'mph' : 'm/s'), solar: q('solar', 'W/m^2') },
-            ...(f.get('cover') === 'on' ? { cover: { coveredHours: [0, 1, 2, 3, 4, 5, 6, 20, 21, 22, 23] } } : {}),
+            weather: hourly ? table!.rows : { airTemp: q('airTemp', T), relativeHumidity: Number(v('rh')) / 100, wind: q('wind', us ? 'mph' : 'm/s'), solar: q('solar', 'W/m^2') },
+            ...(f.get('cover') === 'on' ? { cover: { coveredHours: hoursBetween(Number(v('coverFrom')), Number(v('coverTo'))) } } : {}),
           }
         : false,
     };
@@ -75,6 +107,19 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
         {label} <span className="text-xs text-ink-muted">({unit})</span>
       </span>
       <input name={name} defaultValue={def} inputMode="decimal" className="field-input num" />
+    </label>
+  );
+
+  const hourSelect = (name: string, label: string, def: number, fullName: string) => (
+    <label className="block">
+      <span className="field-label">{label}</span>
+      <select name={name} defaultValue={def} aria-label={fullName} className="field-input num">
+        {HOURS.map((h) => (
+          <option key={h} value={h}>
+            {hh(h)}
+          </option>
+        ))}
+      </select>
     </label>
   );
 
@@ -111,9 +156,15 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
           <label className="flex items-center gap-2 text-sm">
             <input type="checkbox" name="thermostat" defaultChecked /> stop heating at the target (thermostat)
           </label>
+          <div className="grid grid-cols-3 gap-3 text-sm">
+            {hourSelect('startHour', 'Starts at', 8, 'Forecast starts at')}
+            {hourSelect('heaterFrom', 'Heater on', 0, 'Heater on at')}
+            {hourSelect('heaterTo', 'off', 0, 'Heater off at')}
+          </div>
+          <p className="text-xs text-ink-muted">The same on and off hours are all day. The pump runs while the heater does.</p>
           <label className="block">
             <span className="field-label">Heater</span>
-            <select name="fitId" className="field-input" defaultValue={fits[0]?.id ?? ''}>
+            <select name="fitId" aria-label="Heater" className="field-input" defaultValue={fits[0]?.id ?? ''}>
               {fits.map((x) => (
                 <option key={x.id} value={x.id}>
                   {x.label}
@@ -134,14 +185,52 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
             <input type="checkbox" checked={losses} onChange={(e) => setLosses(e.target.checked)} /> include losses (evaporation, convection, radiation) and sun
           </label>
           {losses ? (
-            <div className="grid grid-cols-2 gap-3">
-              {field('airTemp', 'Air', us ? '72' : '22', tempUnit(units))}
-              {field('rh', 'Humidity', '60', '%')}
-              {field('wind', 'Wind', us ? '2' : '1', us ? 'mph' : 'm/s')}
-              {field('solar', 'Mean sun', '150', 'W/m²')}
-              <label className="col-span-2 flex items-center gap-2 text-sm">
-                <input type="checkbox" name="cover" defaultChecked /> covered at night (20:00–07:00)
-              </label>
+            <div className="space-y-3">
+              <div className="flex gap-4 text-sm" role="radiogroup" aria-label="Weather">
+                <label className="flex items-center gap-1.5">
+                  <input type="radio" name="weatherMode" checked={weatherMode === 'constant'} onChange={() => setWeatherMode('constant')} /> constant
+                </label>
+                <label className="flex items-center gap-1.5">
+                  <input type="radio" name="weatherMode" checked={weatherMode === 'hourly'} onChange={() => setWeatherMode('hourly')} /> hourly table (CSV)
+                </label>
+              </div>
+              {weatherMode === 'constant' ? (
+                <div className="grid grid-cols-2 gap-3">
+                  {field('airTemp', 'Air', us ? '72' : '22', tempUnit(units))}
+                  {field('rh', 'Humidity', '60', '%')}
+                  {field('wind', 'Wind', us ? '2' : '1', us ? 'mph' : 'm/s')}
+                  {field('solar', 'Mean sun', '150', 'W/m²')}
+                </div>
+              ) : (
+                <div className="space-y-2 text-sm">
+                  <input type="file" accept=".csv,.txt,.tsv,text/csv" aria-label="Hourly weather CSV" className="block w-full text-sm" onChange={(e) => void readWeather(e.target.files?.[0])} />
+                  <p className="text-xs text-ink-muted">
+                    One row per hour from the start: air temperature and relative humidity (or dew point) required; wind, sun (W/m²) and cloud cover optional. Units from the headers, e.g. “air (°F)”, “wind (mph)”. A shorter table repeats.
+                  </p>
+                  {table ? (
+                    table.issues.length ? (
+                      <ul role="alert" className="space-y-0.5 rounded-lg border border-danger-line bg-danger-bg px-3 py-2 text-danger-text">
+                        {table.issues.slice(0, 8).map((i) => (
+                          <li key={`${i.line}-${i.message}`}>
+                            {table.name}, line {i.line}: {i.message}
+                          </li>
+                        ))}
+                      </ul>
+                    ) : (
+                      <p className="text-ok-text" role="status">
+                        {table.name}: {table.rows.length} hourly row{table.rows.length === 1 ? '' : 's'} ({table.columns.map((c) => c.meaning).join('; ')}).
+                      </p>
+                    )
+                  ) : null}
+                </div>
+              )}
+              <div className="grid grid-cols-[auto_1fr_1fr] items-end gap-3 text-sm">
+                <label className="flex items-center gap-2 pb-2">
+                  <input type="checkbox" name="cover" defaultChecked /> cover on
+                </label>
+                {hourSelect('coverFrom', 'from', 20, 'Cover on from')}
+                {hourSelect('coverTo', 'to', 7, 'Cover off at')}
+              </div>
             </div>
           ) : null}
         </fieldset>
