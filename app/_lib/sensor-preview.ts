@@ -23,6 +23,10 @@ import { getObjectStream } from './storage';
 export const segmentPreviewInput = logImportInput.omit({ segments: true }).extend({
   /** periods the engineer set, seconds from the log's first sample; each is measured and given its source lines */
   periods: z.array(z.object({ startS: z.number().finite().min(0), endS: z.number().finite().min(0) }).strict()).max(2000).optional(),
+  /** the stretch of the log to plot, seconds from the first sample (default all of it) */
+  view: z.object({ startS: z.number().finite(), endS: z.number().finite() }).strict().optional(),
+  /** only the plot series (of `view`): no segmentation */
+  seriesOnly: z.boolean().optional(),
 });
 export type SegmentPreviewInput = z.infer<typeof segmentPreviewInput>;
 
@@ -160,15 +164,19 @@ export async function openLog(file: SourceFileRow, input: SegmentPreviewInput): 
 
 const round = (x: number, digits: number) => Number(x.toPrecision(digits));
 
-/** Display series: the union of the LTTB-with-extremes indices of outlet, inlet and flow. */
-function displaySeries(log: SensorLog, maxPoints = 2000): SegmentPreview['series'] {
-  const n = log.n;
+/**
+ * Display series of samples `from`..`to` (exclusive): the union of the LTTB-with-extremes indices
+ * of outlet, inlet and flow.
+ */
+function displaySeries(log: SensorLog, from = 0, to = log.n, maxPoints = 2000): SegmentPreview['series'] {
+  const n = to - from;
   let idx: number[];
-  if (n <= maxPoints) idx = Array.from({ length: n }, (_, i) => i);
+  if (n <= maxPoints) idx = Array.from({ length: n }, (_, i) => from + i);
   else {
     const set = new Set<number>();
+    const t = log.timeS.subarray(from, to);
     for (const [y, share] of [[log.outletTempC, 0.4], [log.flowM3PerS, 0.35], [log.inletTempC, 0.25]] as const) {
-      for (const i of lttbExtremesIndices(log.timeS, y, Math.max(5, Math.floor(maxPoints * share)))) set.add(i);
+      for (const i of lttbExtremesIndices(t, y.subarray(from, to), Math.max(5, Math.floor(maxPoints * share)))) set.add(from + i);
     }
     idx = [...set].sort((a, b) => a - b);
   }
@@ -257,8 +265,23 @@ export function previewSegments(log: SensorLog, input: SegmentPreviewInput): Seg
     rejected: seg.rejected.map((r) => ({ startS: r.startTimeS, endS: r.endTimeS, startLine: log.lines[r.startIndex], endLine: log.lines[r.endIndex], reason: r.reason })),
     gaps: seg.gaps.map((x) => ({ afterS: log.timeS[x.afterIndex], gapS: x.gapS, line: log.lines[x.afterIndex + 1] })),
     periods,
-    series: displaySeries(log),
+    series: viewSeries(log, input.view),
   };
+}
+
+/** The plot series of a stretch of the log (the whole log by default), at most 2,000 points. */
+function viewSeries(log: SensorLog, view: SegmentPreviewInput['view']): SegmentPreview['series'] {
+  if (!view) return displaySeries(log);
+  const a = Math.max(0, lowerBound(log.timeS, view.startS) - 1);
+  const b = Math.min(log.n, lowerBound(log.timeS, view.endS) + 1);
+  if (b - a < 2) throw new HttpError(422, 'bad_view', `The log holds no samples between ${fmt(view.startS / 3600)} h and ${fmt(view.endS / 3600)} h.`);
+  return displaySeries(log, a, b);
+}
+
+/** Only the plot series of `input.view`, for zooming: the cached log is not segmented again. */
+export function previewSeries(log: SensorLog, input: SegmentPreviewInput): Pick<SegmentPreview, 'series' | 'samples'> {
+  if (log.n === 0) throw new HttpError(422, 'empty_file', 'The log holds no samples.');
+  return { samples: log.n, series: viewSeries(log, input.view) };
 }
 
 /**
@@ -276,7 +299,7 @@ export function previewStream(opened: OpenedLog, input: SegmentPreviewInput, sig
       };
       try {
         const log = await opened.read((p) => send({ progress: p }), abort.signal);
-        send({ result: previewSegments(log, input) });
+        send({ result: input.seriesOnly ? previewSeries(log, input) : previewSegments(log, input) });
       } catch (e) {
         if (e instanceof HttpError) send({ error: { status: e.status, code: e.code, message: e.message } });
         else {

@@ -55,8 +55,15 @@ describe('sensor-log import in Chromium', () => {
     // five plateaus of 20 min, the first settling from the start values: at least four steady periods (field preset)
     expect(found).toBeGreaterThanOrEqual(4);
     await screenshot(p, 'log-import-periods');
+    // a closer look at one period: the server reduces that stretch anew
+    await p.getByRole('button', { name: 'Zoom to period 3' }).click();
+    await p.getByText(/^Showing [\d.]+–[\d.]+ h of 1\.67 h$/).waitFor();
+    // period 3 (18 min) with half its length on each side: about 36 min, whole samples (1 Hz) again
+    await expect.poll(() => p.locator('figure').first().innerText()).toMatch(/\b1\d{3} samples over 3\d\.\d min;.*\b3 \(18\.\d min\)/s);
+    await screenshot(p, 'log-import-zoomed');
+    await p.getByRole('button', { name: 'Whole log' }).click();
 
-    await p.getByLabel(/Leave these 1 row out/).check();
+    await p.getByLabel('Leave this row out of the import').check();
     await p.getByRole('checkbox', { name: 'Keep period 2' }).uncheck();
     const start1 = p.getByRole('textbox', { name: 'Start of period 1 (min)' });
     const before = Number(await start1.inputValue());

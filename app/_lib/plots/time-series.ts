@@ -55,18 +55,26 @@ export function timeSeriesSegmentsPlot(input: TimeSeriesInput, units: UnitSystem
   const t0 = input.points[0]?.tS ?? 0;
   const t1 = input.points[input.points.length - 1]?.tS ?? 0;
   xOpts.domain = [at(t0), at(t1)];
-  const all = input.segments.map((s, i) => ({ x1: at(s.startS), x2: at(s.endS), mid: at((s.startS + s.endS) / 2), label: s.label ?? String(i + 1), muted: !!s.muted }));
+  // periods outside the plotted stretch are left out, those across its ends cut at them
+  const all = input.segments
+    .map((s, i) => ({ ...s, label: s.label ?? String(i + 1) }))
+    .filter((s) => s.endS >= t0 && s.startS <= t1)
+    .map((s) => {
+      const a = Math.max(s.startS, t0), b = Math.min(s.endS, t1);
+      return { x1: at(a), x2: at(b), mid: at((a + b) / 2), label: s.label, muted: !!s.muted };
+    });
   const segs = all.filter((s) => !s.muted);
   const muted = all.filter((s) => s.muted);
   const shade = (): Plot.Markish[] => [
     ...(muted.length
       ? [
           Plot.rect(muted, { x1: 'x1', x2: 'x2', fill: COLORS.inkMuted, fillOpacity: 0.06, stroke: COLORS.inkMuted, strokeOpacity: 0.35, strokeDasharray: '3,3', ariaDescription: 'dropped or rejected periods' }),
-          Plot.text(muted, { x: 'mid', text: 'label', frameAnchor: 'top', dy: 8, fill: COLORS.inkMuted, ariaDescription: 'dropped period labels' }),
+          ...(muted.length <= 40 ? [Plot.text(muted, { x: 'mid', text: 'label', frameAnchor: 'top', dy: 8, fill: COLORS.inkMuted, ariaDescription: 'dropped period labels' })] : []),
         ]
       : []),
     Plot.rect(segs, { x1: 'x1', x2: 'x2', fill: COLORS.water, fillOpacity: 0.1, ariaDescription: 'steady segments' }),
-    Plot.text(segs, { x: 'mid', text: 'label', frameAnchor: 'top', dy: 8, fill: COLORS.water, fontWeight: 600, ariaDescription: 'segment numbers' }),
+    // numbers only while they can be read (at most 40 periods in view)
+    ...(segs.length <= 40 ? [Plot.text(segs, { x: 'mid', text: 'label', frameAnchor: 'top', dy: 8, fill: COLORS.water, fontWeight: 600, ariaDescription: 'segment numbers' })] : []),
   ];
   const series = (pick: (p: LogPoint) => number | null, conv: (v: number) => number) =>
     input.points.map((p) => {
@@ -77,12 +85,12 @@ export function timeSeriesSegmentsPlot(input: TimeSeriesInput, units: UnitSystem
   const outlet = series((p) => p.outletC, u.temp.from);
   const flow = series((p) => p.flowM3PerS, u.flow.from);
   const n = input.points.length;
-  const kept = input.segments.map((s, i) => ({ ...s, label: s.label ?? String(i + 1) })).filter((s) => !s.muted);
+  const kept = input.segments.map((s, i) => ({ ...s, label: s.label ?? String(i + 1) })).filter((s) => !s.muted && s.endS >= t0 && s.startS <= t1);
   const k = kept.length;
   const duration = spanS >= 3600 ? `${fmt(spanS / 3600, 3)} h` : `${fmt(spanS / 60, 3)} min`;
-  const segWords = (k
-    ? `${k} steady segment${k === 1 ? '' : 's'} shaded and numbered: ${kept.map((s) => `${s.label} (${fmt((s.endS - s.startS) / 60, 3)} min)`).join(', ')}`
-    : 'no steady segment found') + (muted.length ? `; ${muted.length} dropped or rejected period${muted.length === 1 ? '' : 's'} outlined in grey` : '');
+  const listed = kept.slice(0, 12).map((s) => `${s.label} (${fmt((s.endS - s.startS) / 60, 3)} min)`).join(', ') + (k > 12 ? ` and ${k - 12} more` : '');
+  const segWords = (k ? `${k} steady segment${k === 1 ? '' : 's'} shaded${k <= 40 ? ' and numbered' : ''}: ${listed}` : 'no steady segment found') +
+    (muted.length ? `; ${muted.length} dropped or rejected period${muted.length === 1 ? '' : 's'} outlined in grey` : '');
   const range = (rows: { y: number | null }[]) => {
     const ys = rows.map((r) => r.y).filter((v): v is number => v !== null);
     return ys.length ? [Math.min(...ys), Math.max(...ys)] : null;

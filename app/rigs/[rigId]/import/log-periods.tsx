@@ -53,6 +53,8 @@ interface Mapping {
   dateOrder?: 'dmy' | 'mdy';
 }
 
+/** Rows of the periods table per page. */
+const PAGE = 50;
 const num = (x: number, d: number) => (Number.isFinite(x) ? x.toFixed(d) : '—');
 const minutes = (s: number) => Math.round((s / 60) * 100) / 100;
 function clock(startIso: string | null, s: number): string {
@@ -110,6 +112,9 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
   const [measuring, setMeasuring] = useState(false);
   const [jobId, setJobId] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
+  const [view, setView] = useState<{ startS: number; endS: number } | null>(null);
+  const [viewSeries, setViewSeries] = useState<SegmentPreview['series'] | null>(null);
+  const [page, setPage] = useState(0);
   const abort = useRef<AbortController | null>(null);
   const rows = useMemo(() => thresholdRows(units), [units]);
   const base: SteadyCriteria = PRESETS[preset];
@@ -131,6 +136,9 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
     try {
       const p = await fetchPreview(url, { mapping, preset, criteria, excludedLines }, setProgress, ac.signal);
       setPreview(p);
+      setView(null);
+      setViewSeries(null);
+      setPage(0);
       setChoices([
         ...p.segments.map((s, i) => ({ id: `f${i}`, label: String(i + 1), startS: s.startS, endS: s.endS, use: true, from: 'found' as const, measured: s })),
       ]);
@@ -169,6 +177,19 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
     setChoices((cs) => cs.map((c) => (c.id === id ? { ...c, ...patch, ...(patch.startS !== undefined || patch.endS !== undefined ? { measured: null } : {}) } : c)));
   }
 
+  /** Plots a stretch of the log (null: all of it); the server reduces that stretch anew. */
+  async function zoom(next: { startS: number; endS: number } | null) {
+    setView(next);
+    if (!next) { setViewSeries(null); return; }
+    setError(null);
+    try {
+      const r = await fetchPreview(url, { mapping, preset, criteria, excludedLines, view: next, seriesOnly: true }, () => undefined, new AbortController().signal);
+      setViewSeries(r.series);
+    } catch (e) {
+      setError(e instanceof ApiError ? e.message : 'The server could not be reached.');
+    }
+  }
+
   async function startImport() {
     const used = choices.filter((c) => c.use && c.measured);
     setBusy(true);
@@ -187,14 +208,14 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
 
   const figures = useMemo(() => {
     if (!preview) return null;
-    const s = preview.series;
+    const s = viewSeries ?? preview.series;
     const points = s.tS.map((t, i) => ({ tS: t, inletC: s.inletC[i], outletC: s.outletC[i], flowM3PerS: s.flowM3PerS[i] }));
     const segments: LogSegment[] = [
       ...choices.map((c) => ({ startS: c.startS, endS: c.endS, label: c.from === 'rejected' ? `${c.label}*` : c.label, muted: !c.use })),
       ...preview.rejected.filter((r) => !choices.some((c) => c.id === `r${r.startLine}`)).map((r) => ({ startS: r.startS, endS: r.endS, label: '×', muted: true })),
     ];
     return timeSeriesSegmentsPlot({ points, segments, origin: preview.startIso ? new Date(preview.startIso) : null }, units, { width: 1100 });
-  }, [preview, choices, units]);
+  }, [preview, viewSeries, choices, units]);
 
   if (jobId) {
     return (
@@ -311,11 +332,39 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
               ) : (
                 <label className="flex items-center gap-2">
                   <input type="checkbox" checked={excludeBad} onChange={(e) => setExcludeBad(e.target.checked)} />
-                  Leave these {preview.rejectedCount} row{preview.rejectedCount === 1 ? '' : 's'} out of the import
+                  {preview.rejectedCount === 1 ? 'Leave this row out of the import' : `Leave these ${preview.rejectedCount} rows out of the import`}
                 </label>
               )}
             </div>
           ) : null}
+          <div className="flex flex-wrap items-end gap-3 text-sm" role="group" aria-label="Plotted stretch">
+            <span className="pb-2 text-ink-soft">{view ? `Showing ${num(view.startS / 3600, 2)}–${num(view.endS / 3600, 2)} h of ${num(preview.durationS / 3600, 2)} h` : 'Showing the whole log'}</span>
+            <form
+              className="flex items-end gap-2"
+              onSubmit={(e) => {
+                e.preventDefault();
+                const f = new FormData(e.currentTarget);
+                const a = Number(String(f.get('from')).replace(',', '.')) * 3600, b = Number(String(f.get('to')).replace(',', '.')) * 3600;
+                if (!(Number.isFinite(a) && Number.isFinite(b) && b > a)) { setError('Zoom: give a start and a later end, in hours from the start of the log.'); return; }
+                void zoom({ startS: a, endS: b });
+              }}
+            >
+              <label>
+                <span className="field-label">From (h)</span>
+                <input name="from" inputMode="decimal" className="num w-20 rounded border border-paper-line bg-white px-2 py-1" defaultValue={num((view?.startS ?? 0) / 3600, 2)} key={`f${view?.startS}`} />
+              </label>
+              <label>
+                <span className="field-label">To (h)</span>
+                <input name="to" inputMode="decimal" className="num w-20 rounded border border-paper-line bg-white px-2 py-1" defaultValue={num((view?.endS ?? preview.durationS) / 3600, 2)} key={`t${view?.endS}`} />
+              </label>
+              <button type="submit" className="btn-quiet">Zoom</button>
+            </form>
+            {view ? (
+              <button type="button" className="btn-quiet" onClick={() => void zoom(null)}>
+                Whole log
+              </button>
+            ) : null}
+          </div>
           <PlotFigure svg="" options={figures.temperatures.options} title={figures.temperatures.title} summary={figures.temperatures.summary} filename="log-temperatures" />
           <PlotFigure svg="" options={figures.flow.options} title={figures.flow.title} summary={figures.flow.summary} filename="log-flow" />
           <div className="overflow-x-auto">
@@ -337,14 +386,27 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
                 </tr>
               </thead>
               <tbody>
-                {choices.map((c) => {
+                {choices.slice(page * PAGE, (page + 1) * PAGE).map((c) => {
                   const m = c.measured;
                   return (
                     <tr key={c.id} className={c.use ? '' : 'text-ink-muted line-through decoration-ink-muted/50'}>
                       <td>
                         <input type="checkbox" aria-label={`Keep period ${c.label}`} checked={c.use} onChange={(e) => setChoice(c.id, { use: e.target.checked })} />
                       </td>
-                      <td className="num">{c.label}</td>
+                      <td className="num">
+                        <button
+                          type="button"
+                          className="underline decoration-dotted"
+                          title="Plot this period and its surroundings"
+                          aria-label={`Zoom to period ${c.label}`}
+                          onClick={() => {
+                            const pad = Math.max(300, (c.endS - c.startS) * 0.5);
+                            void zoom({ startS: Math.max(0, c.startS - pad), endS: Math.min(preview.durationS, c.endS + pad) });
+                          }}
+                        >
+                          {c.label}
+                        </button>
+                      </td>
                       {(['startS', 'endS'] as const).map((k) => (
                         <td key={k}>
                           <input
@@ -378,6 +440,31 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
                 ) : null}
               </tbody>
             </table>
+          </div>
+          <div className="flex flex-wrap items-center gap-3 text-sm">
+            {choices.length > PAGE ? (
+              <>
+                <button type="button" className="btn-quiet" disabled={page === 0} onClick={() => setPage(page - 1)}>
+                  Previous
+                </button>
+                <span className="num">
+                  {page * PAGE + 1}–{Math.min(choices.length, (page + 1) * PAGE)} of {choices.length}
+                </span>
+                <button type="button" className="btn-quiet" disabled={(page + 1) * PAGE >= choices.length} onClick={() => setPage(page + 1)}>
+                  Next
+                </button>
+              </>
+            ) : null}
+            {choices.length > 1 ? (
+              <>
+                <button type="button" className="btn-quiet" onClick={() => setChoices((cs) => cs.map((c) => ({ ...c, use: true })))}>
+                  Keep all
+                </button>
+                <button type="button" className="btn-quiet" onClick={() => setChoices((cs) => cs.map((c) => ({ ...c, use: false })))}>
+                  Drop all
+                </button>
+              </>
+            ) : null}
           </div>
           {preview.rejected.length ? (
             <details className="text-sm">
