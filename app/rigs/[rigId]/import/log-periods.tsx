@@ -57,12 +57,14 @@ interface Mapping {
 const PAGE = 50;
 const num = (x: number, d: number) => (Number.isFinite(x) ? x.toFixed(d) : '—');
 const minutes = (s: number) => Math.round((s / 60) * 100) / 100;
-function clock(startIso: string | null, s: number): string {
+/** Clock time (UTC) of a sample, with the date when the log spans days; elapsed h:mm:ss when undated. */
+function clock(startIso: string | null, s: number, multiDay: boolean): string {
   if (!startIso) {
     const h = Math.floor(s / 3600), m = Math.floor((s % 3600) / 60), sec = Math.round(s % 60);
     return `+${h}:${String(m).padStart(2, '0')}:${String(sec).padStart(2, '0')}`;
   }
-  return new Date(Date.parse(startIso) + s * 1000).toISOString().slice(11, 19);
+  const iso = new Date(Date.parse(startIso) + s * 1000).toISOString();
+  return multiDay ? `${iso.slice(5, 10)} ${iso.slice(11, 19)}` : iso.slice(11, 19);
 }
 
 /**
@@ -422,7 +424,7 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
                               if (Math.abs(v - minutes(c[k])) > 1e-9) setChoice(c.id, { [k]: v * 60 });
                             }}
                           />
-                          <span className="num ml-1 text-xs text-ink-muted">{clock(preview.startIso, c[k])}</span>
+                          <span className="num ml-1 text-xs text-ink-muted">{clock(preview.startIso, c[k], preview.durationS > 86_400)}</span>
                         </td>
                       ))}
                       <td className="num text-right">{num((c.endS - c.startS) / 60, 1)}</td>
