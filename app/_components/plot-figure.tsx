@@ -24,10 +24,6 @@ export interface PlotFigureProps {
 
 const SVG_NS = 'http://www.w3.org/2000/svg';
 
-/** A data URL of an SVG document, for the download link. */
-function svgDataUrl(svg: string): string {
-  return `data:image/svg+xml;charset=utf-8,${encodeURIComponent(svg)}`;
-}
 
 /**
  * PNG of a plot, drawn in the browser: the plot's `<svg>` (the largest one, when Plot wrapped it in
@@ -84,8 +80,8 @@ function saveBlob(blob: Blob, name: string) {
 
 /**
  * A figure around a plot: the server-rendered SVG for the first paint, an optional live re-render
- * with Observable Plot in the browser, a figcaption with the summary, a "Download SVG" link and a
- * "Download PNG" button.
+ * with Observable Plot in the browser, a figcaption with the summary, and "Download SVG" and
+ * "Download PNG" buttons (both files are made in the browser when clicked).
  */
 export function PlotFigure({ svg, summary, title, filename, options, className }: PlotFigureProps) {
   const liveRef = useRef<HTMLDivElement>(null);
@@ -146,9 +142,10 @@ export function PlotFigure({ svg, summary, title, filename, options, className }
         <span className="font-semibold text-ink">{title}.</span> {summary}
       </figcaption>
       <p className="mt-2 flex flex-wrap gap-2 print:hidden">
-        <a className="btn-quiet" href={svgDataUrl(current)} download={download}>
+        {/* made on click: a data URL in the page would carry the whole SVG a second time (URL-encoded) */}
+        <button type="button" className="btn-quiet" onClick={() => saveBlob(new Blob([current], { type: 'image/svg+xml;charset=utf-8' }), download)}>
           Download SVG
-        </a>
+        </button>
         <button type="button" className="btn-quiet" onClick={() => void downloadPng()} disabled={busy}>
           Download PNG
         </button>

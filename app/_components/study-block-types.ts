@@ -84,7 +84,10 @@ export type BlockBody =
       samples: number;
       shownPoints: number;
       durationS: number;
+      /** the first SEGMENT_ROWS steady segments, for the table */
       segments: SensorSegmentView[];
+      /** how many steady segments the log has in all */
+      segmentCount: number;
       plots: PlotView[];
     }
   | { type: 'note'; tone: 'muted' | 'danger'; message: string };
@@ -109,6 +112,9 @@ export interface StudyRecord {
     blocks: { id: string; kind: string; data: Record<string, unknown> }[];
   };
 }
+
+/** Rows of a sensor-log block's segment table (the block says how many there are in all). */
+export const SEGMENT_ROWS = 50;
 
 /** SWR key of a study (lab members). */
 export const studyKey = (studyId: string) => `/api/studies/${studyId}`;

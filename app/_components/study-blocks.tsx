@@ -167,7 +167,9 @@ export function BlockView({ block }: { block: BlockData }) {
           {b.segments.length ? (
             <div className="overflow-x-auto">
               <table className="data-table">
-                <caption className="px-3 py-2 text-left text-sm font-semibold text-ink">Steady segments (means)</caption>
+                <caption className="px-3 py-2 text-left text-sm font-semibold text-ink">
+                  Steady segments (means){b.segmentCount > b.segments.length ? `: the first ${b.segments.length} of ${b.segmentCount.toLocaleString('en-US')}` : ''}
+                </caption>
                 <thead>
                   <tr>
                     <th scope="col">#</th>
@@ -204,7 +206,8 @@ export function BlockView({ block }: { block: BlockData }) {
 
 const hours = (s: number) => (s >= 3600 ? `${(s / 3600).toFixed(1)} h` : `${(s / 60).toFixed(0)} min`);
 const THERM_J = 105_505_585.262; // 100,000 Btu_IT (NIST SP 811)
-const money = (v: number, c: string) => `${v.toLocaleString('en-US', { minimumFractionDigits: 2, maximumFractionDigits: v < 10 ? 3 : 2 })} ${c}`;
+/** Money to the cent, or to a tenth of a cent below one unit (a useful kWh costs cents). */
+const money = (v: number, c: string) => `${v.toLocaleString('en-US', { minimumFractionDigits: 2, maximumFractionDigits: Math.abs(v) < 1 ? 3 : 2 })} ${c}`;
 
 /** The cost-sheet block: running cost per useful heat, per degree and of the heat-up, with its cautions. */
 function CostSheet({ cost: c, units }: { cost: CostView; units: Units }) {

@@ -3,7 +3,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { Fit, SensorOverview, SourceFile, type FitRow, type LabRow, type StudyRow } from '@/entities';
 import type { StudyBlock } from '@/entities/study';
 import type { FitSuccess } from '@/analysis/fit';
-import type { BlockBody, BlockData, FitHead, PlotView } from '../_components/study-block-types';
+import { SEGMENT_ROWS, type BlockBody, type BlockData, type FitHead, type PlotView } from '../_components/study-block-types';
 import type { ChoiceView, ComparisonView, FitView, PerformanceView } from '../_components/fit-report';
 import type { Units } from '../_components/units';
 import { CostInputError, costView } from './cost-block';
@@ -104,7 +104,8 @@ async function sensorLogBody(ctx: BlockContext, block: StudyBlock): Promise<Bloc
     samples: overview.samples,
     shownPoints: points.length,
     durationS: overview.durationS,
-    segments: overview.segments,
+    segments: overview.segments.slice(0, SEGMENT_ROWS),
+    segmentCount: overview.segments.length,
     plots: [plotView(note(figs.temperatures)), plotView(note(figs.flow))],
   };
 }

@@ -10,7 +10,7 @@ import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { getOrm } from '@/app/_lib/db';
 import { copyPool } from '@/app/_lib/sensor-import';
-import { Client, baseUrl, signedIn } from './support/client';
+import { Client, STRONG_PASSWORD, baseUrl, signedIn, uniqueEmail } from './support/client';
 import { importGeneratedLog } from './support/sensor-log';
 
 const db = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 2 });
@@ -148,6 +148,27 @@ describe('block data through a share link', () => {
     expect(si.body.block.units).toBe('si');
     expect(si.text).toContain('°C');
     expect((await anon.get(`/api/share/${token}/blocks/nope`)).status).toBe(404);
+  });
+
+  test('a signed-in reader starts in their own units and may still switch; a signed-out reader starts in SI', async () => {
+    const made = await s.eng.post(`/api/studies/${s.study.id}/shares`, { days: 7 });
+    const token = made.body.url.split('/share/')[1];
+    const reader = new Client();
+    const email = uniqueEmail('share-reader');
+    expect((await reader.post('/api/auth/sign-up', { email, name: 'Share Reader', password: STRONG_PASSWORD, labName: 'Reader Bench' })).status).toBe(201);
+    expect((await reader.request('PATCH', '/api/me', { unitSystem: 'us' })).status).toBe(200);
+    const page = async (c: Client, query = '') => {
+      const html = (await c.get(`/share/${token}${query}`)).text;
+      return /<a[^>]*aria-current="true"[^>]*>([^<]*)</.exec(html)?.[1] ?? '';
+    };
+    expect(await page(reader)).toMatch(/^US customary/);
+    expect(await page(reader, '?units=si')).toMatch(/^SI/);
+    expect(await page(new Client())).toMatch(/^SI/);
+    expect(await page(new Client(), '?units=us')).toMatch(/^US customary/);
+    expect((await reader.get(`/api/share/${token}/blocks/fc`)).body.block.units).toBe('us');
+    expect((await new Client().get(`/api/share/${token}/blocks/fc`)).body.block.units).toBe('si');
+    // the reader's own preference is unchanged by reading in other units
+    expect((await reader.get('/api/me')).body.user.unitSystem).toBe('us');
   });
 
   test('an expired or revoked link answers 404 on the block route and the page says so', async () => {

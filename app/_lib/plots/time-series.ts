@@ -1,10 +1,19 @@
 /**
  * A sensor log (already reduced for display) with its steady segments shaded and numbered: inlet
- * and outlet temperatures in one panel, flow in a second panel on the same time axis.
+ * and outlet temperatures in one panel, flow in a second panel on the same time axis. A long log's
+ * many segments are drawn at the plot's resolution (neighbours closer than 2 px share a band,
+ * numbers only up to 30 segments) and summarised by count and duration.
  */
 import * as Plot from '@observablehq/plot';
 import { baseOptions, COLORS, type PlotFigure } from './theme';
 import { displayUnits, fmt, sentences, type UnitSystem } from './units';
+
+/** Gaps between steady segments narrower than this, in CSS px, are not drawn (one band). */
+const MERGE_PX = 2;
+/** Segments are numbered on the plot up to this many. */
+const LABEL_MAX = 30;
+/** The summary names each segment up to this many, then gives their count and range. */
+const LIST_MAX = 12;
 
 /** One logged (or reduced) sample, SI. Missing readings are null. */
 export interface LogPoint {
@@ -53,10 +62,21 @@ export function timeSeriesSegmentsPlot(input: TimeSeriesInput, units: UnitSystem
   const t0 = input.points[0]?.tS ?? 0;
   const t1 = input.points[input.points.length - 1]?.tS ?? 0;
   xOpts.domain = [at(t0), at(t1)];
-  const segs = input.segments.map((s, i) => ({ x1: at(s.startS), x2: at(s.endS), mid: at((s.startS + s.endS) / 2), label: s.label ?? String(i + 1) }));
+  const width = size.width ?? 720;
+  // Segments closer together than the plot can show (under MERGE_PX apart) share one shaded band,
+  // and numbers are written only while they fit: a long log holds hundreds of segments.
+  const pxPerS = (width - 80) / Math.max(spanS, 1e-9);
+  const bands: { startS: number; endS: number; label: string }[] = [];
+  input.segments.forEach((s, i) => {
+    const last = bands[bands.length - 1];
+    if (last && (s.startS - last.endS) * pxPerS < MERGE_PX) last.endS = Math.max(last.endS, s.endS);
+    else bands.push({ startS: s.startS, endS: s.endS, label: s.label ?? String(i + 1) });
+  });
+  const numbered = bands.length === input.segments.length && bands.length <= LABEL_MAX;
+  const segs = bands.map((s) => ({ x1: at(s.startS), x2: at(s.endS), mid: at((s.startS + s.endS) / 2), label: s.label }));
   const shade = (): Plot.Markish[] => [
     Plot.rect(segs, { x1: 'x1', x2: 'x2', fill: COLORS.water, fillOpacity: 0.1, ariaDescription: 'steady segments' }),
-    Plot.text(segs, { x: 'mid', text: 'label', frameAnchor: 'top', dy: 8, fill: COLORS.water, fontWeight: 600, ariaDescription: 'segment numbers' }),
+    ...(numbered ? [Plot.text(segs, { x: 'mid', text: 'label', frameAnchor: 'top', dy: 8, fill: COLORS.water, fontWeight: 600, ariaDescription: 'segment numbers' })] : []),
   ];
   const series = (pick: (p: LogPoint) => number | null, conv: (v: number) => number) =>
     input.points.map((p) => {
@@ -69,9 +89,12 @@ export function timeSeriesSegmentsPlot(input: TimeSeriesInput, units: UnitSystem
   const n = input.points.length;
   const k = input.segments.length;
   const duration = spanS >= 3600 ? `${fmt(spanS / 3600, 3)} h` : `${fmt(spanS / 60, 3)} min`;
-  const segWords = k
-    ? `${k} steady segment${k === 1 ? '' : 's'} shaded and numbered: ${input.segments.map((s, i) => `${s.label ?? i + 1} (${fmt((s.endS - s.startS) / 60, 3)} min)`).join(', ')}`
-    : 'no steady segment found';
+  const minutes = input.segments.map((s) => (s.endS - s.startS) / 60);
+  const segWords = !k
+    ? 'no steady segment found'
+    : k <= LIST_MAX
+      ? `${k} steady segment${k === 1 ? '' : 's'} shaded${numbered ? ' and numbered' : ''}: ${input.segments.map((s, i) => `${s.label ?? i + 1} (${fmt(minutes[i], 3)} min)`).join(', ')}`
+      : `${k} steady segments shaded${numbered ? ' and numbered' : ''}, ${fmt(Math.min(...minutes), 3)} to ${fmt(Math.max(...minutes), 3)} min long${bands.length < k ? `; segments closer than the plot can separate are drawn as one band (${bands.length} band${bands.length === 1 ? '' : 's'} in all)` : ''}`;
   const range = (rows: { y: number | null }[]) => {
     const ys = rows.map((r) => r.y).filter((v): v is number => v !== null);
     return ys.length ? [Math.min(...ys), Math.max(...ys)] : null;
@@ -79,7 +102,6 @@ export function timeSeriesSegmentsPlot(input: TimeSeriesInput, units: UnitSystem
   const rOut = range(outlet);
   const rIn = range(inlet);
   const rFlow = range(flow);
-  const width = size.width ?? 720;
 
   const tTitle = 'Logged inlet and outlet temperatures';
   const tSummary = sentences([
