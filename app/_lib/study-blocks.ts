@@ -11,7 +11,8 @@ import { modelLabel } from './fit-analysis';
 import { forecast } from './forecasts';
 import { renderMarkdown } from './markdown';
 import { plotToSvg } from './plot-svg';
-import { fitCurveInputFromFits, fitCurvePlot, timeSeriesSegmentsPlot, type PlotFigure } from './plots';
+import { DISPLAY_MAX_POINTS, reduceForDisplay } from '@/analysis/reduce';
+import { fitCurveInputFromFits, fitCurvePlot, timeSeriesSegmentsPlot, type FitCurveTrial, type PlotFigure } from './plots';
 import { UUID } from './rigs';
 import { copyPool } from './sensor-import';
 import { ensureSensorOverview } from './sensor-overview';
@@ -59,6 +60,16 @@ export async function blockFits(em: EntityManager, lab: LabRow, blocks: readonly
   return new Map(rows.map((f) => [f.id, f]));
 }
 
+/**
+ * More trials than the display limit (a fit over thousands of log segments): ordered by flow and
+ * reduced with LTTB keeping each bucket's extreme outlets (analysis/reduce), so outliers stay visible.
+ */
+function reduceTrials(trials: FitCurveTrial[]): FitCurveTrial[] {
+  const sorted = [...trials].sort((a, b) => a.flowM3PerS - b.flowM3PerS);
+  const { indices } = reduceForDisplay(sorted.map((t) => t.flowM3PerS), sorted.map((t) => t.outletC));
+  return Array.from(indices, (i) => sorted[i]);
+}
+
 /** Only what the fit tables show: no residual arrays, Jacobian or data. */
 function fitView(fit: FitSuccess, label: string): FitView {
   const { model, params, parameterNames, correlation, n, df, rss, residualSD, r2, adjustedR2, aicc, bic, level, iterations, stoppingReason, flags, lackOfFit, warnings } = fit;
@@ -71,7 +82,10 @@ function fitBody(kind: string, fit: FitRow, publicView: boolean, units: Units): 
   const head: FitHead = { fitId: publicView ? null : fit.id, title: fit.title, version: fit.version, label, reviewState: fit.reviewState };
   switch (kind) {
     case 'fit': {
-      const fig = fitCurvePlot(fitCurveInputFromFits([{ label, fit: r.fit }], { inletC: r.choice.inletTempC }), units);
+      const input = fitCurveInputFromFits([{ label, fit: r.fit }], { inletC: r.choice.inletTempC });
+      const n = input.trials.length;
+      let fig = fitCurvePlot(n > DISPLAY_MAX_POINTS ? { ...input, trials: reduceTrials(input.trials) } : input, units);
+      if (n > DISPLAY_MAX_POINTS) fig = { ...fig, summary: fig.summary.replace(/^\d[\d,]* trials? fitted/, `${n.toLocaleString('en-US')} trials fitted (${DISPLAY_MAX_POINTS.toLocaleString('en-US')} or fewer drawn, reduced for display keeping the extremes)`) };
       return { type: 'fit', head, plot: plotView(fig), fit: fitView(r.fit, label), choice: r.choice };
     }
     case 'comparison':

@@ -1,5 +1,6 @@
 'use client';
 
+import { useRouter } from 'next/navigation';
 import { useEffect, useRef, useState } from 'react';
 import { useSWRConfig } from 'swr';
 import { api, ApiError } from '../../_components/api';
@@ -50,7 +51,15 @@ export function changedBlocks(before: readonly Block[], after: readonly Block[])
  * the study's SWR entry takes the saved version and only the blocks whose settings changed fetch
  * their data again.
  */
-export function StudyEditor({ studyId, initial, fits, logs, units }: { studyId: string; initial: StudyState; fits: { id: string; label: string; coil: boolean }[]; logs: { id: string; label: string }[]; units: 'si' | 'us' }) {
+export function StudyEditor({ studyId, initial, initialReviewState, fits, logs, units }: {
+  studyId: string;
+  initial: StudyState;
+  initialReviewState: string;
+  fits: { id: string; label: string; coil: boolean }[];
+  logs: { id: string; label: string }[];
+  units: 'si' | 'us';
+}) {
+  const router = useRouter();
   const { mutate } = useSWRConfig();
   const [s, setS] = useState<StudyState>(initial);
   const [status, setStatus] = useState<'saved' | 'pending' | 'saving' | 'conflict' | 'error'>('saved');
@@ -61,11 +70,15 @@ export function StudyEditor({ studyId, initial, fits, logs, units }: { studyId: 
   const shown = useRef<Block[]>(initial.blocks);
 
   /** Puts a saved version into the study's SWR entry and refreshes the blocks it changed. */
+  const reviewState = useRef(initialReviewState);
   const publish = (study: StudyRecord['study']) => {
     const changed = changedBlocks(shown.current, study.blocks as Block[]);
     shown.current = study.blocks as Block[];
     void mutate(studyKey(studyId), (old?: StudyRecord) => ({ ...old, study }), { revalidate: false });
     for (const id of changed) void mutate(studyBlockKey(studyId, id));
+    // an edit sends an approved study back to draft: the review panel (server-rendered) shows it
+    if (study.reviewState !== reviewState.current) router.refresh();
+    reviewState.current = study.reviewState;
   };
 
   const change = (next: Partial<StudyState>) => {
@@ -108,7 +121,7 @@ export function StudyEditor({ studyId, initial, fits, logs, units }: { studyId: 
       }
     }, 800);
     return () => clearTimeout(t);
-    // publish is recreated each render and reads only refs and the stable mutate
+    // publish is recreated each render and reads only refs, the stable mutate and the router
   }, [status, s, studyId]); // eslint-disable-line react-hooks/exhaustive-deps
 
   const forecastDefaults = (): Record<string, unknown> => ({
