@@ -22,7 +22,8 @@ import { allIndices, checkSeries, type Series } from './series-check';
  * @example overviewIndices(timeS, [inletC, outletC, flowM3PerS], 2000).length // ≤ 2000
  */
 export function overviewIndices(timeS: Series, channels: readonly (Series | null | undefined)[], maxPoints: number): Uint32Array {
-  const n = checkSeries(timeS, new Float64Array(timeS?.length ?? 0), Math.max(2, maxPoints | 0), 2);
+  // the time base checked on its own (as both coordinates: no copy); each channel is checked by its reducer
+  const n = checkSeries(timeS, timeS, Math.max(2, maxPoints | 0), 2);
   const present = channels.filter((c): c is Series => c != null);
   present.forEach((c, k) => {
     if (typeof c.length !== 'number') throw new TypeError(`channel ${k} must be an array of numbers`);
@@ -37,11 +38,16 @@ export function overviewIndices(timeS: Series, channels: readonly (Series | null
   keep[n - 1] = 1;
   const perChannel = Math.floor((maxPoints - 2) / Math.max(1, present.length));
   for (const y of present) {
-    // the channel's finite samples, compacted, and where each came from
-    const from = new Uint32Array(n);
     let m = 0;
-    for (let i = 0; i < n; i++) if (Number.isFinite(y[i])) from[m++] = i;
+    for (let i = 0; i < n; i++) if (Number.isFinite(y[i])) m++;
+    if (m === n) {
+      for (const j of lttbExtremesIndices(timeS, y, perChannel)) keep[j] = 1;
+      continue;
+    }
     if (m === 0) continue;
+    // a channel with missing readings: its finite samples, compacted, and where each came from
+    const from = new Uint32Array(m);
+    for (let i = 0, k = 0; i < n; i++) if (Number.isFinite(y[i])) from[k++] = i;
     const xs = new Float64Array(m), ys = new Float64Array(m);
     for (let j = 0; j < m; j++) { xs[j] = timeS[from[j]]; ys[j] = y[from[j]]; }
     for (const j of lttbExtremesIndices(xs, ys, perChannel)) keep[from[j]] = 1;
