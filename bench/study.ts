@@ -217,7 +217,7 @@ async function child() {
     let fontsAvailable = 0;
     for (const a of assets.filter((x) => x.endsWith('.css'))) {
       const css = (await get(base + a)).body.toString('utf8');
-      for (const m of new Set([...css.matchAll(/url\((\/_next\/static\/media\/[^)]+\.woff2)\)/g)].map((x) => x[1]))) fontsAvailable += (await get(base + m)).wireBytes;
+      for (const m of new Set([...css.matchAll(/url\(([^)]+\.woff2)\)/g)].map((x) => new URL(x[1], base + a).href))) fontsAvailable += (await get(m)).wireBytes;
     }
     const rsc = [...html.matchAll(/self\.__next_f\.push\(\[1,"((?:[^"\\]|\\.)*)"\]\)/g)].reduce((s, m) => s + m[1].length, 0);
     const kb = (b: number) => (b / 1024).toFixed(1);
