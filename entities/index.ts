@@ -21,9 +21,10 @@ import { Notice } from './notice';
 import { ShareLink } from './share-link';
 import { User } from './user';
 import { ImportJob } from './import-job';
+import { SensorOverview } from './sensor-overview';
 
-export { Comment, Fit, Notice, ReviewEvent, ShareLink, Study, ColumnMapping, SensorSample, SourceFile, TrialChange, ApiToken, AuditEvent, Invitation, Lab, Membership, PasswordReset, RateLimit, Rig, Session, Trial, User, ImportJob };
-export const entities = [Lab, User, Membership, Rig, Trial, Session, Invitation, PasswordReset, ApiToken, AuditEvent, RateLimit, SourceFile, ColumnMapping, TrialChange, SensorSample, Fit, Study, Comment, ReviewEvent, Notice, ShareLink, ImportJob];
+export { Comment, Fit, Notice, ReviewEvent, ShareLink, Study, ColumnMapping, SensorSample, SourceFile, TrialChange, ApiToken, AuditEvent, Invitation, Lab, Membership, PasswordReset, RateLimit, Rig, Session, Trial, User, ImportJob, SensorOverview };
+export const entities = [Lab, User, Membership, Rig, Trial, Session, Invitation, PasswordReset, ApiToken, AuditEvent, RateLimit, SourceFile, ColumnMapping, TrialChange, SensorSample, Fit, Study, Comment, ReviewEvent, Notice, ShareLink, ImportJob, SensorOverview];
 
 import type { InferEntity } from '@mikro-orm/core';
 /** Row types of the entities, for code that handles loaded records. */
@@ -47,3 +48,4 @@ export type ReviewEventRow = InferEntity<typeof ReviewEvent>;
 export type NoticeRow = InferEntity<typeof Notice>;
 export type ShareLinkRow = InferEntity<typeof ShareLink>;
 export type ImportJobRow = InferEntity<typeof ImportJob>;
+export type SensorOverviewRow = InferEntity<typeof SensorOverview>;

@@ -11,7 +11,7 @@ export interface PlotFigureProps {
   summary: string;
   /** a short title shown before the summary */
   title: string;
-  /** name for the downloaded file; `.svg` is added when missing */
+  /** name for the downloaded files, without extension (`.svg` / `.png` are added) */
   filename: string;
   /**
    * Plot options to re-render in the browser (e.g. after a control changes). Only a client parent
@@ -24,14 +24,64 @@ export interface PlotFigureProps {
 
 const SVG_NS = 'http://www.w3.org/2000/svg';
 
-/** A data URL of an SVG document, for the download link. */
-function svgDataUrl(svg: string): string {
-  return `data:image/svg+xml;charset=utf-8,${encodeURIComponent(svg)}`;
+
+/**
+ * PNG of a plot, drawn in the browser: the plot's `<svg>` (the largest one, when Plot wrapped it in
+ * a figure with a legend) is loaded as an image and painted on a canvas at `scale` × its size on a
+ * white ground. Done here rather than with the server's Chromium renderer (export/svg-png.ts)
+ * because the SVG is already in the page: a download costs the server nothing, needs no headless
+ * browser per click (on the public share view that would let anyone start one), and works the same
+ * for a member and a share-link reader. An SVG drawn as an image cannot load web fonts, so text is
+ * set in the browser's sans-serif — the numbers and layout are the plot's own.
+ */
+export async function svgToPngBlob(markup: string, scale = 2): Promise<Blob> {
+  const doc = new DOMParser().parseFromString(`<!doctype html><body>${markup}`, 'text/html');
+  const size = (el: Element) => {
+    const vb = el.getAttribute('viewBox')?.split(/[\s,]+/).map(Number);
+    return { w: Number(el.getAttribute('width')) || vb?.[2] || 640, h: Number(el.getAttribute('height')) || vb?.[3] || 400 };
+  };
+  const svgs = [...doc.querySelectorAll('svg')].filter((el) => !el.parentElement?.closest('svg'));
+  const root = svgs.sort((a, b) => size(b).w * size(b).h - size(a).w * size(a).h)[0];
+  if (!root) throw new TypeError('the plot holds no <svg>');
+  const { w, h } = size(root);
+  root.setAttribute('xmlns', SVG_NS);
+  root.setAttribute('width', String(w));
+  root.setAttribute('height', String(h));
+  const url = URL.createObjectURL(new Blob([new XMLSerializer().serializeToString(root)], { type: 'image/svg+xml' }));
+  try {
+    const img = new Image();
+    img.src = url;
+    await img.decode();
+    const canvas = document.createElement('canvas');
+    canvas.width = Math.round(w * scale);
+    canvas.height = Math.round(h * scale);
+    const ctx = canvas.getContext('2d');
+    if (!ctx) throw new Error('this browser cannot draw on a canvas');
+    ctx.fillStyle = '#ffffff';
+    ctx.fillRect(0, 0, canvas.width, canvas.height);
+    ctx.drawImage(img, 0, 0, canvas.width, canvas.height);
+    return await new Promise<Blob>((resolve, reject) => canvas.toBlob((b) => (b ? resolve(b) : reject(new Error('the PNG could not be made'))), 'image/png'));
+  } finally {
+    URL.revokeObjectURL(url);
+  }
+}
+
+/** Saves a blob under a file name through a temporary link. */
+function saveBlob(blob: Blob, name: string) {
+  const url = URL.createObjectURL(blob);
+  const a = document.createElement('a');
+  a.href = url;
+  a.download = name;
+  document.body.append(a);
+  a.click();
+  a.remove();
+  setTimeout(() => URL.revokeObjectURL(url), 10_000);
 }
 
 /**
  * A figure around a plot: the server-rendered SVG for the first paint, an optional live re-render
- * with Observable Plot in the browser, a figcaption with the summary and a "Download SVG" link.
+ * with Observable Plot in the browser, a figcaption with the summary, and "Download SVG" and
+ * "Download PNG" buttons (both files are made in the browser when clicked).
  */
 export function PlotFigure({ svg, summary, title, filename, options, className }: PlotFigureProps) {
   const liveRef = useRef<HTMLDivElement>(null);
@@ -65,7 +115,21 @@ export function PlotFigure({ svg, summary, title, filename, options, className }
   }, [options]);
 
   const current = liveSvg ?? svg;
-  const download = filename.toLowerCase().endsWith('.svg') ? filename : `${filename}.svg`;
+  const base = filename.replace(/\.(svg|png)$/i, '');
+  const download = `${base}.svg`;
+  const [pngError, setPngError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  const downloadPng = async () => {
+    setPngError(null);
+    setBusy(true);
+    try {
+      saveBlob(await svgToPngBlob(current), `${base}.png`);
+    } catch (e) {
+      setPngError(`The PNG could not be made (${(e as Error).message}); the SVG download still works.`);
+    } finally {
+      setBusy(false);
+    }
+  };
   return (
     <figure className={className ?? 'card p-4'} aria-describedby={captionId}>
       <div
@@ -77,11 +141,16 @@ export function PlotFigure({ svg, summary, title, filename, options, className }
       <figcaption id={captionId} className="mt-2 text-sm text-ink-muted">
         <span className="font-semibold text-ink">{title}.</span> {summary}
       </figcaption>
-      <p className="mt-2 print:hidden">
-        <a className="btn-quiet" href={svgDataUrl(current)} download={download}>
+      <p className="mt-2 flex flex-wrap gap-2 print:hidden">
+        {/* made on click: a data URL in the page would carry the whole SVG a second time (URL-encoded) */}
+        <button type="button" className="btn-quiet" onClick={() => saveBlob(new Blob([current], { type: 'image/svg+xml;charset=utf-8' }), download)}>
           Download SVG
-        </a>
+        </button>
+        <button type="button" className="btn-quiet" onClick={() => void downloadPng()} disabled={busy}>
+          Download PNG
+        </button>
       </p>
+      {pngError ? <p role="alert" className="mt-1 text-sm text-danger-text">{pngError}</p> : null}
     </figure>
   );
 }

@@ -1,131 +1,257 @@
-import type { EntityManager } from '@mikro-orm/postgresql';
-import type { LabRow, StudyRow } from '@/entities';
-import type { FitSuccess } from '@/analysis/fit';
-import type { FlowChoice as Choice } from '@/analysis/performance/choose-flow';
-import { modelLabel } from '../_lib/fit-analysis';
-import { forecast } from '../_lib/forecasts';
-import { renderMarkdown } from '../_lib/markdown';
-import { plotToSvg } from '../_lib/plot-svg';
-import { fitCurveInputFromFits, fitCurvePlot } from '../_lib/plots';
-import { studyFits } from '../_lib/study-export';
-import { Cautions, ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTableView, type ComparisonView, type PerformanceView } from './fit-report';
+'use client';
+
+import type { ReactNode } from 'react';
+import { ApiError } from './api';
+import { Cautions, ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTableView } from './fit-report';
 import { PlotFigure } from './plot-figure';
 import { StateBadge } from './review-panel';
-import { flowOut, flowUnit, tempOut, tempUnit, type Units } from './units';
+import { sharedBlockKey, studyBlockKey, type BlockBody, type BlockData, type CostView, type FitHead } from './study-block-types';
+import { dtOut, dtUnit, flowOut, flowUnit, tempOut, tempUnit, volOut, volUnit, type Units } from './units';
+import { useStudy } from './use-study';
+import { useStudyBlock } from './use-study-block';
 
-const STANDING = [
-  'Emberline is an analysis aid, not a design approval: local codes, inspectors and licensed professionals have the final word.',
-  'Hot water burns in seconds above 60 °C (140 °F); keep water people touch below 49 °C (120 °F) and spas at or below 40 °C (104 °F).',
-  'Never heat a coil that cannot vent; start the flow before lighting and keep it until the coil is cold. Never run a pump against a closed valve.',
-  'Fuel-burning equipment makes carbon monoxide: outdoors only, away from openings, with a CO alarm nearby. Electrical equipment near a pool needs GFCI protection.',
-];
+/** Where the blocks come from: the lab's own study page, or a share link (with the reader's units). */
+export type BlocksSource = { studyId: string } | { token: string; units: Units; blocks: { id: string; kind: string }[] };
 
-/** The blocks of a study rendered on the server (first paint, share view, print). */
-export async function StudyBlocks({ em, lab, study, units, publicView = false }: { em: EntityManager; lab: LabRow; study: StudyRow; units: Units; publicView?: boolean }) {
-  const fits = new Map((await studyFits(em, study)).map((f) => [f.id, f]));
-  const out = [];
-  for (const b of study.blocks) {
-    const fit = typeof b.data.fitId === 'string' ? fits.get(b.data.fitId) : undefined;
-    const r = fit?.result as { fit: FitSuccess; comparison: ComparisonView; choice: Choice; performance: PerformanceView; trials: { startedAt: string; flowM3PerS: number; inletC: number; outletC: number }[] } | undefined;
-    let body: React.ReactNode;
-    switch (b.kind) {
-      case 'text':
-        body = <div className="study-prose" dangerouslySetInnerHTML={{ __html: renderMarkdown(String(b.data.markdown ?? '')) }} />;
-        break;
-      case 'caution':
-        body = (
-          <div className="rounded-lg border border-caution-line bg-caution-bg p-4 text-sm text-caution-text">
-            <p className="font-semibold">Safety</p>
-            <ul className="mt-1 list-disc space-y-1 pl-5">
-              {[...(typeof b.data.text === 'string' && b.data.text ? [b.data.text] : []), ...STANDING].map((t) => (
-                <li key={t}>{t}</li>
-              ))}
-            </ul>
-          </div>
-        );
-        break;
-      case 'forecast': {
-        try {
-          const f = await forecast(em, lab, { ...(b.data as Record<string, unknown>) }, units);
-          body = (
-            <div className="space-y-3">
-              <p className="text-sm">
-                Final <span className="num">{tempOut(f.finalTemp_degC, units).toFixed(1)} {tempUnit(units)}</span>
-                {f.hoursToTarget_h != null ? <>, target reached after <span className="num">{f.hoursToTarget_h.toFixed(1)} h</span></> : null}.{' '}
-                {f.fitNote}
-              </p>
-              <Cautions cautions={f.cautions} />
-              <PlotFigure {...f.plots.trajectory} filename="forecast" />
-            </div>
-          );
-        } catch (e) {
-          body = <p className="text-sm text-danger-text">This forecast cannot be computed: {(e as Error).message}</p>;
-        }
-        break;
-      }
-      default: {
-        if (!fit || !r) {
-          body = <p className="text-sm text-ink-muted">No saved fit chosen for this block yet.</p>;
-          break;
-        }
-        const label = modelLabel(fit.model);
-        const head = (
-          <p className="mb-3 flex flex-wrap items-center gap-2 text-sm text-ink-soft">
-            <strong className="text-ink">
-              {fit.title} v{fit.version}
-            </strong>
-            <span>{label}</span>
-            <StateBadge state={fit.reviewState} />
-            {publicView ? null : <a href={`/fits/${fit.id}`}>open the fit</a>}
+/**
+ * The blocks of a study. Each block's data comes from its block-data route through SWR; the page
+ * rendered on the server passes every block in the SWR fallback, so the first paint is complete
+ * and no block is fetched until the editor changes it.
+ */
+export function StudyBlocks({ source }: { source: BlocksSource }) {
+  const study = useStudy('studyId' in source ? source.studyId : null);
+  const list = 'studyId' in source ? (study.data?.study.blocks ?? []) : source.blocks;
+  const keyOf = (id: string) => ('studyId' in source ? studyBlockKey(source.studyId, id) : sharedBlockKey(source.token, id, source.units));
+  if (!list.length) return <p className="card p-5 text-sm text-ink-muted">This study has no blocks yet.</p>;
+  return (
+    <div className="space-y-5">
+      {list.map((b) => (
+        <Block key={b.id} swrKey={keyOf(b.id)} id={b.id} kind={b.kind} />
+      ))}
+    </div>
+  );
+}
+
+function Block({ swrKey, id, kind }: { swrKey: string; id: string; kind: string }) {
+  const { data, error, isValidating, mutate } = useStudyBlock(swrKey);
+  let content: ReactNode;
+  if (data) content = <BlockView block={data.block} />;
+  else if (error) {
+    content = (
+      <p role="alert" className="text-sm text-danger-text">
+        This block could not be loaded: {error instanceof ApiError ? error.message : 'the server could not be reached.'}{' '}
+        <button type="button" className="btn-quiet px-2 py-1" onClick={() => void mutate()}>
+          Try again
+        </button>
+      </p>
+    );
+  } else content = <p className="text-sm text-ink-muted">Loading this block…</p>;
+  return (
+    <section id={`block-${id}`} className="card p-5" aria-label={`${kind} block`} aria-busy={isValidating || undefined} data-block={kind}>
+      {content}
+    </section>
+  );
+}
+
+function Head({ head }: { head: FitHead }) {
+  return (
+    <p className="mb-3 flex flex-wrap items-center gap-2 text-sm text-ink-soft">
+      <strong className="text-ink">
+        {head.title} v{head.version}
+      </strong>
+      <span>{head.label}</span>
+      <StateBadge state={head.reviewState} />
+      {head.fitId ? <a href={`/fits/${head.fitId}`}>open the fit</a> : null}
+    </p>
+  );
+}
+
+/** One block's body from its data. */
+export function BlockView({ block }: { block: BlockData }) {
+  const b: BlockBody = block.body;
+  const units = block.units;
+  switch (b.type) {
+    case 'text':
+      return <div className="study-prose" dangerouslySetInnerHTML={{ __html: b.html }} />;
+    case 'caution':
+      return (
+        <div className="rounded-lg border border-caution-line bg-caution-bg p-4 text-sm text-caution-text">
+          <p className="font-semibold">Safety</p>
+          <ul className="mt-1 list-disc space-y-1 pl-5">
+            {b.items.map((t) => (
+              <li key={t}>{t}</li>
+            ))}
+          </ul>
+        </div>
+      );
+    case 'note':
+      return <p className={`text-sm ${b.tone === 'danger' ? 'text-danger-text' : 'text-ink-muted'}`}>{b.message}</p>;
+    case 'forecast':
+      return (
+        <div className="space-y-3">
+          <p className="text-sm">
+            Final <span className="num">{tempOut(b.finalTempC, units).toFixed(1)} {tempUnit(units)}</span>
+            {b.hoursToTarget != null ? <>, target reached after <span className="num">{b.hoursToTarget.toFixed(1)} h</span></> : null}. {b.fitNote}
           </p>
-        );
-        if (b.kind === 'fit') {
-          const fig = fitCurvePlot(fitCurveInputFromFits([{ label, fit: r.fit }], { inletC: r.choice.inletTempC }), units);
-          body = (
-            <div className="space-y-4">
-              {head}
-              <PlotFigure title={fig.title} summary={fig.summary} svg={plotToSvg(fig.options)} filename="fit" />
-              <ParameterTable fit={{ ...r.fit, label }} />
-              <FitStats fit={{ ...r.fit, label }} units={units} />
-              <FlowChoice choice={r.choice} units={units} />
-            </div>
-          );
-        } else if (b.kind === 'comparison') body = <div>{head}<ComparisonTable comparison={r.comparison} units={units} /></div>;
-        else if (b.kind === 'performance') body = <div className="space-y-3">{head}<PerformanceTableView table={r.performance} units={units} /><Cautions cautions={r.performance.cautions} /></div>;
-        else if (b.kind === 'trials')
-          body = (
-            <div>
-              {head}
+          <Cautions cautions={b.cautions} />
+          <PlotFigure {...b.plot} filename="forecast" />
+        </div>
+      );
+    case 'fit':
+      return (
+        <div className="space-y-4">
+          <Head head={b.head} />
+          <PlotFigure {...b.plot} filename="fit" />
+          <ParameterTable fit={b.fit} />
+          <FitStats fit={b.fit} units={units} />
+          <FlowChoice choice={b.choice} units={units} />
+        </div>
+      );
+    case 'comparison':
+      return (
+        <div>
+          <Head head={b.head} />
+          <ComparisonTable comparison={b.comparison} units={units} />
+        </div>
+      );
+    case 'performance':
+      return (
+        <div className="space-y-3">
+          <Head head={b.head} />
+          <PerformanceTableView table={b.table} units={units} />
+          <Cautions cautions={b.table.cautions} />
+        </div>
+      );
+    case 'trials':
+      return (
+        <div>
+          <Head head={b.head} />
+          <table className="data-table">
+            <thead>
+              <tr>
+                <th scope="col">Started (UTC)</th>
+                <th scope="col" className="text-right">Flow ({flowUnit(units)})</th>
+                <th scope="col" className="text-right">Inlet ({tempUnit(units)})</th>
+                <th scope="col" className="text-right">Outlet ({tempUnit(units)})</th>
+              </tr>
+            </thead>
+            <tbody>
+              {b.trials.map((t, i) => (
+                <tr key={i}>
+                  <td className="num">{t.startedAt.slice(0, 16).replace('T', ' ')}</td>
+                  <td className="num text-right">{flowOut(t.flowM3PerS, units).toFixed(2)}</td>
+                  <td className="num text-right">{tempOut(t.inletC, units).toFixed(1)}</td>
+                  <td className="num text-right">{tempOut(t.outletC, units).toFixed(1)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      );
+    case 'costs':
+      return <CostSheet cost={b.cost} units={units} />;
+    case 'sensor-log':
+      return (
+        <div className="space-y-4">
+          <p className="flex flex-wrap items-center gap-2 text-sm text-ink-soft">
+            <strong className="text-ink">Sensor log of {b.rigName}</strong>
+            {b.filename ? <span className="num">{b.filename}</span> : null}
+            <span>
+              from <span className="num">{b.startedAt.slice(0, 16).replace('T', ' ')} UTC</span>, <span className="num">{hours(b.durationS)}</span>,{' '}
+              <span className="num">{b.samples.toLocaleString('en-US')}</span> samples ({b.shownPoints.toLocaleString('en-US')} drawn)
+            </span>
+          </p>
+          {b.plots.map((p, i) => (
+            <PlotFigure key={p.title} {...p} filename={i === 0 ? 'sensor-log-temperatures' : 'sensor-log-flow'} />
+          ))}
+          {b.segments.length ? (
+            <div className="overflow-x-auto">
               <table className="data-table">
+                <caption className="px-3 py-2 text-left text-sm font-semibold text-ink">
+                  Steady segments (means){b.segmentCount > b.segments.length ? `: the first ${b.segments.length} of ${b.segmentCount.toLocaleString('en-US')}` : ''}
+                </caption>
                 <thead>
                   <tr>
-                    <th scope="col">Started (UTC)</th>
+                    <th scope="col">#</th>
+                    <th scope="col">From (UTC)</th>
+                    <th scope="col" className="text-right">Minutes</th>
                     <th scope="col" className="text-right">Flow ({flowUnit(units)})</th>
                     <th scope="col" className="text-right">Inlet ({tempUnit(units)})</th>
                     <th scope="col" className="text-right">Outlet ({tempUnit(units)})</th>
+                    <th scope="col" className="text-right">Rise ({dtUnit(units)})</th>
                   </tr>
                 </thead>
                 <tbody>
-                  {r.trials.map((t, i) => (
+                  {b.segments.map((s, i) => (
                     <tr key={i}>
-                      <td className="num">{t.startedAt.slice(0, 16).replace('T', ' ')}</td>
-                      <td className="num text-right">{flowOut(t.flowM3PerS, units).toFixed(2)}</td>
-                      <td className="num text-right">{tempOut(t.inletC, units).toFixed(1)}</td>
-                      <td className="num text-right">{tempOut(t.outletC, units).toFixed(1)}</td>
+                      <td className="num">{i + 1}</td>
+                      <td className="num">{new Date(Date.parse(b.startedAt) + s.startS * 1000).toISOString().slice(11, 19)}</td>
+                      <td className="num text-right">{((s.endS - s.startS) / 60).toFixed(1)}</td>
+                      <td className="num text-right">{flowOut(s.flowM3PerS, units).toFixed(2)}</td>
+                      <td className="num text-right">{tempOut(s.inletC, units).toFixed(1)}</td>
+                      <td className="num text-right">{tempOut(s.outletC, units).toFixed(1)}</td>
+                      <td className="num text-right">{dtOut(s.outletC - s.inletC, units).toFixed(1)}</td>
                     </tr>
                   ))}
                 </tbody>
               </table>
             </div>
-          );
-        else body = <p className="text-sm text-ink-muted">This block kind is not shown yet.</p>;
-      }
-    }
-    out.push(
-      <section key={b.id} id={`block-${b.id}`} className="card p-5" aria-label={`${b.kind} block`} data-block={b.kind}>
-        {body}
-      </section>,
-    );
+          ) : (
+            <p className="text-sm text-ink-muted">No steady segment in this log.</p>
+          )}
+        </div>
+      );
   }
-  return <div className="space-y-5">{out}</div>;
+}
+
+const hours = (s: number) => (s >= 3600 ? `${(s / 3600).toFixed(1)} h` : `${(s / 60).toFixed(0)} min`);
+const THERM_J = 105_505_585.262; // 100,000 Btu_IT (NIST SP 811)
+/** Money to the cent, or to a tenth of a cent below one unit (a useful kWh costs cents). */
+const money = (v: number, c: string) => `${v.toLocaleString('en-US', { minimumFractionDigits: 2, maximumFractionDigits: Math.abs(v) < 1 ? 3 : 2 })} ${c}`;
+
+/** The cost-sheet block: running cost per useful heat, per degree and of the heat-up, with its cautions. */
+function CostSheet({ cost: c, units }: { cost: CostView; units: Units }) {
+  const us = units === 'us';
+  const rows: [string, string][] = [
+    [`${c.fuelLabel} price`, `${money(c.price, c.currency)} per ${c.priceUnit}`],
+    [c.efficiencyIsCop ? 'COP' : 'Efficiency (HHV)', c.efficiencyIsCop ? c.efficiency.toFixed(2) : `${(c.efficiency * 100).toFixed(0)} %`],
+    ['Per useful therm (100,000 Btu delivered)', money(c.perUsefulTherm, c.currency)],
+    ['Per useful kWh', money(c.perUsefulKWh, c.currency)],
+  ];
+  if (c.perDegF !== null && c.perK !== null) rows.push([`Per degree of the pool (${us ? '°F' : 'K'})`, money(us ? c.perDegF : c.perK, c.currency)]);
+  if (c.volumeM3 !== null && c.riseK !== null) {
+    rows.push(['Heat-up', `${dtOut(c.riseK, units).toFixed(1)} ${dtUnit(units)} rise of ${volOut(c.volumeM3, units).toLocaleString('en-US', { maximumFractionDigits: 0 })} ${volUnit(units)}`]);
+  }
+  rows.push(
+    ['Useful heat', us ? `${(c.heatJ / THERM_J).toLocaleString('en-US', { maximumFractionDigits: 1 })} therm` : `${(c.heatJ / 3.6e6).toLocaleString('en-US', { maximumFractionDigits: 1 })} kWh`],
+    [`${c.fuelLabel} for that heat`, `${c.fuelQuantity.toLocaleString('en-US', { maximumFractionDigits: 1 })} ${c.priceUnit}`],
+    ['Cost of that heat', money(c.heatCost, c.currency)],
+  );
+  return (
+    <div className="space-y-3">
+      <p className="text-sm text-ink-soft">
+        <strong className="text-ink">Running cost: {c.fuelLabel.toLowerCase()}</strong> — heat from {c.heatBasis}.
+      </p>
+      <table className="data-table" data-testid="cost-sheet">
+        <tbody>
+          {rows.map(([k, v]) => (
+            <tr key={k}>
+              <th scope="row" className="text-left font-normal">
+                {k}
+              </th>
+              <td className="num text-right">{v}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      <div className="rounded-lg border border-caution-line bg-caution-bg p-3 text-sm text-caution-text">
+        <ul className="list-disc space-y-1 pl-5">
+          {c.cautions.map((t) => (
+            <li key={t}>{t}</li>
+          ))}
+        </ul>
+      </div>
+      <p className="text-xs text-ink-muted">Heat content and default efficiency: {c.source}</p>
+    </div>
+  );
 }

@@ -8,6 +8,7 @@ import { z } from 'zod';
 import { PRESETS, resolveCriteria, segmentLog, segmentStats, type PresetName, type SegmentStats, type SteadyCriteria } from '@/analysis/segment';
 import { ImportError, confirmedMappingSchema, createSensorLogBuilder, openDelimited, type RowIssue, type SensorLog } from './import';
 import { getObjectStream } from './storage';
+import { writeSensorOverview } from './sensor-overview';
 
 /**
  * Sensor-log import: the stored file is streamed from object storage, parsed in row batches,
@@ -269,6 +270,7 @@ export async function importSensorLog(target: SensorImportTarget, input: LogImpo
     const channels = { timeS: t.done(), inletTempC: tin.done(), outletTempC: tout.done(), flowM3PerS: q.done(), ambientTempC: hasAmbient ? amb.done() : null };
     if (hasAmbient) for (let i = 0; i < channels.timeS.length; i++) if (Number.isNaN(channels.ambientTempC![i])) { channels.ambientTempC = null; break; }
     const seg = segmentLog(channels, criteria);
+    await writeSensorOverview(client, { fileId, rigId, startEpochS: t0Epoch! }, channels, seg);
     const ln = lines.done();
     const pieces: { a: number; b: number; st: SegmentStats; extra: Record<string, unknown> }[] = [];
     if (input.segments) {

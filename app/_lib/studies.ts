@@ -4,6 +4,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
 import { ShareLink, Study, type LabRow, type ShareLinkRow, type StudyRow, type UserRow } from '@/entities';
 import { BLOCK_KINDS, type StudyBlock } from '@/entities/study';
+import { costBlockData } from './cost-block';
 import { conflict, HttpError, notFound } from './errors';
 import type { Action } from './permissions';
 import type { Member, RouteContext } from './route';
@@ -21,6 +22,13 @@ export const blockSchema = z
     if (b.kind === 'text' && typeof b.data.markdown === 'string' && b.data.markdown.length > 50_000) ctx.addIssue({ code: 'custom', message: 'A text block holds at most 50,000 characters.' });
     if (['fit', 'comparison', 'performance', 'trials'].includes(b.kind) && b.data.fitId !== undefined && (typeof b.data.fitId !== 'string' || !UUID.test(b.data.fitId))) {
       ctx.addIssue({ code: 'custom', path: ['data', 'fitId'], message: 'Pick a saved fit.' });
+    }
+    if (b.kind === 'sensor-log' && b.data.sourceFileId !== undefined && (typeof b.data.sourceFileId !== 'string' || !UUID.test(b.data.sourceFileId))) {
+      ctx.addIssue({ code: 'custom', path: ['data', 'sourceFileId'], message: 'Pick an imported sensor log.' });
+    }
+    if (b.kind === 'costs') {
+      const c = costBlockData.safeParse(b.data);
+      if (!c.success) for (const i of c.error.issues) ctx.addIssue({ code: 'custom', path: ['data', ...i.path.map(String)], message: `Cost sheet: ${i.path.join('.') || 'settings'}: ${i.message}` });
     }
   });
 
@@ -108,6 +116,15 @@ export async function sharedStudy(em: EntityManager, token: string) {
   const link = await em.findOne(ShareLink, { tokenHash: sha256(token) }, { populate: ['study', 'lab'] });
   if (!link || link.revokedAt || link.expiresAt <= new Date()) return null;
   return link;
+}
+
+/**
+ * The units of the public share view: the reader's explicit choice (`?units=si|us`), else a
+ * signed-in reader's own preference, else SI.
+ */
+export function shareUnits(param: string | null | undefined, preference?: 'si' | 'us' | null): 'si' | 'us' {
+  if (param === 'si' || param === 'us') return param;
+  return preference === 'us' ? 'us' : 'si';
 }
 
 export function assertEditable(study: StudyRow) {

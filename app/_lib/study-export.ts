@@ -3,7 +3,8 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { Fit, Rig, type StudyRow } from '@/entities';
 import type { FitSuccess } from '@/analysis/fit';
 import type { PerformanceTable } from '@/analysis/performance/performance-table';
-import { STUDY_SHEETS, studyCsv, studyWorkbook, type FitExport, type PerformanceExport, type StudyExport, type StudySheetName, type TrialExportRow } from './export';
+import { STUDY_SHEETS, studyCsv, studyWorkbook, type FitExport, type PerformanceExport, type RunningCostExport, type StudyExport, type StudySheetName, type TrialExportRow } from './export';
+import { CostInputError, costExport, costView } from './cost-block';
 import { HttpError } from './errors';
 import { modelLabel, SOFTWARE_VERSION } from './fit-analysis';
 
@@ -27,7 +28,7 @@ export async function studyFits(em: EntityManager, study: StudyRow) {
   return ids.map((id) => rows.find((r) => r.id === id)).filter((r): r is NonNullable<typeof r> => !!r);
 }
 
-/** The study's tables (Summary with provenance, Trials, Fit, Residuals, Performance) as export data. */
+/** The study's tables (Summary with provenance, Trials, Fit, Residuals, Performance, Costs of its cost-sheet blocks) as export data. */
 export async function studyExportData(em: EntityManager, study: StudyRow, labName: string, unitSystem: 'si' | 'us'): Promise<StudyExport> {
   const fits = await studyFits(em, study);
   const rigs = fits.length ? await em.find(Rig, { id: { $in: fits.map((f) => f.rig.id) } }) : [];
@@ -43,6 +44,18 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
     fitExports.push({ label, fit: r.fit, pointIds: r.trials.map((t) => t.id) });
     performance.push({ label, table: r.performance });
   }
+  const running: RunningCostExport[] = [];
+  const notes = [`Study revision ${study.revision}, review state: ${study.reviewState}.`];
+  study.blocks.forEach((b, i) => {
+    if (b.kind !== 'costs') return;
+    const label = `Cost sheet (block ${i + 1})`;
+    try {
+      running.push(costExport(label, costView(b.data, study.blocks)));
+    } catch (e) {
+      if (!(e instanceof CostInputError)) throw e;
+      notes.push(`${label} cannot be computed: ${e.message}`);
+    }
+  });
   return {
     unitSystem,
     provenance: {
@@ -57,7 +70,8 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
     trials,
     fits: fitExports,
     performance,
-    notes: [`Study revision ${study.revision}, review state: ${study.reviewState}.`],
+    ...(running.length ? { costs: { currency: running[0].currency, running } } : {}),
+    notes,
   };
 }
 

@@ -20,6 +20,7 @@ interface Fixture {
   trialId: string;
   fitId: string;
   studyId: string;
+  cautionBlockId: string;
   ownerMemberId: string;
 }
 
@@ -193,6 +194,15 @@ const MATRIX: Record<string, Case[]> = {
     { method: 'GET', url: (f) => `/api/studies/${f.studyId}/shares`, expect: { ...writers(200), token: 403 } },
     { method: 'POST', url: (f) => `/api/studies/${f.studyId}/shares`, body: () => ({ days: 0 }), expect: { ...writers(422), token: 403 } },
   ],
+  'app/api/studies/[studyId]/blocks/[blockId]/route.ts': [
+    // a new study's second block is its caution box (newStudy in app/_lib/studies.ts)
+    { method: 'GET', url: (f) => `/api/studies/${f.studyId}/blocks/${f.cautionBlockId}`, expect: { ...members(200), token: 200 } },
+    { method: 'GET', url: (f) => `/api/studies/${f.studyId}/blocks/no-such-block`, expect: { ...members(404), token: 404 } },
+  ],
+  'app/api/share/[token]/blocks/[blockId]/route.ts': [
+    // valid links are checked in test/app/study-blocks.test.ts; here anyone, signed in or not, meets the same 404
+    { method: 'GET', url: (f) => `/api/share/shr_not-a-real-token/blocks/${f.cautionBlockId}`, expect: { ...all(404), token: 404 } },
+  ],
   'app/api/studies/[studyId]/export/route.ts': [{ method: 'GET', url: (f) => `/api/studies/${f.studyId}/export`, expect: { ...members(200), token: 200 } }],
   'app/api/shares/[shareId]/route.ts': [{ method: 'DELETE', url: () => `/api/shares/${uuid0}`, expect: { ...members(404, 401, 404), token: 403 } }],
   'app/api/share/[token]/export/route.ts': [{ method: 'GET', url: () => '/api/share/shr_not-a-real-token/export', expect: { ...all(404), token: 404 } }],
@@ -297,7 +307,8 @@ describe('authorization matrix', () => {
     expect(saved.status, saved.text).toBe(201);
     const study = await owner.post(`/api/labs/${lab.id}/studies`, { title: 'matrix study' });
     expect(study.status, study.text).toBe(201);
-    fx = { labId: lab.id, rigId: demoRig.id, trialId: trials.body.trials[0].id, fitId: saved.body.fit.id, studyId: study.body.study.id, ownerMemberId: mem.body.members.find((m: { role: string }) => m.role === 'owner').id };
+    const cautionBlockId = (await owner.get(`/api/studies/${study.body.study.id}`)).body.study.blocks.find((b: { kind: string }) => b.kind === 'caution').id;
+    fx = { labId: lab.id, rigId: demoRig.id, trialId: trials.body.trials[0].id, fitId: saved.body.fit.id, studyId: study.body.study.id, cautionBlockId, ownerMemberId: mem.body.members.find((m: { role: string }) => m.role === 'owner').id };
     const engineer = await clientFor('engineer', false);
     const tok = await engineer.post('/api/tokens', { name: 'matrix token', labId: fx.labId });
     expect(tok.status).toBe(201);

@@ -106,6 +106,25 @@ export function costsSheet(c: CostExport, system: UnitSystem): SheetSpec {
       ? { section: 'Running', item: 'Cost per degree of the pool', amount: c.perDegree.perDegF, per: `${cur}/°F` }
       : { section: 'Running', item: 'Cost per degree of the pool', amount: c.perDegree.perK, per: `${cur}/K` });
   }
+  for (const r of c.running ?? []) {
+    const m = r.currency, energy = displayUnit('energy', system).label;
+    rows.push(
+      { section: 'Running', group: r.label, item: `Price (${r.fuel})`, quantity: 1, unitCost: r.price, amount: r.price, per: `${m}/${r.priceUnit}` },
+      { section: 'Running', group: r.label, item: r.fuel === 'heat-pump' ? 'COP' : 'Efficiency (HHV)', amount: r.efficiency, per: '' },
+      { section: 'Running', group: r.label, item: 'Cost per useful therm (100,000 Btu delivered)', amount: r.perUsefulTherm, per: `${m}/therm` },
+      { section: 'Running', group: r.label, item: 'Cost per useful kWh', amount: r.perUsefulKWh, per: `${m}/kWh` },
+    );
+    if (r.perDegF !== null && r.perK !== null) {
+      rows.push(system === 'us'
+        ? { section: 'Running', group: r.label, item: 'Cost per degree of the pool', amount: r.perDegF, per: `${m}/°F` }
+        : { section: 'Running', group: r.label, item: 'Cost per degree of the pool', amount: r.perK, per: `${m}/K` });
+    }
+    rows.push(
+      { section: 'Running', group: r.label, item: `Useful heat (${r.heatBasis})`, amount: toDisplay(r.heatJ, 'energy', system), per: energy },
+      { section: 'Running', group: r.label, item: 'Fuel for that heat', amount: r.fuelQuantity, per: r.priceUnit },
+      { section: 'Running', group: r.label, item: 'Cost of that heat', amount: r.heatCost, per: m },
+    );
+  }
   if (c.payback) {
     const p = c.payback;
     rows.push(
@@ -116,6 +135,6 @@ export function costsSheet(c: CostExport, system: UnitSystem): SheetSpec {
       { section: 'Payback', item: 'Capital per useful therm over the life', amount: p.capitalPerUsefulTherm, per: `${cur}/therm` },
     );
   }
-  const notes = c.usefulHeat || c.perDegree ? ['Running costs exclude losses during heat-up; heat content on the higher heating value (HHV).'] : [];
+  const notes = c.usefulHeat || c.perDegree || c.running?.length ? ['Running costs exclude losses during heat-up; heat content on the higher heating value (HHV).'] : [];
   return { name: 'Costs', columns, rows, notes };
 }

@@ -103,6 +103,30 @@ export interface CostExport {
   /** from costPerDegree (analysis/cost/useful-heat-cost) */
   perDegree?: { perDegF: number; perK: number };
   payback?: Payback;
+  /** running costs of a study's cost-sheet blocks, one group each (money in each one's own currency) */
+  running?: RunningCostExport[];
+}
+
+/** One running-cost figure set (a study's cost-sheet block): SI energy, money in `currency`. */
+export interface RunningCostExport {
+  label: string;
+  fuel: FuelKind;
+  currency: string;
+  /** price per `priceUnit` (therm, gal, kWh, cord) */
+  price: number;
+  priceUnit: string;
+  /** η 0–1, or the COP of a heat pump */
+  efficiency: number;
+  perUsefulTherm: number;
+  perUsefulKWh: number;
+  perDegF: number | null;
+  perK: number | null;
+  /** useful heat of the heat-up, J */
+  heatJ: number;
+  heatCost: number;
+  /** fuel bought for that heat, in `priceUnit` */
+  fuelQuantity: number;
+  heatBasis: string;
 }
 
 /** Everything a study export can hold; each part gives its sheet when present. */

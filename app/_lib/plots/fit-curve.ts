@@ -7,6 +7,9 @@ import * as Plot from '@observablehq/plot';
 import { predictAt, type BandPoint, type FitSuccess } from '../../../analysis/fit';
 import { CAUTION_THRESHOLDS_C } from '../../../analysis/safety/cautions';
 import { baseOptions, COLORS, DASHES, MODEL_STROKES, type PlotFigure } from './theme';
+
+/** Trials with a hover tooltip each, at most. */
+export const TOOLTIP_MAX_TRIALS = 300;
 import { displayUnits, fmt, sentences, withUnit, type UnitSystem } from './units';
 
 /** One trial, SI: flow m³/s, outlet °C. */
@@ -159,6 +162,8 @@ export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { wi
   const excluded = input.trials.filter((t) => t.excluded);
   const tip = (t: FitCurveTrial) => `${t.label ? `${t.label}: ` : ''}${withUnit(t.flowM3PerS, u.flow)}, ${withUnit(t.outletC, u.temp)}${t.excluded ? ' (excluded from the fit)' : ''}`;
   const dots = (rows: FitCurveTrial[]) => rows.map((t) => ({ x: F(t.flowM3PerS), y: T(t.outletC), tip: tip(t) }));
+  // A tooltip per dot helps with tens of trials; among hundreds the dots overlap and the tooltips only weigh the page.
+  const dotTitle = input.trials.length <= TOOLTIP_MAX_TRIALS ? 'tip' : undefined;
   const reps = input.replicates.filter((r) => r.n >= 2 && r.sdK !== null).map((r) => ({
     x: F(r.flowM3PerS), y: T(r.meanC), y1: T(r.meanC - (r.sdK as number)), y2: T(r.meanC + (r.sdK as number)),
     tip: `mean of ${r.n} replicates at ${withUnit(r.flowM3PerS, u.flow)}: ${withUnit(r.meanC, u.temp)} ± ${withUnit(r.sdK as number, u.tempDiff, 2)} (SD)`,
@@ -187,8 +192,8 @@ export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { wi
     }),
     Plot.ruleX(reps, { x: 'x', y1: 'y1', y2: 'y2', stroke: COLORS.ink, strokeWidth: 1.25, marker: 'tick', ariaDescription: 'replicate error bars' }),
     Plot.dot(reps, { x: 'x', y: 'y', symbol: 'diamond', r: 4, fill: COLORS.paper, stroke: COLORS.ink, strokeWidth: 1.5, title: 'tip', ariaDescription: 'replicate means' }),
-    Plot.dot(dots(excluded), { x: 'x', y: 'y', r: 4.5, fill: 'none', stroke: COLORS.inkSoft, strokeWidth: 1.5, title: 'tip', ariaDescription: 'excluded trials' }),
-    Plot.dot(dots(included), { x: 'x', y: 'y', r: 4, fill: COLORS.point, stroke: 'white', strokeWidth: 1.25, title: 'tip', ariaDescription: 'trials' }),
+    Plot.dot(dots(excluded), { x: 'x', y: 'y', r: 4.5, fill: 'none', stroke: COLORS.inkSoft, strokeWidth: 1.5, title: dotTitle, ariaDescription: 'excluded trials' }),
+    Plot.dot(dots(included), { x: 'x', y: 'y', r: 4, fill: COLORS.point, stroke: 'white', strokeWidth: 1.25, title: dotTitle, ariaDescription: 'trials' }),
   ];
 
   const title = `Outlet temperature against flow${primary ? ` — ${input.models.map((m) => m.label).join(', ')}` : ''}`;

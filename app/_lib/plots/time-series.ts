@@ -1,10 +1,19 @@
 /**
  * A sensor log (already reduced for display) with its steady segments shaded and numbered: inlet
- * and outlet temperatures in one panel, flow in a second panel on the same time axis.
+ * and outlet temperatures in one panel, flow in a second panel on the same time axis. A long log's
+ * many segments are drawn at the plot's resolution (neighbours closer than 2 px share a band,
+ * numbers only up to 30 segments) and summarised by count and duration.
  */
 import * as Plot from '@observablehq/plot';
 import { baseOptions, COLORS, type PlotFigure } from './theme';
 import { displayUnits, fmt, sentences, type UnitSystem } from './units';
+
+/** Gaps between steady segments narrower than this, in CSS px, are not drawn (one band). */
+const MERGE_PX = 2;
+/** Segments are numbered on the plot up to this many. */
+const LABEL_MAX = 30;
+/** The summary names each segment up to this many, then gives their count and range. */
+const LIST_MAX = 12;
 
 /** One logged (or reduced) sample, SI. Missing readings are null. */
 export interface LogPoint {
@@ -55,26 +64,35 @@ export function timeSeriesSegmentsPlot(input: TimeSeriesInput, units: UnitSystem
   const t0 = input.points[0]?.tS ?? 0;
   const t1 = input.points[input.points.length - 1]?.tS ?? 0;
   xOpts.domain = [at(t0), at(t1)];
-  // periods outside the plotted stretch are left out, those across its ends cut at them
-  const all = input.segments
+  const width = size.width ?? 720;
+  // Periods outside the plotted stretch are left out, those across its ends cut at them. Kept
+  // segments closer together than the plot can show (under MERGE_PX apart) share one shaded band,
+  // and numbers are written only while they fit: a long log holds hundreds of segments.
+  const pxPerS = (width - 80) / Math.max(spanS, 1e-9);
+  const inView = input.segments
     .map((s, i) => ({ ...s, label: s.label ?? String(i + 1) }))
     .filter((s) => s.endS >= t0 && s.startS <= t1)
-    .map((s) => {
-      const a = Math.max(s.startS, t0), b = Math.min(s.endS, t1);
-      return { x1: at(a), x2: at(b), mid: at((a + b) / 2), label: s.label, muted: !!s.muted };
-    });
-  const segs = all.filter((s) => !s.muted);
-  const muted = all.filter((s) => s.muted);
+    .map((s) => ({ ...s, startS: Math.max(s.startS, t0), endS: Math.min(s.endS, t1) }));
+  const keptInView = inView.filter((s) => !s.muted);
+  const bands: { startS: number; endS: number; label: string }[] = [];
+  for (const s of keptInView) {
+    const last = bands[bands.length - 1];
+    if (last && (s.startS - last.endS) * pxPerS < MERGE_PX) last.endS = Math.max(last.endS, s.endS);
+    else bands.push({ startS: s.startS, endS: s.endS, label: s.label });
+  }
+  const numbered = bands.length === keptInView.length && bands.length <= LABEL_MAX;
+  const box = (s: { startS: number; endS: number; label: string }) => ({ x1: at(s.startS), x2: at(s.endS), mid: at((s.startS + s.endS) / 2), label: s.label });
+  const segs = bands.map(box);
+  const muted = inView.filter((s) => s.muted).map(box);
   const shade = (): Plot.Markish[] => [
     ...(muted.length
       ? [
           Plot.rect(muted, { x1: 'x1', x2: 'x2', fill: COLORS.inkMuted, fillOpacity: 0.06, stroke: COLORS.inkMuted, strokeOpacity: 0.35, strokeDasharray: '3,3', ariaDescription: 'dropped or rejected periods' }),
-          ...(muted.length <= 40 ? [Plot.text(muted, { x: 'mid', text: 'label', frameAnchor: 'top', dy: 8, fill: COLORS.inkMuted, ariaDescription: 'dropped period labels' })] : []),
+          ...(muted.length <= LABEL_MAX ? [Plot.text(muted, { x: 'mid', text: 'label', frameAnchor: 'top', dy: 8, fill: COLORS.inkMuted, ariaDescription: 'dropped period labels' })] : []),
         ]
       : []),
     Plot.rect(segs, { x1: 'x1', x2: 'x2', fill: COLORS.water, fillOpacity: 0.1, ariaDescription: 'steady segments' }),
-    // numbers only while they can be read (at most 40 periods in view)
-    ...(segs.length <= 40 ? [Plot.text(segs, { x: 'mid', text: 'label', frameAnchor: 'top', dy: 8, fill: COLORS.water, fontWeight: 600, ariaDescription: 'segment numbers' })] : []),
+    ...(numbered ? [Plot.text(segs, { x: 'mid', text: 'label', frameAnchor: 'top', dy: 8, fill: COLORS.water, fontWeight: 600, ariaDescription: 'segment numbers' })] : []),
   ];
   const series = (pick: (p: LogPoint) => number | null, conv: (v: number) => number) =>
     input.points.map((p) => {
@@ -88,8 +106,12 @@ export function timeSeriesSegmentsPlot(input: TimeSeriesInput, units: UnitSystem
   const kept = input.segments.map((s, i) => ({ ...s, label: s.label ?? String(i + 1) })).filter((s) => !s.muted && s.endS >= t0 && s.startS <= t1);
   const k = kept.length;
   const duration = spanS >= 3600 ? `${fmt(spanS / 3600, 3)} h` : `${fmt(spanS / 60, 3)} min`;
-  const listed = kept.slice(0, 12).map((s) => `${s.label} (${fmt((s.endS - s.startS) / 60, 3)} min)`).join(', ') + (k > 12 ? ` and ${k - 12} more` : '');
-  const segWords = (k ? `${k} steady segment${k === 1 ? '' : 's'} shaded${k <= 40 ? ' and numbered' : ''}: ${listed}` : 'no steady segment found') +
+  const minutes = kept.map((s) => (s.endS - s.startS) / 60);
+  const segWords = (!k
+    ? 'no steady segment found'
+    : k <= LIST_MAX
+      ? `${k} steady segment${k === 1 ? '' : 's'} shaded${numbered ? ' and numbered' : ''}: ${kept.map((s, i) => `${s.label} (${fmt(minutes[i], 3)} min)`).join(', ')}`
+      : `${k} steady segments shaded${numbered ? ' and numbered' : ''}, ${fmt(Math.min(...minutes), 3)} to ${fmt(Math.max(...minutes), 3)} min long${bands.length < keptInView.length ? `; segments closer than the plot can separate are drawn as one band (${bands.length} band${bands.length === 1 ? '' : 's'} in all)` : ''}`) +
     (muted.length ? `; ${muted.length} dropped or rejected period${muted.length === 1 ? '' : 's'} outlined in grey` : '');
   const range = (rows: { y: number | null }[]) => {
     const ys = rows.map((r) => r.y).filter((v): v is number => v !== null);
@@ -98,7 +120,6 @@ export function timeSeriesSegmentsPlot(input: TimeSeriesInput, units: UnitSystem
   const rOut = range(outlet);
   const rIn = range(inlet);
   const rFlow = range(flow);
-  const width = size.width ?? 720;
 
   const tTitle = 'Logged inlet and outlet temperatures';
   const tSummary = sentences([

@@ -2,9 +2,12 @@
 
 import { useRouter } from 'next/navigation';
 import { useEffect, useRef, useState } from 'react';
+import { useSWRConfig } from 'swr';
 import { api, ApiError } from '../../_components/api';
+import { studyBlockKey, studyKey, type StudyRecord } from '../../_components/study-block-types';
+import { CostSettings, SensorLogSettings, costDefaults } from './block-settings';
 
-type Kind = 'text' | 'trials' | 'fit' | 'comparison' | 'performance' | 'forecast' | 'caution';
+type Kind = 'text' | 'trials' | 'fit' | 'comparison' | 'performance' | 'forecast' | 'costs' | 'sensor-log' | 'caution';
 interface Block {
   id: string;
   kind: Kind;
@@ -23,22 +26,60 @@ const KINDS: { kind: Kind; label: string }[] = [
   { kind: 'performance', label: 'Performance table' },
   { kind: 'trials', label: 'Trial table' },
   { kind: 'forecast', label: 'Forecast' },
+  { kind: 'costs', label: 'Cost sheet' },
+  { kind: 'sensor-log', label: 'Sensor log' },
   { kind: 'caution', label: 'Caution box' },
 ];
 const label = (k: Kind) => KINDS.find((x) => x.kind === k)?.label ?? k;
 const newId = () => Math.random().toString(36).slice(2, 10);
 
 /**
- * Edits a study's blocks and saves automatically against the revision it loaded. When someone
- * else saved in between, nothing is overwritten: the conflict is shown with a choice.
+ * The ids of the blocks whose shown data changes from `before` to `after`: new or edited blocks,
+ * and cost sheets that take their heat from an edited forecast block. Moved or deleted blocks
+ * need no new data.
  */
-export function StudyEditor({ studyId, initial, fits, units }: { studyId: string; initial: StudyState; fits: { id: string; label: string; coil: boolean }[]; units: 'si' | 'us' }) {
+export function changedBlocks(before: readonly Block[], after: readonly Block[]): string[] {
+  const old = new Map(before.map((b) => [b.id, JSON.stringify([b.kind, b.data])]));
+  const changed = new Set(after.filter((b) => old.get(b.id) !== JSON.stringify([b.kind, b.data])).map((b) => b.id));
+  for (const b of after) if (b.kind === 'costs' && changed.has(String(b.data.forecastBlockId))) changed.add(b.id);
+  return [...changed];
+}
+
+/**
+ * Edits a study's blocks and saves automatically against the revision it loaded. When someone
+ * else saved in between, nothing is overwritten: the conflict is shown with a choice. After a save
+ * the study's SWR entry takes the saved version and only the blocks whose settings changed fetch
+ * their data again.
+ */
+export function StudyEditor({ studyId, initial, initialReviewState, fits, logs, units }: {
+  studyId: string;
+  initial: StudyState;
+  initialReviewState: string;
+  fits: { id: string; label: string; coil: boolean }[];
+  logs: { id: string; label: string }[];
+  units: 'si' | 'us';
+}) {
   const router = useRouter();
+  const { mutate } = useSWRConfig();
   const [s, setS] = useState<StudyState>(initial);
   const [status, setStatus] = useState<'saved' | 'pending' | 'saving' | 'conflict' | 'error'>('saved');
   const [message, setMessage] = useState<string | null>(null);
-  const [theirs, setTheirs] = useState<StudyState | null>(null);
+  const [theirs, setTheirs] = useState<StudyRecord['study'] | null>(null);
   const dirty = useRef(false);
+  /** the blocks as last saved (or taken from the other editor), to find what changed */
+  const shown = useRef<Block[]>(initial.blocks);
+
+  /** Puts a saved version into the study's SWR entry and refreshes the blocks it changed. */
+  const reviewState = useRef(initialReviewState);
+  const publish = (study: StudyRecord['study']) => {
+    const changed = changedBlocks(shown.current, study.blocks as Block[]);
+    shown.current = study.blocks as Block[];
+    void mutate(studyKey(studyId), (old?: StudyRecord) => ({ ...old, study }), { revalidate: false });
+    for (const id of changed) void mutate(studyBlockKey(studyId, id));
+    // an edit sends an approved study back to draft: the review panel (server-rendered) shows it
+    if (study.reviewState !== reviewState.current) router.refresh();
+    reviewState.current = study.reviewState;
+  };
 
   const change = (next: Partial<StudyState>) => {
     setS((old) => ({ ...old, ...next }));
@@ -62,25 +103,26 @@ export function StudyEditor({ studyId, initial, fits, units }: { studyId: string
       dirty.current = false;
       setStatus('saving');
       try {
-        const r = await api<{ study: StudyState }>(`/api/studies/${studyId}`, { method: 'PUT', body: { title: s.title, blocks: s.blocks, baseRevision: s.revision } });
+        const r = await api<StudyRecord>(`/api/studies/${studyId}`, { method: 'PUT', body: { title: s.title, blocks: s.blocks, baseRevision: s.revision } });
         setS((old) => ({ ...old, revision: r.study.revision }));
         setStatus(dirty.current ? 'pending' : 'saved');
         setMessage(null);
-        router.refresh();
+        publish(r.study);
       } catch (e) {
         if (e instanceof ApiError && e.status === 409 && e.body.current) {
-          setTheirs(e.body.current as StudyState);
+          setTheirs(e.body.current as StudyRecord['study']);
           setStatus('conflict');
           setMessage(e.message);
         } else {
           setStatus('error');
-          setMessage(e instanceof ApiError ? e.message : 'Not saved: the server could not be reached. Your edits stay here; they save when it answers.');
+          setMessage(e instanceof ApiError ? [e.message, ...Object.values(e.fields)].join(' ') : 'Not saved: the server could not be reached. Your edits stay here; they save when it answers.');
           dirty.current = true;
         }
       }
     }, 800);
     return () => clearTimeout(t);
-  }, [status, s, studyId, router]);
+    // publish is recreated each render and reads only refs, the stable mutate and the router
+  }, [status, s, studyId]); // eslint-disable-line react-hooks/exhaustive-deps
 
   const forecastDefaults = (): Record<string, unknown> => ({
     poolVolume: units === 'us' ? '15000 gal' : '57 m^3',
@@ -91,6 +133,23 @@ export function StudyEditor({ studyId, initial, fits, units }: { studyId: string
     ...(fits.find((f) => f.coil) ? { fitId: fits.find((f) => f.coil)!.id } : { heater: { model: 'coil', sourceTemp: '90 degC', UA: '500 W/K' } }),
     losses: false,
   });
+
+  const newData = (kind: Kind): Record<string, unknown> => {
+    switch (kind) {
+      case 'forecast':
+        return forecastDefaults();
+      case 'text':
+        return { markdown: '' };
+      case 'caution':
+        return {};
+      case 'costs':
+        return costDefaults(units, [...s.blocks].reverse().find((b) => b.kind === 'forecast')?.id ?? null);
+      case 'sensor-log':
+        return logs[0] ? { sourceFileId: logs[0].id } : {};
+      default:
+        return fits[0] ? { fitId: fits[0].id } : {};
+    }
+  };
 
   return (
     <section className="card space-y-4 p-4" aria-label="Edit study">
@@ -107,11 +166,11 @@ export function StudyEditor({ studyId, initial, fits, units }: { studyId: string
             type="button"
             className="btn-quiet"
             onClick={() => {
-              setS(theirs);
+              setS({ title: theirs.title, blocks: theirs.blocks as Block[], revision: theirs.revision });
               setTheirs(null);
               setStatus('saved');
               setMessage(null);
-              router.refresh();
+              publish(theirs);
             }}
           >
             Take their version (drop mine)
@@ -181,6 +240,10 @@ export function StudyEditor({ studyId, initial, fits, units }: { studyId: string
                   </select>
                 </label>
               </div>
+            ) : b.kind === 'costs' ? (
+              <CostSettings n={i + 1} data={b.data} set={(d) => setData(i, d)} units={units} forecasts={s.blocks.map((x, j) => ({ id: x.id, kind: x.kind, n: j + 1 })).filter((x) => x.kind === 'forecast')} />
+            ) : b.kind === 'sensor-log' ? (
+              <SensorLogSettings n={i + 1} data={b.data} set={(d) => setData(i, d)} logs={logs} />
             ) : (
               <select aria-label={`Saved fit of block ${i + 1}`} className="field-input" value={String(b.data.fitId ?? '')} onChange={(e) => setData(i, { fitId: e.target.value || undefined })}>
                 <option value="">Choose a saved fit…</option>
@@ -201,7 +264,7 @@ export function StudyEditor({ studyId, initial, fits, units }: { studyId: string
             type="button"
             className="btn-quiet"
             onClick={() =>
-              change({ blocks: [...s.blocks, { id: newId(), kind: k.kind, data: k.kind === 'forecast' ? forecastDefaults() : k.kind === 'text' ? { markdown: '' } : fits[0] && k.kind !== 'caution' ? { fitId: fits[0].id } : {} }] })
+              change({ blocks: [...s.blocks, { id: newId(), kind: k.kind, data: newData(k.kind) }] })
             }
           >
             + {k.label}

@@ -1,14 +1,18 @@
 import { notFound } from 'next/navigation';
+import { SWRConfig } from 'swr';
 import { Fit, ShareLink, Study } from '@/entities';
 import { AppPage } from '../../_components/app-page';
 import { ReviewPanel } from '../../_components/review-panel';
 import { StudyBlocks } from '../../_components/study-blocks';
+import { studyBlockKey, studyKey, type StudyRecord } from '../../_components/study-block-types';
 import { reviewTrail } from '../../_lib/fits';
 import { modelLabel } from '../../_lib/fit-analysis';
 import { UUID } from '../../_lib/rigs';
-import { shareDto } from '../../_lib/studies';
+import { sensorLogsOf, studyBlocksData } from '../../_lib/study-blocks';
+import { shareDto, studyDto } from '../../_lib/studies';
 import { requireLabAction } from '../../_lib/viewer';
 import { StudyEditor } from './editor';
+import { StudyLead } from './lead';
 import { ShareManager } from './shares';
 
 export const metadata = { title: 'Study' };
@@ -21,14 +25,22 @@ export default async function StudyPage({ params, searchParams }: { params: Prom
   const study = UUID.test(studyId) ? await v.em.findOne(Study, { id: studyId, lab: v.current.lab }, { populate: ['updatedBy', 'createdBy'] }) : null;
   if (!study) notFound();
   const canEdit = v.can('study:write') && study.reviewState !== 'in-review';
-  const fits = canEdit ? await v.em.find(Fit, { lab: v.current.lab }, { populate: ['rig'], orderBy: { createdAt: 'desc' }, limit: 100 }) : [];
+  const editing = !!edit && canEdit;
+  const fits = editing ? await v.em.find(Fit, { lab: v.current.lab }, { populate: ['rig'], orderBy: { createdAt: 'desc' }, limit: 100 }) : [];
+  const logs = editing ? await sensorLogsOf(v.em, v.current.lab) : [];
   const trail = await reviewTrail(v.em, 'study', study.id);
   const shares = v.can('share:manage') ? await v.em.find(ShareLink, { study }, { orderBy: { createdAt: 'desc' } }) : [];
+  // The first paint is complete: the study and every block's data go to the client as the SWR
+  // fallback under the same keys the hooks use, so nothing is fetched until the editor changes a block.
+  const blocks = await studyBlocksData({ em: v.em, lab: v.current.lab, study, units: v.user.unitSystem, publicView: false });
+  const fallback: Record<string, unknown> = { [studyKey(study.id)]: { study: studyDto(study) } satisfies StudyRecord };
+  for (const b of blocks) fallback[studyBlockKey(study.id, b.id)] = { block: b };
   return (
+    <SWRConfig value={{ fallback }}>
     <AppPage
       viewer={v}
       title={study.title}
-      lead={<>Revision {study.revision}, last saved {study.updatedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC by {study.updatedBy?.name ?? 'a former member'}.</>}
+      lead={<StudyLead studyId={study.id} />}
       actions={
         <>
           {canEdit && !edit ? (
@@ -49,15 +61,17 @@ export default async function StudyPage({ params, searchParams }: { params: Prom
     >
       <div className="grid gap-6 xl:grid-cols-[1fr_21rem]">
         <div className="min-w-0 space-y-5">
-          {edit && canEdit ? (
+          {editing ? (
             <StudyEditor
               studyId={study.id}
               initial={{ title: study.title, blocks: study.blocks as Parameters<typeof StudyEditor>[0]['initial']['blocks'], revision: study.revision }}
               fits={fits.map((f) => ({ id: f.id, label: `${f.rig.name}: ${f.title} v${f.version} (${modelLabel(f.model)})`, coil: f.model === 'coil' }))}
+              initialReviewState={study.reviewState}
+              logs={logs}
               units={v.user.unitSystem}
             />
           ) : null}
-          <StudyBlocks em={v.em} lab={v.current.lab} study={study} units={v.user.unitSystem} />
+          <StudyBlocks source={{ studyId: study.id }} />
         </div>
         <div className="space-y-5">
           <ReviewPanel
@@ -74,5 +88,6 @@ export default async function StudyPage({ params, searchParams }: { params: Prom
         </div>
       </div>
     </AppPage>
+    </SWRConfig>
   );
 }

@@ -51,8 +51,9 @@ export function group(doc: ReturnType<typeof parseSvg>, description: string) {
 }
 
 /**
- * Renders Plot options to an SVG string exactly as app/_lib/plot-svg.ts `plotToSvg` does (linkedom
- * document, xmlns and role on the root). A copy because vitest cannot load that file yet: its
+ * Renders Plot options to an SVG string as app/_lib/plot-svg.ts `plotToSvg` does (linkedom
+ * document, xmlns and role on the root), but without its rounding of the geometry to 0.1 px, so
+ * that the tests read exact positions (test/unit/plots/plot-svg.test.ts checks the rounding). A copy because vitest cannot load that file yet: its
  * `import 'server-only'` goes through the alias `server-only/empty.js`, which the package's
  * `exports` field refuses. Switch to plotToSvg once vitest.config.mts aliases the absolute path.
  */

@@ -43,3 +43,23 @@ describe('timeSeriesSegmentsPlot', () => {
     expect(svg).not.toMatch(/NaN/);
   });
 });
+
+describe('timeSeriesSegmentsPlot with the hundreds of segments of a long log', () => {
+  // An invented 12-day log drawn from 2,000 points: 800 segments of 1,000 s with 250-s transitions.
+  const long = Array.from({ length: 2000 }, (_, i) => ({ tS: i * 500, inletC: 15, outletC: 40 + (i % 7), flowM3PerS: 2e-4 }));
+  const many = Array.from({ length: 800 }, (_, i) => ({ startS: 250 + i * 1250, endS: 1250 + i * 1250 }));
+  const figs = timeSeriesSegmentsPlot({ points: long, segments: many }, 'si');
+
+  test('draws segments closer than the plot can show as one band, and numbers none', () => {
+    const { doc } = renderPlot(figs.temperatures.options);
+    const rects = group(doc, 'steady segments')[0].querySelectorAll('rect');
+    expect(rects.length).toBeGreaterThan(0);
+    expect(rects.length).toBeLessThan(800); // 250 s gaps are 0.16 px at 640 px for 1e6 s
+    expect(group(doc, 'segment numbers')).toHaveLength(0);
+  });
+
+  test('summarises them by count and duration instead of naming each', () => {
+    expect(figs.temperatures.summary).toMatch(/800 steady segments shaded, 16\.7 to 16\.7 min long; segments closer than the plot can separate are drawn as one band \(1 band in all\)/);
+    expect(figs.temperatures.summary.length).toBeLessThan(600);
+  });
+});

@@ -1,11 +1,11 @@
 import { notFound } from '@/app/_lib/errors';
 import { route } from '@/app/_lib/route';
 import { exportResponse, studyExportData } from '@/app/_lib/study-export';
-import { sharedStudy } from '@/app/_lib/studies';
+import { sharedStudy, shareUnits } from '@/app/_lib/studies';
 
-/** GET: the shared study as XLSX, for anyone holding a valid share link (SI units). */
+/** GET: the shared study as XLSX, for anyone holding a valid share link, in the units of the share view (`?units=si|us`). */
 export const GET = route<{ token: string }>({ auth: 'public' }, async (ctx) => {
   const link = await sharedStudy(ctx.em, ctx.params.token);
   if (!link) throw notFound('This share link has expired or was revoked.');
-  return exportResponse(await studyExportData(ctx.em, link.study, link.lab.name, 'si'), link.study.title, ctx.req.nextUrl.searchParams);
+  return exportResponse(await studyExportData(ctx.em, link.study, link.lab.name, shareUnits(ctx.req.nextUrl.searchParams.get('units'), ctx.actor?.user.unitSystem)), link.study.title, ctx.req.nextUrl.searchParams);
 });

@@ -1,0 +1,125 @@
+/**
+ * What the block-data routes return for one study block (plain JSON: numbers in SI, tables, and
+ * the server-rendered SVG of its plots in the reader's units), and the SWR keys of the study and
+ * its blocks. This module has no directive, so the server page (building the SWR `fallback`) and
+ * the client hooks share the one definition of each key.
+ */
+import type { ChoiceView, ComparisonView, FitView, PerformanceView } from './fit-report';
+import type { Units } from './units';
+
+/** A plot as the server rendered it (plotToSvg) with the words of its figcaption. */
+export interface PlotView {
+  title: string;
+  summary: string;
+  svg: string;
+}
+
+export interface CautionView {
+  code: string;
+  level: string;
+  message: string;
+}
+
+/** The saved fit a block shows; `fitId` is null on the public share view (no links into the lab). */
+export interface FitHead {
+  fitId: string | null;
+  title: string;
+  version: number;
+  label: string;
+  reviewState: string;
+}
+
+export interface CostView {
+  fuel: string;
+  fuelLabel: string;
+  currency: string;
+  price: number;
+  priceUnit: string;
+  /** η (0–1) or, for a heat pump, the COP */
+  efficiency: number;
+  efficiencyIsCop: boolean;
+  perUsefulTherm: number;
+  perUsefulKWh: number;
+  /** where the heat figure comes from, in words */
+  heatBasis: string;
+  /** water volume, m³ (null when the heat was given as energy) */
+  volumeM3: number | null;
+  /** the rise of the heat-up, K (null when the heat was given as energy) */
+  riseK: number | null;
+  perDegF: number | null;
+  perK: number | null;
+  /** useful heat of the heat-up (or the heat given), J */
+  heatJ: number;
+  heatCost: number;
+  /** fuel bought for that heat, in the price unit */
+  fuelQuantity: number;
+  source: string;
+  cautions: string[];
+}
+
+export interface SensorSegmentView {
+  startS: number;
+  endS: number;
+  inletC: number;
+  outletC: number;
+  flowM3PerS: number;
+}
+
+/** The body of a block, by what it shows. */
+export type BlockBody =
+  | { type: 'text'; html: string }
+  | { type: 'caution'; items: string[] }
+  | { type: 'fit'; head: FitHead; plot: PlotView; fit: FitView; choice: ChoiceView }
+  | { type: 'comparison'; head: FitHead; comparison: ComparisonView }
+  | { type: 'performance'; head: FitHead; table: PerformanceView }
+  | { type: 'trials'; head: FitHead; trials: { startedAt: string; flowM3PerS: number; inletC: number; outletC: number }[] }
+  | { type: 'forecast'; finalTempC: number; hoursToTarget: number | null; fitNote: string | null; cautions: CautionView[]; plot: PlotView }
+  | { type: 'costs'; cost: CostView }
+  | {
+      type: 'sensor-log';
+      rigName: string;
+      /** the log's file name; null on the public share view (no raw files there) */
+      filename: string | null;
+      startedAt: string;
+      samples: number;
+      shownPoints: number;
+      durationS: number;
+      /** the first SEGMENT_ROWS steady segments, for the table */
+      segments: SensorSegmentView[];
+      /** how many steady segments the log has in all */
+      segmentCount: number;
+      plots: PlotView[];
+    }
+  | { type: 'note'; tone: 'muted' | 'danger'; message: string };
+
+/** One block, ready to show. */
+export interface BlockData {
+  id: string;
+  kind: string;
+  units: Units;
+  body: BlockBody;
+}
+
+/** The study record the page and the editor share (GET /api/studies/:id). */
+export interface StudyRecord {
+  study: {
+    id: string;
+    title: string;
+    reviewState: string;
+    revision: number;
+    updatedAt: string;
+    updatedBy: string | null;
+    blocks: { id: string; kind: string; data: Record<string, unknown> }[];
+  };
+}
+
+/** Rows of a sensor-log block's segment table (the block says how many there are in all). */
+export const SEGMENT_ROWS = 50;
+
+/** SWR key of a study (lab members). */
+export const studyKey = (studyId: string) => `/api/studies/${studyId}`;
+/** SWR key of one block of a study, for lab members (in the member's own units). */
+export const studyBlockKey = (studyId: string, blockId: string) => `/api/studies/${studyId}/blocks/${encodeURIComponent(blockId)}`;
+/** SWR key of one block on the public share view, in the units the reader chose. */
+export const sharedBlockKey = (token: string, blockId: string, units: Units) =>
+  `/api/share/${encodeURIComponent(token)}/blocks/${encodeURIComponent(blockId)}?units=${units}`;

@@ -1,0 +1,15 @@
+import { notFound } from '@/app/_lib/errors';
+import { json, route } from '@/app/_lib/route';
+import { blockData } from '@/app/_lib/study-blocks';
+import { loadStudy } from '@/app/_lib/studies';
+
+type P = { studyId: string; blockId: string };
+
+/** GET: one block of the study as plain JSON (numbers, tables, server-rendered SVG) in the member's units. */
+export const GET = route<P>({ auth: 'user' }, async (ctx) => {
+  const { study, member } = await loadStudy(ctx, 'lab:read');
+  const block = study.blocks.find((b) => b.id === ctx.params.blockId);
+  if (!block) throw notFound('This study has no such block (it may have been deleted).');
+  const units = ctx.requireActor().user.unitSystem;
+  return json({ block: await blockData({ em: ctx.em, lab: member.lab, study, units, publicView: false }, block), revision: study.revision });
+});

@@ -1,0 +1,120 @@
+'use client';
+
+/** Settings of the cost-sheet and sensor-log blocks in the study editor. */
+
+type Data = Record<string, unknown>;
+
+const FUELS = [
+  { fuel: 'propane', label: 'Propane', unit: 'gal', eff: '0.82' },
+  { fuel: 'natural-gas', label: 'Natural gas', unit: 'therm', eff: '0.82' },
+  { fuel: 'electric-resistance', label: 'Electric resistance', unit: 'kWh', eff: '1' },
+  { fuel: 'heat-pump', label: 'Heat pump', unit: 'kWh', eff: '5 (COP)' },
+  { fuel: 'wood', label: 'Wood', unit: 'cord', eff: '0.30' },
+] as const;
+
+/** A new cost sheet: heat from the last forecast block when there is one, else a pool and a rise. Prices are the user's. */
+export function costDefaults(units: 'si' | 'us', forecastBlockId: string | null): Data {
+  return {
+    fuel: 'propane',
+    price: null,
+    currency: 'USD',
+    heatFrom: forecastBlockId ? 'forecast' : 'pool',
+    ...(forecastBlockId ? { forecastBlockId } : {}),
+    poolVolume: units === 'us' ? '15000 gal' : '57 m^3',
+    rise: units === 'us' ? '10 degF' : '5 K',
+    heat: units === 'us' ? '100 therm' : '3000 kWh',
+  };
+}
+
+const num = (v: string): number | null => (v.trim() === '' || !Number.isFinite(Number(v)) ? null : Number(v));
+
+export function CostSettings({ n, data, set, units, forecasts }: { n: number; data: Data; set: (d: Data) => void; units: 'si' | 'us'; forecasts: { id: string; n: number }[] }) {
+  const fuel = FUELS.find((f) => f.fuel === data.fuel) ?? FUELS[0];
+  const from = String(data.heatFrom ?? 'pool');
+  const text = (k: string, label: string, hint: string) => (
+    <label className="text-sm">
+      <span className="field-label">{label}</span>
+      <input aria-label={`${label} of block ${n}`} className="field-input num" placeholder={hint} value={String(data[k] ?? '')} onChange={(e) => set({ [k]: e.target.value })} />
+    </label>
+  );
+  const number = (k: string, label: string, name: string, hint: string) => (
+    <label className="text-sm">
+      <span className="field-label">{label}</span>
+      <input
+        aria-label={`${name} of block ${n}`}
+        className="field-input num"
+        type="number"
+        min={0}
+        step="any"
+        placeholder={hint}
+        value={data[k] == null ? '' : String(data[k])}
+        onChange={(e) => set({ [k]: num(e.target.value) })}
+      />
+    </label>
+  );
+  return (
+    <div className="grid gap-2 sm:grid-cols-3">
+      <label className="text-sm">
+        <span className="field-label">Fuel or energy</span>
+        <select aria-label={`Fuel of block ${n}`} className="field-input" value={fuel.fuel} onChange={(e) => set({ fuel: e.target.value })}>
+          {FUELS.map((f) => (
+            <option key={f.fuel} value={f.fuel}>
+              {f.label} (per {f.unit})
+            </option>
+          ))}
+        </select>
+      </label>
+      {number('price', `Price per ${fuel.unit}`, 'Price', '')}
+      <label className="text-sm">
+        <span className="field-label">Currency</span>
+        <input aria-label={`Currency of block ${n}`} className="field-input" maxLength={8} value={String(data.currency ?? '')} onChange={(e) => set({ currency: e.target.value })} />
+      </label>
+      {number('efficiency', fuel.fuel === 'heat-pump' ? 'COP' : 'Efficiency (0–1)', 'Efficiency', `default ${fuel.eff}`)}
+      <label className="text-sm">
+        <span className="field-label">Heat needed</span>
+        <select aria-label={`Heat needed of block ${n}`} className="field-input" value={from} onChange={(e) => set({ heatFrom: e.target.value, ...(e.target.value === 'forecast' && !data.forecastBlockId && forecasts[0] ? { forecastBlockId: forecasts[0].id } : {}) })}>
+          <option value="forecast" disabled={!forecasts.length}>
+            From a forecast block
+          </option>
+          <option value="pool">Pool volume and rise</option>
+          <option value="energy">Useful heat (e.g. a season’s)</option>
+        </select>
+      </label>
+      {from === 'forecast' ? (
+        <label className="text-sm">
+          <span className="field-label">Forecast block</span>
+          <select aria-label={`Forecast of block ${n}`} className="field-input" value={String(data.forecastBlockId ?? '')} onChange={(e) => set({ forecastBlockId: e.target.value })}>
+            <option value="">Choose…</option>
+            {forecasts.map((f) => (
+              <option key={f.id} value={f.id}>
+                Block {f.n}: forecast
+              </option>
+            ))}
+          </select>
+        </label>
+      ) : from === 'pool' ? (
+        <>
+          {text('poolVolume', 'Pool volume', units === 'us' ? '15000 gal' : '57 m^3')}
+          {text('rise', 'Rise', units === 'us' ? '10 degF' : '5 K')}
+        </>
+      ) : (
+        text('heat', 'Useful heat', units === 'us' ? '2248 therm' : '3000 kWh')
+      )}
+      <p className="text-xs text-ink-muted sm:col-span-3">Quantities take units (gal, m^3, degF, K, therm, kWh). Heat contents are EIA higher heating values; efficiency defaults to the fuel’s typical value.</p>
+    </div>
+  );
+}
+
+export function SensorLogSettings({ n, data, set, logs }: { n: number; data: Data; set: (d: Data) => void; logs: { id: string; label: string }[] }) {
+  if (!logs.length) return <p className="text-sm text-ink-muted">No sensor log has been imported in this lab yet: import one from a rig’s page.</p>;
+  return (
+    <select aria-label={`Sensor log of block ${n}`} className="field-input" value={String(data.sourceFileId ?? '')} onChange={(e) => set({ sourceFileId: e.target.value || undefined })}>
+      <option value="">Choose an imported sensor log…</option>
+      {logs.map((l) => (
+        <option key={l.id} value={l.id}>
+          {l.label}
+        </option>
+      ))}
+    </select>
+  );
+}
