@@ -2,7 +2,7 @@ import 'server-only';
 import { createHash } from 'node:crypto';
 import type { Readable } from 'node:stream';
 import { z } from 'zod';
-import { lttbExtremesIndices } from '@/analysis/reduce';
+import { DISPLAY_MAX_POINTS, overviewIndices } from '@/analysis/reduce';
 import { resolveCriteria, segmentLog, segmentStats, type PresetName, type SegmentStats, type SteadyCriteria } from '@/analysis/segment';
 import type { SourceFileRow } from '@/entities';
 import { HttpError } from './errors';
@@ -165,21 +165,13 @@ export async function openLog(file: SourceFileRow, input: SegmentPreviewInput): 
 const round = (x: number, digits: number) => Number(x.toPrecision(digits));
 
 /**
- * Display series of samples `from`..`to` (exclusive): the union of the LTTB-with-extremes indices
- * of outlet, inlet and flow.
+ * Display series of samples `from`..`to` (exclusive): the channels' shared LTTB-with-extremes
+ * indices (analysis/reduce overviewIndices), as the stored overview of an imported log.
  */
-function displaySeries(log: SensorLog, from = 0, to = log.n, maxPoints = 2000): SegmentPreview['series'] {
+function displaySeries(log: SensorLog, from = 0, to = log.n, maxPoints = DISPLAY_MAX_POINTS): SegmentPreview['series'] {
   const n = to - from;
-  let idx: number[];
-  if (n <= maxPoints) idx = Array.from({ length: n }, (_, i) => from + i);
-  else {
-    const set = new Set<number>();
-    const t = log.timeS.subarray(from, to);
-    for (const [y, share] of [[log.outletTempC, 0.4], [log.flowM3PerS, 0.35], [log.inletTempC, 0.25]] as const) {
-      for (const i of lttbExtremesIndices(t, y.subarray(from, to), Math.max(5, Math.floor(maxPoints * share)))) set.add(from + i);
-    }
-    idx = [...set].sort((a, b) => a - b);
-  }
+  const part = (y: Float64Array) => y.subarray(from, to);
+  const idx = Array.from(overviewIndices(part(log.timeS), [part(log.inletTempC), part(log.outletTempC), part(log.flowM3PerS)], maxPoints), (i) => from + i);
   return {
     tS: idx.map((i) => round(log.timeS[i], 9)),
     inletC: idx.map((i) => round(log.inletTempC[i], 6)),
