@@ -24,14 +24,13 @@ export interface PlotFigureProps {
 
 const SVG_NS = 'http://www.w3.org/2000/svg';
 
-
 /**
  * PNG of a plot, drawn in the browser: the plot's `<svg>` (the largest one, when Plot wrapped it in
  * a figure with a legend) is loaded as an image and painted on a canvas at `scale` × its size on a
- * white ground. Done here rather than with the server's Chromium renderer (export/svg-png.ts)
- * because the SVG is already in the page: a download costs the server nothing, needs no headless
- * browser per click (on the public share view that would let anyone start one), and works the same
- * for a member and a share-link reader. An SVG drawn as an image cannot load web fonts, so text is
+ * white ground. Done here rather than by a headless browser on the server because the SVG is
+ * already in the page: a download costs the server nothing, needs no browser per click (on the
+ * public share view that would let anyone start one), and works the same for a member and a
+ * share-link reader. An SVG drawn as an image cannot load web fonts, so text is
  * set in the browser's sans-serif — the numbers and layout are the plot's own.
  */
 export async function svgToPngBlob(markup: string, scale = 2): Promise<Blob> {

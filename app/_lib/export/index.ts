@@ -17,4 +17,3 @@ export {
   type StudySheetName,
 } from './study-workbook';
 export type * from './types';
-export { svgToPng, svgSize, closeSvgRenderer, type SvgToPngOptions } from './svg-png';
