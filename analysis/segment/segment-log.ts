@@ -129,8 +129,9 @@ export function segmentLog(log: LogChannels, criteria: PresetName | SteadyCriter
   const PsQ = c.flowTolFraction !== null ? prefixSums(sQ, q0) : null;
   const PsAmb = sAmb ? prefixSums(sAmb, sAmb[0]) : null;
   const Pq = c.maxFlowCv !== null ? prefixSums(q, q0) : null, Pqq = c.maxFlowCv !== null ? prefixProducts(q, q0, q, q0) : null;
-  const inMax = new Extremum(n, sIn, true), inMin = new Extremum(n, sIn, false);
-  const qMax = new Extremum(n, sQ, true), qMin = new Extremum(n, sQ, false);
+  // sliding extremes only for the channels judged by tolerance (each deque is n ints)
+  const inMax = PsIn ? new Extremum(n, sIn, true) : null, inMin = PsIn ? new Extremum(n, sIn, false) : null;
+  const qMax = PsQ ? new Extremum(n, sQ, true) : null, qMin = PsQ ? new Extremum(n, sQ, false) : null;
   const aMax = sAmb ? new Extremum(n, sAmb, true) : null, aMin = sAmb ? new Extremum(n, sAmb, false) : null;
   const paint = new Int32Array(n + 1);
 
@@ -144,8 +145,8 @@ export function segmentLog(log: LogChannels, criteria: PresetName | SteadyCriter
 
   let s = 0;
   for (let i = 0; i < n; i++) {
-    if (spanStart[i] === i) { s = i; inMax.reset(); inMin.reset(); qMax.reset(); qMin.reset(); aMax?.reset(); aMin?.reset(); }
-    inMax.push(i); inMin.push(i); qMax.push(i); qMin.push(i); aMax?.push(i); aMin?.push(i);
+    if (spanStart[i] === i) { s = i; inMax?.reset(); inMin?.reset(); qMax?.reset(); qMin?.reset(); aMax?.reset(); aMin?.reset(); }
+    inMax?.push(i); inMin?.push(i); qMax?.push(i); qMin?.push(i); aMax?.push(i); aMin?.push(i);
     while (s < i && t[i] - t[s + 1] >= c.windowS) s++;
     if (t[i] - t[s] < c.windowS) continue;
     const k = i - s + 1;
@@ -154,12 +155,12 @@ export function segmentLog(log: LogChannels, criteria: PresetName | SteadyCriter
     if (PsIn) {
       const mean = (PsIn[i + 1] - PsIn[s]) / k + i0;
       const tol = Math.max(c.inletTolK!, c.inletTolFraction * Math.abs(mean));
-      if (inMax.value(s) - mean > tol || mean - inMin.value(s) > tol) continue;
+      if (inMax!.value(s) - mean > tol || mean - inMin!.value(s) > tol) continue;
     }
     if (PsQ) {
       const mean = (PsQ[i + 1] - PsQ[s]) / k + q0;
       const tol = Math.max(c.flowTolFraction! * Math.abs(mean), c.flowTolAbsM3PerS);
-      if (qMax.value(s) - mean > tol || mean - qMin.value(s) > tol) continue;
+      if (qMax!.value(s) - mean > tol || mean - qMin!.value(s) > tol) continue;
     }
     if (Pq) {
       const sq = Pq[i + 1] - Pq[s];
