@@ -300,6 +300,53 @@ describe('sensor-log import', () => {
     }
   });
 
+  test('deleting a source file, a rig or a lab deletes their samples (triggers stand in for the foreign keys)', { timeout: 120_000 }, async () => {
+    const samplesOf = async (fileId: string) => (await db.query('SELECT count(*)::int AS n FROM sensor_sample WHERE source_file_id = $1', [fileId])).rows[0].n as number;
+    const importLog = async (c: Client, rigId: string, name: string, rows: number) => {
+      const f = await upload(c, rigId, name, await makeLog(rows));
+      const r = await c.post(`/api/rigs/${rigId}/uploads/${f.id}/log-import`, { mapping: MAPPING, preset: 'field' });
+      expect(r.status, r.text).toBe(202);
+      const job = await finished(c, r.body.job.id);
+      expect(job.state, job.error).toBe('completed');
+      expect(await samplesOf(f.id)).toBe(rows);
+      return f.id;
+    };
+    const { eng, rig } = await setup();
+    const a = await importLog(eng, rig.id, 'a.csv', 1500);
+    const b = await importLog(eng, rig.id, 'b.csv', 1200);
+    const other = await setup();
+    const c = await importLog(other.eng, other.rig.id, 'c.csv', 1000);
+
+    await db.query('DELETE FROM source_file WHERE id = $1', [a]);
+    expect([await samplesOf(a), await samplesOf(b), await samplesOf(c)]).toEqual([0, 1200, 1000]);
+    await db.query('DELETE FROM rig WHERE id = $1', [rig.id]);
+    expect([await samplesOf(b), await samplesOf(c)]).toEqual([0, 1000]);
+    // the file itself stays (its rig set to null), as before
+    expect((await db.query('SELECT rig_id FROM source_file WHERE id = $1', [b])).rows).toEqual([{ rig_id: null }]);
+
+    // a lab of its own, deleted as a whole: its rigs and files go by cascade, and their samples with them
+    const owner = new Client();
+    const email = `sample-owner-${Date.now().toString(36)}@example.test`;
+    expect((await owner.post('/api/auth/sign-up', { email, name: 'Sample Owner', password: 'copper coil over a slow fire', labName: 'Sample Bench' })).status).toBe(201);
+    const signed = await signedIn(email, 'copper coil over a slow fire');
+    const lab = (await signed.get('/api/me')).body.labs[0];
+    const ownRig = (await signed.post(`/api/labs/${lab.id}/rigs`, { name: 'Tank loop', heatSource: 'propane-burner' })).body.rig;
+    const d = await importLog(signed, ownRig.id, 'd.csv', 800);
+    await db.query('DELETE FROM lab WHERE id = $1', [lab.id]);
+    expect([await samplesOf(d), await samplesOf(c)]).toEqual([0, 1000]);
+  });
+
+  test('an import for a rig that is gone is refused and writes nothing', async () => {
+    const { eng, rig } = await setup();
+    const file = await upload(eng, rig.id, 'orphan.csv', await makeLog(500));
+    const key = (await db.query('SELECT storage_key FROM source_file WHERE id = $1', [file.id])).rows[0].storage_key;
+    const target = { fileId: file.id, rigId: '00000000-0000-4000-8000-000000000000', labId: rig.labId, filename: 'orphan.csv', storageKey: key, sizeBytes: file.sizeBytes, uploadedAt: new Date() };
+    const err = await importSensorLog(target, logImportInput.parse({ mapping: MAPPING, preset: 'field' })).catch((e: unknown) => e);
+    expect(err).toBeInstanceOf(ImportError);
+    expect((err as Error).message).toMatch(/rig no longer exists/);
+    expect(await stored(file.id)).toEqual({ samples: 0, trials: 0, fileState: 'uploaded' });
+  });
+
   test('jobs are not visible outside their lab', async () => {
     const { eng, rig } = await setup();
     const file = await upload(eng, rig.id, 'scoped.csv', await makeLog(1000));
