@@ -20,7 +20,7 @@
  * database emberline) with its migrations applied.
  */
 import { spawnSync } from 'node:child_process';
-import { createReadStream, existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { createReadStream, existsSync, mkdtempSync, readFileSync, readdirSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 
@@ -44,6 +44,33 @@ if (!process.env.EMBERLINE_BENCH_CHILD) {
   process.exit(r.status ?? 1);
 }
 
+/**
+ * CPU time (ms) of the private cluster's processes (postmaster and its children, from /proc; the
+ * children that ended count through the postmaster's), or null when it cannot be read.
+ */
+function clusterCpuMs(): number | null {
+  try {
+    const postmaster = Number(readFileSync(path.join(root, '.data', 'pg', 'postmaster.pid'), 'utf8').split('\n')[0]);
+    const tick = 10; // ms per clock tick (USER_HZ = 100 on Linux)
+    let total = 0;
+    for (const d of readdirSync('/proc')) {
+      if (!/^\d+$/.test(d)) continue;
+      let stat: string;
+      try { stat = readFileSync(`/proc/${d}/stat`, 'utf8'); } catch { continue; }
+      const f = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+      // utime + stime, and for the postmaster also its reaped children's (connections that ended)
+      if (Number(d) === postmaster) total += (Number(f[11]) + Number(f[12]) + Number(f[13]) + Number(f[14])) * tick;
+      else if (Number(f[1]) === postmaster) total += (Number(f[11]) + Number(f[12])) * tick;
+    }
+    return total;
+  } catch {
+    return null;
+  }
+}
+
+const cpuMs = () => { const u = process.cpuUsage(); return (u.user + u.system) / 1000; };
+const fmtCpu = (ms: number | null) => (ms === null ? 'n/a' : `${(ms / 1000).toFixed(2)} s`);
+
 async function main() {
   const { writeSensorLogCsv } = await import('./import-parse');
   const { getEm, getOrm } = await import('@/app/_lib/db');
@@ -66,13 +93,15 @@ async function main() {
 
     // baseline: psql \copy of the same rows
     await pool.query(`CREATE TABLE ${scratch} (taken_at timestamp, inlet_c double precision, outlet_c double precision, flow_l_per_min double precision, ambient_c double precision, pump_w integer, status text)`);
+    const pgCpu0 = clusterCpuMs();
     const p0 = performance.now();
     const psql = spawnSync('/usr/bin/psql', [url, '-v', 'ON_ERROR_STOP=1', '-q', '-c', `\\copy ${scratch} FROM '${file}' WITH (FORMAT csv, HEADER true)`], { encoding: 'utf8' });
     const psqlS = (performance.now() - p0) / 1000;
+    const pgCpuBaseline = pgCpu0 === null ? null : clusterCpuMs()! - pgCpu0;
     if (psql.status !== 0) throw new Error(`psql \\copy failed: ${psql.stderr}`);
     const copied = Number((await pool.query(`SELECT count(*) AS n FROM ${scratch}`)).rows[0].n);
     const psqlRate = copied / psqlS;
-    console.log(`psql \\copy: ${copied.toLocaleString('en')} rows in ${psqlS.toFixed(2)} s = ${Math.round(psqlRate).toLocaleString('en')} rows/s`);
+    console.log(`psql \\copy: ${copied.toLocaleString('en')} rows in ${psqlS.toFixed(2)} s = ${Math.round(psqlRate).toLocaleString('en')} rows/s (PostgreSQL CPU ${fmtCpu(pgCpuBaseline)})`);
 
     // our path
     const [lab] = await em.find(Lab, {}, { orderBy: { createdAt: 'asc' }, limit: 1 });
@@ -97,6 +126,8 @@ async function main() {
       },
     });
     const rssBefore = process.memoryUsage().rss;
+    const pgCpu1 = clusterCpuMs();
+    const nodeCpu0 = cpuMs();
     const i0 = performance.now();
     const result = await importSensorLog(
       { fileId: source.id, rigId: rig.id, labId: lab.id, filename: 'sensor-log.csv', storageKey: source.storageKey, sizeBytes: bytes, uploadedAt: new Date() },
@@ -111,9 +142,12 @@ async function main() {
       },
     );
     const importS = (performance.now() - i0) / 1000;
+    const nodeCpu = cpuMs() - nodeCpu0;
+    const pgCpuImport = pgCpu1 === null ? null : clusterCpuMs()! - pgCpu1;
     const peakMB = process.resourceUsage().maxRSS / 1024;
     const rate = result.samples / importS;
     console.log(`import (parse, map, validate, COPY, segment, trials; one transaction): ${result.samples.toLocaleString('en')} samples, ${result.trials} trials in ${importS.toFixed(2)} s = ${Math.round(rate).toLocaleString('en')} rows/s`);
+    console.log(`CPU of the import: Node ${fmtCpu(nodeCpu)}, PostgreSQL ${fmtCpu(pgCpuImport)}; machine load ${os.loadavg().map((x) => x.toFixed(1)).join(' ')} (2 cores, shared)`);
     console.log(`memory: rss ${(rssBefore / 1048576).toFixed(0)} MB before the import, peak RSS ${peakMB.toFixed(0)} MB (target < 512 MB)`);
 
     // the same rows once more with psql, into a copy of sensor_sample with its keys and indexes

@@ -169,6 +169,8 @@ export function createRowMapper(mapping: ConfirmedMapping, headerLength: number)
     if (s.firstLines.length < 5) s.firstLines.push(line);
   };
   const quantityPlans = plans.filter((p) => p.field !== 'time' && p.field !== 'notes');
+  /** each quantity column's record of cells in its own unit, once `note` has made it */
+  let bare: { count: number; firstLines: number[] }[] | null = null;
 
   /** number in SI, or an error message */
   const readQuantity = (p: ColumnPlan, cell: string | number, line: number): number | string => {
@@ -249,7 +251,16 @@ export function createRowMapper(mapping: ConfirmedMapping, headerLength: number)
       return { row, issues };
     },
     noteBareRow(line) {
-      for (const p of quantityPlans) note(p, p.unit!, line);
+      if (bare === null) {
+        for (const p of quantityPlans) note(p, p.unit!, line);
+        bare = quantityPlans.map((p) => p.seen.get(p.unit!)!);
+        return;
+      }
+      for (let i = 0; i < bare.length; i++) {
+        const s = bare[i];
+        s.count++;
+        if (s.firstLines.length < 5) s.firstLines.push(line);
+      }
     },
     mixedUnits() {
       const out: ColumnUnitReport[] = [];
