@@ -12,7 +12,7 @@
  */
 import { resolveCriteria, type PresetName, type SteadyCriteria } from './steady-criteria';
 import { segmentStats, blockMeans, type LogChannels, type SegmentStats } from './segment-stats';
-import { SlidingSum, centredMean } from './window-sums';
+import { SLICE, SlidingSum, centredMeanSteps } from './window-sums';
 
 export interface SteadySegment extends SegmentStats {
   startIndex: number;
@@ -101,6 +101,25 @@ class Extremum {
  * @example segmentLog({ timeS, inletTempC, outletTempC, flowM3PerS }, 'field').segments.map((s) => s.mean.outletTempC)
  */
 export function segmentLog(log: LogChannels, criteria: PresetName | SteadyCriteria = 'laboratory'): SegmentationResult {
+  const steps = segmentLogSteps(log, criteria);
+  for (;;) {
+    const r = steps.next();
+    if (r.done) return r.value;
+  }
+}
+
+/**
+ * `segmentLog` in slices: a generator that pauses every 65,536 samples of its long passes, so that
+ * a caller can give the event loop a turn between slices (the sensor import keeps its COPY
+ * flowing meanwhile). Run to the end, it returns exactly what `segmentLog` returns.
+ * @throws as segmentLog, from the `next()` call that meets the problem
+ * @example
+ *   const steps = segmentLogSteps(log, 'field');
+ *   let r = steps.next();
+ *   while (!r.done) { await new Promise((go) => setImmediate(go)); r = steps.next(); }
+ *   r.value.segments
+ */
+export function* segmentLogSteps(log: LogChannels, criteria: PresetName | SteadyCriteria = 'laboratory'): Generator<void, SegmentationResult, void> {
   const c = typeof criteria === 'string' ? resolveCriteria(criteria) : criteria;
   const n = checkChannels(log);
   const t = log.timeS, tin = log.inletTempC, tout = log.outletTempC, q = log.flowM3PerS;
@@ -117,9 +136,9 @@ export function segmentLog(log: LogChannels, criteria: PresetName | SteadyCriter
   }
 
   // 2. steady mask from sliding windows
-  const sIn = centredMean(t, tin, c.averagingS, spanStart);
-  const sQ = centredMean(t, q, c.averagingS, spanStart);
-  const sAmb = amb && c.ambientTolK !== null ? centredMean(t, amb, c.averagingS, spanStart) : null;
+  const sIn = yield* centredMeanSteps(t, tin, c.averagingS, spanStart);
+  const sQ = yield* centredMeanSteps(t, q, c.averagingS, spanStart);
+  const sAmb = amb && c.ambientTolK !== null ? yield* centredMeanSteps(t, amb, c.averagingS, spanStart) : null;
   const t0 = t[0], o0 = tout[0], i0 = tin[0], q0 = q[0];
   const needOut = c.maxOutletSlopeKPerS !== null, needInSlope = c.maxInletSlopeKPerS !== null;
   const sumT = new SlidingSum(t, t0), sumTT = new SlidingSum(t, t0, t, t0);
@@ -144,41 +163,50 @@ export function segmentLog(log: LogChannels, criteria: PresetName | SteadyCriter
     return sxx > 0 ? (Sty - (St * Sy) / k) / sxx : 0;
   };
 
-  let s = 0;
-  for (let i = 0; i < n; i++) {
-    if (spanStart[i] === i) {
-      s = i;
-      for (const w of sums) w.restart();
-      inMax?.reset(); inMin?.reset(); qMax?.reset(); qMin?.reset(); aMax?.reset(); aMin?.reset();
+  // the window is [s, i]; the loop runs in slices (a plain function, which V8 optimises as it runs)
+  let windowStart = 0;
+  const scan = (from: number, to: number) => {
+    let s = windowStart;
+    for (let i = from; i < to; i++) {
+      if (spanStart[i] === i) {
+        s = i;
+        for (const w of sums) w.restart();
+        inMax?.reset(); inMin?.reset(); qMax?.reset(); qMin?.reset(); aMax?.reset(); aMin?.reset();
+      }
+      for (const w of sums) w.add(i);
+      inMax?.push(i); inMin?.push(i); qMax?.push(i); qMin?.push(i); aMax?.push(i); aMin?.push(i);
+      while (s < i && t[i] - t[s + 1] >= c.windowS) { for (const w of sums) w.drop(s); s++; }
+      if (t[i] - t[s] < c.windowS) continue;
+      const k = i - s + 1;
+      if (sumO && Math.abs(slopeOf(sumO, sumTO!, k)) > c.maxOutletSlopeKPerS!) continue;
+      if (sumI && Math.abs(slopeOf(sumI, sumTI!, k)) > c.maxInletSlopeKPerS!) continue;
+      if (sumSIn) {
+        const mean = sumSIn.sum / k + i0;
+        const tol = Math.max(c.inletTolK!, c.inletTolFraction * Math.abs(mean));
+        if (inMax!.value(s) - mean > tol || mean - inMin!.value(s) > tol) continue;
+      }
+      if (sumSQ) {
+        const mean = sumSQ.sum / k + q0;
+        const tol = Math.max(c.flowTolFraction! * Math.abs(mean), c.flowTolAbsM3PerS);
+        if (qMax!.value(s) - mean > tol || mean - qMin!.value(s) > tol) continue;
+      }
+      if (sumQ) {
+        const sq = sumQ.sum;
+        const mean = sq / k + q0;
+        const v = Math.max(0, (sumQQ!.sum - (sq * sq) / k) / (k - 1));
+        if (!(mean > 0) || Math.sqrt(v) / mean > c.maxFlowCv!) continue;
+      }
+      if (sumSAmb) {
+        const mean = sumSAmb.sum / k + sAmb![0];
+        if (aMax!.value(s) - mean > c.ambientTolK! || mean - aMin!.value(s) > c.ambientTolK!) continue;
+      }
+      paint[s]++; paint[i + 1]--;
     }
-    for (const w of sums) w.add(i);
-    inMax?.push(i); inMin?.push(i); qMax?.push(i); qMin?.push(i); aMax?.push(i); aMin?.push(i);
-    while (s < i && t[i] - t[s + 1] >= c.windowS) { for (const w of sums) w.drop(s); s++; }
-    if (t[i] - t[s] < c.windowS) continue;
-    const k = i - s + 1;
-    if (sumO && Math.abs(slopeOf(sumO, sumTO!, k)) > c.maxOutletSlopeKPerS!) continue;
-    if (sumI && Math.abs(slopeOf(sumI, sumTI!, k)) > c.maxInletSlopeKPerS!) continue;
-    if (sumSIn) {
-      const mean = sumSIn.sum / k + i0;
-      const tol = Math.max(c.inletTolK!, c.inletTolFraction * Math.abs(mean));
-      if (inMax!.value(s) - mean > tol || mean - inMin!.value(s) > tol) continue;
-    }
-    if (sumSQ) {
-      const mean = sumSQ.sum / k + q0;
-      const tol = Math.max(c.flowTolFraction! * Math.abs(mean), c.flowTolAbsM3PerS);
-      if (qMax!.value(s) - mean > tol || mean - qMin!.value(s) > tol) continue;
-    }
-    if (sumQ) {
-      const sq = sumQ.sum;
-      const mean = sq / k + q0;
-      const v = Math.max(0, (sumQQ!.sum - (sq * sq) / k) / (k - 1));
-      if (!(mean > 0) || Math.sqrt(v) / mean > c.maxFlowCv!) continue;
-    }
-    if (sumSAmb) {
-      const mean = sumSAmb.sum / k + sAmb![0];
-      if (aMax!.value(s) - mean > c.ambientTolK! || mean - aMin!.value(s) > c.ambientTolK!) continue;
-    }
-    paint[s]++; paint[i + 1]--;
+    windowStart = s;
+  };
+  for (let from = 0; from < n; from += SLICE) {
+    if (from > 0) yield;
+    scan(from, Math.min(n, from + SLICE));
   }
 
   // 3–4. runs → pieces → segments
@@ -190,14 +218,20 @@ export function segmentLog(log: LogChannels, criteria: PresetName | SteadyCriter
   const reject = (a: number, b: number, reason: string) => rejected.push({ startIndex: a, endIndex: b, startTimeS: t[a], endTimeS: t[b], reason });
 
   let depth = 0, runStart = -1;
-  for (let i = 0; i <= n; i++) {
-    const steady = i < n && (depth += paint[i]) > 0 && (runStart < 0 || spanStart[i] === spanStart[runStart]);
-    if (steady && runStart < 0) { runStart = i; continue; }
-    if (!steady && runStart >= 0) {
-      handleRun(runStart, i - 1);
-      runStart = -1;
-      if (i < n && depth > 0) runStart = i; // a new span starts steady right after a gap
+  const runs = (from: number, to: number) => {
+    for (let i = from; i < to; i++) {
+      const steady = i < n && (depth += paint[i]) > 0 && (runStart < 0 || spanStart[i] === spanStart[runStart]);
+      if (steady && runStart < 0) { runStart = i; continue; }
+      if (!steady && runStart >= 0) {
+        handleRun(runStart, i - 1);
+        runStart = -1;
+        if (i < n && depth > 0) runStart = i; // a new span starts steady right after a gap
+      }
     }
+  };
+  for (let from = 0; from <= n; from += SLICE) {
+    if (from > 0) yield;
+    runs(from, Math.min(n + 1, from + SLICE));
   }
 
   function handleRun(a0: number, b: number) {

@@ -38,6 +38,9 @@ export class SlidingSum {
   get sum(): number { return this.head - this.tail; }
 }
 
+/** The long passes pause (yield) after each slice of this many samples (see segmentLogSteps). */
+export const SLICE = 1 << 16;
+
 /**
  * Centred moving average over `spanS` seconds: at i, the mean of the samples with
  * |t[k] − t[i]| ≤ spanS / 2 in i's gap-free span (centred, so a step is not smeared forward
@@ -46,17 +49,39 @@ export class SlidingSum {
  * @param spanStart index of the first sample of i's gap-free span, per sample
  */
 export function centredMean(timeS: ArrayLike<number>, values: ArrayLike<number>, spanS: number, spanStart: Int32Array): Float64Array {
+  const steps = centredMeanSteps(timeS, values, spanS, spanStart);
+  for (;;) {
+    const r = steps.next();
+    if (r.done) return r.value;
+  }
+}
+
+/**
+ * `centredMean` in slices of SLICE samples (a generator; its return value is the average). The
+ * loop itself is a plain function, which V8 optimises while it runs (it does not replace a
+ * generator's frame mid-loop).
+ */
+export function* centredMeanSteps(timeS: ArrayLike<number>, values: ArrayLike<number>, spanS: number, spanStart: Int32Array): Generator<void, Float64Array, void> {
   const n = values.length;
   const out = new Float64Array(n);
   if (spanS <= 0) { for (let i = 0; i < n; i++) out[i] = values[i]; return out; }
-  const half = spanS / 2;
-  const off = n > 0 ? values[0] : 0;
-  let lo = 0, hi = -1, sum = 0; // window [lo, hi]
-  for (let i = 0; i < n; i++) {
+  const w = { half: spanS / 2, off: n > 0 ? values[0] : 0, lo: 0, hi: -1, sum: 0 }; // window [lo, hi]
+  for (let from = 0; from < n; from += SLICE) {
+    if (from > 0) yield;
+    centredMeanSlice(timeS, values, spanStart, out, w, from, Math.min(n, from + SLICE));
+  }
+  return out;
+}
+
+function centredMeanSlice(timeS: ArrayLike<number>, values: ArrayLike<number>, spanStart: Int32Array, out: Float64Array,
+  w: { half: number; off: number; lo: number; hi: number; sum: number }, from: number, to: number) {
+  const n = values.length, half = w.half, off = w.off;
+  let lo = w.lo, hi = w.hi, sum = w.sum;
+  for (let i = from; i < to; i++) {
     if (spanStart[i] === i) { lo = i; hi = i - 1; sum = 0; } // a new gap-free span starts here
     while (hi + 1 < n && spanStart[hi + 1] === spanStart[i] && timeS[hi + 1] - timeS[i] <= half) { hi++; sum += values[hi] - off; }
     while (timeS[i] - timeS[lo] > half) { sum -= values[lo] - off; lo++; }
     out[i] = sum / (hi - lo + 1) + off;
   }
-  return out;
+  w.lo = lo; w.hi = hi; w.sum = sum;
 }

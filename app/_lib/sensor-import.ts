@@ -2,10 +2,11 @@ import 'server-only';
 import { randomUUID } from 'node:crypto';
 import type { Writable } from 'node:stream';
 import { finished } from 'node:stream/promises';
+import { setImmediate } from 'node:timers/promises';
 import pg from 'pg';
 import { from as copyFrom } from 'pg-copy-streams';
 import { z } from 'zod';
-import { PRESETS, resolveCriteria, segmentLog, segmentStats, type PresetName, type SegmentationResult, type SegmentStats, type SteadyCriteria } from '@/analysis/segment';
+import { PRESETS, resolveCriteria, segmentLog, segmentLogSteps, segmentStats, type PresetName, type SegmentationResult, type SegmentStats, type SteadyCriteria } from '@/analysis/segment';
 import { ImportError, confirmedMappingSchema, createSensorLogBuilder, openDelimited, type RowIssue, type SensorLog } from './import';
 import { getObjectStream } from './storage';
 
@@ -146,8 +147,9 @@ function rowEncoder(fileId: string, rigId: string) {
   };
 }
 
+/** 96 × 256 KiB: PostgreSQL's lead (about 220,000 rows) covers the segmentation that runs meanwhile */
 const COPY_BUFFER_BYTES = 256 * 1024;
-const COPY_BUFFERS = 32;
+const COPY_BUFFERS = 96;
 
 /**
  * COPY FROM STDIN through a fixed set of reused buffers: a buffer goes back to the pool when the
@@ -292,9 +294,16 @@ export async function importSensorLog(target: SensorImportTarget, input: LogImpo
       }
       options.onPhase?.('parsed');
       copy.end(COPY_TRAILER);
-      // the kernel's socket buffers still hold rows for PostgreSQL: segment meanwhile
+      // PostgreSQL is still working through the rows in the pool and the socket: segment meanwhile,
+      // in slices, so that the event loop keeps handing the pooled buffers on between them
       log = builder.finish();
-      if (log.n > 0) seg = segmentLog(channelsOf(log), criteria);
+      if (log.n > 0) {
+        const steps = segmentLogSteps(channelsOf(log), criteria);
+        for (let r = steps.next(); ; r = steps.next()) {
+          if (r.done) { seg = r.value; break; }
+          await setImmediate();
+        }
+      }
       await copy.done;
     } catch (e) {
       await copy.abort(e);
@@ -328,21 +337,24 @@ export async function importSensorLog(target: SensorImportTarget, input: LogImpo
       }
     }
 
-    const trialRows = pieces.map(({ a, b, st, extra }) => {
-      const startedAt = new Date(Math.round((t0Epoch + channels.timeS[a]) * 1000));
+    // one statement for all trials: a column array per field (uuid, timestamptz, float8, int, jsonb)
+    const cols: unknown[][] = Array.from({ length: 8 }, () => []);
+    for (const { a, b, st, extra } of pieces) {
       const segment = {
         criteria, startLine: ln[a], endLine: ln[b], startTimeS: channels.timeS[a], endTimeS: channels.timeS[b],
         durationS: channels.timeS[b] - channels.timeS[a], n: st.n, mean: st.mean, sd: st.sd, blockStdError: st.blockStdError,
         blocks: st.blocks, outletSlopeKPerS: st.outletSlopeKPerS, inletSlopeKPerS: st.inletSlopeKPerS, ...extra,
       };
-      return [randomUUID(), target.labId, rigId, startedAt, st.mean.flowM3PerS, st.mean.inletTempC, st.mean.outletTempC, st.mean.ambientTempC, fileId, ln[a], JSON.stringify(segment)];
-    });
-    for (let i = 0; i < trialRows.length; i += 500) {
-      const chunk = trialRows.slice(i, i + 500);
-      const values = chunk.map((_, r) => `(${Array.from({ length: 11 }, (_, c) => `$${r * 11 + c + 1}`).join(', ')}, now(), now(), 'log-segment')`).join(', ');
+      const row = [randomUUID(), new Date(Math.round((t0Epoch + channels.timeS[a]) * 1000)), st.mean.flowM3PerS, st.mean.inletTempC, st.mean.outletTempC, st.mean.ambientTempC, ln[a], JSON.stringify(segment)];
+      row.forEach((v, c) => cols[c].push(v));
+    }
+    if (pieces.length) {
       await client.query(
-        `INSERT INTO trial (id, lab_id, rig_id, started_at, flow_m3_per_s, inlet_c, outlet_c, ambient_c, source_file_id, source_line, segment, created_at, updated_at, origin) VALUES ${values}`,
-        chunk.flat(),
+        `INSERT INTO trial (id, lab_id, rig_id, started_at, flow_m3_per_s, inlet_c, outlet_c, ambient_c, source_file_id, source_line, segment, created_at, updated_at, origin)
+         SELECT id, $9, $10, started_at, flow, inlet, outlet, ambient, $11, line, segment, now(), now(), 'log-segment'
+         FROM unnest($1::uuid[], $2::timestamptz[], $3::float8[], $4::float8[], $5::float8[], $6::float8[], $7::int[], $8::jsonb[])
+           AS t (id, started_at, flow, inlet, outlet, ambient, line, segment)`,
+        [...cols, target.labId, rigId, fileId],
       );
     }
     options.onPhase?.('trials');
@@ -350,7 +362,7 @@ export async function importSensorLog(target: SensorImportTarget, input: LogImpo
     await client.query('COMMIT');
     options.onPhase?.('committed');
     return {
-      samples: log.n, trials: trialRows.length, excludedRows, segmentsFound: seg.segments.length, rejectedRuns: seg.rejected.length,
+      samples: log.n, trials: pieces.length, excludedRows, segmentsFound: seg.segments.length, rejectedRuns: seg.rejected.length,
       gaps: seg.gaps.length, criteria, plausibility: pl, notices,
     };
   } catch (e) {
