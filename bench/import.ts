@@ -172,6 +172,8 @@ async function main() {
     await pool.query(`DROP TABLE IF EXISTS ${scratch}, ${scratch}_keys`).catch(() => undefined);
     if (fileId) await pool.query('DELETE FROM source_file WHERE id = $1', [fileId]).catch(() => undefined);
     if (rigId) await pool.query('DELETE FROM rig WHERE id = $1', [rigId]).catch(() => undefined);
+    // the deleted samples would otherwise be vacuumed during the next run's import
+    await pool.query('VACUUM sensor_sample').catch(() => undefined);
     rmSync(dir, { recursive: true, force: true });
     await pool.end();
     await (await getOrm()).close(true);

@@ -11,14 +11,16 @@ import { ImportError, confirmedMappingSchema, createSensorLogBuilder, openDelimi
 import { getObjectStream } from './storage';
 
 /**
- * Sensor-log import: the stored file is streamed from object storage, parsed in row batches,
- * converted to SI and checked row by row, written to `sensor_sample` with COPY, segmented into
- * steady periods, and each accepted period becomes a trial — all in one transaction on one
- * connection, so a bad row halfway through, a database error or a cancellation leaves nothing.
- * Memory stays bounded: one text chunk and one batch of rows at a time, plus the channels as
- * Float64Arrays for the segmenter (about 44 bytes a sample). Rows go to COPY in its binary format.
+ * Sensor-log import: the stored file is streamed from object storage, read in blocks of rows,
+ * converted to SI and checked row by row (the fast row path, or papaparse and the zod sample schema
+ * for any row it does not take), written to `sensor_sample` with COPY, segmented into steady
+ * periods, and each accepted period becomes a trial — all in one transaction on one connection, so
+ * a bad row halfway through, a database error or a cancellation leaves nothing.
+ * Memory stays bounded: one text chunk and one block of rows at a time, a fixed pool of COPY
+ * buffers, plus the channels as Float64Arrays for the segmenter (about 44 bytes a sample). Rows go
+ * to COPY in its binary format; PostgreSQL ingests while the next rows are read (two processes on
+ * two cores), and the segmentation runs in slices while it works through the last of them.
  */
-
 const g = globalThis as typeof globalThis & { __emberlinePgPool?: pg.Pool };
 
 /** One plain `pg` pool per process for COPY (MikroORM's pool stays with the ORM). */
