@@ -164,8 +164,7 @@ export function createSensorLogBuilder(mapping: unknown, header: readonly string
       return;
     }
     prev = timeS;
-    col.reserve(1);
-    const i = col.n++;
+    const i = col.n++; // room was reserved for the block or batch
     col.t[i] = timeS; col.tin[i] = ti; col.tout[i] = to; col.q[i] = qi;
     if (hasAmbient) col.amb[i] = a ?? NaN;
     col.lines[i] = line;
@@ -261,6 +260,7 @@ export function createSensorLogBuilder(mapping: unknown, header: readonly string
   return {
     add(batch) {
       if ('texts' in batch) { addText(batch); return; }
+      col.reserve(batch.rows.length);
       for (let i = 0; i < batch.rows.length; i++) {
         const line = batch.lines[i];
         if (excluded !== null && excluded.has(line)) { excludedCount++; continue; }
