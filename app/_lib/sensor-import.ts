@@ -270,6 +270,7 @@ export async function importSensorLog(target: SensorImportTarget, input: LogImpo
     const row = rowEncoder(fileId, rigId);
     const copy = new CopyWriter(client.query(copyFrom(COPY_SQL)));
     let log: SensorLog;
+    let channels: ReturnType<typeof channelsOf>;
     try {
       copy.sendBytes(COPY_SIGNATURE);
       for await (const block of src.blocks()) {
@@ -299,8 +300,9 @@ export async function importSensorLog(target: SensorImportTarget, input: LogImpo
       // PostgreSQL is still working through the rows in the pool and the socket: segment meanwhile,
       // in slices, so that the event loop keeps handing the pooled buffers on between them
       log = builder.finish();
+      channels = channelsOf(log);
       if (log.n > 0) {
-        const steps = segmentLogSteps(channelsOf(log), criteria);
+        const steps = segmentLogSteps(channels, criteria);
         for (let r = steps.next(); ; r = steps.next()) {
           if (r.done) { seg = r.value; break; }
           await setImmediate();
@@ -320,7 +322,6 @@ export async function importSensorLog(target: SensorImportTarget, input: LogImpo
     if (log.n === 0) throw new ImportError('empty_file', 'no samples to import (every row is excluded or the log is empty)', { file });
     const { excludedCount: excludedRows, plausibility: pl, notices } = log;
 
-    const channels = channelsOf(log);
     if (!seg) seg = segmentLog(channels, criteria);
     options.onPhase?.('segmented');
     const ln = log.lines;
@@ -347,8 +348,8 @@ export async function importSensorLog(target: SensorImportTarget, input: LogImpo
         durationS: channels.timeS[b] - channels.timeS[a], n: st.n, mean: st.mean, sd: st.sd, blockStdError: st.blockStdError,
         blocks: st.blocks, outletSlopeKPerS: st.outletSlopeKPerS, inletSlopeKPerS: st.inletSlopeKPerS, ...extra,
       };
-      const row = [randomUUID(), new Date(Math.round((t0Epoch + channels.timeS[a]) * 1000)), st.mean.flowM3PerS, st.mean.inletTempC, st.mean.outletTempC, st.mean.ambientTempC, ln[a], JSON.stringify(segment)];
-      row.forEach((v, c) => cols[c].push(v));
+      const values = [randomUUID(), new Date(Math.round((t0Epoch + channels.timeS[a]) * 1000)), st.mean.flowM3PerS, st.mean.inletTempC, st.mean.outletTempC, st.mean.ambientTempC, ln[a], JSON.stringify(segment)];
+      values.forEach((v, c) => cols[c].push(v));
     }
     if (pieces.length) {
       await client.query(
