@@ -5,19 +5,21 @@
  * 2. `psql \copy` of that CSV into a scratch table of the same columns (no indexes: the plain
  *    speed of PostgreSQL's COPY on this machine) — the baseline;
  * 3. our import path on the same file: read in chunks, parse, map to SI, validate every row, COPY
- *    into `sensor_sample` (with its primary key and index), segment (field preset) and write the
+ *    into `sensor_sample` (with its primary key), segment (field preset) and write the
  *    trials, in one transaction — `importSensorLog` as the background worker runs it, reading a
  *    local file instead of object storage;
  * 4. for comparison, `psql \copy` of the rows we stored into a copy of `sensor_sample` with the same
  *    primary key and indexes (what the storage itself costs, without any parsing on our side);
  * 5. the first page of that rig's trials, queried as the trials table does (`listTrials`).
- * Prints peak RSS of this process (target < 512 MB) and the page time (target < 300 ms); the last
- * line is the ratio of our rows/s to psql's into the plain scratch table (target >= 0.5).
- * Everything it creates is removed. TRACE=1 prints the rows written every second and when each phase
- * of the import ends.
+ * Prints the CPU time of Node and of the PostgreSQL cluster for the baseline and the import (the
+ * machine's two cores are shared, so the load average is printed too), peak RSS of this process
+ * (target < 512 MB) and the page time (target < 300 ms); the last line is the ratio of our rows/s
+ * to psql's into the plain scratch table (target >= 0.5).
+ * Everything it creates is removed (and the deleted samples vacuumed). TRACE=1 prints the rows
+ * written every second and when each phase of the import ends.
  *
- * Connection: DATABASE_URL, or the private cluster of `npm start` (.data/pg-password, port EMBERLINE_PG_PORT or 54329,
- * database emberline) with its migrations applied.
+ * Connection: DATABASE_URL, or the private cluster of `npm start` (.data/pg-password, port
+ * EMBERLINE_PG_PORT or 54329, database emberline) with its migrations applied.
  */
 import { spawnSync } from 'node:child_process';
 import { createReadStream, existsSync, mkdtempSync, readFileSync, readdirSync, rmSync } from 'node:fs';
