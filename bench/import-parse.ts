@@ -1,7 +1,8 @@
 /**
  * `npm run bench -- import-parse [rows]`: writes a synthetic 1 Hz sensor log (1,000,000 rows,
- * about 60 MB) to a temporary folder, then reads it through the streaming path — decode,
- * papaparse in chunks, auto-mapping, conversion to SI, the zod sample schema — and segments it
+ * about 55 MB) to a temporary folder, then reads it through the streaming path of the import —
+ * decode, text blocks read by the fast row path (papaparse and the zod sample schema for the rows
+ * it does not take), auto-mapping, conversion to SI — and segments it
  * with the field preset. Prints rows/s and peak RSS; the last line is the headline.
  *
  * `writeSensorLogCsv` is exported for the full import benchmark and for the fixture log.
@@ -76,8 +77,8 @@ async function main() {
       decimal: src.dialect.decimal,
       columns: suggestion.columns.filter((c) => c.field).map((c) => ({ column: c.column, header: c.header, field: c.field!, unit: c.field === 'time' ? 'datetime' : c.unit ?? undefined })),
     };
-    const builder = createSensorLogBuilder(mapping, src.header, { file: 'sensor-log.csv' });
-    for await (const batch of src.batches()) builder.add(batch);
+    const builder = createSensorLogBuilder(mapping, src.header, { file: 'sensor-log.csv' }, { text: src.dialect });
+    for await (const block of src.blocks()) builder.add(block);
     const log = builder.finish();
     const parsed = performance.now();
     const seg = segmentLog({ timeS: log.timeS, inletTempC: log.inletTempC, outletTempC: log.outletTempC, flowM3PerS: log.flowM3PerS, ambientTempC: log.ambientTempC }, 'field');

@@ -12,7 +12,7 @@
  */
 import { resolveCriteria, type PresetName, type SteadyCriteria } from './steady-criteria';
 import { segmentStats, blockMeans, type LogChannels, type SegmentStats } from './segment-stats';
-import { prefixProducts, prefixSums, centredMean } from './window-sums';
+import { SLICE, SlidingSum, centredMeanSteps } from './window-sums';
 
 export interface SteadySegment extends SegmentStats {
   startIndex: number;
@@ -101,6 +101,25 @@ class Extremum {
  * @example segmentLog({ timeS, inletTempC, outletTempC, flowM3PerS }, 'field').segments.map((s) => s.mean.outletTempC)
  */
 export function segmentLog(log: LogChannels, criteria: PresetName | SteadyCriteria = 'laboratory'): SegmentationResult {
+  const steps = segmentLogSteps(log, criteria);
+  for (;;) {
+    const r = steps.next();
+    if (r.done) return r.value;
+  }
+}
+
+/**
+ * `segmentLog` in slices: a generator that pauses every 65,536 samples of its long passes, so that
+ * a caller can give the event loop a turn between slices (the sensor import keeps its COPY
+ * flowing meanwhile). Run to the end, it returns exactly what `segmentLog` returns.
+ * @throws as segmentLog, from the `next()` call that meets the problem
+ * @example
+ *   const steps = segmentLogSteps(log, 'field');
+ *   let r = steps.next();
+ *   while (!r.done) { await new Promise((go) => setImmediate(go)); r = steps.next(); }
+ *   r.value.segments
+ */
+export function* segmentLogSteps(log: LogChannels, criteria: PresetName | SteadyCriteria = 'laboratory'): Generator<void, SegmentationResult, void> {
   const c = typeof criteria === 'string' ? resolveCriteria(criteria) : criteria;
   const n = checkChannels(log);
   const t = log.timeS, tin = log.inletTempC, tout = log.outletTempC, q = log.flowM3PerS;
@@ -117,61 +136,77 @@ export function segmentLog(log: LogChannels, criteria: PresetName | SteadyCriter
   }
 
   // 2. steady mask from sliding windows
-  const sIn = centredMean(t, tin, c.averagingS, spanStart);
-  const sQ = centredMean(t, q, c.averagingS, spanStart);
-  const sAmb = amb && c.ambientTolK !== null ? centredMean(t, amb, c.averagingS, spanStart) : null;
+  const sIn = yield* centredMeanSteps(t, tin, c.averagingS, spanStart);
+  const sQ = yield* centredMeanSteps(t, q, c.averagingS, spanStart);
+  const sAmb = amb && c.ambientTolK !== null ? yield* centredMeanSteps(t, amb, c.averagingS, spanStart) : null;
   const t0 = t[0], o0 = tout[0], i0 = tin[0], q0 = q[0];
-  const Pt = prefixSums(t, t0), Ptt = prefixProducts(t, t0, t, t0);
   const needOut = c.maxOutletSlopeKPerS !== null, needInSlope = c.maxInletSlopeKPerS !== null;
-  const Po = needOut ? prefixSums(tout, o0) : null, Pto = needOut ? prefixProducts(t, t0, tout, o0) : null;
-  const Pi = needInSlope ? prefixSums(tin, i0) : null, Pti = needInSlope ? prefixProducts(t, t0, tin, i0) : null;
-  const PsIn = c.inletTolK !== null ? prefixSums(sIn, i0) : null;
-  const PsQ = c.flowTolFraction !== null ? prefixSums(sQ, q0) : null;
-  const PsAmb = sAmb ? prefixSums(sAmb, sAmb[0]) : null;
-  const Pq = c.maxFlowCv !== null ? prefixSums(q, q0) : null, Pqq = c.maxFlowCv !== null ? prefixProducts(q, q0, q, q0) : null;
-  const inMax = new Extremum(n, sIn, true), inMin = new Extremum(n, sIn, false);
-  const qMax = new Extremum(n, sQ, true), qMin = new Extremum(n, sQ, false);
+  const sumT = new SlidingSum(t, t0), sumTT = new SlidingSum(t, t0, t, t0);
+  const sumO = needOut ? new SlidingSum(tout, o0) : null, sumTO = needOut ? new SlidingSum(t, t0, tout, o0) : null;
+  const sumI = needInSlope ? new SlidingSum(tin, i0) : null, sumTI = needInSlope ? new SlidingSum(t, t0, tin, i0) : null;
+  const sumSIn = c.inletTolK !== null ? new SlidingSum(sIn, i0) : null;
+  const sumSQ = c.flowTolFraction !== null ? new SlidingSum(sQ, q0) : null;
+  const sumSAmb = sAmb ? new SlidingSum(sAmb, sAmb[0]) : null;
+  const sumQ = c.maxFlowCv !== null ? new SlidingSum(q, q0) : null, sumQQ = c.maxFlowCv !== null ? new SlidingSum(q, q0, q, q0) : null;
+  const sums = [sumT, sumTT, sumO, sumTO, sumI, sumTI, sumSIn, sumSQ, sumSAmb, sumQ, sumQQ].filter((w): w is SlidingSum => w !== null);
+  // sliding extremes only for the channels judged by tolerance (each deque is n ints)
+  const inMax = sumSIn ? new Extremum(n, sIn, true) : null, inMin = sumSIn ? new Extremum(n, sIn, false) : null;
+  const qMax = sumSQ ? new Extremum(n, sQ, true) : null, qMin = sumSQ ? new Extremum(n, sQ, false) : null;
   const aMax = sAmb ? new Extremum(n, sAmb, true) : null, aMin = sAmb ? new Extremum(n, sAmb, false) : null;
   const paint = new Int32Array(n + 1);
 
-  const slopeOf = (P: Float64Array, PT: Float64Array, s: number, e: number): number => {
-    const k = e - s + 1;
-    const St = Pt[e + 1] - Pt[s], Stt = Ptt[e + 1] - Ptt[s];
-    const Sy = P[e + 1] - P[s], Sty = PT[e + 1] - PT[s];
+  /** least-squares slope of y over the window of k samples, from the window sums */
+  const slopeOf = (Y: SlidingSum, TY: SlidingSum, k: number): number => {
+    const St = sumT.sum, Stt = sumTT.sum;
+    const Sy = Y.sum, Sty = TY.sum;
     const sxx = Stt - (St * St) / k;
     return sxx > 0 ? (Sty - (St * Sy) / k) / sxx : 0;
   };
 
-  let s = 0;
-  for (let i = 0; i < n; i++) {
-    if (spanStart[i] === i) { s = i; inMax.reset(); inMin.reset(); qMax.reset(); qMin.reset(); aMax?.reset(); aMin?.reset(); }
-    inMax.push(i); inMin.push(i); qMax.push(i); qMin.push(i); aMax?.push(i); aMin?.push(i);
-    while (s < i && t[i] - t[s + 1] >= c.windowS) s++;
-    if (t[i] - t[s] < c.windowS) continue;
-    const k = i - s + 1;
-    if (needOut && Math.abs(slopeOf(Po!, Pto!, s, i)) > c.maxOutletSlopeKPerS!) continue;
-    if (needInSlope && Math.abs(slopeOf(Pi!, Pti!, s, i)) > c.maxInletSlopeKPerS!) continue;
-    if (PsIn) {
-      const mean = (PsIn[i + 1] - PsIn[s]) / k + i0;
-      const tol = Math.max(c.inletTolK!, c.inletTolFraction * Math.abs(mean));
-      if (inMax.value(s) - mean > tol || mean - inMin.value(s) > tol) continue;
+  // the window is [s, i]; the loop runs in slices (a plain function, which V8 optimises as it runs)
+  let windowStart = 0;
+  const scan = (from: number, to: number) => {
+    let s = windowStart;
+    for (let i = from; i < to; i++) {
+      if (spanStart[i] === i) {
+        s = i;
+        for (const w of sums) w.restart();
+        inMax?.reset(); inMin?.reset(); qMax?.reset(); qMin?.reset(); aMax?.reset(); aMin?.reset();
+      }
+      for (const w of sums) w.add(i);
+      inMax?.push(i); inMin?.push(i); qMax?.push(i); qMin?.push(i); aMax?.push(i); aMin?.push(i);
+      while (s < i && t[i] - t[s + 1] >= c.windowS) { for (const w of sums) w.drop(s); s++; }
+      if (t[i] - t[s] < c.windowS) continue;
+      const k = i - s + 1;
+      if (sumO && Math.abs(slopeOf(sumO, sumTO!, k)) > c.maxOutletSlopeKPerS!) continue;
+      if (sumI && Math.abs(slopeOf(sumI, sumTI!, k)) > c.maxInletSlopeKPerS!) continue;
+      if (sumSIn) {
+        const mean = sumSIn.sum / k + i0;
+        const tol = Math.max(c.inletTolK!, c.inletTolFraction * Math.abs(mean));
+        if (inMax!.value(s) - mean > tol || mean - inMin!.value(s) > tol) continue;
+      }
+      if (sumSQ) {
+        const mean = sumSQ.sum / k + q0;
+        const tol = Math.max(c.flowTolFraction! * Math.abs(mean), c.flowTolAbsM3PerS);
+        if (qMax!.value(s) - mean > tol || mean - qMin!.value(s) > tol) continue;
+      }
+      if (sumQ) {
+        const sq = sumQ.sum;
+        const mean = sq / k + q0;
+        const v = Math.max(0, (sumQQ!.sum - (sq * sq) / k) / (k - 1));
+        if (!(mean > 0) || Math.sqrt(v) / mean > c.maxFlowCv!) continue;
+      }
+      if (sumSAmb) {
+        const mean = sumSAmb.sum / k + sAmb![0];
+        if (aMax!.value(s) - mean > c.ambientTolK! || mean - aMin!.value(s) > c.ambientTolK!) continue;
+      }
+      paint[s]++; paint[i + 1]--;
     }
-    if (PsQ) {
-      const mean = (PsQ[i + 1] - PsQ[s]) / k + q0;
-      const tol = Math.max(c.flowTolFraction! * Math.abs(mean), c.flowTolAbsM3PerS);
-      if (qMax.value(s) - mean > tol || mean - qMin.value(s) > tol) continue;
-    }
-    if (Pq) {
-      const sq = Pq[i + 1] - Pq[s];
-      const mean = sq / k + q0;
-      const v = Math.max(0, (Pqq![i + 1] - Pqq![s] - (sq * sq) / k) / (k - 1));
-      if (!(mean > 0) || Math.sqrt(v) / mean > c.maxFlowCv!) continue;
-    }
-    if (PsAmb) {
-      const mean = (PsAmb[i + 1] - PsAmb[s]) / k + sAmb![0];
-      if (aMax!.value(s) - mean > c.ambientTolK! || mean - aMin!.value(s) > c.ambientTolK!) continue;
-    }
-    paint[s]++; paint[i + 1]--;
+    windowStart = s;
+  };
+  for (let from = 0; from < n; from += SLICE) {
+    if (from > 0) yield;
+    scan(from, Math.min(n, from + SLICE));
   }
 
   // 3–4. runs → pieces → segments
@@ -183,14 +218,20 @@ export function segmentLog(log: LogChannels, criteria: PresetName | SteadyCriter
   const reject = (a: number, b: number, reason: string) => rejected.push({ startIndex: a, endIndex: b, startTimeS: t[a], endTimeS: t[b], reason });
 
   let depth = 0, runStart = -1;
-  for (let i = 0; i <= n; i++) {
-    const steady = i < n && (depth += paint[i]) > 0 && (runStart < 0 || spanStart[i] === spanStart[runStart]);
-    if (steady && runStart < 0) { runStart = i; continue; }
-    if (!steady && runStart >= 0) {
-      handleRun(runStart, i - 1);
-      runStart = -1;
-      if (i < n && depth > 0) runStart = i; // a new span starts steady right after a gap
+  const runs = (from: number, to: number) => {
+    for (let i = from; i < to; i++) {
+      const steady = i < n && (depth += paint[i]) > 0 && (runStart < 0 || spanStart[i] === spanStart[runStart]);
+      if (steady && runStart < 0) { runStart = i; continue; }
+      if (!steady && runStart >= 0) {
+        handleRun(runStart, i - 1);
+        runStart = -1;
+        if (i < n && depth > 0) runStart = i; // a new span starts steady right after a gap
+      }
     }
+  };
+  for (let from = 0; from <= n; from += SLICE) {
+    if (from > 0) yield;
+    runs(from, Math.min(n + 1, from + SLICE));
   }
 
   function handleRun(a0: number, b: number) {

@@ -56,7 +56,13 @@ function JobView({ job, canCancel, onChanged }: { job: ImportJobDto; canCancel: 
         <p className="text-sm" role="status">
           <span className="num">{(job.result.samples ?? 0).toLocaleString('en')}</span> samples stored,{' '}
           <span className="num">{job.result.trials ?? 0}</span> steady trial{job.result.trials === 1 ? '' : 's'} made
-          {job.result.excludedRows ? <>, <span className="num">{job.result.excludedRows}</span> row{job.result.excludedRows === 1 ? '' : 's'} left out</> : null}.
+          {job.result.excludedRows || job.result.skippedRows ? (
+            <>
+              , <span className="num">{((job.result.excludedRows ?? 0) + (job.result.skippedRows ?? 0)).toLocaleString('en')}</span> row
+              {(job.result.excludedRows ?? 0) + (job.result.skippedRows ?? 0) === 1 ? '' : 's'} left out
+            </>
+          ) : null}
+          .
         </p>
       ) : null}
       {job.error && !active ? <p className={`text-sm ${job.state === 'failed' ? 'text-danger-text' : 'text-ink-muted'}`}>{job.error}</p> : null}

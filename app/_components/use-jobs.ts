@@ -14,7 +14,7 @@ export interface ImportJobDto {
   progress: { bytesDone: number; bytesTotal: number; rowsDone: number; fraction: number };
   attempts: number;
   cancelRequested: boolean;
-  result: { samples?: number; trials?: number; excludedRows?: number; notices?: string[] } | null;
+  result: { samples?: number; trials?: number; excludedRows?: number; skippedRows?: number; notices?: string[] } | null;
   error: string | null;
   createdAt: string;
   startedAt: string | null;

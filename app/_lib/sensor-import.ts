@@ -1,24 +1,27 @@
 import 'server-only';
 import { randomUUID } from 'node:crypto';
-import { Readable } from 'node:stream';
-import { pipeline } from 'node:stream/promises';
+import type { Writable } from 'node:stream';
+import { finished } from 'node:stream/promises';
+import { setImmediate } from 'node:timers/promises';
 import pg from 'pg';
 import { from as copyFrom } from 'pg-copy-streams';
 import { z } from 'zod';
-import { PRESETS, resolveCriteria, segmentLog, segmentStats, type PresetName, type SegmentStats, type SteadyCriteria } from '@/analysis/segment';
+import { PRESETS, resolveCriteria, segmentLog, segmentLogSteps, segmentStats, type PresetName, type SegmentationResult, type SegmentStats, type SteadyCriteria } from '@/analysis/segment';
 import { ImportError, confirmedMappingSchema, createSensorLogBuilder, openDelimited, type RowIssue, type SensorLog } from './import';
 import { getObjectStream } from './storage';
 import { writeSensorOverview } from './sensor-overview';
 
 /**
- * Sensor-log import: the stored file is streamed from object storage, parsed in row batches,
- * converted to SI and checked row by row, written to `sensor_sample` with COPY, segmented into
- * steady periods, and each accepted period becomes a trial — all in one transaction on one
- * connection, so a bad row halfway through, a database error or a cancellation leaves nothing.
- * Memory stays bounded: one text chunk and one batch of rows at a time, plus the channels as
- * Float64Arrays for the segmenter (about 44 bytes a sample). Rows go to COPY in its binary format.
+ * Sensor-log import: the stored file is streamed from object storage, read in blocks of rows,
+ * converted to SI and checked row by row (the fast row path, or papaparse and the zod sample schema
+ * for any row it does not take), written to `sensor_sample` with COPY, segmented into steady
+ * periods, and each accepted period becomes a trial — all in one transaction on one connection, so
+ * a bad row halfway through, a database error or a cancellation leaves nothing.
+ * Memory stays bounded: one text chunk and one block of rows at a time, a fixed pool of COPY
+ * buffers, plus the channels as Float64Arrays for the segmenter (about 44 bytes a sample). Rows go
+ * to COPY in its binary format; PostgreSQL ingests while the next rows are read (two processes on
+ * two cores), and the segmentation runs in slices while it works through the last of them.
  */
-
 const g = globalThis as typeof globalThis & { __emberlinePgPool?: pg.Pool };
 
 /** One plain `pg` pool per process for COPY (MikroORM's pool stays with the ORM). */
@@ -45,8 +48,10 @@ export const logImportInput = z
     mapping: confirmedMappingSchema.refine((m) => m.shape === 'sensorLog', { message: 'the mapping must have shape "sensorLog"' }),
     preset: z.enum(['laboratory', 'collector', 'field']).default('laboratory'),
     criteria: criteriaEdits.optional(),
-    /** lines the engineer left out; any other rejected row refuses the whole import */
+    /** lines the engineer left out; any other rejected row refuses the whole import (unless skipInvalidRows) */
     excludedLines: z.array(z.number().int().positive()).max(100_000).default([]),
+    /** leave out every row that cannot be read (counted in the result) instead of refusing the file */
+    skipInvalidRows: z.boolean().default(false),
     /** the periods the engineer accepted (source lines, inclusive); all steady segments when absent */
     segments: z.array(z.object({ startLine: z.number().int().positive(), endLine: z.number().int().positive() }).strict()).max(10_000).optional(),
   })
@@ -77,12 +82,16 @@ export interface SensorImportOptions {
   /** The file's bytes; object storage by default (the benchmark reads a local file). */
   open?: () => Promise<AsyncIterable<Uint8Array>>;
   batchSize?: number;
+  /** Told when a phase ends: `parsed` (every row read and sent), `copied`, `segmented`, `trials`, `committed` (for the benchmark's trace). */
+  onPhase?: (phase: 'parsed' | 'copied' | 'segmented' | 'trials' | 'committed') => void;
 }
 
 export interface SensorImportResult {
   samples: number;
   trials: number;
   excludedRows: number;
+  /** rows that could not be read and were left out (skipInvalidRows) */
+  skippedRows: number;
   segmentsFound: number;
   rejectedRuns: number;
   gaps: number;
@@ -102,17 +111,6 @@ export class ImportCancelled extends Error {
 /** Thrown when the file has already been imported. */
 export class AlreadyImported extends Error {}
 
-class Grow<T extends Float64Array | Int32Array> {
-  n = 0;
-  constructor(public a: T, private readonly make: (n: number) => T) {}
-  push(x: number) {
-    if (this.n === this.a.length) { const b = this.make(this.a.length * 2); b.set(this.a); this.a = b; }
-    this.a[this.n++] = x;
-  }
-  done(): T { return this.a.subarray(0, this.n) as T; }
-}
-const f64 = (n = 1 << 16) => new Grow(new Float64Array(n), (k) => new Float64Array(k));
-
 const COPY_SQL = 'COPY sensor_sample (source_file_id, line, rig_id, taken_at, inlet_c, outlet_c, flow_m3_per_s, ambient_c) FROM STDIN (FORMAT binary)';
 
 /*
@@ -123,12 +121,92 @@ const COPY_SQL = 'COPY sensor_sample (source_file_id, line, rig_id, taken_at, in
  */
 const COPY_SIGNATURE = Buffer.concat([Buffer.from('PGCOPY\n\xff\r\n\0', 'latin1'), Buffer.alloc(8)]);
 const COPY_TRAILER = Buffer.from([0xff, 0xff]);
-const ROW_BYTES = 2 + (4 + 16) + (4 + 4) + (4 + 16) + (4 + 8) + 4 * (4 + 8);
+const ROW_BYTES = 2 + (4 + 16) + (4 + 4) + (4 + 16) + (4 + 8) + 4 * (4 + 8); // 110
 const PG_EPOCH_S = 946_684_800;
-const uuidBytes = (id: string) => {
+const uuidWords = (id: string) => {
   const b = Buffer.from(id.replace(/-/g, ''), 'hex');
   if (b.length !== 16) throw new TypeError(`not a uuid: ${id}`);
-  return b;
+  return [b.readInt32BE(0), b.readInt32BE(4), b.readInt32BE(8), b.readInt32BE(12)];
+};
+
+/**
+ * Writes one sample as a binary COPY row at `at` and returns the offset after it: the file and
+ * rig uuids, the line, taken_at and the four readings (ambient NULL when NaN). DataView calls
+ * only, no Buffer copies per row.
+ */
+function rowEncoder(fileId: string, rigId: string) {
+  const [f0, f1, f2, f3] = uuidWords(fileId);
+  const [r0, r1, r2, r3] = uuidWords(rigId);
+  return (dv: DataView, at: number, line: number, epochS: number, inC: number, outC: number, flow: number, ambC: number): number => {
+    dv.setInt16(at, 8);
+    dv.setInt32(at + 2, 16); dv.setInt32(at + 6, f0); dv.setInt32(at + 10, f1); dv.setInt32(at + 14, f2); dv.setInt32(at + 18, f3);
+    dv.setInt32(at + 22, 4); dv.setInt32(at + 26, line);
+    dv.setInt32(at + 30, 16); dv.setInt32(at + 34, r0); dv.setInt32(at + 38, r1); dv.setInt32(at + 42, r2); dv.setInt32(at + 46, r3);
+    const us = Math.round((epochS - PG_EPOCH_S) * 1e6);
+    const hi = Math.floor(us / 4294967296);
+    dv.setInt32(at + 50, 8); dv.setInt32(at + 54, hi); dv.setUint32(at + 58, us - hi * 4294967296);
+    dv.setInt32(at + 62, 8); dv.setFloat64(at + 66, inC);
+    dv.setInt32(at + 74, 8); dv.setFloat64(at + 78, outC);
+    dv.setInt32(at + 86, 8); dv.setFloat64(at + 90, flow);
+    if (ambC !== ambC) { dv.setInt32(at + 98, -1); return at + 102; }
+    dv.setInt32(at + 98, 8); dv.setFloat64(at + 102, ambC);
+    return at + 110;
+  };
+}
+
+/** 96 × 256 KiB: PostgreSQL's lead (about 220,000 rows) covers the segmentation that runs meanwhile */
+const COPY_BUFFER_BYTES = 256 * 1024;
+const COPY_BUFFERS = 96;
+
+/**
+ * COPY FROM STDIN through a fixed set of reused buffers: a buffer goes back to the pool when the
+ * socket has taken its bytes (the write's callback), and waiting for a free one is the
+ * back-pressure. Fresh buffers for 110 MB of rows would cost a page fault per 4 KiB, which on
+ * this kind of machine takes longer than encoding the rows (filling a new 8 MB array: 55–120 ms;
+ * refilling it: 1–2 ms).
+ */
+class CopyWriter {
+  private readonly free: { buf: Buffer; dv: DataView }[] = [];
+  private waiting: (() => void) | null = null;
+  private failed: Error | null = null;
+  /** resolves when PostgreSQL has taken every row (after the trailer), rejects on its error */
+  readonly done: Promise<void>;
+  constructor(private readonly stream: Writable) {
+    for (let i = 0; i < COPY_BUFFERS; i++) {
+      const buf = Buffer.allocUnsafeSlow(COPY_BUFFER_BYTES);
+      this.free.push({ buf, dv: new DataView(buf.buffer, buf.byteOffset, buf.byteLength) });
+    }
+    this.done = finished(stream);
+    this.done.catch((e: Error) => { this.failed = e; this.wake(); });
+  }
+  /** a free buffer (waits while all are on their way to the server) */
+  async take(): Promise<{ buf: Buffer; dv: DataView }> {
+    for (;;) {
+      if (this.failed) throw this.failed;
+      const b = this.free.pop();
+      if (b) return b;
+      await new Promise<void>((resolve) => { this.waiting = resolve; });
+    }
+  }
+  /** sends the first `length` bytes of a buffer from `take`, which then goes back to the pool */
+  send(b: { buf: Buffer; dv: DataView }, length: number) {
+    this.stream.write(b.buf.subarray(0, length), () => { this.free.push(b); this.wake(); });
+  }
+  /** sends bytes that are not from the pool */
+  sendBytes(bytes: Buffer) { this.stream.write(bytes); }
+  end(trailer: Buffer) { this.stream.end(trailer); }
+  /** cancels the COPY (CopyFail: the server drops what it received) and waits until it is over */
+  async abort(e: unknown) {
+    if (!this.stream.destroyed) this.stream.destroy(e instanceof Error ? e : new Error(String(e)));
+    await this.done.catch(() => undefined);
+  }
+  private wake() { const w = this.waiting; this.waiting = null; w?.(); }
+}
+
+const channelsOf = (log: SensorLog) => {
+  let ambientTempC = log.ambientTempC;
+  if (ambientTempC) for (let i = 0; i < ambientTempC.length; i++) if (Number.isNaN(ambientTempC[i])) { ambientTempC = null; break; }
+  return { timeS: log.timeS, inletTempC: log.inletTempC, outletTempC: log.outletTempC, flowM3PerS: log.flowM3PerS, ambientTempC };
 };
 
 function rowError(issue: RowIssue, file: string): ImportError {
@@ -167,111 +245,91 @@ export async function importSensorLog(target: SensorImportTarget, input: LogImpo
     const locked = await client.query<{ state: string }>('SELECT state FROM source_file WHERE id = $1 FOR UPDATE', [target.fileId]);
     if (!locked.rows.length) throw new ImportError('unreadable', 'the uploaded file no longer exists', { file });
     if (locked.rows[0].state === 'imported') throw new AlreadyImported(`"${file}" has already been imported.`);
+    // sensor_sample has no foreign keys (see entities/sensor-sample.ts): this lock keeps the rig
+    // from going away before we commit, as the per-row key checks did
+    const rig = await client.query('SELECT 1 FROM rig WHERE id = $1 FOR KEY SHARE', [target.rigId]);
+    if (!rig.rows.length) throw new ImportError('unreadable', 'the rig no longer exists', { file });
 
     const src = await openDelimited(counted(), { fileName: file, batchSize: options.batchSize });
-    // validates the mapping against the header before anything is written
-    createSensorLogBuilder(input.mapping, src.header, { file });
+    // validates the mapping against the header before anything is written; excluded lines are
+    // left out before they are read, and any other rejected row refuses the whole import
+    const builder = createSensorLogBuilder(input.mapping, src.header, { file }, { maxIssues: 1, excludedLines: excluded, text: src.dialect, sizeHintBytes: target.sizeBytes });
 
-    const t = f64(), tin = f64(), tout = f64(), q = f64(), amb = f64();
-    const lines = new Grow(new Int32Array(1 << 16), (k) => new Int32Array(k));
-    let hasAmbient = false;
-    let excludedRows = 0;
-    let t0Epoch: number | null = null; // epoch s of the first accepted sample
-    let prevEpoch = -Infinity;
-    let clockDay = 0; // s added to clock times after midnight roll-overs
     const dayStart = Math.floor(target.uploadedAt.getTime() / 86_400_000) * 86_400;
     const uploadedS = target.uploadedAt.getTime() / 1000;
-    const pl = { outletBelowInlet: 0, aboveBoiling: 0, nonPositiveFlow: 0 };
-    const notices = new Set<string>();
     const fileId = target.fileId, rigId = target.rigId;
     let lastReport = Date.now();
+    let written = 0; // samples encoded for COPY so far
+    let epochBase = NaN; // epoch s of time zero of the builder's timeS
+    let t0Epoch = NaN; // epoch s of the first sample
+    let seg: SegmentationResult | undefined;
 
     const report = async (force = false) => {
       if (!options.onProgress) return;
       const now = Date.now();
       if (!force && now - lastReport < progressMs) return;
       lastReport = now;
-      if (await options.onProgress({ bytesDone, bytesTotal, rowsDone: t.n })) throw new ImportCancelled();
+      if (await options.onProgress({ bytesDone, bytesTotal, rowsDone: written })) throw new ImportCancelled();
     };
 
-    const fileUuid = uuidBytes(fileId), rigUuid = uuidBytes(rigId);
-    async function* copyData(): AsyncGenerator<Buffer> {
-      yield COPY_SIGNATURE;
-      for await (const batch of src.batches()) {
-        // One builder per batch: the samples it accepts are exactly this batch's (the builder
-        // counts time from its first sample, which we turn back into epoch seconds below).
-        const b = createSensorLogBuilder(input.mapping, src.header, { file }, { maxIssues: batch.rows.length });
-        b.add(batch);
-        const log = b.finish();
-        for (const issue of log.issues) {
-          if (excluded.has(issue.line)) excludedRows++;
-          else throw rowError(issue, file);
+    const row = rowEncoder(fileId, rigId);
+    const copy = new CopyWriter(client.query(copyFrom(COPY_SQL)));
+    let log: SensorLog;
+    let channels: ReturnType<typeof channelsOf>;
+    try {
+      copy.sendBytes(COPY_SIGNATURE);
+      for await (const block of src.blocks()) {
+        builder.add(block);
+        const s = builder.accepted();
+        if (s.rejectedCount && !input.skipInvalidRows) throw rowError(s.issues[0], file);
+        if (Number.isNaN(epochBase) && s.n > 0) {
+          const o = s.origin!;
+          epochBase = o.kind === 'datetime' ? o.epochS : o.kind === 'elapsed' ? uploadedS + o.seconds : dayStart;
+          t0Epoch = epochBase + s.timeS[0];
         }
-        for (const n of log.notices) notices.add(n);
-        pl.outletBelowInlet += log.plausibility.outletBelowInlet;
-        pl.aboveBoiling += log.plausibility.aboveBoiling;
-        pl.nonPositiveFlow += log.plausibility.nonPositiveFlow;
-        const o = log.timeOrigin;
-        let base: number;
-        if (o.kind === 'datetime') base = o.epochS;
-        else if (o.kind === 'elapsed') base = uploadedS + o.seconds;
-        else {
-          const [h, m, s] = o.iso.split(':').map(Number);
-          base = dayStart + clockDay + h * 3600 + m * 60 + s;
-          if (base < prevEpoch - 43_200) { clockDay += 86_400; base += 86_400; }
-        }
-        if (log.ambientTempC) hasAmbient = true;
-        const buf = Buffer.allocUnsafe(log.n * ROW_BYTES);
-        const dv = new DataView(buf.buffer, buf.byteOffset, buf.byteLength);
-        let at = 0;
-        for (let i = 0; i < log.n; i++) {
-          const line = log.lines[i];
-          if (excluded.has(line)) { excludedRows++; continue; }
-          const epoch = base + log.timeS[i];
-          if (!(epoch > prevEpoch)) {
-            throw rowError({ line, severity: 'error', code: 'time_not_increasing', field: 'timeS', message: 'time does not increase from the row before' } as RowIssue, file);
+        const amb = s.ambientTempC.length > 0;
+        for (let i = written; i < s.n;) {
+          const b = await copy.take();
+          const dv = b.dv;
+          let at = 0;
+          for (; i < s.n && at <= COPY_BUFFER_BYTES - ROW_BYTES; i++) {
+            at = row(dv, at, s.lines[i], epochBase + s.timeS[i], s.inletTempC[i], s.outletTempC[i], s.flowM3PerS[i], amb ? s.ambientTempC[i] : NaN);
           }
-          prevEpoch = epoch;
-          if (t0Epoch === null) t0Epoch = epoch;
-          const a = log.ambientTempC ? log.ambientTempC[i] : NaN;
-          const ti = log.inletTempC[i], to = log.outletTempC[i], qi = log.flowM3PerS[i];
-          t.push(epoch - t0Epoch); tin.push(ti); tout.push(to); q.push(qi); amb.push(a);
-          lines.push(line);
-          dv.setInt16(at, 8); at += 2;
-          dv.setInt32(at, 16); fileUuid.copy(buf, at + 4); at += 20;
-          dv.setInt32(at, 4); dv.setInt32(at + 4, line); at += 8;
-          dv.setInt32(at, 16); rigUuid.copy(buf, at + 4); at += 20;
-          const us = Math.round((epoch - PG_EPOCH_S) * 1e6);
-          const hi = Math.floor(us / 4294967296);
-          dv.setInt32(at, 8); dv.setInt32(at + 4, hi); dv.setUint32(at + 8, us - hi * 4294967296); at += 12;
-          dv.setInt32(at, 8); dv.setFloat64(at + 4, ti); at += 12;
-          dv.setInt32(at, 8); dv.setFloat64(at + 4, to); at += 12;
-          dv.setInt32(at, 8); dv.setFloat64(at + 4, qi); at += 12;
-          if (Number.isNaN(a)) { dv.setInt32(at, -1); at += 4; } else { dv.setInt32(at, 8); dv.setFloat64(at + 4, a); at += 12; }
+          copy.send(b, at);
         }
-        if (at) yield buf.subarray(0, at);
+        written = s.n;
         await report();
       }
-      yield COPY_TRAILER;
-    }
-
-    try {
-      await pipeline(Readable.from(copyData()), client.query(copyFrom(COPY_SQL)));
+      options.onPhase?.('parsed');
+      copy.end(COPY_TRAILER);
+      // PostgreSQL is still working through the rows in the pool and the socket: segment meanwhile,
+      // in slices, so that the event loop keeps handing the pooled buffers on between them
+      log = builder.finish();
+      channels = channelsOf(log);
+      if (log.n > 0) {
+        const steps = segmentLogSteps(channels, criteria);
+        for (let r = steps.next(); ; r = steps.next()) {
+          if (r.done) { seg = r.value; break; }
+          await setImmediate();
+        }
+      }
+      await copy.done;
     } catch (e) {
+      await copy.abort(e);
       broken = !(e instanceof ImportError || e instanceof ImportCancelled);
       if (e instanceof Error && 'code' in e && typeof (e as { code?: unknown }).code === 'string' && /^[0-9A-Z]{5}$/.test((e as { code: string }).code)) {
         throw new ImportError('unreadable', `the database refused the samples (${e.message}); nothing was imported`, { file });
       }
       throw e;
     }
+    options.onPhase?.('copied');
     await report(true);
-    if (t.n === 0) throw new ImportError('empty_file', 'no samples to import (every row is excluded or the log is empty)', { file });
+    if (log.n === 0) throw new ImportError('empty_file', 'no samples to import (every row is excluded or the log is empty)', { file });
+    const { excludedCount: excludedRows, plausibility: pl, notices } = log;
 
-    const channels = { timeS: t.done(), inletTempC: tin.done(), outletTempC: tout.done(), flowM3PerS: q.done(), ambientTempC: hasAmbient ? amb.done() : null };
-    if (hasAmbient) for (let i = 0; i < channels.timeS.length; i++) if (Number.isNaN(channels.ambientTempC![i])) { channels.ambientTempC = null; break; }
-    const seg = segmentLog(channels, criteria);
-    await writeSensorOverview(client, { fileId, rigId, startEpochS: t0Epoch! }, channels, seg);
-    const ln = lines.done();
+    if (!seg) seg = segmentLog(channels, criteria);
+    options.onPhase?.('segmented');
+    const ln = log.lines;
     const pieces: { a: number; b: number; st: SegmentStats; extra: Record<string, unknown> }[] = [];
     if (input.segments) {
       for (const s of input.segments) {
@@ -287,28 +345,38 @@ export async function importSensorLog(target: SensorImportTarget, input: LogImpo
       }
     }
 
-    const trialRows = pieces.map(({ a, b, st, extra }) => {
-      const startedAt = new Date(Math.round((t0Epoch! + channels.timeS[a]) * 1000));
+    // the display overview of the log, with the periods that become trials
+    await writeSensorOverview(client, { fileId, rigId, startEpochS: t0Epoch }, channels, {
+      segments: pieces.map(({ a, b, st }) => ({ startTimeS: channels.timeS[a], endTimeS: channels.timeS[b], mean: st.mean })),
+    });
+
+    // one statement for all trials: a column array per field (uuid, timestamptz, float8, int, jsonb)
+    const cols: unknown[][] = Array.from({ length: 8 }, () => []);
+    for (const { a, b, st, extra } of pieces) {
       const segment = {
         criteria, startLine: ln[a], endLine: ln[b], startTimeS: channels.timeS[a], endTimeS: channels.timeS[b],
         durationS: channels.timeS[b] - channels.timeS[a], n: st.n, mean: st.mean, sd: st.sd, blockStdError: st.blockStdError,
         blocks: st.blocks, outletSlopeKPerS: st.outletSlopeKPerS, inletSlopeKPerS: st.inletSlopeKPerS, ...extra,
       };
-      return [randomUUID(), target.labId, rigId, startedAt, st.mean.flowM3PerS, st.mean.inletTempC, st.mean.outletTempC, st.mean.ambientTempC, fileId, ln[a], JSON.stringify(segment)];
-    });
-    for (let i = 0; i < trialRows.length; i += 500) {
-      const chunk = trialRows.slice(i, i + 500);
-      const values = chunk.map((_, r) => `(${Array.from({ length: 11 }, (_, c) => `$${r * 11 + c + 1}`).join(', ')}, now(), now(), 'log-segment')`).join(', ');
+      const values = [randomUUID(), new Date(Math.round((t0Epoch + channels.timeS[a]) * 1000)), st.mean.flowM3PerS, st.mean.inletTempC, st.mean.outletTempC, st.mean.ambientTempC, ln[a], JSON.stringify(segment)];
+      values.forEach((v, c) => cols[c].push(v));
+    }
+    if (pieces.length) {
       await client.query(
-        `INSERT INTO trial (id, lab_id, rig_id, started_at, flow_m3_per_s, inlet_c, outlet_c, ambient_c, source_file_id, source_line, segment, created_at, updated_at, origin) VALUES ${values}`,
-        chunk.flat(),
+        `INSERT INTO trial (id, lab_id, rig_id, started_at, flow_m3_per_s, inlet_c, outlet_c, ambient_c, source_file_id, source_line, segment, created_at, updated_at, origin)
+         SELECT id, $9, $10, started_at, flow, inlet, outlet, ambient, $11, line, segment, now(), now(), 'log-segment'
+         FROM unnest($1::uuid[], $2::timestamptz[], $3::float8[], $4::float8[], $5::float8[], $6::float8[], $7::int[], $8::jsonb[])
+           AS t (id, started_at, flow, inlet, outlet, ambient, line, segment)`,
+        [...cols, target.labId, rigId, fileId],
       );
     }
-    await client.query(`UPDATE source_file SET state = 'imported', rows_imported = $2, rig_id = $3, updated_at = now() WHERE id = $1`, [fileId, t.n, rigId]);
+    options.onPhase?.('trials');
+    await client.query(`UPDATE source_file SET state = 'imported', rows_imported = $2, rig_id = $3, updated_at = now() WHERE id = $1`, [fileId, log.n, rigId]);
     await client.query('COMMIT');
+    options.onPhase?.('committed');
     return {
-      samples: t.n, trials: trialRows.length, excludedRows, segmentsFound: seg.segments.length, rejectedRuns: seg.rejected.length,
-      gaps: seg.gaps.length, criteria, plausibility: pl, notices: [...notices],
+      samples: log.n, trials: pieces.length, excludedRows, skippedRows: log.rejectedCount, segmentsFound: seg.segments.length, rejectedRuns: seg.rejected.length,
+      gaps: seg.gaps.length, criteria, plausibility: pl, notices,
     };
   } catch (e) {
     try {

@@ -8,6 +8,7 @@ import { Migration20261201223321_accounts } from './Migration20261201223321_acco
 import { Migration20261201225447_trial_import } from './Migration20261201225447_trial_import';
 import { Migration20261201230509_fits_studies_review } from './Migration20261201230509_fits_studies_review';
 import { Migration20261201235511_import_jobs } from './Migration20261201235511_import_jobs';
+import { Migration20261202063741_sensor_sample_storage } from './Migration20261202063741_sensor_sample_storage';
 import { Migration20261202064527_sensor_overview } from './Migration20261202064527_sensor_overview';
 
 export const migrationsList: MigrationObject[] = [
@@ -16,5 +17,6 @@ export const migrationsList: MigrationObject[] = [
   { name: 'Migration20261201225447_trial_import', class: Migration20261201225447_trial_import },
   { name: 'Migration20261201230509_fits_studies_review', class: Migration20261201230509_fits_studies_review },
   { name: 'Migration20261201235511_import_jobs', class: Migration20261201235511_import_jobs },
+  { name: 'Migration20261202063741_sensor_sample_storage', class: Migration20261202063741_sensor_sample_storage },
   { name: 'Migration20261202064527_sensor_overview', class: Migration20261202064527_sensor_overview },
 ];

@@ -9,84 +9,28 @@
  * ±0.02 K and ±0.2 % seeded noise — so every steady trial must sit on one of those set-points
  * (our generator, checked against its own definition).
  */
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import os from 'node:os';
-import path from 'node:path';
 import pg from 'pg';
 import { afterAll, describe, expect, test } from 'vitest';
-import { writeSensorLogCsv } from '../../bench/import-parse';
 import { getEm, getOrm } from '@/app/_lib/db';
 import { createImportJobRow, enqueueSensorImport, newBoss, recoverInterruptedJobs, startBoss, workSensorImports } from '@/app/_lib/jobs';
 import { ImportCancelled, copyPool, importSensorLog, logImportInput } from '@/app/_lib/sensor-import';
 import { ImportError } from '@/app/_lib/import/import-error';
 import { Rig, SourceFile, User } from '@/entities';
-import { Client, baseUrl, signedIn } from './support/client';
+import { Client, signedIn } from './support/client';
+import { LOG_MAPPING as MAPPING, engineerWithRig, jobFinished as finished, logFolder, uploadRaw as upload } from './support/sensor-logs';
 
 const db = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 2 });
-const tmp = mkdtempSync(path.join(os.tmpdir(), 'emberline-sensor-test-'));
+const logs = logFolder('sensor-test');
 
 afterAll(async () => {
-  rmSync(tmp, { recursive: true, force: true });
+  logs.remove();
   await db.end();
   await copyPool().end();
   await (await getOrm()).close(true);
 });
 
-const MAPPING = {
-  shape: 'sensorLog',
-  decimal: '.',
-  columns: [
-    { column: 0, header: 'timestamp', field: 'time', unit: 'datetime' },
-    { column: 1, header: 'T_in [C]', field: 'inletTemp', unit: 'degC' },
-    { column: 2, header: 'T_out [C]', field: 'outletTemp', unit: 'degC' },
-    { column: 3, header: 'flow [l/min]', field: 'flow', unit: 'L/min' },
-    { column: 4, header: 'ambient [C]', field: 'ambientTemp', unit: 'degC' },
-  ],
-};
-
-let seq = 0;
-/** A generated log; `seed` varies per call so that each upload is new bytes. */
-async function makeLog(rows: number, edit?: (lines: string[]) => void): Promise<Buffer> {
-  const file = path.join(tmp, `log-${seq++}.csv`);
-  await writeSensorLogCsv(file, { rows, seed: Date.now() % 100_000 + seq });
-  if (!edit) return readFileSync(file);
-  const lines = readFileSync(file, 'utf8').split('\n');
-  edit(lines);
-  writeFileSync(file, lines.join('\n'));
-  return readFileSync(file);
-}
-
-async function setup() {
-  const eng = await signedIn('engineer@cinder-hollow.test');
-  const lab = (await eng.get('/api/me')).body.labs[0];
-  const name = `Log rig ${Date.now().toString(36)}${Math.random().toString(36).slice(2, 6)}`;
-  const rig = (await eng.post(`/api/labs/${lab.id}/rigs`, { name, heatSource: 'propane-burner' })).body.rig;
-  expect(rig?.id).toBeTruthy();
-  return { eng, lab, rig };
-}
-
-async function upload(c: Client, rigId: string, name: string, body: Buffer) {
-  const res = await fetch(`${baseUrl}/api/rigs/${rigId}/uploads?filename=${encodeURIComponent(name)}`, {
-    method: 'POST',
-    headers: { Origin: baseUrl, Cookie: [...c.cookies].map(([k, v]) => `${k}=${v}`).join('; '), 'Content-Type': 'text/csv', 'X-Forwarded-For': c.ip },
-    body: new Uint8Array(body),
-  });
-  const json = await res.json();
-  expect(res.status, JSON.stringify(json)).toBe(201);
-  return json.file as { id: string; sizeBytes: number };
-}
-
-/** Polls the job until it has finished (the worker picks it up within about a second). */
-async function finished(c: Client, jobId: string, limitMs = 90_000) {
-  const until = Date.now() + limitMs;
-  for (;;) {
-    const r = await c.get(`/api/jobs/${jobId}`);
-    expect(r.status, r.text).toBe(200);
-    if (['completed', 'failed', 'cancelled'].includes(r.body.job.state)) return r.body.job;
-    if (Date.now() > until) throw new Error(`job ${jobId} still ${r.body.job.state} after ${limitMs} ms`);
-    await new Promise((res) => setTimeout(res, 250));
-  }
-}
+const makeLog = logs.make;
+const setup = () => engineerWithRig('Log rig');
 
 const stored = async (fileId: string) => {
   const s = await db.query('SELECT count(*)::int AS n FROM sensor_sample WHERE source_file_id = $1', [fileId]);
@@ -298,6 +242,53 @@ describe('sensor-log import', () => {
     } finally {
       await b.stop({ graceful: true, wait: true });
     }
+  });
+
+  test('deleting a source file, a rig or a lab deletes their samples (triggers stand in for the foreign keys)', { timeout: 120_000 }, async () => {
+    const samplesOf = async (fileId: string) => (await db.query('SELECT count(*)::int AS n FROM sensor_sample WHERE source_file_id = $1', [fileId])).rows[0].n as number;
+    const importLog = async (c: Client, rigId: string, name: string, rows: number) => {
+      const f = await upload(c, rigId, name, await makeLog(rows));
+      const r = await c.post(`/api/rigs/${rigId}/uploads/${f.id}/log-import`, { mapping: MAPPING, preset: 'field' });
+      expect(r.status, r.text).toBe(202);
+      const job = await finished(c, r.body.job.id);
+      expect(job.state, job.error).toBe('completed');
+      expect(await samplesOf(f.id)).toBe(rows);
+      return f.id;
+    };
+    const { eng, rig } = await setup();
+    const a = await importLog(eng, rig.id, 'a.csv', 1500);
+    const b = await importLog(eng, rig.id, 'b.csv', 1200);
+    const other = await setup();
+    const c = await importLog(other.eng, other.rig.id, 'c.csv', 1000);
+
+    await db.query('DELETE FROM source_file WHERE id = $1', [a]);
+    expect([await samplesOf(a), await samplesOf(b), await samplesOf(c)]).toEqual([0, 1200, 1000]);
+    await db.query('DELETE FROM rig WHERE id = $1', [rig.id]);
+    expect([await samplesOf(b), await samplesOf(c)]).toEqual([0, 1000]);
+    // the file itself stays (its rig set to null), as before
+    expect((await db.query('SELECT rig_id FROM source_file WHERE id = $1', [b])).rows).toEqual([{ rig_id: null }]);
+
+    // a lab of its own, deleted as a whole: its rigs and files go by cascade, and their samples with them
+    const owner = new Client();
+    const email = `sample-owner-${Date.now().toString(36)}@example.test`;
+    expect((await owner.post('/api/auth/sign-up', { email, name: 'Sample Owner', password: 'copper coil over a slow fire', labName: 'Sample Bench' })).status).toBe(201);
+    const signed = await signedIn(email, 'copper coil over a slow fire');
+    const lab = (await signed.get('/api/me')).body.labs[0];
+    const ownRig = (await signed.post(`/api/labs/${lab.id}/rigs`, { name: 'Tank loop', heatSource: 'propane-burner' })).body.rig;
+    const d = await importLog(signed, ownRig.id, 'd.csv', 800);
+    await db.query('DELETE FROM lab WHERE id = $1', [lab.id]);
+    expect([await samplesOf(d), await samplesOf(c)]).toEqual([0, 1000]);
+  });
+
+  test('an import for a rig that is gone is refused and writes nothing', async () => {
+    const { eng, rig } = await setup();
+    const file = await upload(eng, rig.id, 'orphan.csv', await makeLog(500));
+    const key = (await db.query('SELECT storage_key FROM source_file WHERE id = $1', [file.id])).rows[0].storage_key;
+    const target = { fileId: file.id, rigId: '00000000-0000-4000-8000-000000000000', labId: rig.labId, filename: 'orphan.csv', storageKey: key, sizeBytes: file.sizeBytes, uploadedAt: new Date() };
+    const err = await importSensorLog(target, logImportInput.parse({ mapping: MAPPING, preset: 'field' })).catch((e: unknown) => e);
+    expect(err).toBeInstanceOf(ImportError);
+    expect((err as Error).message).toMatch(/rig no longer exists/);
+    expect(await stored(file.id)).toEqual({ samples: 0, trials: 0, fileState: 'uploaded' });
   });
 
   test('jobs are not visible outside their lab', async () => {

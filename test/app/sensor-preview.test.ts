@@ -171,4 +171,32 @@ describe('sensor-log preview', () => {
     expect(period.error).toMatchObject({ status: 422 });
     expect(period.error.message).toMatch(/Period 1 ends \(5 min\) before it starts \(10 min\)/);
   });
+
+  test('a log with many unreadable rows is refused at its first one, or imported without them when the engineer says so', { timeout: 120_000 }, async () => {
+    const { eng, rig } = await setup();
+    // a logger that wrote "ERR" for the outlet on every 20th row from line 1001 (300 rows)
+    const broken = (lines: string[]) => {
+      for (let i = 1000; i < 7000; i += 20) lines[i] = lines[i].replace(/^([^,]+),([^,]+),([^,]+),/, '$1,$2,ERR,');
+    };
+    const file = await upload(eng, rig.id, 'dropouts.csv', await makeLog(8000, broken));
+    const r = await segments(eng, rig.id, file.id, { mapping: MAPPING, preset: 'field' });
+    expect(r.result.rejectedCount).toBe(300);
+    expect(r.result.issues.length).toBe(200); // the first 200 are listed
+    expect(r.result.samples).toBe(7700);
+
+    const refused = await eng.post(`/api/rigs/${rig.id}/uploads/${file.id}/log-import`, { mapping: MAPPING, preset: 'field' });
+    const failed = await finished(eng, refused.body.job.id);
+    expect(failed.state).toBe('failed');
+    expect(failed.error).toMatch(/line 1001/);
+    expect((await db.query('SELECT count(*)::int AS n FROM sensor_sample WHERE source_file_id = $1', [file.id])).rows[0].n).toBe(0);
+
+    const periods = r.result.segments.map((s: { startLine: number; endLine: number }) => ({ startLine: s.startLine, endLine: s.endLine }));
+    const started = await eng.post(`/api/rigs/${rig.id}/uploads/${file.id}/log-import`, { mapping: MAPPING, preset: 'field', skipInvalidRows: true, segments: periods });
+    const job = await finished(eng, started.body.job.id);
+    expect(job.state, job.error).toBe('completed');
+    expect(job.result).toMatchObject({ samples: 7700, skippedRows: 300, trials: periods.length });
+    const n = (await db.query('SELECT count(*)::int AS n, count(*) FILTER (WHERE line >= 1001 AND line <= 6981 AND (line - 1001) % 20 = 0)::int AS bad FROM sensor_sample WHERE source_file_id = $1', [file.id])).rows[0];
+    expect(n).toEqual({ n: 7700, bad: 0 });
+  });
 });
+

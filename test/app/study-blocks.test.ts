@@ -11,7 +11,7 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { getOrm } from '@/app/_lib/db';
 import { copyPool } from '@/app/_lib/sensor-import';
 import { Client, STRONG_PASSWORD, baseUrl, signedIn, uniqueEmail } from './support/client';
-import { importGeneratedLog } from './support/sensor-log';
+import { importGeneratedLog } from './support/sensor-logs';
 
 const db = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 2 });
 

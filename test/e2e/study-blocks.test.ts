@@ -10,7 +10,7 @@ import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { openBrowser, resultsDir, screenshot, signInAs, visit } from './support/browser';
 import { signedIn, type Client } from '../app/support/client';
-import { importGeneratedLog } from '../app/support/sensor-log';
+import { importGeneratedLog } from '../app/support/sensor-logs';
 import { getOrm } from '@/app/_lib/db';
 import { copyPool } from '@/app/_lib/sensor-import';
 

@@ -132,6 +132,11 @@ export interface RowMapper {
   map(cells: readonly CellValue[], line: number): { row: MappedTrialRow; issues: RowIssue[] };
   /** Columns whose cells came in more than one unit (call after the last row). */
   mixedUnits(): ColumnUnitReport[];
+  /**
+   * Records a row whose number cells were all read bare, in their column's unit, exactly as `map`
+   * records them (for the fast path of sensor logs, which reads such rows itself).
+   */
+  noteBareRow(line: number): void;
 }
 
 /**
@@ -163,6 +168,9 @@ export function createRowMapper(mapping: ConfirmedMapping, headerLength: number)
     s.count++;
     if (s.firstLines.length < 5) s.firstLines.push(line);
   };
+  const quantityPlans = plans.filter((p) => p.field !== 'time' && p.field !== 'notes');
+  /** each quantity column's record of cells in its own unit, once `note` has made it */
+  let bare: { count: number; firstLines: number[] }[] | null = null;
 
   /** number in SI, or an error message */
   const readQuantity = (p: ColumnPlan, cell: string | number, line: number): number | string => {
@@ -241,6 +249,18 @@ export function createRowMapper(mapping: ConfirmedMapping, headerLength: number)
         if (fills.length) row.fillTimesS = fills;
       }
       return { row, issues };
+    },
+    noteBareRow(line) {
+      if (bare === null) {
+        for (const p of quantityPlans) note(p, p.unit!, line);
+        bare = quantityPlans.map((p) => p.seen.get(p.unit!)!);
+        return;
+      }
+      for (let i = 0; i < bare.length; i++) {
+        const s = bare[i];
+        s.count++;
+        if (s.firstLines.length < 5) s.firstLines.push(line);
+      }
     },
     mixedUnits() {
       const out: ColumnUnitReport[] = [];

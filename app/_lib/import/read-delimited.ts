@@ -46,6 +46,23 @@ export interface MetadataLine {
   text: string;
 }
 
+/**
+ * Complete rows of text in which no quote occurs, so each line is one row and its cells are the
+ * line split at the delimiter (exactly what papaparse does with such text). Blank lines are left
+ * in (they count as lines); every row ends with the newline except perhaps the file's last.
+ */
+export interface TextBlock {
+  /** the rows, in pieces as they came in (each piece ends at a line break, but for the file's last row) */
+  texts: string[];
+  /** 1-based line of the first row */
+  firstLine: number;
+  /** rows in the pieces, blank ones included */
+  rowCount: number;
+}
+
+/** What `blocks()` yields: rows parsed by papaparse where quoting occurs, text elsewhere. */
+export type DataBlock = RowBatch | TextBlock;
+
 export interface DelimitedSource {
   fileName?: string;
   dialect: Dialect;
@@ -53,8 +70,14 @@ export interface DelimitedSource {
   headerLine: number;
   metadata: MetadataLine[];
   warnings: string[];
-  /** The data rows below the header, empty lines skipped; call once. */
+  /** The data rows below the header, empty lines skipped; call once (this or `blocks`). */
   batches(): AsyncGenerator<RowBatch, void, undefined>;
+  /**
+   * The data below the header in blocks of at most `batchSize` rows, in order: text where no
+   * quote occurs (for readers that split rows themselves, much faster than a string per cell),
+   * parsed rows elsewhere; call once (this or `batches`).
+   */
+  blocks(): AsyncGenerator<DataBlock, void, undefined>;
 }
 
 export interface DelimitedTable {
@@ -132,6 +155,17 @@ export async function openDelimited(
   async function* batches(): AsyncGenerator<RowBatch, void, undefined> {
     if (used) throw new Error('batches() of a delimited source can be read only once');
     used = true;
+    for await (const b of produce(false)) yield b as RowBatch;
+  }
+
+  async function* blocks(): AsyncGenerator<DataBlock, void, undefined> {
+    if (used) throw new Error('blocks() of a delimited source can be read only once');
+    used = true;
+    yield* produce(true);
+  }
+
+  /** With `asText`, quote-free stretches become TextBlocks; otherwise everything goes through papaparse. */
+  async function* produce(asText: boolean): AsyncGenerator<DataBlock, void, undefined> {
     const parser = new Papa.Parser({ delimiter, newline, quoteChar: '"' });
     const nlChar = newline === '\r' ? '\r' : '\n';
     let line = 1; // line where the next row starts
@@ -154,8 +188,55 @@ export async function openDelimited(
         lines.push(start);
       }
     };
+    // text blocks: pieces of the block being filled, finished blocks waiting to be yielded
+    const nl: string = newline;
+    let acc: string[] = [];
+    let accRows = 0;
+    let accLine = 0;
+    const ready: DataBlock[] = [];
+    const flushText = () => {
+      if (accRows === 0 && acc.length === 0) return;
+      ready.push({ texts: acc, firstLine: accLine, rowCount: accRows });
+      acc = []; accRows = 0;
+    };
+    /** Rows text[0, end) (complete, quote-free) as text blocks of at most batchSize rows. */
+    const takeText = (text: string, end: number) => {
+      let pos = 0;
+      while (pos < end && rowIndex <= headerIndex) { // the header and the lines above it
+        const q = text.indexOf(nl, pos);
+        pos = q < 0 || q >= end ? end : q + nl.length;
+        rowIndex++; line++;
+      }
+      if (pos < end && rows.length) while (rows.length) ready.push(cut());
+      while (pos < end) {
+        if (accRows === 0) accLine = line;
+        const need = batchSize - accRows;
+        let p = pos, count = 0;
+        while (count < need) {
+          const q = text.indexOf(nl, p);
+          if (q < 0 || q >= end) break;
+          p = q + nl.length; count++;
+        }
+        if (count < need && p < end) { p = end; count++; } // the file's last row, without a line break
+        acc.push(text.substring(pos, p));
+        accRows += count; rowIndex += count; line += count;
+        pos = p;
+        if (accRows >= batchSize) flushText();
+      }
+    };
+
     const feed = (text: string, last: boolean) => {
       const aggregate = partial + text;
+      if (asText && aggregate.indexOf('"') < 0) {
+        // no quote: papaparse would split at newlines and delimiters; hand the text on instead
+        let end = aggregate.length;
+        if (!last) { const q = aggregate.lastIndexOf(nl); end = q < 0 ? 0 : q + nl.length; }
+        partial = aggregate.substring(end);
+        base += end;
+        takeText(aggregate, end);
+        return;
+      }
+      flushText();
       const res = parser.parse(aggregate, base, !last) as { data: string[][]; meta: { cursor: number } };
       if (!last) {
         partial = aggregate.substring(res.meta.cursor - base);
@@ -163,19 +244,24 @@ export async function openDelimited(
       }
       take(res.data, aggregate.indexOf('"') >= 0);
     };
+    function* drain(final: boolean): Generator<DataBlock> {
+      while (rows.length >= batchSize) ready.push(cut());
+      if (final) { flushText(); while (rows.length > 0) ready.push(cut()); }
+      while (ready.length) yield ready.shift()!;
+    }
 
     feed(sample, complete);
-    while (rows.length >= batchSize) yield cut();
+    yield* drain(false);
     if (!complete) {
       for (;;) {
         const r = await textChunks.next();
         if (r.done) break;
         feed(r.value, false);
-        while (rows.length >= batchSize) yield cut();
+        yield* drain(false);
       }
       feed('', true);
     }
-    while (rows.length > 0) yield cut();
+    yield* drain(true);
 
     function cut(): RowBatch {
       if (rows.length <= batchSize) {
@@ -189,7 +275,7 @@ export async function openDelimited(
     }
   }
 
-  return { fileName: file, dialect, header, headerLine, metadata, warnings: [...decoded.warnings], batches };
+  return { fileName: file, dialect, header, headerLine, metadata, warnings: [...decoded.warnings], batches, blocks };
 }
 
 /** 1-based start line of each row (quoted fields may span lines). */
@@ -221,7 +307,7 @@ export async function readDelimited(
   for await (const b of src.batches()) {
     for (let i = 0; i < b.rows.length; i++) { rows.push(b.rows[i]); lines.push(b.lines[i]); }
   }
-  const { batches: _unused, ...rest } = src;
-  void _unused;
+  const { batches: _unused, blocks: _unusedToo, ...rest } = src;
+  void _unused; void _unusedToo;
   return { ...rest, rows, lines };
 }

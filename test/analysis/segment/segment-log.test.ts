@@ -1,6 +1,7 @@
 import { describe, expect, test } from 'vitest';
 import { PRESETS, resolveCriteria } from '../../../analysis/segment/steady-criteria';
-import { segmentLog } from '../../../analysis/segment/segment-log';
+import { segmentLog, segmentLogSteps } from '../../../analysis/segment/segment-log';
+import { SlidingSum } from '../../../analysis/segment/window-sums';
 import { blockMeans, segmentStats } from '../../../analysis/segment/segment-stats';
 import { generatePlateauLog, mulberry32 } from '../../../analysis/segment/synthetic-log';
 
@@ -202,5 +203,36 @@ describe('segmentLog: degenerate input (STYLE.md §10)', () => {
 
   test('fewer than three samples give no segments, not an error', () => {
     expect(segmentLog({ timeS: [0, 1], inletTempC: [1, 1], outletTempC: [2, 2], flowM3PerS: [1, 1] }, 'field').segments).toEqual([]);
+  });
+});
+
+describe('segmentLogSteps: the same segmentation in slices', () => {
+  test('run to the end it returns what segmentLog returns, and it pauses on a long log (ours: slices of 65,536 samples)', () => {
+    const log = generatePlateauLog(Array.from({ length: 60 }, (_, k) => ({
+      durationS: 1200, inletTempC: 15, outletTempC: 30 + (k % 7) * 3, flowM3PerS: (9 + (k % 5) * 3) * LPM, ambientTempC: 20,
+    })), { seed: 9, tauS: 60, noise: { tempK: 0.02, flowFraction: 0.002 } });
+    for (const preset of ['laboratory', 'collector', 'field'] as const) {
+      const steps = segmentLogSteps(log, preset);
+      let r = steps.next(), pauses = 0;
+      while (!r.done) { pauses++; r = steps.next(); }
+      expect(pauses).toBeGreaterThanOrEqual(2); // 72,000 samples: at least the window pass and the run pass pause once
+      expect(r.value).toEqual(segmentLog(log, preset));
+      expect(r.value.segments.length).toBeGreaterThan(10);
+    }
+  });
+
+  test('a sliding window sum is the difference of prefix sums, bit for bit (the same additions in the same order)', () => {
+    const rnd = mulberry32(4);
+    const a = Float64Array.from({ length: 5000 }, () => 20 + rnd() * 1e3), b = Float64Array.from({ length: 5000 }, () => rnd() - 0.5);
+    const prefix = new Float64Array(a.length + 1);
+    for (let i = 0; i < a.length; i++) prefix[i + 1] = prefix[i] + (a[i] - a[0]) * (b[i] - b[0]);
+    const w = new SlidingSum(a, a[0], b, b[0]);
+    let s = 0;
+    for (let i = 0; i < a.length; i++) {
+      if (i === 2500) { w.restart(); s = i; } // a new span: the window starts empty at i
+      w.add(i);
+      while (i - s >= 37) w.drop(s++);
+      expect(w.sum).toBe(prefix[i + 1] - prefix[s]);
+    }
   });
 });

@@ -1,12 +1,19 @@
 /**
- * Shared pieces of the sensor-log integration tests: the generator's mapping, generated logs,
- * a rig of one's own, raw uploads and waiting for a background job.
+ * Shared pieces of the sensor-log tests: the generator's mapping, generated logs (bench/import-parse.ts
+ * `writeSensorLogCsv`: 1 Hz plateaus of 1200 s, outlet 30 + 3k °C, flow 9 + 3k L/min, seeded
+ * noise), a rig of one's own, raw uploads, waiting for a background job, and a log imported
+ * directly by the real `importSensorLog` from a local file (as the import benchmark does).
  */
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { randomBytes } from 'node:crypto';
+import { createReadStream, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { expect } from 'vitest';
-import { writeSensorLogCsv } from '../../../bench/import-parse';
+import { writeSensorLogCsv, SENSOR_LOG_HEADER } from '../../../bench/import-parse';
+import { suggestMapping } from '@/app/_lib/import/auto-map';
+import { getEm } from '@/app/_lib/db';
+import { importSensorLog, logImportInput, type SensorImportResult } from '@/app/_lib/sensor-import';
+import { Lab, Rig, SourceFile } from '@/entities';
 import { Client, baseUrl, signedIn } from './client';
 
 /** The mapping of logs written by `writeSensorLogCsv`. */
@@ -73,5 +80,40 @@ export async function jobFinished(c: Client, jobId: string, limitMs = 90_000) {
     if (['completed', 'failed', 'cancelled'].includes(r.body.job.state)) return r.body.job;
     if (Date.now() > until) throw new Error(`job ${jobId} still ${r.body.job.state} after ${limitMs} ms`);
     await new Promise((res) => setTimeout(res, 250));
+  }
+}
+
+/** The log's own header, mapped as the import wizard suggests it. */
+function mapping() {
+  const header = SENSOR_LOG_HEADER.split(',');
+  const s = suggestMapping(header, [], '.');
+  return {
+    shape: 'sensorLog',
+    decimal: '.',
+    columns: s.columns.filter((c) => c.field).map((c) => ({ column: c.column, header: c.header, field: c.field!, unit: c.field === 'time' ? 'datetime' : c.unit ?? undefined })),
+  };
+}
+
+/** Imports `rows` generated samples into the rig; returns the source file id and the import result. */
+export async function importGeneratedLog(labId: string, rigId: string, rows: number, seed = 7): Promise<{ fileId: string; result: SensorImportResult }> {
+  const dir = mkdtempSync(path.join(os.tmpdir(), 'emberline-study-log-'));
+  try {
+    const file = path.join(dir, 'pool-loop-log.csv');
+    const bytes = await writeSensorLogCsv(file, { rows, seed });
+    const em = await getEm();
+    const lab = await em.findOneOrFail(Lab, { id: labId });
+    const rig = await em.findOneOrFail(Rig, { id: rigId, lab });
+    const source = em.create(SourceFile, {
+      lab, rig, filename: 'pool-loop-log.csv', contentType: 'text/csv', sizeBytes: bytes, sha256: randomBytes(32).toString('hex'), storageKey: 'test/local-file',
+    });
+    await em.flush();
+    const result = await importSensorLog(
+      { fileId: source.id, rigId, labId, filename: source.filename, storageKey: source.storageKey, sizeBytes: bytes, uploadedAt: new Date() },
+      logImportInput.parse({ mapping: mapping(), preset: 'field' }),
+      { open: async () => createReadStream(file, { highWaterMark: 1 << 16 }) },
+    );
+    return { fileId: source.id, result };
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
   }
 }

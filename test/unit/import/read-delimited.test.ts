@@ -101,6 +101,50 @@ describe('delimited text: streaming in batches', () => {
   });
 });
 
+describe('delimited text: blocks (quote-free text handed on, papaparse where quotes occur)', () => {
+  // metadata above the header, blank and whitespace lines, a quoted stretch with a line break inside
+  const rowsOf = (n: number, from: number) => Array.from({ length: n }, (_, i) => `${from + i};${(15 + i / 1e3).toFixed(3).replace('.', ',')};ok`);
+  const text = ['Rig: tank loop', '', 'time;T_in [C];note', ...rowsOf(3000, 0), '', ' ; ;', ...rowsOf(10, 3000), '3010;15,5;"two', 'lines"', '3011;15,6;"a ""quote"""', ...rowsOf(3000, 3012)].join('\r\n');
+  const bytes = enc(text);
+
+  test.each([1, 7, 4096, 65536])('give the same rows and lines as batches() whatever the chunk size (%i bytes)', async (size) => {
+    const want = await openDelimited(chunked(bytes, size), { batchSize: 500 });
+    const rows: string[][] = [], lines: number[] = [];
+    for await (const b of want.batches()) { rows.push(...b.rows); lines.push(...b.lines); }
+
+    const src = await openDelimited(chunked(bytes, size), { batchSize: 500 });
+    expect(src.headerLine).toBe(3);
+    const got: string[][] = [], gotLines: number[] = [];
+    let texts = 0;
+    for await (const b of src.blocks()) {
+      if ('texts' in b) {
+        texts++;
+        expect(b.rowCount).toBeLessThanOrEqual(500);
+        // each line of a text block is a row: split it as papaparse would, leaving out blank rows
+        const split = b.texts.join('').split('\r\n');
+        if (split[split.length - 1] === '') split.pop();
+        expect(split).toHaveLength(b.rowCount);
+        split.forEach((line, i) => {
+          const cells = line.split(';');
+          if (cells.every((c) => c.trim() === '')) return;
+          got.push(cells);
+          gotLines.push(b.firstLine + i);
+        });
+      } else {
+        expect(b.rows.length).toBeLessThanOrEqual(500);
+        got.push(...b.rows); gotLines.push(...b.lines);
+      }
+    }
+    expect(texts).toBeGreaterThan(0);
+    expect(got).toEqual(rows);
+    expect(gotLines).toEqual(lines);
+    expect(rows).toHaveLength(6012);
+    expect(rows[3010]).toEqual(['3010', '15,5', 'two\r\nlines']);
+    expect(rows[3011]).toEqual(['3011', '15,6', 'a "quote"']);
+    expect(lines.slice(3009, 3013)).toEqual([3015, 3016, 3018, 3019]);
+  });
+});
+
 describe('delimited text: bad input gets a clear message, never a crash', () => {
   test('an empty file', async () => {
     const e = await importErrorOf(() => readDelimited(new Uint8Array(0), { fileName: 'empty.csv' }));

@@ -110,7 +110,7 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
   const [choices, setChoices] = useState<Choice[]>([]);
   const [progress, setProgress] = useState<number | null>(null);
   const [error, setError] = useState<string | null>(null);
-  const [excludeBad, setExcludeBad] = useState(false);
+  const [skipBad, setSkipBad] = useState(false);
   const [measuring, setMeasuring] = useState(false);
   const [jobId, setJobId] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
@@ -126,7 +126,8 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
     for (const [k, v] of Object.entries(edits)) if (v !== undefined) out[k] = v;
     return out;
   }, [edits]);
-  const excludedLines = useMemo(() => (excludeBad && preview ? preview.issues.map((i) => i.line) : []), [excludeBad, preview]);
+  // rows that cannot be read are never part of the periods; the import leaves them out only when told to
+  const excludedLines: number[] = [];
   const url = `/api/rigs/${rigId}/uploads/${fileId}/segments`;
 
   async function find() {
@@ -198,7 +199,7 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
     setError(null);
     try {
       const r = await api<{ job: { id: string } }>(`/api/rigs/${rigId}/uploads/${fileId}/log-import`, {
-        body: { mapping, preset, criteria, excludedLines, segments: used.map((c) => ({ startLine: c.measured!.startLine, endLine: c.measured!.endLine })) },
+        body: { mapping, preset, criteria, skipInvalidRows: skipBad, segments: used.map((c) => ({ startLine: c.measured!.startLine, endLine: c.measured!.endLine })) },
       });
       setJobId(r.job.id);
     } catch (e) {
@@ -229,7 +230,7 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
   }
 
   const used = choices.filter((c) => c.use);
-  const blockingRows = preview ? preview.rejectedCount > 0 && !excludeBad : false;
+  const blockingRows = preview ? preview.rejectedCount > 0 && !skipBad : false;
   const tooManyBad = preview ? preview.rejectedCount > preview.issues.length : false;
 
   return (
@@ -329,14 +330,11 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
                   ))}
                 </tbody>
               </table>
-              {tooManyBad ? (
-                <p>Too many rows fail to leave them out one by one: fix the file (or the mapping) and upload it again.</p>
-              ) : (
-                <label className="flex items-center gap-2">
-                  <input type="checkbox" checked={excludeBad} onChange={(e) => setExcludeBad(e.target.checked)} />
-                  {preview.rejectedCount === 1 ? 'Leave this row out of the import' : `Leave these ${preview.rejectedCount} rows out of the import`}
-                </label>
-              )}
+              <label className="flex items-center gap-2">
+                <input type="checkbox" checked={skipBad} onChange={(e) => setSkipBad(e.target.checked)} />
+                {preview.rejectedCount === 1 ? 'Leave this row out of the import' : `Leave these ${preview.rejectedCount.toLocaleString('en')} rows out of the import`}
+              </label>
+              <p className="text-xs">The file is kept as it is; the rows left out are counted with the import. A column mapped wrongly also makes rows fail: check the mapping first.</p>
             </div>
           ) : null}
           <div className="flex flex-wrap items-end gap-3 text-sm" role="group" aria-label="Plotted stretch">
