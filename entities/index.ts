@@ -1,4 +1,8 @@
-/** Every entity, listed explicitly: folder globs do not survive bundling. */
+/**
+ * Every entity, listed explicitly: folder globs do not survive bundling. The `sensor_sample`
+ * table is not an entity: it is written by COPY and read by SQL only (app/_lib/sensor-import.ts,
+ * migrations `trial_import`, `sensor_sample_storage` and `sensor_sample_brin`).
+ */
 import { ApiToken } from './api-token';
 import { AuditEvent } from './audit-event';
 import { Invitation } from './invitation';
@@ -12,7 +16,6 @@ import { Trial } from './trial';
 import { SourceFile } from './source-file';
 import { ColumnMapping } from './column-mapping';
 import { TrialChange } from './trial-change';
-import { SensorSample } from './sensor-sample';
 import { Fit } from './fit';
 import { Study } from './study';
 import { Comment } from './comment';
@@ -23,8 +26,8 @@ import { User } from './user';
 import { ImportJob } from './import-job';
 import { SensorOverview } from './sensor-overview';
 
-export { Comment, Fit, Notice, ReviewEvent, ShareLink, Study, ColumnMapping, SensorSample, SourceFile, TrialChange, ApiToken, AuditEvent, Invitation, Lab, Membership, PasswordReset, RateLimit, Rig, Session, Trial, User, ImportJob, SensorOverview };
-export const entities = [Lab, User, Membership, Rig, Trial, Session, Invitation, PasswordReset, ApiToken, AuditEvent, RateLimit, SourceFile, ColumnMapping, TrialChange, SensorSample, Fit, Study, Comment, ReviewEvent, Notice, ShareLink, ImportJob, SensorOverview];
+export { Comment, Fit, Notice, ReviewEvent, ShareLink, Study, ColumnMapping, SourceFile, TrialChange, ApiToken, AuditEvent, Invitation, Lab, Membership, PasswordReset, RateLimit, Rig, Session, Trial, User, ImportJob, SensorOverview };
+export const entities = [Lab, User, Membership, Rig, Trial, Session, Invitation, PasswordReset, ApiToken, AuditEvent, RateLimit, SourceFile, ColumnMapping, TrialChange, Fit, Study, Comment, ReviewEvent, Notice, ShareLink, ImportJob, SensorOverview];
 
 import type { InferEntity } from '@mikro-orm/core';
 /** Row types of the entities, for code that handles loaded records. */

@@ -22,6 +22,20 @@ import { allIndices, checkSeries, type Series } from './series-check';
  * @example overviewIndices(timeS, [inletC, outletC, flowM3PerS], 2000).length // ≤ 2000
  */
 export function overviewIndices(timeS: Series, channels: readonly (Series | null | undefined)[], maxPoints: number): Uint32Array {
+  const steps = overviewIndicesSteps(timeS, channels, maxPoints);
+  for (;;) {
+    const r = steps.next();
+    if (r.done) return r.value;
+  }
+}
+
+/**
+ * {@link overviewIndices} one channel at a time: the generator yields after each channel and
+ * returns the indices, so a caller can let other work run in between (the import does, while
+ * PostgreSQL takes its last rows).
+ * @throws as {@link overviewIndices}, at the first step
+ */
+export function* overviewIndicesSteps(timeS: Series, channels: readonly (Series | null | undefined)[], maxPoints: number): Generator<void, Uint32Array, void> {
   // the time base checked on its own (as both coordinates: no copy); each channel is checked by its reducer
   const n = checkSeries(timeS, timeS, Math.max(2, maxPoints | 0), 2);
   const present = channels.filter((c): c is Series => c != null);
@@ -42,6 +56,7 @@ export function overviewIndices(timeS: Series, channels: readonly (Series | null
     for (let i = 0; i < n; i++) if (Number.isFinite(y[i])) m++;
     if (m === n) {
       for (const j of lttbExtremesIndices(timeS, y, perChannel)) keep[j] = 1;
+      yield;
       continue;
     }
     if (m === 0) continue;
@@ -51,6 +66,7 @@ export function overviewIndices(timeS: Series, channels: readonly (Series | null
     const xs = new Float64Array(m), ys = new Float64Array(m);
     for (let j = 0; j < m; j++) { xs[j] = timeS[from[j]]; ys[j] = y[from[j]]; }
     for (const j of lttbExtremesIndices(xs, ys, perChannel)) keep[from[j]] = 1;
+    yield;
   }
   let count = 0;
   for (let i = 0; i < n; i++) count += keep[i];

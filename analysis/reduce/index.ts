@@ -5,7 +5,7 @@ import { allIndices, checkSeries, pick, type Series } from './series-check';
 
 export { lttb, lttbIndices, type ReducedSeries } from './lttb';
 export { lttbExtremes, lttbExtremesIndices } from './lttb-extremes';
-export { overviewIndices } from './channel-overview';
+export { overviewIndices, overviewIndicesSteps } from './channel-overview';
 export type { Series } from './series-check';
 
 /** Display limit of the fit and forecast pages, points per series. */

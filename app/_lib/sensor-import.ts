@@ -9,7 +9,7 @@ import { z } from 'zod';
 import { PRESETS, resolveCriteria, segmentLog, segmentLogSteps, segmentStats, type PresetName, type SegmentationResult, type SegmentStats, type SteadyCriteria } from '@/analysis/segment';
 import { ImportError, confirmedMappingSchema, createSensorLogBuilder, openDelimited, type RowIssue, type SensorLog } from './import';
 import { getObjectStream } from './storage';
-import { writeSensorOverview } from './sensor-overview';
+import { buildOverviewAsync, insertOverview, type OverviewData } from './sensor-overview';
 
 /**
  * Sensor-log import: the stored file is streamed from object storage, read in blocks of rows,
@@ -245,7 +245,7 @@ export async function importSensorLog(target: SensorImportTarget, input: LogImpo
     const locked = await client.query<{ state: string }>('SELECT state FROM source_file WHERE id = $1 FOR UPDATE', [target.fileId]);
     if (!locked.rows.length) throw new ImportError('unreadable', 'the uploaded file no longer exists', { file });
     if (locked.rows[0].state === 'imported') throw new AlreadyImported(`"${file}" has already been imported.`);
-    // sensor_sample has no foreign keys (see entities/sensor-sample.ts): this lock keeps the rig
+    // sensor_sample has no foreign keys (migration sensor_sample_storage): this lock keeps the rig
     // from going away before we commit, as the per-row key checks did
     const rig = await client.query('SELECT 1 FROM rig WHERE id = $1 FOR KEY SHARE', [target.rigId]);
     if (!rig.rows.length) throw new ImportError('unreadable', 'the rig no longer exists', { file });
@@ -276,6 +276,8 @@ export async function importSensorLog(target: SensorImportTarget, input: LogImpo
     const copy = new CopyWriter(client.query(copyFrom(COPY_SQL)));
     let log: SensorLog;
     let channels: ReturnType<typeof channelsOf>;
+    let pieces: Piece[] = [];
+    let overview: OverviewData | undefined;
     try {
       copy.sendBytes(COPY_SIGNATURE);
       for await (const block of src.blocks()) {
@@ -312,6 +314,12 @@ export async function importSensorLog(target: SensorImportTarget, input: LogImpo
           if (r.done) { seg = r.value; break; }
           await setImmediate();
         }
+        // also while PostgreSQL works: the periods that become trials and the display overview of
+        // the log with them (built a channel at a time, so the pooled buffers keep moving)
+        pieces = trialPieces(log, channels, seg!, criteria, input.segments, file);
+        overview = await buildOverviewAsync(channels, {
+          segments: pieces.map(({ a, b, st }) => ({ startTimeS: channels.timeS[a], endTimeS: channels.timeS[b], mean: st.mean })),
+        });
       }
       await copy.done;
     } catch (e) {
@@ -330,25 +338,7 @@ export async function importSensorLog(target: SensorImportTarget, input: LogImpo
     if (!seg) seg = segmentLog(channels, criteria);
     options.onPhase?.('segmented');
     const ln = log.lines;
-    const pieces: { a: number; b: number; st: SegmentStats; extra: Record<string, unknown> }[] = [];
-    if (input.segments) {
-      for (const s of input.segments) {
-        const a = lowerBound(ln, s.startLine), b = lowerBound(ln, s.endLine + 1) - 1;
-        if (b - a < 1) throw new ImportError('bad_mapping', `the period from line ${s.startLine} to ${s.endLine} holds fewer than two samples`, { file });
-        pieces.push({ a, b, st: segmentStats(channels, a, b, criteria.blockS), extra: { chosen: true } });
-      }
-    } else {
-      for (const s of seg.segments) {
-        const { criteria: _c, startIndex, endIndex, ...rest } = s;
-        void _c;
-        pieces.push({ a: startIndex, b: endIndex, st: s, extra: { maxDeviation: rest.maxDeviation } });
-      }
-    }
-
-    // the display overview of the log, with the periods that become trials
-    await writeSensorOverview(client, { fileId, rigId, startEpochS: t0Epoch }, channels, {
-      segments: pieces.map(({ a, b, st }) => ({ startTimeS: channels.timeS[a], endTimeS: channels.timeS[b], mean: st.mean })),
-    });
+    await insertOverview(client, { fileId, rigId, startEpochS: t0Epoch }, overview!);
 
     // one statement for all trials: a column array per field (uuid, timestamptz, float8, int, jsonb)
     const cols: unknown[][] = Array.from({ length: 8 }, () => []);
@@ -388,6 +378,28 @@ export async function importSensorLog(target: SensorImportTarget, input: LogImpo
   } finally {
     client.release(broken);
   }
+}
+
+interface Piece { a: number; b: number; st: SegmentStats; extra: Record<string, unknown> }
+
+/** The periods that become trials: the engineer's (source lines, inclusive), or every steady segment found. */
+function trialPieces(log: SensorLog, channels: ReturnType<typeof channelsOf>, seg: SegmentationResult, criteria: SteadyCriteria, chosen: LogImportInput['segments'], file: string): Piece[] {
+  const ln = log.lines;
+  const pieces: Piece[] = [];
+  if (chosen) {
+    for (const s of chosen) {
+      const a = lowerBound(ln, s.startLine), b = lowerBound(ln, s.endLine + 1) - 1;
+      if (b - a < 1) throw new ImportError('bad_mapping', `the period from line ${s.startLine} to ${s.endLine} holds fewer than two samples`, { file });
+      pieces.push({ a, b, st: segmentStats(channels, a, b, criteria.blockS), extra: { chosen: true } });
+    }
+  } else {
+    for (const s of seg.segments) {
+      const { criteria: _c, startIndex, endIndex, ...rest } = s;
+      void _c;
+      pieces.push({ a: startIndex, b: endIndex, st: s, extra: { maxDeviation: rest.maxDeviation } });
+    }
+  }
+  return pieces;
 }
 
 /** First index i with a[i] >= x (a sorted ascending). */

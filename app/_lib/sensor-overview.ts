@@ -2,14 +2,15 @@ import 'server-only';
 import { randomUUID } from 'node:crypto';
 import type pg from 'pg';
 import { to as copyTo } from 'pg-copy-streams';
-import { DISPLAY_MAX_POINTS, overviewIndices } from '@/analysis/reduce';
+import { setImmediate } from 'node:timers/promises';
+import { DISPLAY_MAX_POINTS, overviewIndices, overviewIndicesSteps } from '@/analysis/reduce';
 import { segmentLog, type PresetName, type SteadyCriteria } from '@/analysis/segment';
 import type { OverviewPoints, OverviewSegment } from '@/entities/sensor-overview';
 
 /**
  * The display overview of a sensor log (entities/sensor-overview.ts): at most 2,000 samples on one
  * time base chosen by LTTB with every channel's extremes and the endpoints, plus the steady
- * segments. It is written once, in the import's transaction (`writeSensorOverview`), so a study
+ * segments. It is built while the import's COPY finishes and stored in the import's transaction, so a study
  * page reads one row instead of a million samples; logs imported before it existed get theirs
  * built from `sensor_sample` on first read (`ensureSensorOverview`).
  */
@@ -46,7 +47,27 @@ const ms = (s: number) => Math.round(s * 1000) / 1000;
  */
 export function buildOverview(ch: OverviewChannels, seg: OverviewSegmentation, maxPoints = DISPLAY_MAX_POINTS): OverviewData {
   const n = ch.timeS.length;
-  const idx = n ? overviewIndices(ch.timeS, [ch.inletTempC, ch.outletTempC, ch.flowM3PerS], maxPoints) : new Uint32Array(0);
+  return overviewOf(ch, seg, maxPoints, n ? overviewIndices(ch.timeS, [ch.inletTempC, ch.outletTempC, ch.flowM3PerS], maxPoints) : new Uint32Array(0));
+}
+
+/**
+ * {@link buildOverview} letting other work run between its channels (a macrotask each): the import
+ * builds the overview while PostgreSQL is still taking its last rows.
+ */
+export async function buildOverviewAsync(ch: OverviewChannels, seg: OverviewSegmentation, maxPoints = DISPLAY_MAX_POINTS): Promise<OverviewData> {
+  let idx: Uint32Array = new Uint32Array(0);
+  if (ch.timeS.length) {
+    const steps = overviewIndicesSteps(ch.timeS, [ch.inletTempC, ch.outletTempC, ch.flowM3PerS], maxPoints);
+    for (let r = steps.next(); ; r = steps.next()) {
+      if (r.done) { idx = r.value; break; }
+      await setImmediate();
+    }
+  }
+  return overviewOf(ch, seg, maxPoints, idx);
+}
+
+function overviewOf(ch: OverviewChannels, seg: OverviewSegmentation, maxPoints: number, idx: ArrayLike<number>): OverviewData {
+  const n = ch.timeS.length;
   const at = <T,>(f: (i: number) => T) => Array.from(idx, f);
   return {
     samples: n,
@@ -70,22 +91,12 @@ const UPSERT = `INSERT INTO sensor_overview (id, created_at, updated_at, source_
   ON CONFLICT (source_file_id) DO UPDATE SET rig_id = excluded.rig_id, started_at = excluded.started_at, samples = excluded.samples,
     duration_s = excluded.duration_s, max_points = excluded.max_points, points = excluded.points, segments = excluded.segments, updated_at = now()`;
 
-async function insertOverview(client: pg.ClientBase, ids: { fileId: string; rigId: string; startEpochS: number }, o: OverviewData) {
+/** Stores an overview (an upsert on its source file), on the caller's connection and transaction. */
+export async function insertOverview(client: pg.ClientBase, ids: { fileId: string; rigId: string; startEpochS: number }, o: OverviewData) {
   await client.query(UPSERT, [
     randomUUID(), ids.fileId, ids.rigId, new Date(Math.round(ids.startEpochS * 1000)), o.samples, o.durationS, o.maxPoints,
     JSON.stringify(o.points), JSON.stringify(o.segments),
   ]);
-}
-
-/**
- * Builds and stores the overview of a log being imported, on the import's own connection and
- * inside its transaction (so the overview exists exactly when the samples do).
- * @param ids the source file, its rig and the epoch seconds of the first sample (timeS = 0)
- */
-export async function writeSensorOverview(
-  client: pg.ClientBase, ids: { fileId: string; rigId: string; startEpochS: number }, channels: OverviewChannels, seg: OverviewSegmentation,
-): Promise<void> {
-  await insertOverview(client, ids, buildOverview(channels, seg));
 }
 
 // ---- backfill for logs imported before the overview existed ----

@@ -10,6 +10,7 @@ import { Migration20261201230509_fits_studies_review } from './Migration20261201
 import { Migration20261201235511_import_jobs } from './Migration20261201235511_import_jobs';
 import { Migration20261202063741_sensor_sample_storage } from './Migration20261202063741_sensor_sample_storage';
 import { Migration20261202064527_sensor_overview } from './Migration20261202064527_sensor_overview';
+import { Migration20261202090000_sensor_sample_brin } from './Migration20261202090000_sensor_sample_brin';
 
 export const migrationsList: MigrationObject[] = [
   { name: 'Migration20261201222811', class: Migration20261201222811 },
@@ -19,4 +20,5 @@ export const migrationsList: MigrationObject[] = [
   { name: 'Migration20261201235511_import_jobs', class: Migration20261201235511_import_jobs },
   { name: 'Migration20261202063741_sensor_sample_storage', class: Migration20261202063741_sensor_sample_storage },
   { name: 'Migration20261202064527_sensor_overview', class: Migration20261202064527_sensor_overview },
+  { name: 'Migration20261202090000_sensor_sample_brin', class: Migration20261202090000_sensor_sample_brin },
 ];
