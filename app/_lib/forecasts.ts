@@ -15,9 +15,11 @@ import { HttpError } from './errors';
 import { plotToSvg } from './plot-svg';
 import { energyBudgetInput, energyBudgetPlot, forecastPlot, type UnitSystem } from './plots';
 import { UUID } from './rigs';
+import type { ForecastExport } from './export';
 
 interface ForecastOutput {
   finalTemp_degC: number;
+  poolMass_kg: number;
   maxTemp_degC: number;
   maxOutletTemp_degC: number;
   hoursToTarget_h: number | null;
@@ -34,6 +36,48 @@ interface ForecastOutput {
  * strings in) and renders its plots. With `fitId`, the heater is the saved coil fit's Ts and UA.
  */
 export async function forecast(em: EntityManager, lab: LabRow, body: Record<string, unknown>, units: UnitSystem) {
+  const { input, out, pool, fitNote, costInput } = await runForecastBody(em, lab, body);
+  const hours = out.series.at(-1)?.time_h ?? 0;
+  const targetC = typeof out.hoursToTarget_h === 'number' || input.targetTemp ? parseTarget(input.targetTemp) : null;
+  // Long series (a season sampled hourly and finer) are reduced for display, keeping extremes and endpoints.
+  const shown = reduceForDisplay(out.series.map((s) => s.time_h), out.series.map((s) => s.temp_degC));
+  const pick = <T,>(f: (s: ForecastOutput['series'][number]) => T) => Array.from(shown.indices, (i) => f(out.series[i]));
+  const trajectory = forecastPlot(
+    {
+      timeH: pick((s) => s.time_h),
+      poolC: pick((s) => s.temp_degC),
+      outletC: pick((s) => s.outletTemp_degC),
+      targetC,
+      hoursToTarget: out.hoursToTarget_h,
+      cautions: out.cautions.filter((c) => c.thresholdC !== null).map((c) => ({ thresholdC: c.thresholdC!, level: c.level, message: c.message })),
+    },
+    units,
+  );
+  const budget = energyBudgetPlot(
+    energyBudgetInput(
+      budgetOf(out),
+      hours,
+    ),
+    units,
+  );
+  const { series, ...summary } = out;
+  const extras = await forecastExtras(input, pool, out, costInput);
+  return {
+    ...summary,
+    samples: series.length,
+    shownSamples: shown.indices.length,
+    fitNote,
+    pool,
+    ...extras,
+    plots: {
+      trajectory: { title: trajectory.title, summary: trajectory.summary, svg: plotToSvg(trajectory.options) },
+      budget: { title: budget.title, summary: budget.summary, svg: plotToSvg(budget.options) },
+    },
+  };
+}
+
+/** The forecast of a request body: the saved fit as heater, the pool by shape, the CLI contract. */
+async function runForecastBody(em: EntityManager, lab: LabRow, body: Record<string, unknown>) {
   const input = { ...body };
   let fitNote: string | null = null;
   if (typeof input.fitId === 'string') {
@@ -64,43 +108,35 @@ export async function forecast(em: EntityManager, lab: LabRow, body: Record<stri
     }
     throw e;
   }
-  const hours = out.series.at(-1)?.time_h ?? 0;
-  const targetC = typeof out.hoursToTarget_h === 'number' || input.targetTemp ? parseTarget(input.targetTemp) : null;
-  const e = out.energy_J;
-  // Long series (a season sampled hourly and finer) are reduced for display, keeping extremes and endpoints.
-  const shown = reduceForDisplay(out.series.map((s) => s.time_h), out.series.map((s) => s.temp_degC));
-  const pick = <T,>(f: (s: ForecastOutput['series'][number]) => T) => Array.from(shown.indices, (i) => f(out.series[i]));
-  const trajectory = forecastPlot(
-    {
-      timeH: pick((s) => s.time_h),
-      poolC: pick((s) => s.temp_degC),
-      outletC: pick((s) => s.outletTemp_degC),
-      targetC,
-      hoursToTarget: out.hoursToTarget_h,
-      cautions: out.cautions.filter((c) => c.thresholdC !== null).map((c) => ({ thresholdC: c.thresholdC!, level: c.level, message: c.message })),
-    },
-    units,
-  );
-  const budget = energyBudgetPlot(
-    energyBudgetInput(
-      { heaterJ: e.heater_J ?? 0, solarJ: e.solar_J ?? 0, evaporationJ: e.evaporation_J ?? 0, convectionJ: e.convection_J ?? 0, radiationJ: e.radiation_J ?? 0, wallsJ: e.walls_J ?? 0, netJ: e.net_J ?? 0, evaporatedKg: out.evaporated_kg ?? 0 },
-      hours,
-    ),
-    units,
-  );
-  const { series, ...summary } = out;
-  const extras = await forecastExtras(input, pool, out, costInput);
+  return { input, out, pool, fitNote, costInput };
+}
+
+/**
+ * A forecast block's results for the spreadsheet export (Forecast sheet and Summary items).
+ * @throws HttpError 404 / 422 as {@link forecast}
+ */
+export async function forecastForExport(em: EntityManager, lab: LabRow, body: Record<string, unknown>, label: string): Promise<ForecastExport> {
+  const { out } = await runForecastBody(em, lab, body);
   return {
-    ...summary,
-    samples: series.length,
-    shownSamples: shown.indices.length,
-    fitNote,
-    pool,
-    ...extras,
-    plots: {
-      trajectory: { title: trajectory.title, summary: trajectory.summary, svg: plotToSvg(trajectory.options) },
-      budget: { title: budget.title, summary: budget.summary, svg: plotToSvg(budget.options) },
+    label,
+    result: {
+      timeH: Float64Array.from(out.series, (x) => x.time_h),
+      tempC: Float64Array.from(out.series, (x) => x.temp_degC),
+      outletTempC: Float64Array.from(out.series, (x) => x.outletTemp_degC),
+      finalTempC: out.finalTemp_degC, maxTempC: out.maxTemp_degC, maxOutletTempC: out.maxOutletTemp_degC, poolMassKg: out.poolMass_kg,
+      steps: out.series.length, hoursToTarget: out.hoursToTarget_h, equilibriumTempC: out.equilibriumTemp_degC, equilibriumNote: out.equilibriumNote ?? '',
+      energy: budgetOf(out),
+      cautions: out.cautions as ForecastExport['result']['cautions'],
     },
+  };
+}
+
+/** The energy budget by term from the CLI's output (J, kg). */
+function budgetOf(out: ForecastOutput) {
+  const e = out.energy_J;
+  return {
+    heaterJ: e.heater_J ?? 0, solarJ: e.solar_J ?? 0, evaporationJ: e.evaporation_J ?? 0, convectionJ: e.convection_J ?? 0,
+    radiationJ: e.radiation_J ?? 0, wallsJ: e.walls_J ?? 0, netJ: e.net_J ?? 0, evaporatedKg: out.evaporated_kg ?? 0,
   };
 }
 

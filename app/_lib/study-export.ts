@@ -3,9 +3,10 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { Fit, Rig, type StudyRow } from '@/entities';
 import type { FitSuccess } from '@/analysis/fit';
 import type { PerformanceTable } from '@/analysis/performance/performance-table';
-import { STUDY_SHEETS, studyCsv, studyWorkbook, type FitExport, type PerformanceExport, type RunningCostExport, type StudyExport, type StudySheetName, type TrialExportRow } from './export';
+import { STUDY_SHEETS, studyCsv, studyWorkbook, type FitExport, type ForecastExport, type PerformanceExport, type RunningCostExport, type StudyExport, type StudySheetName, type TrialExportRow } from './export';
 import { CostInputError, costExport, costView } from './cost-block';
 import { HttpError } from './errors';
+import { forecastForExport } from './forecasts';
 import { modelLabel, SOFTWARE_VERSION } from './fit-analysis';
 
 /** A trial as a saved fit keeps it (`result.trials`). */
@@ -28,7 +29,7 @@ export async function studyFits(em: EntityManager, study: StudyRow) {
   return ids.map((id) => rows.find((r) => r.id === id)).filter((r): r is NonNullable<typeof r> => !!r);
 }
 
-/** The study's tables (Summary with provenance, Trials, Fit, Residuals, Performance, Costs of its cost-sheet blocks) as export data. */
+/** The study's tables (Summary with provenance, Trials, Fit, Residuals, Performance, Forecast series of its forecast blocks, Costs of its cost-sheet blocks) as export data. */
 export async function studyExportData(em: EntityManager, study: StudyRow, labName: string, unitSystem: 'si' | 'us'): Promise<StudyExport> {
   const fits = await studyFits(em, study);
   const rigs = fits.length ? await em.find(Rig, { id: { $in: fits.map((f) => f.rig.id) } }) : [];
@@ -46,6 +47,17 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
   }
   const running: RunningCostExport[] = [];
   const notes = [`Study revision ${study.revision}, review state: ${study.reviewState}.`];
+  const forecasts: ForecastExport[] = [];
+  for (const [i, b] of study.blocks.entries()) {
+    if (b.kind !== 'forecast') continue;
+    const label = `Forecast (block ${i + 1})`;
+    try {
+      forecasts.push(await forecastForExport(em, study.lab, b.data, label));
+    } catch (e) {
+      if (!(e instanceof HttpError)) throw e;
+      notes.push(`${label} cannot be computed: ${e.message}`);
+    }
+  }
   study.blocks.forEach((b, i) => {
     if (b.kind !== 'costs') return;
     const label = `Cost sheet (block ${i + 1})`;
@@ -70,6 +82,7 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
     trials,
     fits: fitExports,
     performance,
+    forecasts,
     ...(running.length ? { costs: { currency: running[0].currency, running } } : {}),
     notes,
   };

@@ -120,6 +120,27 @@ describe('block data for lab members', () => {
     });
     expect(perTherm).toBeCloseTo(4.0, 2); // DOMAIN.md §8 #16
   });
+
+  test('the XLSX Forecast sheet carries the forecast block’s trajectory, ending at the final temperature the block shows', async () => {
+    const block = (await s.eng.get(`/api/studies/${s.study.id}/blocks/fc`)).body.block.body;
+    const res = await fetch(`${baseUrl}/api/studies/${s.study.id}/export`, { headers: { Cookie: [...s.eng.cookies].map(([k, v]) => `${k}=${v}`).join('; ') } });
+    const wb = new ExcelJS.Workbook();
+    await wb.xlsx.load(await res.arrayBuffer());
+    const sheet = wb.getWorksheet('Forecast')!;
+    expect(sheet).toBeDefined();
+    // row values are 1-based (index 0 is empty), as the cells
+    const header = Array.from(sheet.getRow(1).values as unknown[], (v) => String(v ?? ''));
+    const hoursCol = header.findIndex((h) => h.startsWith('Elapsed'));
+    const poolCol = header.findIndex((h) => h.startsWith('Pool temperature'));
+    expect(header[poolCol]).toBe('Pool temperature (°C)');
+    let last: ExcelJS.Row | null = null;
+    sheet.eachRow((row) => {
+      if (row.getCell(header.indexOf('Forecast')).value === 'Forecast (block 4)') last = row;
+    });
+    expect(last).not.toBeNull();
+    expect(Number(last!.getCell(hoursCol).value)).toBeCloseTo(48, 9);
+    expect(Number(last!.getCell(poolCol).value)).toBeCloseTo(block.finalTempC, 9);
+  });
 });
 
 describe('block data through a share link', () => {
