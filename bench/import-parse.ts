@@ -32,6 +32,19 @@ export interface SensorLogFileOptions {
 /** Header of the generated log. */
 export const SENSOR_LOG_HEADER = 'timestamp,T_in [C],T_out [C],flow [l/min],ambient [C],pump [W],status';
 
+/** The confirmed mapping of the generated log (what the import page suggests for it). */
+export const SENSOR_LOG_MAPPING = {
+  shape: 'sensorLog',
+  decimal: '.',
+  columns: [
+    { column: 0, header: 'timestamp', field: 'time', unit: 'datetime' },
+    { column: 1, header: 'T_in [C]', field: 'inletTemp', unit: 'degC' },
+    { column: 2, header: 'T_out [C]', field: 'outletTemp', unit: 'degC' },
+    { column: 3, header: 'flow [l/min]', field: 'flow', unit: 'L/min' },
+    { column: 4, header: 'ambient [C]', field: 'ambientTemp', unit: 'degC' },
+  ],
+} as const satisfies ConfirmedMappingInput;
+
 /**
  * Streams a CSV sensor log of plateaus (set-points cycling through outlet and flow values, first-
  * order transitions with a 60-s time constant, seeded noise) to `file`, in bounded memory.

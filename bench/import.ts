@@ -74,7 +74,7 @@ const cpuMs = () => { const u = process.cpuUsage(); return (u.user + u.system) /
 const fmtCpu = (ms: number | null) => (ms === null ? 'n/a' : `${(ms / 1000).toFixed(2)} s`);
 
 async function main() {
-  const { writeSensorLogCsv } = await import('./import-parse');
+  const { writeSensorLogCsv, SENSOR_LOG_MAPPING } = await import('./import-parse');
   const { getEm, getOrm } = await import('@/app/_lib/db');
   const { copyPool, importSensorLog, logImportInput } = await import('@/app/_lib/sensor-import');
   const { listTrials, listQuery } = await import('@/app/_lib/trials');
@@ -115,17 +115,7 @@ async function main() {
     fileId = source.id;
     const input = logImportInput.parse({
       preset: 'field',
-      mapping: {
-        shape: 'sensorLog',
-        decimal: '.',
-        columns: [
-          { column: 0, header: 'timestamp', field: 'time', unit: 'datetime' },
-          { column: 1, header: 'T_in [C]', field: 'inletTemp', unit: 'degC' },
-          { column: 2, header: 'T_out [C]', field: 'outletTemp', unit: 'degC' },
-          { column: 3, header: 'flow [l/min]', field: 'flow', unit: 'L/min' },
-          { column: 4, header: 'ambient [C]', field: 'ambientTemp', unit: 'degC' },
-        ],
-      },
+      mapping: SENSOR_LOG_MAPPING,
     });
     const rssBefore = process.memoryUsage().rss;
     const pgCpu1 = clusterCpuMs();

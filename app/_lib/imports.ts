@@ -194,23 +194,24 @@ export async function confirmImport(em: EntityManager, rig: RigRow, file: Source
         notes: row.notes ?? '',
       });
     }
-    const signature = headerSignature(t.header);
-    const saved = await tx.findOne(ColumnMapping, { lab: rig.lab, headerSignature: signature });
-    if (saved) saved.mapping = input.mapping as Record<string, unknown>;
-    else tx.create(ColumnMapping, { lab: rig.lab, headerSignature: signature, headers: t.header, mapping: input.mapping as Record<string, unknown> });
+    await keepMapping(tx, rig.lab, t.header, input.mapping);
     tx.assign(file, { state: 'imported', rowsImported: kept.length, rig });
     return kept.length;
   });
   return { imported: n, warnings: result.warningCount };
 }
 
-/** Keeps a sensor-log mapping for the next file with the same headers (upsert per lab and header signature). */
-export async function saveLogMapping(em: EntityManager, lab: LabRow, file: SourceFileRow, mapping: unknown) {
-  const t = await readTable(file, undefined, { headOnly: true });
-  const signature = headerSignature(t.header);
+/** Keeps a confirmed mapping for the lab's next file with these headers (one per header signature); the caller flushes. */
+async function keepMapping(em: EntityManager, lab: LabRow, header: string[], mapping: unknown) {
+  const signature = headerSignature(header);
   const saved = await em.findOne(ColumnMapping, { lab, headerSignature: signature });
   if (saved) saved.mapping = mapping as Record<string, unknown>;
-  else em.create(ColumnMapping, { lab, headerSignature: signature, headers: t.header, mapping: mapping as Record<string, unknown> });
+  else em.create(ColumnMapping, { lab, headerSignature: signature, headers: header, mapping: mapping as Record<string, unknown> });
+}
+
+/** Keeps a sensor-log mapping for the next file with the same headers. */
+export async function saveLogMapping(em: EntityManager, lab: LabRow, file: SourceFileRow, mapping: unknown) {
+  await keepMapping(em, lab, (await readTable(file, undefined, { headOnly: true })).header, mapping);
   await em.flush();
 }
 

@@ -69,10 +69,8 @@ export function timeSeriesSegmentsPlot(input: TimeSeriesInput, units: UnitSystem
   // segments closer together than the plot can show (under MERGE_PX apart) share one shaded band,
   // and numbers are written only while they fit: a long log holds hundreds of segments.
   const pxPerS = (width - 80) / Math.max(spanS, 1e-9);
-  const inView = input.segments
-    .map((s, i) => ({ ...s, label: s.label ?? String(i + 1) }))
-    .filter((s) => s.endS >= t0 && s.startS <= t1)
-    .map((s) => ({ ...s, startS: Math.max(s.startS, t0), endS: Math.min(s.endS, t1) }));
+  const visible = input.segments.map((s, i) => ({ ...s, label: s.label ?? String(i + 1) })).filter((s) => s.endS >= t0 && s.startS <= t1);
+  const inView = visible.map((s) => ({ ...s, startS: Math.max(s.startS, t0), endS: Math.min(s.endS, t1) }));
   const keptInView = inView.filter((s) => !s.muted);
   const bands: { startS: number; endS: number; label: string }[] = [];
   for (const s of keptInView) {
@@ -103,7 +101,7 @@ export function timeSeriesSegmentsPlot(input: TimeSeriesInput, units: UnitSystem
   const outlet = series((p) => p.outletC, u.temp.from);
   const flow = series((p) => p.flowM3PerS, u.flow.from);
   const n = input.points.length;
-  const kept = input.segments.map((s, i) => ({ ...s, label: s.label ?? String(i + 1) })).filter((s) => !s.muted && s.endS >= t0 && s.startS <= t1);
+  const kept = visible.filter((s) => !s.muted); // the summary gives each period's own length, also when the plot cuts it
   const k = kept.length;
   const duration = spanS >= 3600 ? `${fmt(spanS / 3600, 3)} h` : `${fmt(spanS / 60, 3)} min`;
   const minutes = kept.map((s) => (s.endS - s.startS) / 60);

@@ -9,25 +9,14 @@ import { createReadStream, mkdtempSync, readFileSync, rmSync, writeFileSync } fr
 import os from 'node:os';
 import path from 'node:path';
 import { expect } from 'vitest';
-import { writeSensorLogCsv, SENSOR_LOG_HEADER } from '../../../bench/import-parse';
-import { suggestMapping } from '@/app/_lib/import/auto-map';
+import { writeSensorLogCsv, SENSOR_LOG_MAPPING } from '../../../bench/import-parse';
 import { getEm } from '@/app/_lib/db';
 import { importSensorLog, logImportInput, type SensorImportResult } from '@/app/_lib/sensor-import';
 import { Lab, Rig, SourceFile } from '@/entities';
 import { Client, baseUrl, signedIn } from './client';
 
 /** The mapping of logs written by `writeSensorLogCsv`. */
-export const LOG_MAPPING = {
-  shape: 'sensorLog',
-  decimal: '.',
-  columns: [
-    { column: 0, header: 'timestamp', field: 'time', unit: 'datetime' },
-    { column: 1, header: 'T_in [C]', field: 'inletTemp', unit: 'degC' },
-    { column: 2, header: 'T_out [C]', field: 'outletTemp', unit: 'degC' },
-    { column: 3, header: 'flow [l/min]', field: 'flow', unit: 'L/min' },
-    { column: 4, header: 'ambient [C]', field: 'ambientTemp', unit: 'degC' },
-  ],
-};
+export const LOG_MAPPING = SENSOR_LOG_MAPPING;
 
 /** A folder of generated logs; `remove()` in afterAll. */
 export function logFolder(tag: string) {
@@ -83,17 +72,6 @@ export async function jobFinished(c: Client, jobId: string, limitMs = 90_000) {
   }
 }
 
-/** The log's own header, mapped as the import wizard suggests it. */
-function mapping() {
-  const header = SENSOR_LOG_HEADER.split(',');
-  const s = suggestMapping(header, [], '.');
-  return {
-    shape: 'sensorLog',
-    decimal: '.',
-    columns: s.columns.filter((c) => c.field).map((c) => ({ column: c.column, header: c.header, field: c.field!, unit: c.field === 'time' ? 'datetime' : c.unit ?? undefined })),
-  };
-}
-
 /** Imports `rows` generated samples into the rig; returns the source file id and the import result. */
 export async function importGeneratedLog(labId: string, rigId: string, rows: number, seed = 7): Promise<{ fileId: string; result: SensorImportResult }> {
   const dir = mkdtempSync(path.join(os.tmpdir(), 'emberline-study-log-'));
@@ -109,7 +87,7 @@ export async function importGeneratedLog(labId: string, rigId: string, rows: num
     await em.flush();
     const result = await importSensorLog(
       { fileId: source.id, rigId, labId, filename: source.filename, storageKey: source.storageKey, sizeBytes: bytes, uploadedAt: new Date() },
-      logImportInput.parse({ mapping: mapping(), preset: 'field' }),
+      logImportInput.parse({ mapping: SENSOR_LOG_MAPPING, preset: 'field' }),
       { open: async () => createReadStream(file, { highWaterMark: 1 << 16 }) },
     );
     return { fileId: source.id, result };

@@ -71,7 +71,7 @@ function clock(startIso: string | null, s: number, multiDay: boolean): string {
  * Reads the preview stream of POST …/segments: progress lines, then the result or an error.
  * @throws ApiError with the server's message (422 for a bad mapping, file or threshold)
  */
-async function fetchPreview(url: string, body: unknown, onProgress: (f: number) => void, signal: AbortSignal): Promise<SegmentPreview> {
+async function fetchPreview(url: string, body: unknown, onProgress: (f: number) => void = () => undefined, signal?: AbortSignal): Promise<SegmentPreview> {
   const res = await fetch(url, { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify(body), credentials: 'same-origin', signal });
   if (!res.ok || !res.body) {
     const j = (await res.json().catch(() => ({}))) as { message?: string };
@@ -126,8 +126,6 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
     for (const [k, v] of Object.entries(edits)) if (v !== undefined) out[k] = v;
     return out;
   }, [edits]);
-  // rows that cannot be read are never part of the periods; the import leaves them out only when told to
-  const excludedLines: number[] = [];
   const url = `/api/rigs/${rigId}/uploads/${fileId}/segments`;
 
   async function find() {
@@ -137,7 +135,7 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
     setError(null);
     setProgress(0);
     try {
-      const p = await fetchPreview(url, { mapping, preset, criteria, excludedLines }, setProgress, ac.signal);
+      const p = await fetchPreview(url, { mapping, preset, criteria }, setProgress, ac.signal);
       setPreview(p);
       setView(null);
       setViewSeries(null);
@@ -163,7 +161,7 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
       setMeasuring(true);
       setError(null);
       try {
-        const p = await fetchPreview(url, { mapping, preset, criteria, excludedLines, periods: used.map((c) => ({ startS: Math.max(0, c.startS), endS: c.endS })) }, () => undefined, new AbortController().signal);
+        const p = await fetchPreview(url, { mapping, preset, criteria, periods: used.map((c) => ({ startS: Math.max(0, c.startS), endS: c.endS })) });
         const byId = new Map(used.map((c, i) => [c.id, p.periods?.[i] ?? null]));
         setChoices((cs) => cs.map((c) => (byId.has(c.id) ? { ...c, measured: byId.get(c.id)!, startS: byId.get(c.id)?.startS ?? c.startS, endS: byId.get(c.id)?.endS ?? c.endS } : c)));
       } catch (e) {
@@ -186,7 +184,7 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
     if (!next) { setViewSeries(null); return; }
     setError(null);
     try {
-      const r = await fetchPreview(url, { mapping, preset, criteria, excludedLines, view: next, seriesOnly: true }, () => undefined, new AbortController().signal);
+      const r = await fetchPreview(url, { mapping, preset, criteria, view: next, seriesOnly: true });
       setViewSeries(r.series);
     } catch (e) {
       setError(e instanceof ApiError ? e.message : 'The server could not be reached.');
@@ -230,6 +228,7 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
   }
 
   const used = choices.filter((c) => c.use);
+  // rows that cannot be read are never part of the periods; the import leaves them out only when told to
   const blockingRows = preview ? preview.rejectedCount > 0 && !skipBad : false;
   const tooManyBad = preview ? preview.rejectedCount > preview.issues.length : false;
 

@@ -82,6 +82,36 @@ function uploadWithProgress(url: string, file: File, onProgress: (f: number) => 
   });
 }
 
+/** The first rows of a file converted to the user's units (with the log's time from its start when given). */
+function ConvertedRows({ rows, units, tempDigits, caption }: { rows: { line: number; timeS?: number; flowM3PerS: number; inletTempC: number; outletTempC: number }[]; units: Units; tempDigits: number; caption?: string }) {
+  const timed = rows.some((r) => r.timeS !== undefined);
+  return (
+    <table className="data-table">
+      {caption ? <caption className="py-1 text-left text-sm font-semibold">{caption}</caption> : null}
+      <thead>
+        <tr>
+          <th scope="col">Line</th>
+          {timed ? <th scope="col" className="text-right">Time (s)</th> : null}
+          <th scope="col" className="text-right">Flow ({flowUnit(units)})</th>
+          <th scope="col" className="text-right">Inlet ({tempUnit(units)})</th>
+          <th scope="col" className="text-right">Outlet ({tempUnit(units)})</th>
+        </tr>
+      </thead>
+      <tbody>
+        {rows.map((r) => (
+          <tr key={r.line}>
+            <td className="num">{r.line}</td>
+            {timed ? <td className="num text-right">{r.timeS?.toFixed(1)}</td> : null}
+            <td className="num text-right">{flowOut(r.flowM3PerS, units).toFixed(2)}</td>
+            <td className="num text-right">{tempOut(r.inletTempC, units).toFixed(tempDigits)}</td>
+            <td className="num text-right">{tempOut(r.outletTempC, units).toFixed(tempDigits)}</td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}
+
 /** Upload → map and check → confirm. Nothing is written as trials until the engineer confirms. */
 export function ImportWizard({ rigId, units, maxMb }: { rigId: string; units: Units; maxMb: number }) {
   const [progress, setProgress] = useState<number | null>(null);
@@ -348,30 +378,7 @@ export function ImportWizard({ rigId, units, maxMb }: { rigId: string; units: Un
             <>
               <section className="card space-y-3 p-4" aria-labelledby="head-h">
                 <h2 id="head-h" className="text-lg">First samples, converted</h2>
-                {preview.logHead.rows.length ? (
-                  <table className="data-table">
-                    <thead>
-                      <tr>
-                        <th scope="col">Line</th>
-                        <th scope="col" className="text-right">Time (s)</th>
-                        <th scope="col" className="text-right">Flow ({flowUnit(units)})</th>
-                        <th scope="col" className="text-right">Inlet ({tempUnit(units)})</th>
-                        <th scope="col" className="text-right">Outlet ({tempUnit(units)})</th>
-                      </tr>
-                    </thead>
-                    <tbody>
-                      {preview.logHead.rows.map((r) => (
-                        <tr key={r.line}>
-                          <td className="num">{r.line}</td>
-                          <td className="num text-right">{r.timeS.toFixed(1)}</td>
-                          <td className="num text-right">{flowOut(r.flowM3PerS, units).toFixed(2)}</td>
-                          <td className="num text-right">{tempOut(r.inletTempC, units).toFixed(2)}</td>
-                          <td className="num text-right">{tempOut(r.outletTempC, units).toFixed(2)}</td>
-                        </tr>
-                      ))}
-                    </tbody>
-                  </table>
-                ) : null}
+                {preview.logHead.rows.length ? <ConvertedRows rows={preview.logHead.rows} units={units} tempDigits={2} /> : null}
                 {preview.logHead.issues.length ? (
                   <ul className="text-sm text-danger-text">
                     {preview.logHead.issues.slice(0, 5).map((i) => (
@@ -400,29 +407,12 @@ export function ImportWizard({ rigId, units, maxMb }: { rigId: string; units: Un
                 <p key={n} className="text-sm text-caution-text">{n}</p>
               ))}
               {preview.check.preview.some((r) => r.ok) ? (
-                <table className="data-table">
-                  <caption className="py-1 text-left text-sm font-semibold">First rows, converted</caption>
-                  <thead>
-                    <tr>
-                      <th scope="col">Line</th>
-                      <th scope="col" className="text-right">Flow ({flowUnit(units)})</th>
-                      <th scope="col" className="text-right">Inlet ({tempUnit(units)})</th>
-                      <th scope="col" className="text-right">Outlet ({tempUnit(units)})</th>
-                    </tr>
-                  </thead>
-                  <tbody>
-                    {preview.check.preview.map((r) =>
-                      r.ok && r.row ? (
-                        <tr key={r.line}>
-                          <td className="num">{r.line}</td>
-                          <td className="num text-right">{flowOut(r.row.flowM3PerS, units).toFixed(2)}</td>
-                          <td className="num text-right">{tempOut(r.row.inletTempC, units).toFixed(1)}</td>
-                          <td className="num text-right">{tempOut(r.row.outletTempC, units).toFixed(1)}</td>
-                        </tr>
-                      ) : null,
-                    )}
-                  </tbody>
-                </table>
+                <ConvertedRows
+                  caption="First rows, converted"
+                  rows={preview.check.preview.flatMap((r) => (r.ok && r.row ? [{ line: r.line, ...r.row }] : []))}
+                  units={units}
+                  tempDigits={1}
+                />
               ) : null}
               {preview.check.issues.length ? (
                 <table className="data-table" aria-label="Row problems">
