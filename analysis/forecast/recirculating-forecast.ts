@@ -20,6 +20,7 @@ import {
 import { convectionCoefficient, evaporationWPerM2, skyRadiationWPerM2 } from './surface-losses';
 import { hourMask, resolveTerms, type LossOptions } from './loss-terms';
 import { equilibriumTempC } from './equilibrium-temperature';
+import { checkForecastWork, FORECAST_LIMITS } from './forecast-limits';
 
 export type { CoverOptions, LossOptions } from './loss-terms';
 
@@ -94,7 +95,7 @@ export interface ForecastResult {
 /**
  * Runs the forecast.
  * @throws TypeError / RangeError naming the field: missing pool size, non-positive hours or
- *   step, negative flow, start temperature outside 0–100 °C, bad weather rows or schedules.
+ *   step, more work than {@link FORECAST_LIMITS} allows, negative flow, start temperature outside 0–100 °C, bad weather rows or schedules.
  * @example recirculatingForecast({ poolMassKg: 56588, startTempC: 20, hours: 24, flowM3PerS: 2e-4,
  *   heater: coilHeater({ sourceTempC: 90, uaWPerK: 500 }), losses: false }).finalTempC // ≈ 28.98
  */
@@ -123,6 +124,10 @@ export function recirculatingForecast(input: ForecastInput): ForecastResult {
   if (input.thermostat && target === null) throw new RangeError('thermostat: needs a targetTempC to switch at');
   const thermostat = input.thermostat === true;
   const sampleS = requirePositive(input.sampleEveryS ?? 3600, 'sampleEveryS');
+  checkForecastWork(hours, dt, sampleS);
+  if (input.losses && Array.isArray(input.losses.weather) && input.losses.weather.length > FORECAST_LIMITS.maxWeatherRows) {
+    throw new RangeError(`losses.weather has ${input.losses.weather.length} rows; at most ${FORECAST_LIMITS.maxWeatherRows} (a leap year of hours) are allowed`);
+  }
   const terms = input.losses ? resolveTerms(input.losses) : null;
 
   const steps = Math.ceil((hours * 3600) / dt - 1e-9);
