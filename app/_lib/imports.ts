@@ -8,7 +8,7 @@ import {
   type CellTable, type SensorLog, type TrialSheetResult,
 } from './import';
 import { logMappingFrom, readLogHead, suggestShape } from './import/suggest-shape';
-import { getObjectBuffer, putFile, spool } from './storage';
+import { getObjectBuffer, putFile, spool, type Spooled } from './storage';
 
 /** Upload size limit (IMPORT_MAX_BYTES, default 100 MB), enforced while the body streams in. */
 export const maxUploadBytes = () => Number(process.env.IMPORT_MAX_BYTES ?? 100 * 1024 * 1024);
@@ -29,16 +29,21 @@ export const sourceFileDto = (f: SourceFileRow) => ({
 export async function storeUpload(em: EntityManager, rig: RigRow, user: UserRow, body: ReadableStream<Uint8Array> | null, filename: string, contentType: string) {
   const spooled = await spool(body, maxUploadBytes());
   try {
-    if (spooled.sizeBytes === 0) throw new HttpError(422, 'empty', `"${filename}" is empty: there is nothing to import.`);
-    const existing = await em.findOne(SourceFile, { lab: rig.lab, sha256: spooled.sha256, purpose: 'trials' });
-    if (existing) return { file: existing, duplicate: true };
-    const storageKey = await putFile(spooled, rig.lab.id, contentType);
-    const file = em.create(SourceFile, { lab: rig.lab, rig, uploadedBy: user, filename: filename.slice(0, 255), contentType: contentType.slice(0, 120), sizeBytes: spooled.sizeBytes, sha256: spooled.sha256, storageKey });
-    await em.flush();
-    return { file, duplicate: false };
+    return await storeSpooled(em, rig, user, spooled, filename, contentType);
   } finally {
     await spooled.cleanup();
   }
+}
+
+/** Stores a spooled upload (a raw body or a multipart file part) unchanged; the caller removes the spooled file. */
+export async function storeSpooled(em: EntityManager, rig: RigRow, user: UserRow, spooled: Spooled, filename: string, contentType: string) {
+  if (spooled.sizeBytes === 0) throw new HttpError(422, 'empty', `"${filename}" is empty: there is nothing to import.`);
+  const existing = await em.findOne(SourceFile, { lab: rig.lab, sha256: spooled.sha256, purpose: 'trials' });
+  if (existing) return { file: existing, duplicate: true };
+  const storageKey = await putFile(spooled, rig.lab.id, contentType);
+  const file = em.create(SourceFile, { lab: rig.lab, rig, uploadedBy: user, filename: filename.slice(0, 255), contentType: contentType.slice(0, 120), sizeBytes: spooled.sizeBytes, sha256: spooled.sha256, storageKey });
+  await em.flush();
+  return { file, duplicate: false };
 }
 
 const isZip = (b: Buffer) => b.length > 4 && b[0] === 0x50 && b[1] === 0x4b && b[2] === 0x03 && b[3] === 0x04;

@@ -4,6 +4,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import type { z } from 'zod';
 import { ApiToken, Membership, type LabRow } from '@/entities';
 import type { Role } from '@/entities/membership';
+import { RequestBody, tooLarge, type BodylessRequest, type FormLimits, type StreamedForm } from './body-limit';
 import { config } from './config';
 import { getEm } from './db';
 import { HttpError, errorResponse, forbidden, notFound, unauthorized } from './errors';
@@ -25,7 +26,8 @@ export interface Member {
 }
 
 export interface RouteContext<P> {
-  req: NextRequest;
+  /** The request without its body: bodies are read only through `json`, `bodyStream` and `formData`. */
+  req: BodylessRequest;
   params: P;
   em: EntityManager;
   actor: Actor | null;
@@ -35,8 +37,12 @@ export interface RouteContext<P> {
   origin: string;
   /** The membership checked by `labAction`, when the route has one. */
   member?: Member;
-  /** Reads and validates the JSON body (size-limited before parsing). */
+  /** Reads and validates the JSON body (bytes counted as they stream in: 413 past the limit). */
   json<S extends z.ZodType>(schema: S): Promise<z.infer<S>>;
+  /** The raw body as a stream (null without one), counted as it is read: 413 past the limit. */
+  bodyStream(): ReadableStream<Uint8Array> | null;
+  /** A multipart/form-data body parsed as it streams, files spooled to temporary files (removed after the handler). */
+  formData(limits: FormLimits): Promise<StreamedForm>;
   /** The signed-in actor, or 401. */
   requireActor(): Actor;
   /**
@@ -51,7 +57,7 @@ export interface RouteOptions {
   auth: 'public' | 'user' | 'session';
   /** For routes under /api/labs/[labId]: the action checked against that lab before the handler runs. */
   labAction?: Action;
-  /** Largest body accepted, bytes (default 64 KiB); larger requests get 413 before anything is read. */
+  /** Largest body accepted, bytes (default 64 KiB): 413 before anything is read when Content-Length says more, and as soon as the bytes read pass it. */
   maxBodyBytes?: number;
 }
 
@@ -83,26 +89,6 @@ function checkOrigin(req: NextRequest) {
   if (site !== 'same-origin') throw new HttpError(403, 'cross_origin', 'Requests from another site are refused.');
 }
 
-async function readLimited(req: NextRequest, max: number): Promise<string> {
-  if (!req.body) return '';
-  const reader = req.body.getReader();
-  const chunks: Uint8Array[] = [];
-  let size = 0;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    size += value.byteLength;
-    if (size > max) {
-      await reader.cancel();
-      throw tooLarge(max);
-    }
-    chunks.push(value);
-  }
-  return Buffer.concat(chunks).toString('utf8');
-}
-
-const tooLarge = (max: number) => new HttpError(413, 'too_large', `The request body is larger than ${Math.round(max / 1024)} KiB.`);
-
 async function resolveActor(req: NextRequest, em: EntityManager): Promise<Actor | null> {
   const authz = req.headers.get('authorization');
   if (authz) {
@@ -132,6 +118,7 @@ export function route<P extends Record<string, string> = Record<string, never>>(
       const max = options.maxBodyBytes ?? config.maxJsonBytes;
       const length = Number(req.headers.get('content-length') ?? 0);
       if (length > max) throw tooLarge(max);
+      const bodyReader = new RequestBody(req, max);
       const bearer = req.headers.has('authorization');
       if (STATE_CHANGING.has(req.method) && !bearer) checkOrigin(req);
       const em = await getEm();
@@ -147,7 +134,7 @@ export function route<P extends Record<string, string> = Record<string, never>>(
         secure,
         origin: publicOrigin(req),
         async json(schema) {
-          const text = await readLimited(req, max);
+          const text = await bodyReader.text();
           let body: unknown;
           try {
             body = text ? JSON.parse(text) : {};
@@ -156,6 +143,8 @@ export function route<P extends Record<string, string> = Record<string, never>>(
           }
           return schema.parse(body);
         },
+        bodyStream: () => bodyReader.stream(),
+        formData: (limits) => bodyReader.form(req.headers.get('content-type'), limits),
         requireActor() {
           if (!actor) throw unauthorized();
           return actor;
@@ -179,7 +168,7 @@ export function route<P extends Record<string, string> = Record<string, never>>(
         if (!labId) throw new Error('labAction needs a [labId] segment');
         ctx.member = await ctx.requireMember(labId, options.labAction);
       }
-      const res = await handler(ctx);
+      const res = await handler(ctx).finally(() => bodyReader.cleanup());
       res.headers.set('Cache-Control', 'no-store');
       return res;
     } catch (e) {

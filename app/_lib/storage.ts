@@ -36,10 +36,11 @@ export interface Spooled {
 }
 
 /**
- * Streams a request body to a temporary file while hashing it, refusing it as soon as it
- * passes `maxBytes` (the rest is never read). The caller stores it and calls cleanup().
+ * Streams a request body (or a file part of one) to a temporary file while hashing it, refusing
+ * it as soon as it passes `maxBytes` (the rest is never read). The caller stores it and calls
+ * cleanup().
  */
-export async function spool(body: ReadableStream<Uint8Array> | null, maxBytes: number): Promise<Spooled> {
+export async function spool(body: ReadableStream<Uint8Array> | Readable | null, maxBytes: number): Promise<Spooled> {
   if (!body) throw new HttpError(400, 'empty', 'The upload is empty.');
   const dir = await mkdtemp(path.join(os.tmpdir(), 'emberline-upload-'));
   const file = path.join(dir, 'upload');
@@ -47,7 +48,7 @@ export async function spool(body: ReadableStream<Uint8Array> | null, maxBytes: n
   const hash = createHash('sha256');
   let size = 0;
   try {
-    const source = Readable.fromWeb(body as import('node:stream/web').ReadableStream<Uint8Array>);
+    const source = body instanceof Readable ? body : Readable.fromWeb(body as import('node:stream/web').ReadableStream<Uint8Array>);
     await pipeline(
       source,
       async function* (chunks: AsyncIterable<Buffer>) {

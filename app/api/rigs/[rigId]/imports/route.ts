@@ -1,5 +1,5 @@
 import { HttpError, badRequest } from '@/app/_lib/errors';
-import { confirmImport, maxUploadBytes, previewImport, sourceFileDto, storeUpload } from '@/app/_lib/imports';
+import { confirmImport, maxUploadBytes, previewImport, sourceFileDto, storeSpooled } from '@/app/_lib/imports';
 import { confirmedMappingSchema } from '@/app/_lib/import';
 import { loadRig } from '@/app/_lib/rigs';
 import { json, route } from '@/app/_lib/route';
@@ -11,24 +11,20 @@ import { json, route } from '@/app/_lib/route';
  */
 export const POST = route<{ rigId: string }>({ auth: 'user', maxBodyBytes: maxUploadBytes() }, async (ctx) => {
   const { rig, member } = await loadRig(ctx, ctx.params.rigId, 'trial:write');
-  let form: FormData;
-  try {
-    form = await ctx.req.formData();
-  } catch {
-    throw badRequest('Send multipart/form-data with the file in a field named "file".');
-  }
-  const part = form.get('file');
-  if (!(part instanceof Blob)) throw badRequest('Send the file in a multipart field named "file".');
-  const name = (part as File).name || 'upload';
-  const { file, duplicate } = await storeUpload(ctx.em, rig, ctx.requireActor().user, part.stream(), name, part.type || 'application/octet-stream');
+  // streamed: the file part goes to a temporary file as it arrives (removed after the handler)
+  const form = await ctx.formData({ fileFields: ['file'] });
+  const part = form.files[0];
+  if (!part) throw badRequest('Send the file in a multipart field named "file".');
+  const { file, duplicate } = await storeSpooled(ctx.em, rig, ctx.requireActor().user, part, part.filename, part.contentType);
   if (duplicate && file.state === 'imported') {
     return json({ file: sourceFileDto(file), duplicate, message: `This file was imported before (${file.rowsImported} trials); nothing was added.` });
   }
-  const sheet = typeof form.get('sheet') === 'string' ? String(form.get('sheet')) : undefined;
+  const sheet = form.fields.get('sheet');
   let mapping: unknown;
-  if (typeof form.get('mapping') === 'string') {
+  const mappingText = form.fields.get('mapping');
+  if (mappingText !== undefined) {
     try {
-      mapping = JSON.parse(String(form.get('mapping')));
+      mapping = JSON.parse(mappingText);
     } catch {
       throw badRequest('The "mapping" field is not valid JSON.');
     }

@@ -29,7 +29,7 @@ export const POST = route<{ rigId: string }>({ auth: 'user', maxBodyBytes: MAX_P
   const filename = ctx.req.nextUrl.searchParams.get('filename')?.trim() || 'photo';
   const type = (ctx.req.headers.get('content-type') ?? '').split(';')[0].trim();
   if (!IMAGE_TYPES.has(type)) throw badRequest('Send a JPEG, PNG or WebP picture.');
-  const spooled = await spool(ctx.req.body, MAX_PHOTO_BYTES);
+  const spooled = await spool(ctx.bodyStream(), MAX_PHOTO_BYTES);
   try {
     const { readFile } = await import('node:fs/promises');
     const head = (await readFile(spooled.file)).subarray(0, 16);

@@ -8,6 +8,6 @@ export const POST = route<{ rigId: string }>({ auth: 'user', maxBodyBytes: maxUp
   const { rig } = await loadRig(ctx, ctx.params.rigId, 'trial:write');
   const filename = ctx.req.nextUrl.searchParams.get('filename')?.trim();
   if (!filename) throw badRequest('Name the file: ?filename=trials.csv');
-  const { file, duplicate } = await storeUpload(ctx.em, rig, ctx.requireActor().user, ctx.req.body, filename, ctx.req.headers.get('content-type') ?? 'application/octet-stream');
+  const { file, duplicate } = await storeUpload(ctx.em, rig, ctx.requireActor().user, ctx.bodyStream(), filename, ctx.req.headers.get('content-type') ?? 'application/octet-stream');
   return json({ file: sourceFileDto(file), duplicate }, { status: duplicate ? 200 : 201 });
 });
