@@ -15,6 +15,10 @@ export const metadata: Metadata = {
   description: 'A workbench for testing water heaters: import trials, fit physical models, forecast pool warm-up.',
 };
 
+// Every page is rendered per request: its scripts carry the nonce of that request's
+// Content-Security-Policy (proxy.ts), which a page prerendered at build time could not have.
+export const dynamic = 'force-dynamic';
+
 export const viewport: Viewport = { width: 'device-width', initialScale: 1, themeColor: '#241E1B' };
 
 export default function RootLayout({ children }: { children: ReactNode }) {

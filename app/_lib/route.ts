@@ -9,6 +9,7 @@ import { config } from './config';
 import { getEm } from './db';
 import { HttpError, errorResponse, forbidden, notFound, unauthorized } from './errors';
 import { can, type Action } from './permissions';
+import { setSecurityHeaders } from './security-headers';
 import { SESSION_COOKIE, readSession, type UserRow } from './session';
 import { sha256 } from './tokens';
 
@@ -170,9 +171,12 @@ export function route<P extends Record<string, string> = Record<string, never>>(
       }
       const res = await handler(ctx).finally(() => bodyReader.cleanup());
       res.headers.set('Cache-Control', 'no-store');
+      setSecurityHeaders(res.headers, config.appUrl);
       return res;
     } catch (e) {
-      return errorResponse(e);
+      const res = errorResponse(e);
+      setSecurityHeaders(res.headers, config.appUrl);
+      return res;
     }
   };
 }

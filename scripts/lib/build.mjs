@@ -5,7 +5,7 @@ import path from 'node:path';
 import { root, runVisible, step } from './util.mjs';
 
 const INPUTS = ['app', 'analysis', 'entities', 'public', 'package-lock.json', 'next.config.js', 'tailwind.config.ts',
-  'postcss.config.mjs', 'tsconfig.json', 'tsconfig.build.json', 'mikro-orm.config.ts', 'instrumentation.ts'];
+  'postcss.config.mjs', 'tsconfig.json', 'tsconfig.build.json', 'mikro-orm.config.ts', 'instrumentation.ts', 'proxy.ts'];
 const stampFile = path.join(root, '.next', 'emberline-source-hash');
 
 function walk(p, out) {

@@ -18,6 +18,7 @@ describe('sign-up and password reset in Chromium', () => {
     await p.getByLabel('E-mail').fill(email);
     await p.getByLabel('Password', { exact: true }).fill('password1234');
     await p.getByLabel('Lab name (optional)').fill('Riverside Shed');
+    b.expectConsoleError(/status of 422/); // the refusal of the weak password
     await p.getByRole('button', { name: 'Create account' }).click();
     await p.getByText('commonly used passwords').first().waitFor();
     await screenshot(p, 'sign-up-weak-password');

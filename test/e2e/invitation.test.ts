@@ -109,6 +109,7 @@ describe('invitation walk-through in Chromium', () => {
     await expect(p.getByRole('combobox', { name: 'Role of New Reviewer' }).inputValue()).resolves.toBe('engineer');
     await screenshot(p, 'owner-role-changed');
     // the last owner cannot be demoted: the table says why
+    owner.expectConsoleError(/status of 409/); // the refusal, shown in the table
     await p.getByRole('combobox', { name: 'Role of Demo Owner' }).selectOption('viewer');
     await p.getByRole('alert').filter({ hasText: 'at least one owner' }).waitFor();
     await screenshot(p, 'owner-last-owner-refused');

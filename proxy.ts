@@ -1,0 +1,35 @@
+import { NextResponse, type NextRequest } from 'next/server';
+import { config as appConfig } from '@/app/_lib/config';
+import { newNonce, pageCsp, setSecurityHeaders } from '@/app/_lib/security-headers';
+
+/**
+ * Security headers for pages and static files (app/_lib/security-headers.ts). Each page request
+ * gets a fresh nonce: it is put in the request's Content-Security-Policy, where Next.js finds it
+ * and writes it on its own scripts and styles while it renders (the pages are rendered per
+ * request: the root layout is force-dynamic), and in the response's.
+ *
+ * API routes are left out on purpose: for a request the proxy handles, Next.js clones the body
+ * and buffers it in memory (up to proxyClientMaxBodySize, silently cutting the rest) before the
+ * route runs, which would defeat the streamed body limits of the route wrapper. The wrapper sets
+ * the same headers on API responses.
+ */
+export function proxy(request: NextRequest) {
+  const appUrl = appConfig.appUrl;
+  if (request.nextUrl.pathname.startsWith('/_next/')) {
+    // scripts, styles, fonts and images of the build: a policy that loads nothing
+    const res = NextResponse.next();
+    setSecurityHeaders(res.headers, appUrl);
+    return res;
+  }
+  const csp = pageCsp(newNonce(), appUrl);
+  const requestHeaders = new Headers(request.headers);
+  requestHeaders.set('Content-Security-Policy', csp);
+  const res = NextResponse.next({ request: { headers: requestHeaders } });
+  setSecurityHeaders(res.headers, appUrl, csp);
+  return res;
+}
+
+export const config = {
+  // everything but /api and /api/…
+  matcher: ['/((?!api/|api$).*)'],
+};
