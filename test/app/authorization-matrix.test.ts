@@ -41,6 +41,10 @@ const uuid0 = '00000000-0000-4000-8000-000000000000';
 
 const MATRIX: Record<string, Case[]> = {
   'app/api/health/route.ts': [{ method: 'GET', url: () => '/api/health', expect: { ...all(200), token: 200 } }],
+  'app/api/[...path]/route.ts': [
+    { method: 'GET', url: () => '/api/no-such-route', expect: { ...all(404), token: 404 } },
+    ...(['POST', 'PUT', 'PATCH', 'DELETE'] as const).map((method) => ({ method, url: (f: Fixture) => `/api/rigs/${f.rigId}/no-such-thing`, expect: { ...all(404), token: 404 } })),
+  ],
   'app/api/auth/sign-up/route.ts': [{ method: 'POST', url: () => '/api/auth/sign-up', body: () => ({ email: 'not-an-address' }), expect: all(422) }],
   'app/api/auth/sign-in/route.ts': [{ method: 'POST', url: () => '/api/auth/sign-in', body: () => ({ email: 'nobody' }), expect: all(422) }],
   'app/api/auth/forgot-password/route.ts': [

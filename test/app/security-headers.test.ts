@@ -64,6 +64,12 @@ describe('security headers', () => {
     expect(refused.status).toBe(401);
     expectCommon(refused.headers);
     expectNoContentPolicy(refused.headers);
+    // a path no route answers: JSON, not the HTML not-found page
+    const missing = await fetch(`${baseUrl}/api/no-such-route`);
+    expect(missing.status).toBe(404);
+    expect(missing.headers.get('content-type')).toMatch(/^application\/json/);
+    expectCommon(missing.headers);
+    expectNoContentPolicy(missing.headers);
   });
 
   test('static files get the common headers and a policy that loads nothing', async () => {
