@@ -51,6 +51,10 @@ describe('invitation walk-through in Chromium', () => {
     await p.getByLabel('E-mail').fill(invitee);
     await p.getByLabel('Password', { exact: true }).fill(STRONG_PASSWORD);
     await p.getByRole('button', { name: 'Create account' }).click();
+    await p.getByText(`We sent a message to ${invitee}`).waitFor();
+    const confirm = await waitForMailLink(invitee, /Finish signing up/);
+    await visit(p, confirm.link);
+    await p.getByRole('button', { name: 'Create my account' }).click();
     await p.waitForURL('**/invitations/**');
     await p.getByRole('button', { name: 'Accept and join' }).click();
     await p.waitForURL('**/rigs');
