@@ -1,17 +1,12 @@
 /**
  * Runs once when a Next.js server starts (Node runtime only): a production server whose
  * configuration is unsafe refuses to start, with one clear message per problem (APP_URL missing,
- * SESSION_SECRET too short…); then the background-job workers start with the web server
- * (EMBERLINE_JOB_WORKER=off starts a web process without them).
+ * SESSION_SECRET too short…; app/_lib/startup.ts); then the background-job workers start with the
+ * web server (EMBERLINE_JOB_WORKER=off starts a web process without them).
  */
 export async function register() {
   if (process.env.NEXT_RUNTIME !== 'nodejs') return;
-  const { config, configProblems } = await import('./app/_lib/config');
-  const problems = configProblems(config);
-  if (problems.length) {
-    for (const p of problems) console.error(`emberline: refusing to start: ${p}`);
-    process.exit(1);
-  }
+  (await import('./app/_lib/startup')).refuseUnsafeStart();
   if (process.env.EMBERLINE_JOB_WORKER === 'off') return;
   const { startJobWorkers } = await import('./app/_lib/jobs');
   startJobWorkers().catch((e: unknown) => console.error('background jobs did not start:', e instanceof Error ? e.message : e));

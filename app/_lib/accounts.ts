@@ -166,9 +166,9 @@ export async function revokeAllTokens(em: EntityManager, user: UserRow, ip: stri
   return n;
 }
 
-/** After a new password: other sessions end and outstanding reset links stop working. */
+/** After a new password: other sessions end and outstanding reset links stop working (a used one stays, to say so). */
 async function afterNewPassword(em: EntityManager, user: UserRow) {
-  await em.nativeDelete(PasswordReset, { user });
+  await em.nativeDelete(PasswordReset, { user, usedAt: null });
   await endAllSessions(em, user);
 }
 

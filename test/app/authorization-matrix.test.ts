@@ -8,7 +8,7 @@ import { readdirSync, readFileSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { createHash } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import { Client, STRONG_PASSWORD, signedIn, uniqueEmail } from './support/client';
+import { Client, STRONG_PASSWORD, createAccount, signedIn, uniqueEmail } from './support/client';
 
 const root = path.resolve(__dirname, '..', '..');
 const ROLES = ['owner', 'engineer', 'reviewer', 'viewer'] as const;
@@ -42,6 +42,7 @@ const uuid0 = '00000000-0000-4000-8000-000000000000';
 const MATRIX: Record<string, Case[]> = {
   'app/api/health/route.ts': [{ method: 'GET', url: () => '/api/health', expect: { ...all(200), token: 200 } }],
   'app/api/auth/sign-up/route.ts': [{ method: 'POST', url: () => '/api/auth/sign-up', body: () => ({ email: 'not-an-address' }), expect: all(422) }],
+  'app/api/auth/sign-up/confirm/route.ts': [{ method: 'POST', url: () => '/api/auth/sign-up/confirm', body: () => ({ token: 'sgn_not-a-real-token' }), expect: all(410) }],
   'app/api/auth/sign-in/route.ts': [{ method: 'POST', url: () => '/api/auth/sign-in', body: () => ({ email: 'nobody' }), expect: all(422) }],
   'app/api/auth/forgot-password/route.ts': [
     { method: 'POST', url: () => '/api/auth/forgot-password', body: () => ({ email: uniqueEmail('forgot') }), expect: all(200) },
@@ -131,11 +132,12 @@ const MATRIX: Record<string, Case[]> = {
   'app/api/fits/[fitId]/export/route.ts': [{ method: 'GET', url: (f) => `/api/fits/${f.fitId}/export`, expect: { ...members(200), token: 200 } }],
   'app/api/fits/[fitId]/review/route.ts': [
     {
-      // A draft cannot be approved: deciders pass authorization and meet the state rule (409).
+      // A draft cannot be approved: the reviewer passes authorization and meets the state rule (409);
+      // the owner made this fit, and nobody decides on their own work (403).
       method: 'POST',
       url: (f) => `/api/fits/${f.fitId}/review`,
       body: () => ({ move: 'approve' }),
-      expect: { anon: 401, owner: 409, engineer: 403, reviewer: 409, viewer: 403, outsider: 404, token: 403 },
+      expect: { anon: 401, owner: 403, engineer: 403, reviewer: 409, viewer: 403, outsider: 404, token: 403 },
     },
   ],
   'app/api/fits/[fitId]/comments/route.ts': [
@@ -183,7 +185,8 @@ const MATRIX: Record<string, Case[]> = {
       method: 'POST',
       url: (f) => `/api/studies/${f.studyId}/review`,
       body: () => ({ move: 'approve' }),
-      expect: { anon: 401, owner: 409, engineer: 403, reviewer: 409, viewer: 403, outsider: 404, token: 403 },
+      // the owner wrote this study: own work (403); the reviewer meets the state rule (409)
+      expect: { anon: 401, owner: 403, engineer: 403, reviewer: 409, viewer: 403, outsider: 404, token: 403 },
     },
   ],
   'app/api/studies/[studyId]/comments/route.ts': [
@@ -220,7 +223,7 @@ const MATRIX: Record<string, Case[]> = {
     {
       method: 'POST',
       url: () => '/api/tokens',
-      body: (f) => ({ name: 'matrix check', labId: f.labId }),
+      body: (f) => ({ name: 'matrix check', labId: f.labId, password: 'ember-demo-lab-2026' }),
       expect: { anon: 401, owner: 201, engineer: 201, reviewer: 403, viewer: 403, outsider: 404, token: 403 },
     },
   ],
@@ -288,8 +291,7 @@ describe('authorization matrix', () => {
   }
 
   beforeAll(async () => {
-    const signup = await new Client().post('/api/auth/sign-up', { email: outsider.email, name: 'Outside Tester', password: outsider.password, labName: 'Elsewhere Bench' });
-    expect(signup.status).toBe(201);
+    await createAccount(outsider.email, outsider.password, 'Outside Tester', 'Elsewhere Bench');
     const owner = await clientFor('owner', false);
     const me = await owner.get('/api/me');
     const lab = me.body.labs.find((l: { slug: string }) => l.slug === 'cinder-hollow');
@@ -310,7 +312,7 @@ describe('authorization matrix', () => {
     const cautionBlockId = (await owner.get(`/api/studies/${study.body.study.id}`)).body.study.blocks.find((b: { kind: string }) => b.kind === 'caution').id;
     fx = { labId: lab.id, rigId: demoRig.id, trialId: trials.body.trials[0].id, fitId: saved.body.fit.id, studyId: study.body.study.id, cautionBlockId, ownerMemberId: mem.body.members.find((m: { role: string }) => m.role === 'owner').id };
     const engineer = await clientFor('engineer', false);
-    const tok = await engineer.post('/api/tokens', { name: 'matrix token', labId: fx.labId });
+    const tok = await engineer.post('/api/tokens', { name: 'matrix token', labId: fx.labId, password: 'ember-demo-lab-2026' });
     expect(tok.status).toBe(201);
     secrets.unshift(tok.body.secret);
   });
