@@ -1,6 +1,6 @@
 #!/usr/bin/env node
 // A local SMTP fake for demo mode and tests: accepts every message on 127.0.0.1 and stores it
-// as JSON (from, to, subject, text, html) in MAIL_CAPTURE_DIR. Never relays anything.
+// as JSON (from, to, subject, text, html, lab) in MAIL_CAPTURE_DIR. Never relays anything.
 // Prints {"ready":true,"port":N} on stdout once it listens.
 import { mkdirSync, writeFileSync, renameSync } from 'node:fs';
 import path from 'node:path';
@@ -33,6 +33,8 @@ const server = new SMTPServer({
           subject: mail.subject ?? '',
           text: mail.text ?? '',
           html: typeof mail.html === 'string' ? mail.html : '',
+          // the lab the message is about (app/_lib/mail.ts LAB_HEADER); account mail names none
+          lab: mail.headers.get('x-emberline-lab') ?? null,
         };
         const tmp = path.join(dir, `.${id}.tmp`);
         writeFileSync(tmp, JSON.stringify(record, null, 2));

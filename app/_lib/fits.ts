@@ -119,7 +119,7 @@ export async function review(
       subject: input.move === 'submit' ? `Review requested: ${target.title}` : `${move.to === 'approved' ? 'Approved' : 'Changes requested'}: ${target.title}`,
       paragraphs: [text, ...(input.note ? [`Note: ${input.note}`] : []), `Lab: ${target.lab.name}.`],
       action: { label: `Open the ${target.kind}`, url: `${linkBase(origin)}${target.link}` },
-    });
+    }, { labId: target.lab.id });
   }
   return move.to;
 }

@@ -49,7 +49,7 @@ export async function invite(em: EntityManager, lab: LabRow, by: UserRow, emailA
     ],
     action: { label: 'Accept the invitation', url: `${linkBase(origin)}/invitations/${encodeURIComponent(token)}` },
     footnote: 'If you did not expect this, ignore the message; nothing happens unless you accept.',
-  });
+  }, { labId: lab.id });
   return invitation;
 }
 

@@ -11,6 +11,8 @@ export interface CapturedMail {
   subject: string;
   text: string;
   html: string;
+  /** the lab the message is about (its X-Emberline-Lab header), or null for account mail */
+  lab: string | null;
 }
 
 /** Messages the local SMTP fake stored (scripts/smtp-fake.mjs), newest first. Demo mode only. */

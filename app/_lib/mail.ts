@@ -43,9 +43,17 @@ ${c.footnote ? `<p style="margin:16px 0 0;font-size:12px;line-height:18px;color:
   return { subject: c.subject, text, html };
 }
 
-export async function sendMail(to: string, content: MailContent): Promise<void> {
+/** The header naming the lab a message is about; the demo mailbox of a lab shows only its own. */
+export const LAB_HEADER = 'X-Emberline-Lab';
+
+/**
+ * Sends one message. `labId`: the lab the message is about (an invitation, a review notice), so
+ * that the lab's demo mailbox shows it; account mail (reset links, sign-up) names no lab and is
+ * shown in no lab's mailbox.
+ */
+export async function sendMail(to: string, content: MailContent, opts: { labId?: string } = {}): Promise<void> {
   const { subject, text, html } = renderMail(content);
-  await transporter().sendMail({ from: config.mailFrom, to, subject, text, html });
+  await transporter().sendMail({ from: config.mailFrom, to, subject, text, html, headers: opts.labId ? { [LAB_HEADER]: opts.labId } : {} });
 }
 
 /** The base URL for links in e-mail. */
