@@ -34,8 +34,12 @@ export class Client {
     if (this.origin) h.Origin = this.origin;
     if (this.cookies.size) h.Cookie = [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
     if (this.bearer) h.Authorization = `Bearer ${this.bearer}`;
-    let payload: string | undefined;
-    if (body !== undefined) {
+    let payload: string | Uint8Array<ArrayBuffer> | FormData | undefined;
+    if (body instanceof FormData) payload = body; // fetch sets the multipart boundary
+    else if (body instanceof Uint8Array) {
+      payload = new Uint8Array(body);
+      h['Content-Type'] ??= 'application/octet-stream';
+    } else if (body !== undefined) {
       payload = typeof body === 'string' ? body : JSON.stringify(body);
       h['Content-Type'] ??= 'application/json';
     }
@@ -58,7 +62,7 @@ export class Client {
     return { status: res.status, headers: res.headers, body: parsed, text };
   }
 
-  get = (url: string) => this.request('GET', url);
+  get = (url: string, headers?: Record<string, string>) => this.request('GET', url, undefined, headers);
   post = (url: string, body: unknown = {}) => this.request('POST', url, body);
 
   async signIn(email: string, password = DEMO_PASSWORD): Promise<Reply> {
@@ -102,4 +106,24 @@ export async function waitForMailLink(address: string, subject: RegExp): Promise
     await new Promise((r) => setTimeout(r, 100));
   }
   throw new Error(`no mail to ${address} matching ${subject}`);
+}
+
+/**
+ * Creates an account (and its first lab) and returns a client signed in to it. Sign-up sends mail:
+ * `POST /api/auth/sign-up` answers 202, and the account is made by confirming the token of the
+ * link in the mail (`POST /api/auth/sign-up/confirm`, 201 with the session cookie). A server that
+ * still signs in at once (201 from sign-up) is accepted too.
+ */
+export async function createAccount(email: string, password: string, name: string, labName?: string): Promise<Client> {
+  const c = new Client();
+  const r = await c.post('/api/auth/sign-up', { email, password, name, ...(labName ? { labName } : {}) });
+  if (r.status === 201) return c;
+  if (r.status !== 202) throw new Error(`sign-up of ${email} failed: ${r.status} ${r.text}`);
+  const { link } = await waitForMailLink(email, /finish signing up/i);
+  const url = new URL(link);
+  const token = url.searchParams.get('token') ?? decodeURIComponent(url.pathname.split('/').filter(Boolean).at(-1) ?? '');
+  const confirmed = await c.post('/api/auth/sign-up/confirm', { token });
+  if (confirmed.status !== 201) throw new Error(`confirming the sign-up of ${email} failed: ${confirmed.status} ${confirmed.text}`);
+  if (!c.cookies.has('emberline_session')) throw new Error(`confirming the sign-up of ${email} set no session cookie`);
+  return c;
 }
