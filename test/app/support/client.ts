@@ -38,8 +38,12 @@ export class Client {
     if (this.origin) h.Origin = this.origin;
     if (this.cookies.size) h.Cookie = [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
     if (this.bearer) h.Authorization = `Bearer ${this.bearer}`;
-    let payload: string | undefined;
-    if (body !== undefined) {
+    let payload: string | Uint8Array<ArrayBuffer> | FormData | undefined;
+    if (body instanceof FormData) payload = body; // fetch sets the multipart boundary
+    else if (body instanceof Uint8Array) {
+      payload = new Uint8Array(body);
+      h['Content-Type'] ??= 'application/octet-stream';
+    } else if (body !== undefined) {
       payload = typeof body === 'string' ? body : JSON.stringify(body);
       h['Content-Type'] ??= 'application/json';
     }
@@ -62,7 +66,7 @@ export class Client {
     return { status: res.status, headers: res.headers, body: parsed, text };
   }
 
-  get = (url: string) => this.request('GET', url);
+  get = (url: string, headers?: Record<string, string>) => this.request('GET', url, undefined, headers);
   post = (url: string, body: unknown = {}) => this.request('POST', url, body);
 
   async signIn(email: string, password = DEMO_PASSWORD): Promise<Reply> {
