@@ -46,6 +46,8 @@ const PAGES: Record<string, PageCase> = {
   'app/page.tsx': { path: () => '/', expect: publicPage() },
   'app/sign-in/page.tsx': { path: () => '/sign-in', expect: each((c) => (NOT_SIGNED_IN.includes(c) ? 200 : { to: '/rigs' })) },
   'app/sign-up/page.tsx': { path: () => '/sign-up', expect: publicPage() },
+  // opening a sign-up link changes nothing (mail scanners open links): the page only offers the button
+  'app/sign-up/confirm/page.tsx': { path: () => '/sign-up/confirm?token=sgn_not-a-real-token', expect: publicPage() },
   'app/forgot-password/page.tsx': { path: () => '/forgot-password', expect: publicPage() },
   'app/reset-password/page.tsx': { path: () => '/reset-password?token=rst_not-a-real-token', expect: publicPage() },
   'app/help/permissions/page.tsx': { path: () => '/help/permissions', expect: publicPage() },

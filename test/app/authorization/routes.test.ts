@@ -116,7 +116,9 @@ const MATRIX: Record<string, Case[]> = {
       url: () => '/api/auth/sign-up',
       body: (f, who) => ({ email: [f.outsider.email, ...ROLES.map(emailOf)][CALLERS.indexOf(who) % 5], name: 'Someone Else', password: STRONG_PASSWORD }),
       expect: open(202),
-      after: ({ reply }) => expect(reply.body).toMatchObject({ ok: true, message: expect.any(String) }),
+      after: ({ reply }) => {
+        if (reply.status === 202) expect(reply.body).toMatchObject({ ok: true, message: expect.any(String) });
+      },
     },
   ],
   'app/api/auth/sign-up/confirm/route.ts': [
@@ -508,7 +510,9 @@ describe('authorization matrix', () => {
     if (who === 'expired' && f.expiredProblem) throw new Error(f.expiredProblem);
     const body = c.body ? c.body(f, who) : c.method === 'GET' ? undefined : {};
     const reply = await client.request(c.method, c.url(f), body, c.headers);
-    if (/json/.test(reply.headers.get('content-type') ?? '')) bodies.push(reply.text);
+    // a new token's secret is shown once, in the answer that creates it; anywhere else it is a leak
+    const created = c.method === 'POST' && c.url(f) === '/api/tokens' && reply.status === 201;
+    if (/json/.test(reply.headers.get('content-type') ?? '')) bodies.push(created ? reply.text.replace(reply.body.secret, '<shown once>') : reply.text);
     expect(reply.status, reply.text.slice(0, 300)).toBe(c.expect[who]);
     await c.after?.({ f, who, reply, client });
     return reply;
