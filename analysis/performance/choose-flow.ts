@@ -77,20 +77,30 @@ function interiorMax(curve: FittedCurve, p: ArrayLike<number>, a: number, b: num
   return (lo + hi) / 2;
 }
 
-/** Smallest flow in [a, b] (log grid) above which y(x) ≤ limit; 0 if always below, null if never. */
-function crossing(y: (x: number) => number, a: number, b: number, limit: number): number | null {
+/**
+ * Smallest flow in [a, b] above which y(x) ≤ limit: a 400-point log grid finds the last flow where
+ * y exceeds the limit (or is not finite), then bisection the crossing after it. The one search for
+ * minimum flows (here and in test planning).
+ * @param y outlet temperature (or its upper bound), °C, at a flow
+ * @param a lowest flow, m³/s, > 0
+ * @param b highest flow, m³/s, > a
+ * @param limit °C
+ * @returns m³/s; 0 when y ≤ limit over the whole range; null when y exceeds it even at b
+ * @example lowestFlowBelowLimit((x) => 20 + 1e-3 / x, 1e-5, 1e-3, 30) // ≈ 1e-4
+ */
+export function lowestFlowBelowLimit(y: (x: number) => number, a: number, b: number, limit: number): number | null {
   const n = 400;
   const xs = Array.from({ length: n + 1 }, (_, i) => a * (b / a) ** (i / n));
   let last = -1;
-  for (let i = 0; i <= n; i++) if (y(xs[i]) > limit) last = i;
+  for (let i = 0; i <= n; i++) if (!(y(xs[i]) <= limit)) last = i;
   if (last === -1) return 0;
   if (last === n) return null;
   let lo = xs[last], hi = xs[last + 1];
   for (let i = 0; i < 100 && hi - lo > 1e-14 * hi; i++) {
     const mid = (lo + hi) / 2;
-    if (y(mid) > limit) lo = mid; else hi = mid;
+    if (!(y(mid) <= limit)) lo = mid; else hi = mid;
   }
-  return (lo + hi) / 2;
+  return hi; // the side where y ≤ limit
 }
 
 /**
@@ -157,10 +167,10 @@ export function chooseFlow(
     const L = requireFinite(lim.limitC, 'limits[].limitC');
     const base = { label: lim.label, limitC: L };
     if (!(L > tin)) return { ...base, flowM3PerS: null, flowU: null, conservativeFlowM3PerS: null, extrapolated: false, note: 'The inlet is already at or above this limit.' };
-    const best = (p: number[]) => crossing((x) => curve.evaluate(p, [x], tin)[0], a, b, L);
+    const best = (p: number[]) => lowestFlowBelowLimit((x) => curve.evaluate(p, [x], tin)[0], a, b, L);
     const f = best(p0);
     const flowU = f !== null && f > 0 ? deltaMethodU(curve, (p) => { const v = best(p); return v === null || v === 0 ? null : v; }) : null;
-    const cons = crossing((x) => curve.band([x], tin, level)[0].piHigh, a, b, L);
+    const cons = lowestFlowBelowLimit((x) => curve.band([x], tin, level)[0].piHigh, a, b, L);
     const worst = cons === null ? f : Math.max(f ?? 0, cons);
     const extrapolated = (f !== null && f > 0 && (f < lo || f > hi)) || (cons !== null && cons > 0 && (cons < lo || cons > hi));
     let note: string;
