@@ -5,7 +5,8 @@
  * the inlet temperature, so mass flow is ρ(Tin)·V̇; any other covariate is held at its mean over
  * the fitted data.
  */
-import { compileModel, predictAt, type BandPoint, type FitSuccess } from '../fit';
+import { predictAt, type BandPoint, type FitSuccess } from '../fit';
+import { compileCached } from '../fit/prepare-problem';
 import { requireFinite } from '../units/guards';
 import { waterCpJPerKgK, waterDensityKgPerM3 } from '../water/water-properties';
 
@@ -59,7 +60,7 @@ export function heaterCovariates(names: string[], m: number, inletC: number, mea
  */
 export function fittedCurve(fit: FitSuccess): FittedCurve {
   const spec = fit.spec;
-  const compiled = compileModel(spec.expression, { parameters: spec.parameterNames, covariates: spec.covariateNames });
+  const compiled = compileCached(spec.expression, spec.parameterNames, spec.covariateNames);
   if (!compiled.ok) throw new RangeError(`cannot evaluate the fitted model: ${compiled.reason}`);
   const model = compiled.model;
   const tin = spec.covariates.Tin;
