@@ -11,6 +11,7 @@
  */
 import type { FitSuccess } from '../fit';
 import { requireFinite, requireInRange } from '../units/guards';
+import { goldenSectionMax } from '../stats/golden-section';
 import { waterCpJPerKgK, waterDensityKgPerM3 } from '../water/water-properties';
 import { saturationTempC } from '../water/saturation-pressure';
 import { CAUTION_THRESHOLDS_C } from '../safety/cautions';
@@ -66,15 +67,7 @@ function interiorMax(curve: FittedCurve, p: ArrayLike<number>, a: number, b: num
   let best = 0;
   for (let i = 1; i <= n; i++) if (xs[i] * (ys[i] - tin) > xs[best] * (ys[best] - tin)) best = i;
   if (best === 0 || best === n) return null;
-  let lo = xs[best - 1], hi = xs[best + 1];
-  const g = (Math.sqrt(5) - 1) / 2;
-  let c = hi - g * (hi - lo), d = lo + g * (hi - lo);
-  let fc = heatAt(curve, p, c, tin, rhoCp), fd = heatAt(curve, p, d, tin, rhoCp);
-  for (let i = 0; i < 200 && hi - lo > 1e-13 * hi; i++) {
-    if (fc > fd) { hi = d; d = c; fd = fc; c = hi - g * (hi - lo); fc = heatAt(curve, p, c, tin, rhoCp); }
-    else { lo = c; c = d; fc = fd; d = lo + g * (hi - lo); fd = heatAt(curve, p, d, tin, rhoCp); }
-  }
-  return (lo + hi) / 2;
+  return goldenSectionMax((x) => heatAt(curve, p, x, tin, rhoCp), xs[best - 1], xs[best + 1], { maxIterations: 200, relTol: 1e-13 });
 }
 
 /**

@@ -15,6 +15,7 @@
  * Work is bounded by the caller's candidate count and run count and by the iteration caps here.
  */
 import { mulberry32 } from '../fit/random';
+import { goldenSectionMax } from '../stats/golden-section';
 import { addOuter, informationMatrix, logDet, symmetricInverse, quadraticForm } from './information-matrix';
 
 /** Most multiplicative-algorithm iterations. */
@@ -113,17 +114,9 @@ export function approximateDesignOnRange(rowAt: (x: number) => number[], range: 
     const fw = approximateDesign(x.map(rowAt), { tolerance: 1e-12 });
     if (fw) w = fw.weights;
     clusters.forEach((c, j) => {
-      let lo = Math.max(a, xs[c.lo] - step);
-      let hi = Math.min(b, xs[c.hi] + step);
       const f = (v: number) => { x[j] = v; return value(); };
-      const g = (Math.sqrt(5) - 1) / 2;
-      let u = hi - g * (hi - lo), v = lo + g * (hi - lo);
-      let fu = f(u), fv = f(v);
-      for (let it = 0; it < 60 && hi - lo > 1e-12 * Math.max(1, Math.abs(hi)); it++) {
-        if (fu > fv) { hi = v; v = u; fv = fu; u = hi - g * (hi - lo); fu = f(u); }
-        else { lo = u; u = v; fu = fv; v = lo + g * (hi - lo); fv = f(v); }
-      }
-      let bestX = (lo + hi) / 2, bestV = f(bestX);
+      let bestX = goldenSectionMax(f, Math.max(a, xs[c.lo] - step), Math.min(b, xs[c.hi] + step), { maxIterations: 60 });
+      let bestV = f(bestX);
       for (const e of [a, b]) if (Math.abs(e - bestX) <= 2 * step) { const ve = f(e); if (ve > bestV) { bestV = ve; bestX = e; } }
       x[j] = bestX;
     });
