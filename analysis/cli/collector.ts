@@ -4,8 +4,9 @@ import { collectorTest, type CollectorTrial } from '../performance/collector-tes
 import { ISO9806_STEADY_LIMITS } from '../performance/collector-steadiness';
 import { asObject, optionalQuantity, plainNumber, quantity } from '../units/read-fields';
 
-export const help = `collector efficiency test: eta = m*cp*(Tout - Tin)/(A*G) against x = (Tm - Ta)/G, fitted as
-  eta = eta0 - a1*x - a2*G*x^2 by (weighted) linear least squares; steady-state form only
+export const help = `solar collector efficiency test (ISO 9806 steady-state form): eta0, a1, a2 from steady trials
+  eta = m*cp*(Tout - Tin)/(A*G) against x = (Tm - Ta)/G, fitted as eta = eta0 - a1*x - a2*G*x^2 by (weighted)
+  linear least squares; the quasi-dynamic form is not covered
 input: {"grossArea":"2 m^2","trials":[{"irradiance":"950 W/m^2","inletTemp":"25 degC","outletTemp":"31 degC",
          "ambientTemp":"22 degC","flow":"2 L/min"},...]}
   area: "grossArea" or "apertureArea" (the coefficients are on that basis; with both, gross unless "areaBasis":"aperture")

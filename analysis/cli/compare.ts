@@ -4,7 +4,8 @@ import { compareDesigns, MAX_COMPARE_POINTS, type DeltaInterval, type DesignData
 import { parseQuantity } from '../units/parse-quantity';
 import { asObject, optionalQuantity, plainNumber } from '../units/read-fields';
 
-export const help = `compare two designs: fit each (default the coil model), UA_B/UA_A and Ts_B - Ts_A by the delta method
+export const help = `compare two designs: UA ratio, Ts difference and delivered heat with intervals, and a verdict in words
+  each design is fitted on its own (default the coil model); UA_B/UA_A and Ts_B - Ts_A by the delta method
   (independent fits, Welch-Satterthwaite t intervals) with a residual-bootstrap check, and the heat each delivers at
   common inlet and flows, with a verdict in words
 input: {"model":"coil","a":{"x":[...],"y":[...],"covariates":{"Tin":[...]}},"b":{...}}

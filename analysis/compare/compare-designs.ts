@@ -17,8 +17,11 @@ import { gumBudget } from '../trial/gum-budget';
 import { requireFinite, requireInRange, requirePositive } from '../units/guards';
 import { heatVerdict, parameterStatements } from './compare-verdict';
 
+/** Most trials per design (bounded work: the bootstrap refits each design). */
 export const MAX_COMPARE_POINTS = 2000;
+/** Most common flows compared. */
 export const MAX_COMPARE_FLOWS = 50;
+/** Most bootstrap resamples per design. */
 export const MAX_COMPARE_RESAMPLES = 2000;
 const DEFAULT_RESAMPLES = 400;
 
@@ -104,11 +107,13 @@ export interface FitSummary {
   df: number;
   params: Record<string, { value: number; stdErr: number }>;
   flowRangeM3PerS: [number, number];
+  /** the fit's warnings (defaults used, high correlation, unphysical values …) */
+  warnings: string[];
 }
 
 function summary(f: FitSuccess): FitSummary {
   return {
-    model: f.model, n: f.n, residualSD: f.residualSD, df: f.df, flowRangeM3PerS: f.xRange,
+    model: f.model, n: f.n, residualSD: f.residualSD, df: f.df, flowRangeM3PerS: f.xRange, warnings: f.warnings.map((w) => w.message),
     params: Object.fromEntries(f.parameterNames.map((k) => [k, { value: f.params[k].value, stdErr: f.params[k].stdErr }])),
   };
 }

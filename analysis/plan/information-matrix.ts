@@ -20,7 +20,10 @@ export function informationMatrix(rows: ArrayLike<number>[], p: number, counts?:
   return m;
 }
 
-/** M += c·g·gᵀ in place. */
+/**
+ * M += c·g·gᵀ in place (c = −1 removes a run).
+ * @example const m = new Float64Array(4); addOuter(m, [1, 2]); // m = [1, 2, 2, 4]
+ */
 export function addOuter(m: Float64Array, g: ArrayLike<number>, c = 1): void {
   const p = g.length;
   for (let i = 0; i < p; i++) for (let j = 0; j < p; j++) m[i * p + j] += c * g[i] * g[j];
@@ -85,7 +88,10 @@ export function symmetricInverse(m: ArrayLike<number>, p: number): Float64Array 
   return inv;
 }
 
-/** gᵀ·A·g for a p×p row-major A: the variance of a prediction with sensitivities g (A a covariance). */
+/**
+ * gᵀ·A·g for a p×p row-major A: the variance of a prediction with sensitivities g (A a covariance).
+ * @example quadraticForm(Float64Array.of(2, 0, 0, 3), [1, 1]) // 5
+ */
 export function quadraticForm(a: ArrayLike<number>, g: ArrayLike<number>): number {
   const p = g.length;
   let v = 0;

@@ -29,8 +29,11 @@ import { approximateDesignOnRange, exactDesign } from './d-optimal-design';
 import { informationMatrix, logDet, quadraticForm, symmetricInverse } from './information-matrix';
 import { builtinResponseModel, responseAt, type ResponseModel } from './model-response';
 
+/** Fewest runs of a session: four distinct flows, the reference at start and end, one more replicate. */
 export const MIN_PLAN_TRIALS = 6;
+/** Most runs of a session (bounded work). */
 export const MAX_PLAN_TRIALS = 60;
+/** Most candidate flows of the design search (bounded work). */
 export const MAX_PLAN_GRID_POINTS = 401;
 /** Outlet measurement u when none is given: Type T standard limits ±1.0 °C as a rectangular distribution, 1/√3 K (DOMAIN.md §2.2, §2.5). */
 export const DEFAULT_OUTLET_U_K = 1 / Math.sqrt(3);
@@ -115,7 +118,8 @@ export interface SessionPlan extends DesignSummary {
 }
 
 /**
- * The prior of a saved fit: its parameters, covariance and degrees of freedom.
+ * The prior of a saved fit: its parameters, covariance and degrees of freedom (planSession checks
+ * that the fit's model can be planned).
  * @example priorFromFit(fit).values.UA
  */
 export function priorFromFit(fit: FitSuccess): PlanPrior {
@@ -259,7 +263,7 @@ export function planSession(input: SessionPlanInput): SessionPlan | { ok: false;
   ];
   if (prior.source === 'guess') notes.push(`The prior is a guess: its uncertainty is taken as ${GUESS_PRIOR_U.temperatureK} K on temperatures and ${GUESS_PRIOR_U.relative * 100} % on other parameters (one standard uncertainty, our default).`);
   if (safeLo > lo) notes.push(`Flows below ${fmtLpm(safeLo)} are left out: there the upper prediction bound of the outlet exceeds ${limit.toFixed(1)} °C.`);
-  notes.push('With a fire or another drifting source, also repeat the reference flow every three or four runs (DOMAIN.md §1.4).');
+  notes.push('With a fire or another drifting source, also repeat the reference flow every three or four runs and note when fuel is added.');
   const boiling = saturationTempC(101325);
   const source = model.name === 'coil' ? sourceAboveBoilingCaution(prior.theta[iTs], boiling) : null;
   const result = summary(planned.map((c) => c.row), planned.map((c) => c.flow));
