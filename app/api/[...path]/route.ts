@@ -1,18 +1,16 @@
-import { config } from '@/app/_lib/config';
-import { errorResponse, notFound } from '@/app/_lib/errors';
-import { setSecurityHeaders } from '@/app/_lib/security-headers';
+import type { NextRequest } from 'next/server';
+import { notFound } from '@/app/_lib/errors';
+import { route } from '@/app/_lib/route';
 
 /**
- * Any /api path that no route answers: a JSON 404 with the API's headers. Without it Next.js
- * would answer with the HTML not-found page, which gets no headers from proxy.ts (it leaves /api
- * out). Nothing is read: the request body, if any, is never taken in.
+ * Any /api path that no route answers: a JSON 404 through the route wrapper (its headers, its
+ * origin check, its audit of refusals). Without it Next.js would answer with the HTML not-found
+ * page, which gets no headers from proxy.ts (it leaves /api out). No body is read.
  */
-function missing(): Response {
-  const res = errorResponse(notFound('There is no such API route.'));
-  res.headers.set('Cache-Control', 'no-store');
-  setSecurityHeaders(res.headers, config.appUrl);
-  return res;
-}
+const refuse = route({ auth: 'public' }, async () => {
+  throw notFound('There is no such API route.');
+});
+const missing = (req: NextRequest) => refuse(req, { params: Promise.resolve({}) });
 
 export const GET = missing;
 export const POST = missing;
