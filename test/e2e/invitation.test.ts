@@ -78,6 +78,7 @@ describe('invitation walk-through in Chromium', () => {
     expect(await p.getByRole('combobox', { name: /Role of/ }).count()).toBe(0);
     await expect(p.getByRole('heading', { name: 'Your role: reviewer' }).count()).resolves.toBe(1);
     // A refused page answers 404 with the not-found page (every page and caller: test/app/authorization/pages.test.ts).
+    reviewer.expectConsoleError(/status of 404/); // the refused page's own answer
     const refused = await visit(p, '/lab/audit');
     expect(refused?.status()).toBe(404);
     await expect(p.getByRole('heading', { level: 1 }).innerText()).resolves.toBe('Nothing here');
