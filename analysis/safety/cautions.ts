@@ -85,18 +85,20 @@ export interface HazardBandRule {
   level: CautionLevel;
   /** the band starts at this temperature, °C (at or above) */
   thresholdC: number;
-  /** a word or two for a badge: 'spa limit', 'scald risk', 'burns in seconds', 'steam risk' */
+  /** a word or two for a caution heading: 'spa limit', 'scald risk', 'burns in seconds', 'steam risk' */
   short: string;
+  /** one word for a badge beside a value in a table: 'spa', 'scald', 'burns', 'steam' */
+  tag: string;
   /** what crossing it means, after "at or above 49 °C: " */
   meaning: string;
 }
 
 /** The bands, most severe first (the order cautions are listed in). */
 export const HAZARD_BANDS: readonly HazardBandRule[] = [
-  { band: 'steam', code: 'near-boiling', level: 'danger', thresholdC: CAUTION_THRESHOLDS_C.nearBoiling, short: 'steam risk', meaning: 'near boiling, it can flash to steam when released' },
-  { band: 'seconds', code: 'scald-seconds', level: 'danger', thresholdC: CAUTION_THRESHOLDS_C.scaldSeconds, short: 'burns in seconds', meaning: 'water burns skin in seconds' },
-  { band: 'scald', code: 'scald', level: 'warning', thresholdC: CAUTION_THRESHOLDS_C.scald, short: 'scald risk', meaning: 'water can scald' },
-  { band: 'spa', code: 'spa-limit', level: 'warning', thresholdC: CAUTION_THRESHOLDS_C.spaLimit, short: 'spa limit', meaning: 'above the limit for spas and tubs' },
+  { band: 'steam', code: 'near-boiling', level: 'danger', thresholdC: CAUTION_THRESHOLDS_C.nearBoiling, short: 'steam risk', tag: 'steam', meaning: 'near boiling, it can flash to steam when released' },
+  { band: 'seconds', code: 'scald-seconds', level: 'danger', thresholdC: CAUTION_THRESHOLDS_C.scaldSeconds, short: 'burns in seconds', tag: 'burns', meaning: 'water burns skin in seconds' },
+  { band: 'scald', code: 'scald', level: 'warning', thresholdC: CAUTION_THRESHOLDS_C.scald, short: 'scald risk', tag: 'scald', meaning: 'water can scald' },
+  { band: 'spa', code: 'spa-limit', level: 'warning', thresholdC: CAUTION_THRESHOLDS_C.spaLimit, short: 'spa limit', tag: 'spa', meaning: 'above the limit for spas and tubs' },
 ];
 
 /** A threshold in words, in the unit system of the reader: '49 °C' or '120 °F' (rounded to 1 °F). */
@@ -109,8 +111,10 @@ export interface TemperatureHazard {
   band: HazardBand;
   /** the rule of the band (null for `none`) */
   rule: HazardBandRule | null;
-  /** short words for a badge ('' for `none`) */
+  /** short words ('' for `none`) */
   short: string;
+  /** one word for a badge ('' for `none`) */
+  tag: string;
   /** the reason in words, e.g. 'at or above the 40 °C spa limit' ('' for `none`) */
   label: string;
 }
@@ -128,12 +132,12 @@ export interface TemperatureHazard {
 export function hazardBand(tempC: number, units: 'si' | 'us' = 'si'): TemperatureHazard {
   if (typeof tempC !== 'number' || !Number.isFinite(tempC)) throw new TypeError(`tempC must be a finite number, got ${String(tempC)}`);
   const rule = HAZARD_BANDS.find((r) => tempC >= r.thresholdC) ?? null;
-  if (!rule) return { band: 'none', rule: null, short: '', label: '' };
+  if (!rule) return { band: 'none', rule: null, short: '', tag: '', label: '' };
   const t = thresholdText(rule.thresholdC, units);
   const label = rule.band === 'spa' ? `at or above the ${t} spa limit`
     : rule.band === 'steam' ? `at or above ${t}: near boiling, flashes to steam when released`
       : `at or above ${t}: ${rule.band === 'scald' ? 'can scald' : 'burns in seconds'}`;
-  return { band: rule.band, rule, short: rule.short, label };
+  return { band: rule.band, rule, short: rule.short, tag: rule.tag, label };
 }
 
 /**

@@ -12,12 +12,17 @@ export interface PlotView {
   title: string;
   summary: string;
   svg: string;
+  /** the cautions of the temperatures the plot shows (absent when none reaches 40 °C) */
+  cautions?: CautionView[];
 }
 
 export interface CautionView {
   code: string;
   level: string;
   message: string;
+  where?: string;
+  thresholdC?: number | null;
+  valueC?: number | null;
 }
 
 /** The saved fit a block shows; `fitId` is null on the public share view (no links into the lab). */
