@@ -5,25 +5,17 @@
  * analysis/safety/cautions.ts (hazardBand, temperatureCautions); nothing here decides what is hot.
  */
 import { CAUTION_DEFER, cautionsToShow, hazardBand, hottestCautions, type CautionLike, type HazardBand, type PlaceTemperatures } from '@/analysis/safety/cautions';
+import { STANDING_NOTICE } from '@/analysis/safety/standing-notice';
 import { tempOut, tempUnit, type Units } from './units';
 
 /** The standing notice shown on every page: Emberline is an analysis aid, not a design approval. */
 export function SafetyNotice() {
   return (
     <aside aria-label="Safety notice" className="border-t border-paper-line bg-paper-deep">
-      <div className="mx-auto max-w-page space-y-2 px-4 py-5 text-sm text-ink-soft">
-        <p>
-          <strong className="text-ink">Emberline is an analysis aid, not a design approval.</strong> Hot water can burn in
-          seconds at 60 °C (140 °F) and above; keep water people touch below 49 °C (120 °F) and spas below 40 °C (104 °F).
-          Near 95 °C (203 °F) water can flash to steam when it is released.
-        </p>
-        <p>
-          A coil with no flow over a fire is a boiler: water in a closed coil boils, builds pressure and bursts out as
-          steam. Fit a certified relief valve (or keep an open, unvalved vent) on any heated loop that can be closed, and
-          never valve off a heated coil. Start the pump before the fire is lit and keep it running until the coil is
-          cold. Fuel-burning equipment makes carbon monoxide: run it outdoors, away from openings, with a CO alarm nearby.
-          Electrical equipment near a pool needs GFCI protection. Local codes and licensed professionals have the final word.
-        </p>
+      <div className="mx-auto max-w-page space-y-1.5 px-4 py-5 text-sm text-ink-soft">
+        {STANDING_NOTICE.map((t, i) => (
+          <p key={i}>{i === 0 ? <strong className="text-ink">{t}</strong> : t}</p>
+        ))}
       </div>
     </aside>
   );
