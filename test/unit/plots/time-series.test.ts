@@ -27,7 +27,7 @@ describe('timeSeriesSegmentsPlot', () => {
   test('an outlet logged at 60 °C gets a line and a caution for each threshold reached, in words', () => {
     expect(figs.temperatures.cautions?.map((c) => `${c.code}@${c.where}`)).toEqual(['scald-seconds@logged outlet', 'scald@logged outlet', 'spa-limit@logged outlet']);
     const { doc } = renderPlot(figs.temperatures.options);
-    expect(group(doc, 'caution label').map((g) => g.textContent)).toEqual(['burns in seconds 60.0 °C', 'scald risk 49.0 °C', 'spa limit 40.0 °C']);
+    expect([...group(doc, 'caution label')].map((g) => g.textContent)).toEqual(['burns in seconds 60.0 °C', 'scald risk 49.0 °C', 'spa limit 40.0 °C']);
     expect(figs.temperatures.summary).toMatch(/Caution lines: burns in seconds 60.0 °C; scald risk 49.0 °C; spa limit 40.0 °C\./);
     const cool = timeSeriesSegmentsPlot({ points: points.map((p) => ({ ...p, outletC: 30 })), segments }, 'si');
     expect(cool.temperatures.cautions).toEqual([]);
