@@ -176,7 +176,7 @@ export function FlowChoice({ choice, units }: { choice: ChoiceView; units: Units
   return (
     <div className="space-y-3 text-sm">
       <p>
-        For an inlet of <span className="num">{f(tempOut(choice.inletTempC, units), 1)} {tempUnit(units)}</span>:
+        For an inlet of <span className="num"><TempValue c={choice.inletTempC} units={units} withUnit /></span>:
       </p>
       {choice.ceiling ? (
         <p className="rounded-lg bg-ember-50 px-3 py-2 text-ink">
@@ -234,7 +234,7 @@ export function PerformanceTableView({ table, units }: { table: PerformanceView;
     <div className="overflow-x-auto">
       <table className="data-table">
         <caption className="py-1 text-left text-sm font-semibold text-ink">
-          Performance at an inlet of {f(tempOut(table.inletTempC, units), 1)} {tempUnit(units)} (95 % prediction intervals)
+          Performance at an inlet of <TempValue c={table.inletTempC} units={units} withUnit /> (95 % prediction intervals)
         </caption>
         <thead>
           <tr>
