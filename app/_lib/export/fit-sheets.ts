@@ -110,10 +110,7 @@ export function residualsSheet(fits: readonly FitExport[], system: UnitSystem): 
     }));
   });
   const notice = heater
-    ? sheetNotice(system, [
-      { where: 'observed outlet', valuesC: fits.flatMap((fx) => fx.fit.spec.y) },
-      { where: 'fitted outlet', valuesC: fits.flatMap((fx) => Array.from(fx.fit.fitted)) },
-    ])
+    ? sheetNotice(system, [{ where: 'outlet', valuesC: fits.flatMap((fx) => [...fx.fit.spec.y, ...fx.fit.fitted]) }])
     : undefined;
   return {
     name: 'Residuals', ...(notice ? { notice } : {}), columns, rows,

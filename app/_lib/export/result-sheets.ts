@@ -32,10 +32,8 @@ export function performanceSheet(tables: readonly PerformanceExport[], system: U
     caution: cautionCell([['outlet', r.outletTempC], ['outlet (upper prediction limit)', r.outletPiC[1]]], system),
   })));
   const notes = tables.flatMap(({ label, table }) => table.notes.map((n) => (tables.length > 1 ? `${label ?? table.model}: ${n}` : n)));
-  const notice = sheetNotice(system, [
-    { where: 'predicted outlet', valuesC: tables.flatMap(({ table }) => table.rows.map((r) => r.outletTempC)) },
-    { where: 'outlet (upper prediction limit)', valuesC: tables.flatMap(({ table }) => table.rows.map((r) => r.outletPiC[1])) },
-  ]);
+  // one caution per hazard: the predicted outlet up to its upper prediction limit
+  const notice = sheetNotice(system, [{ where: 'predicted outlet', valuesC: tables.flatMap(({ table }) => table.rows.flatMap((r) => [r.outletTempC, r.outletPiC[1]])) }]);
   return { name: 'Performance', notice, columns, rows, notes };
 }
 

@@ -209,11 +209,11 @@ export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { wi
   if (warn.length) parts.push(`safety lines: ${warn.join('; ')}`);
   const summary = sentences(parts);
 
-  // one caution per hazard: the measured outlets, and the predicted outlet over the tested flows
-  const cautions = hottestCautions([
-    { where: 'measured outlet', valuesC: input.trials.map((t) => t.outletC) },
-    { where: 'predicted outlet', valuesC: (primary?.points ?? []).filter((p) => p.x >= lo && p.x <= hi).map((p) => p.y) },
-  ]);
+  // one caution per hazard for the outlet the plot shows: measured trials and the curve over the tested flows
+  const cautions = hottestCautions([{
+    where: 'outlet',
+    valuesC: [...input.trials.map((t) => t.outletC), ...(primary?.points ?? []).filter((p) => p.x >= lo && p.x <= hi).map((p) => p.y)],
+  }]);
 
   return {
     title,
