@@ -6,6 +6,7 @@
  */
 import type { ChoiceView, ComparisonView, FitView, PerformanceView } from './fit-report';
 import type { Units } from './units';
+import type { CautionLike } from '@/analysis/safety/cautions';
 
 /** A plot as the server rendered it (plotToSvg) with the words of its figcaption. */
 export interface PlotView {
@@ -16,14 +17,8 @@ export interface PlotView {
   cautions?: CautionView[];
 }
 
-export interface CautionView {
-  code: string;
-  level: string;
-  message: string;
-  where?: string;
-  thresholdC?: number | null;
-  valueC?: number | null;
-}
+/** A caution as blocks carry it (JSON of analysis/safety's Caution). */
+export type CautionView = CautionLike;
 
 /** The saved fit a block shows; `fitId` is null on the public share view (no links into the lab). */
 export interface FitHead {
