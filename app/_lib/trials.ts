@@ -108,7 +108,7 @@ export async function listTrials(em: EntityManager, rig: RigRow, q: z.infer<type
     offset: (q.page - 1) * q.pageSize,
   });
   // the hottest inlet and outlet of every matching trial, not only of this page, for the cautions beside the table
-  const agg = await em.createQueryBuilder(Trial).select([raw('max(inlet_c) as inlet_c'), raw('max(outlet_c) as outlet_c')]).where(where).execute<{ inlet_c: number | string | null; outlet_c: number | string | null }>('get');
+  const agg = await em.createQueryBuilder(Trial).select([raw('max(inlet_c) as inlet_c'), raw('max(outlet_c) as outlet_c')]).where(where).execute<{ inlet_c: number | string | null; outlet_c: number | string | null }>('get', false);
   const asNum = (v: number | string | null | undefined) => (v === null || v === undefined ? null : Number(v));
   const hottest = { inletC: asNum(agg?.inlet_c), outletC: asNum(agg?.outlet_c) };
   return { rows, total, page: q.page, pageSize: q.pageSize, hottest };

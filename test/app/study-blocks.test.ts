@@ -154,7 +154,7 @@ describe('block data for lab members', () => {
     expect(lines[0]).toMatch(/^# Safety: temperatures at or above 40 °C/);
     const comments = lines.filter((l) => l.startsWith('# '));
     for (const c of block.cautions as { message: string }[]) {
-      const head = c.message.split(':')[0].split(',').join(';'); // the caution's opening words, delimiter swapped
+      const head = c.message.slice(0, 60).split(',').join(';'); // the caution's opening words, delimiter swapped
       expect(comments.some((l) => l.includes(head)), c.message).toBe(true);
     }
     expect(lines.find((l) => !l.startsWith('#'))).toMatch(/^"forecast"/);
