@@ -48,9 +48,13 @@ const DEFER = CAUTION_DEFER;
 /** Boiling at 1 atm, °C (IAPWS-IF97 saturation temperature at 101.325 kPa, rounded). */
 const BOILING_1ATM_C = 99.97;
 
-function fmt(c: number): string {
-  return `${c.toFixed(1)} °C (${(c * 1.8 + 32).toFixed(0)} °F)`;
+/** A temperature in both units, the reader's first: '62.0 °C (144 °F)' or '143.6 °F (62.0 °C)'. */
+function fmt(c: number, units: 'si' | 'us' = 'si'): string {
+  return units === 'us' ? `${(c * 1.8 + 32).toFixed(1)} °F (${c.toFixed(1)} °C)` : `${c.toFixed(1)} °C (${(c * 1.8 + 32).toFixed(0)} °F)`;
 }
+
+/** A threshold in both units, the reader's first: '60 °C (140 °F)' or '140 °F (60 °C)'. */
+const limit = (c: number, units: 'si' | 'us') => (units === 'us' ? `${thresholdText(c, 'us')} (${thresholdText(c)})` : `${thresholdText(c)} (${thresholdText(c, 'us')})`);
 
 function exposure(c: number): string {
   const t = scaldTime(c).text.replace(/^longer than/, 'more than').replace(/^shorter than/, 'less than');
@@ -146,11 +150,12 @@ export function hazardBand(tempC: number, units: 'si' | 'us' = 'si'): Temperatur
  * The `scald` and `scald-seconds` messages include the time to a serious scald (scald-time.ts).
  * @param tempC the predicted or measured temperature, °C
  * @param where what the temperature is, e.g. 'outlet', 'pool', 'tub', 'mixed water'
+ * @param units which unit the message states first ('si' default: °C, then °F)
  * @throws TypeError when `tempC` is not a finite number.
  * @example temperatureCautions(62, 'outlet').map(c => c.code) // ['scald-seconds', 'scald', 'spa-limit']
  * @example temperatureCautions(40, 'tub')[0].code // 'spa-limit'
  */
-export function temperatureCautions(tempC: number, where: string): Caution[] {
+export function temperatureCautions(tempC: number, where: string, units: 'si' | 'us' = 'si'): Caution[] {
   if (typeof tempC !== 'number' || !Number.isFinite(tempC)) {
     throw new TypeError(`tempC must be a finite number, got ${String(tempC)}`);
   }
@@ -163,25 +168,25 @@ export function temperatureCautions(tempC: number, where: string): Caution[] {
       : 'close to boiling: it can flash to steam where pressure drops';
     out.push({
       code: 'near-boiling', level: 'danger', thresholdC: T.nearBoiling, valueC: tempC, where,
-      message: `${water} reaches ${fmt(tempC)}, ${state}. Keep an open vent or a certified relief valve on any heated loop that can be closed, raise the flow, and never valve off a heated coil. ${DEFER}`,
+      message: `${water} reaches ${fmt(tempC, units)}, ${state}. Keep an open vent or a certified relief valve on any heated loop that can be closed, raise the flow, and never valve off a heated coil. ${DEFER}`,
     });
   }
   if (tempC >= T.scaldSeconds) {
     out.push({
       code: 'scald-seconds', level: 'danger', thresholdC: T.scaldSeconds, valueC: tempC, where,
-      message: `${water} reaches ${fmt(tempC)}: at or above 60 °C (140 °F) water burns skin in seconds. ${exposure(tempC)} Keep it away from anyone's reach. ${DEFER}`,
+      message: `${water} reaches ${fmt(tempC, units)}: at or above ${limit(T.scaldSeconds, units)} water burns skin in seconds. ${exposure(tempC)} Keep it away from anyone's reach. ${DEFER}`,
     });
   }
   if (tempC >= T.scald) {
     out.push({
       code: 'scald', level: 'warning', thresholdC: T.scald, valueC: tempC, where,
-      message: `${water} reaches ${fmt(tempC)}: at or above 49 °C (120 °F) water can scald; keep water people touch below it. ${exposure(tempC)} ${DEFER}`,
+      message: `${water} reaches ${fmt(tempC, units)}: at or above ${limit(T.scald, units)} water can scald; keep water people touch below it. ${exposure(tempC)} ${DEFER}`,
     });
   }
   if (tempC >= T.spaLimit) {
     out.push({
       code: 'spa-limit', level: 'warning', thresholdC: T.spaLimit, valueC: tempC, where,
-      message: `${water} reaches ${fmt(tempC)}, at or above the 40 °C (104 °F) limit commonly set for spas and tubs; fit a high-limit cut-out and check the water with an accurate thermometer. ${DEFER}`,
+      message: `${water} reaches ${fmt(tempC, units)}, at or above the ${limit(T.spaLimit, units)} limit commonly set for spas and tubs; fit a high-limit cut-out and check the water with an accurate thermometer. ${DEFER}`,
     });
   }
   return out;
@@ -280,16 +285,16 @@ export interface PlaceTemperatures {
 
 /**
  * The cautions of the hottest value of each place: one caution per hazard reached and place, most
- * severe first, for the caution list beside a table or a plot. Values that are not finite are
- * skipped (a table shows them as gaps).
+ * severe first, for the caution list beside a table or a plot, stated in `units` first. Values
+ * that are not finite are skipped (a table shows them as gaps).
  * @example hottestCautions([{ where: 'outlet', valuesC: [38, 52, 47] }]).map(c => c.code) // ['scald', 'spa-limit']
  */
-export function hottestCautions(places: readonly PlaceTemperatures[]): Caution[] {
+export function hottestCautions(places: readonly PlaceTemperatures[], units: 'si' | 'us' = 'si'): Caution[] {
   const lists: Caution[][] = [];
   for (const p of places) {
     let max = -Infinity;
     for (const v of p.valuesC) if (typeof v === 'number' && Number.isFinite(v) && v > max) max = v;
-    if (max > -Infinity) lists.push(temperatureCautions(max, p.where));
+    if (max > -Infinity) lists.push(temperatureCautions(max, p.where, units));
   }
   return mergeCautions(...lists);
 }

@@ -93,6 +93,6 @@ export function CautionList({ cautions, label = 'Cautions' }: { cautions: readon
  * (inlet, outlet, pool…) and one caution per hazard it reaches. Nothing when all are below 40 °C.
  * @example <TemperatureCautions places={[{ where: 'outlet', valuesC: rows.map((r) => r.outletC) }]} />
  */
-export function TemperatureCautions({ places, label }: { places: readonly PlaceTemperatures[]; label?: string }) {
-  return <CautionList cautions={hottestCautions(places)} label={label} />;
+export function TemperatureCautions({ places, units = 'si', label }: { places: readonly PlaceTemperatures[]; units?: Units; label?: string }) {
+  return <CautionList cautions={hottestCautions(places, units)} label={label} />;
 }

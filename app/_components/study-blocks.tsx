@@ -148,7 +148,7 @@ export function BlockView({ block }: { block: BlockData }) {
             </tbody>
           </table>
           <div className="mt-3">
-            <TemperatureCautions label="Cautions for these trials" places={[{ where: 'outlet', valuesC: b.trials.map((t) => t.outletC) }, { where: 'inlet', valuesC: b.trials.map((t) => t.inletC) }]} />
+            <TemperatureCautions units={units} label="Cautions for these trials" places={[{ where: 'outlet', valuesC: b.trials.map((t) => t.outletC) }, { where: 'inlet', valuesC: b.trials.map((t) => t.inletC) }]} />
           </div>
         </div>
       );
@@ -200,7 +200,7 @@ export function BlockView({ block }: { block: BlockData }) {
                 </tbody>
               </table>
               <div className="mt-3">
-                <TemperatureCautions label="Cautions for these segments" places={[{ where: 'outlet', valuesC: b.segments.map((s) => s.outletC) }, { where: 'inlet', valuesC: b.segments.map((s) => s.inletC) }]} />
+                <TemperatureCautions units={units} label="Cautions for these segments" places={[{ where: 'outlet', valuesC: b.segments.map((s) => s.outletC) }, { where: 'inlet', valuesC: b.segments.map((s) => s.inletC) }]} />
               </div>
             </div>
           ) : (

@@ -86,7 +86,7 @@ export function TrialsTable({ rigId, units, canWrite }: { rigId: string; units: 
         ) : null}
       </div>
       {error ? <p role="alert" className="rounded-lg border border-danger-line bg-danger-bg px-3 py-2 text-sm text-danger-text">{error}</p> : null}
-      <TemperatureCautions
+      <TemperatureCautions units={units}
         label="Cautions for these trials"
         places={[
           { where: 'outlet', valuesC: [data?.hottest?.outletC, ...rows.map((r) => r.outletC)] },

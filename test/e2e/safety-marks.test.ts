@@ -149,7 +149,7 @@ describe('safety marks on hot temperatures in Chromium', () => {
       await p.locator('[data-hazard]').first().waitFor();
       expect(await markTexts(p)).toContain(`(${SECONDS_US})`);
       expect(await markTexts(p)).toContain('(at or above the 104 °F spa limit)');
-      await expectCautions(p, 'Cautions for these trials', [/burns skin in seconds/]);
+      await expectCautions(p, 'Cautions for these trials', [/^Danger: The outlet water reaches 175\.\d °F \(79\.5 °C\): at or above 140 °F \(60 °C\) water burns skin in seconds/]);
       await visit(p, studyUrl);
       const trials = p.locator('[data-block="trials"]');
       await trials.locator('[data-hazard]').first().waitFor();

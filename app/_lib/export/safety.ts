@@ -27,7 +27,7 @@ export function cautionLines(cautions: readonly CautionLike[], prefix = ''): str
  * @param places the temperatures the sheet shows, by place, °C (none: only the limits and the notice)
  */
 export function sheetNotice(system: UnitSystem, places: readonly PlaceTemperatures[] = [], extra: readonly string[] = []): string[] {
-  return [limitsLine(system), ...extra, ...cautionLines(hottestCautions(places)), CAUTION_DEFER];
+  return [limitsLine(system), ...extra, ...cautionLines(hottestCautions(places, system)), CAUTION_DEFER];
 }
 
 /**

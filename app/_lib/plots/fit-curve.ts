@@ -148,6 +148,7 @@ export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { wi
   if (input.inletC !== null) refs.push({ y: input.inletC, text: `inlet ${withUnit(input.inletC, u.temp)}`, stroke: COLORS.water, dash: '4 4', kind: 'inlet' });
   const band = (code: string) => HAZARD_BANDS.find((b) => b.code === code)!;
   const safety = [
+    { c: CAUTION_THRESHOLDS_C.spaLimit, text: band('spa-limit').short, stroke: COLORS.caution, kind: 'spa-limit' },
     { c: CAUTION_THRESHOLDS_C.scald, text: band('scald').short, stroke: COLORS.caution, kind: 'scald' },
     { c: CAUTION_THRESHOLDS_C.scaldSeconds, text: band('scald-seconds').short, stroke: COLORS.danger, kind: 'scald-seconds' },
     { c: BOILING_C, text: 'boiling at', stroke: COLORS.danger, kind: 'boiling' },
@@ -213,7 +214,7 @@ export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { wi
   const cautions = hottestCautions([{
     where: 'outlet',
     valuesC: [...input.trials.map((t) => t.outletC), ...(primary?.points ?? []).filter((p) => p.x >= lo && p.x <= hi).map((p) => p.y)],
-  }]);
+  }], units);
 
   return {
     title,

@@ -124,7 +124,7 @@ export function timeSeriesSegmentsPlot(input: TimeSeriesInput, units: UnitSystem
   const cautions = hottestCautions([
     { where: 'logged outlet', valuesC: input.points.map((p) => p.outletC) },
     { where: 'logged inlet', valuesC: input.points.map((p) => p.inletC) },
-  ]);
+  ], units);
   const reached = new Set(cautions.map((c) => c.thresholdC));
   const hazardLines = HAZARD_BANDS.filter((b) => reached.has(b.thresholdC))
     .map((b) => ({ y: u.temp.from(b.thresholdC), text: `${b.short} ${withUnit(b.thresholdC, u.temp)}`, stroke: b.level === 'danger' ? COLORS.danger : COLORS.caution }));

@@ -47,6 +47,12 @@ describe('temperature cautions (DOMAIN.md §5, §3.7): at or above each threshol
     const m = mergeCautions(temperatureCautions(45, 'outlet'), temperatureCautions(52, 'outlet'));
     expect(m.map((c) => [c.code, c.valueC])).toEqual([['scald', 52], ['spa-limit', 52]]);
   });
+  test('the message states the reader’s unit first (NIST SP 811: °F = 1.8·°C + 32)', () => {
+    const [c] = temperatureCautions(62, 'outlet', 'us');
+    expect(c.message).toMatch(/^The outlet water reaches 143\.6 °F \(62\.0 °C\): at or above 140 °F \(60 °C\) water burns skin in seconds/);
+    expect(temperatureCautions(62, 'outlet')[0].message).toMatch(/^The outlet water reaches 62\.0 °C \(144 °F\): at or above 60 °C \(140 °F\)/);
+    expect(hottestCautions([{ where: 'tub', valuesC: [41] }], 'us')[0].message).toMatch(/105\.8 °F \(41\.0 °C\), at or above the 104 °F \(40 °C\) limit/);
+  });
   test('NaN is a TypeError', () => expect(() => temperatureCautions(Number.NaN, 'x')).toThrow(TypeError));
 });
 
@@ -144,7 +150,7 @@ describe('caution wording', () => {
   });
   test('no template doubles a word with any place the code base passes ("the mixed water water")', () => {
     const messages = places.flatMap((w) => [
-      ...[40, 49, 60, 95, 120].flatMap((t) => temperatureCautions(t, w).map((c) => c.message)),
+      ...[40, 49, 60, 95, 120].flatMap((t) => [...temperatureCautions(t, w), ...temperatureCautions(t, w, 'us')].map((c) => c.message)),
       deadHeadingCaution(w).message,
     ]);
     messages.push(sourceAboveBoilingCaution(150, 99.97)!.message);

@@ -161,7 +161,7 @@ export function EntryForm({ rigId, units, previous }: { rigId: string; units: Un
           {saved ? <> Outlet <span className="num"><TempValue c={saved.outletC} units={units} withUnit /></span>.</> : null}
         </p>
       ) : null}
-      {saved ? <TemperatureCautions label="Cautions for this trial" places={[{ where: 'outlet', valuesC: [saved.outletC] }, { where: 'inlet', valuesC: [saved.inletC] }]} /> : null}
+      {saved ? <TemperatureCautions units={units} label="Cautions for this trial" places={[{ where: 'outlet', valuesC: [saved.outletC] }, { where: 'inlet', valuesC: [saved.inletC] }]} /> : null}
       {warnings.map((w) => (
         <p key={w} className="rounded-lg border border-caution-line bg-caution-bg px-3 py-2 text-sm text-caution-text">{w}</p>
       ))}

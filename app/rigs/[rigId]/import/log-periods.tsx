@@ -441,7 +441,7 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
               </tbody>
             </table>
           </div>
-          <TemperatureCautions
+          <TemperatureCautions units={units}
             label="Cautions for these periods"
             places={[
               { where: 'outlet', valuesC: choices.filter((c) => c.use).map((c) => c.measured?.mean.outletTempC) },

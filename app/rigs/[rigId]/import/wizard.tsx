@@ -380,7 +380,7 @@ export function ImportWizard({ rigId, units, maxMb }: { rigId: string; units: Un
               <section className="card space-y-3 p-4" aria-labelledby="head-h">
                 <h2 id="head-h" className="text-lg">First samples, converted</h2>
                 {preview.logHead.rows.length ? <ConvertedRows rows={preview.logHead.rows} units={units} tempDigits={2} /> : null}
-                <TemperatureCautions label="Cautions for these samples" places={[{ where: 'logged outlet', valuesC: preview.logHead.rows.map((r) => r.outletTempC) }, { where: 'logged inlet', valuesC: preview.logHead.rows.map((r) => r.inletTempC) }]} />
+                <TemperatureCautions units={units} label="Cautions for these samples" places={[{ where: 'logged outlet', valuesC: preview.logHead.rows.map((r) => r.outletTempC) }, { where: 'logged inlet', valuesC: preview.logHead.rows.map((r) => r.inletTempC) }]} />
                 {preview.logHead.issues.length ? (
                   <ul className="text-sm text-danger-text">
                     {preview.logHead.issues.slice(0, 5).map((i) => (
@@ -422,7 +422,7 @@ export function ImportWizard({ rigId, units, maxMb }: { rigId: string; units: Un
                   {preview.check.hottest.outletLine != null ? <> (line <span className="num">{preview.check.hottest.outletLine}</span>)</> : null}.
                 </p>
               ) : null}
-              <TemperatureCautions
+              <TemperatureCautions units={units}
                 label="Cautions for this file"
                 places={[
                   { where: 'outlet', valuesC: [preview.check.hottest?.outletC, ...preview.check.preview.map((r) => r.row?.outletTempC)] },
