@@ -10,7 +10,7 @@
  */
 import { readFileSync } from 'node:fs';
 
-const COMMANDS = ['fit', 'volume', 'mix', 'coil', 'forecast', 'uncertainty', 'cost'] as const;
+const COMMANDS = ['fit', 'volume', 'mix', 'coil', 'forecast', 'uncertainty', 'cost', 'collector', 'plan', 'compare'] as const;
 type Command = (typeof COMMANDS)[number];
 
 interface CommandModule {

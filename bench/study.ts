@@ -39,10 +39,10 @@ const tsx = path.join(root, 'node_modules/tsx/dist/cli.mjs');
 async function parent() {
   // the lifecycle scripts' own helpers (plain .mjs without types: loaded by URL)
   const lib = (name: string) => import(pathToFileURL(path.join(root, 'scripts', 'lib', name)).href);
-  const { bootstrap } = (await lib('bootstrap.mjs')) as { bootstrap(o: { database: string }): Promise<{ databaseUrl: string; stop(): void }> };
+  const { bootstrap } = (await lib('bootstrap.mjs')) as { bootstrap(o: { database: string; demo: boolean }): Promise<{ databaseUrl: string; stop(): void }> };
   const { buildIfChanged } = (await lib('build.mjs')) as { buildIfChanged(): boolean };
   const { freePort, waitForHealth } = (await lib('util.mjs')) as { freePort(): Promise<number>; waitForHealth(url: string, web: ChildProcess): Promise<void> };
-  const db = await bootstrap({ database: 'emberline' });
+  const db = await bootstrap({ database: 'emberline', demo: true });
   let web: ChildProcess | null = null;
   let code = 1;
   try {
@@ -50,9 +50,9 @@ async function parent() {
     const port = await freePort();
     const env = {
       ...process.env, DATABASE_URL: db.databaseUrl, SESSION_SECRET: randomBytes(32).toString('base64url'), EMBERLINE_JOB_WORKER: 'off',
-      NODE_ENV: 'production', NEXT_TELEMETRY_DISABLED: '1', TZ: 'UTC', EMBERLINE_DEMO: 'true',
+      NODE_ENV: 'production', NEXT_TELEMETRY_DISABLED: '1', TZ: 'UTC', EMBERLINE_DEMO: 'true', APP_URL: `http://127.0.0.1:${port}`,
     } as NodeJS.ProcessEnv;
-    web = spawn(process.execPath, [path.join(root, 'node_modules/next/dist/bin/next'), 'start', '-H', '127.0.0.1', '-p', String(port)], { cwd: root, env, stdio: ['ignore', 'ignore', 'inherit'] });
+    web = spawn(process.execPath, [path.join(root, 'scripts/serve.mjs'), '-H', '127.0.0.1', '-p', String(port)], { cwd: root, env, stdio: ['ignore', 'ignore', 'inherit'] });
     await waitForHealth(`http://127.0.0.1:${port}/api/health`, web);
     const r = spawnSync(process.execPath, [tsx, __filename, ...process.argv.slice(2)], {
       stdio: 'inherit',
@@ -121,7 +121,8 @@ async function child() {
   const { copyPool } = await import('@/app/_lib/sensor-import');
   const { ensureSensorOverview } = await import('@/app/_lib/sensor-overview');
   const { saveFit } = await import('@/app/_lib/fits');
-  const { openSession, SESSION_COOKIE } = await import('@/app/_lib/session');
+  const { openSession } = await import('@/app/_lib/session');
+  const SESSION_COOKIE = (await import('@/app/_lib/config')).config.sessionCookie;
   const { Lab, Rig, SensorOverview, SourceFile, Study, User } = await import('@/entities');
   const pool = copyPool();
   const em = await getEm();

@@ -5,7 +5,7 @@ import { User } from './user';
 
 /**
  * A personal API token for scripts and data loggers, acting in one lab with its owner's role
- * there. Shown once; stored as its SHA-256 with a short visible prefix to tell tokens apart.
+ * there, until it expires. Shown once; stored as its SHA-256 with a short visible prefix to tell tokens apart.
  */
 export const ApiToken = defineEntity({
   name: 'ApiToken',
@@ -18,6 +18,8 @@ export const ApiToken = defineEntity({
     prefix: p.string().length(16),
     tokenHash: p.string().length(64).unique().hidden(),
     lastUsedAt: p.datetime().columnType('timestamptz').nullable(),
+    /** the token stops working at this time (chosen at creation, 90 days by default) */
+    expiresAt: p.datetime().columnType('timestamptz'),
     revokedAt: p.datetime().columnType('timestamptz').nullable(),
   },
 });

@@ -6,7 +6,8 @@ import { User } from './user';
 export const AUDIT_KINDS = [
   'sign-in', 'sign-in-failed', 'sign-out', 'sign-out-everywhere', 'sign-up', 'password-changed', 'password-reset-requested',
   'password-reset', 'invitation-sent', 'invitation-accepted', 'role-changed', 'member-removed', 'lab-created',
-  'token-created', 'token-revoked',
+  'token-created', 'token-revoked', 'tokens-revoked', 'sign-up-requested', 'invitation-replaced', 'share-created', 'share-revoked',
+  'review-submitted', 'review-approved', 'review-returned', 'file-downloaded', 'request-refused', 'rate-limited',
 ] as const;
 export type AuditKind = (typeof AUDIT_KINDS)[number];
 

@@ -32,5 +32,7 @@ export const Study = defineEntity({
     blocks: p.json<StudyBlock[]>(),
     revision: p.integer().default(1),
     reviewState: p.enum(() => [...REVIEW_STATES]).default('draft').$type<ReviewState>(),
+    /** ids of the people who saved the study since its last review decision: none of them may decide its review */
+    editedSinceReview: p.json<string[]>().default([]),
   },
 });

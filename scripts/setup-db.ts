@@ -1,6 +1,8 @@
 /**
- * Applies pending migrations (each in its own transaction, all or nothing) and loads the demo
- * lab when it is not there yet. Run by scripts/start.mjs and scripts/test.mjs with DATABASE_URL set.
+ * Applies pending migrations (each in its own transaction, all or nothing) and, in demo mode only
+ * (EMBERLINE_DEMO=true), loads the demo lab when it is not there yet: its accounts have a
+ * published password, so a production database never gets them. Run by scripts/start.mjs and
+ * scripts/test.mjs with DATABASE_URL set.
  */
 import { MikroORM } from '@mikro-orm/postgresql';
 import config from '../mikro-orm.config';
@@ -11,6 +13,10 @@ async function main() {
   try {
     const applied = await orm.getMigrator().up();
     console.log(applied.length ? `  applied ${applied.length} migration(s): ${applied.map((m) => m.name).join(', ')}` : '  migrations current');
+    if (process.env.EMBERLINE_DEMO !== 'true') {
+      console.log('  not in demo mode: no demo lab');
+      return;
+    }
     const seeded = await seedDemoLab(orm.em.fork());
     console.log(seeded ? '  demo lab loaded' : '  demo lab already present');
   } finally {

@@ -14,7 +14,9 @@ const t0 = Date.now();
 
 async function main() {
   if (!(await portIsFree(port, host))) fail(`port ${port} on ${host} is already taken; stop whatever uses it or set PORT`);
-  const db = await bootstrap({ database: 'emberline' });
+  // Demo mode (demo lab, captured mail) is the default with the private cluster, never with DATABASE_URL.
+  const demo = (process.env.EMBERLINE_DEMO ?? (process.env.DATABASE_URL ? 'false' : 'true')) === 'true';
+  const db = await bootstrap({ database: 'emberline', demo });
   const { push, stopAll } = stopper(db.stop);
   try {
     const fakes = await startFakes();
@@ -26,9 +28,11 @@ async function main() {
       DATABASE_URL: db.databaseUrl,
       NEXT_TELEMETRY_DISABLED: '1',
       NODE_ENV: 'production',
-      EMBERLINE_DEMO: process.env.EMBERLINE_DEMO ?? (db.external ? 'false' : 'true'),
+      EMBERLINE_DEMO: demo ? 'true' : 'false',
+      // Links in e-mail and the same-origin check use this origin, never a request header.
+      APP_URL: process.env.APP_URL ?? `http://${host}:${port}`,
     };
-    const web = spawn(process.execPath, [path.join(root, 'node_modules/next/dist/bin/next'), 'start', '-H', host, '-p', String(port)], {
+    const web = spawn(process.execPath, [path.join(root, 'scripts/serve.mjs'), '-H', host, '-p', String(port)], {
       cwd: root,
       env,
       stdio: ['ignore', 'inherit', 'inherit'],

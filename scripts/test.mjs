@@ -14,7 +14,7 @@ import { startFakes } from './lib/fakes.mjs';
 async function main() {
   ensureNodeModules();
   const chromium = ensureChromium();
-  const db = await bootstrap({ database: 'emberline_test', fresh: true });
+  const db = await bootstrap({ database: 'emberline_test', fresh: true, demo: true });
   const { push, stopAll } = stopper(db.stop);
   process.on('SIGINT', () => {
     stopAll();
@@ -32,11 +32,14 @@ async function main() {
       DATABASE_URL: db.databaseUrl,
       NEXT_TELEMETRY_DISABLED: '1',
       EMBERLINE_DEMO: 'true',
+      APP_URL: baseUrl,
       TZ: 'UTC',
     };
-    const web = spawn(process.execPath, [path.join(root, 'node_modules/next/dist/bin/next'), 'start', '-H', '127.0.0.1', '-p', String(port)], {
+    // The test client stands in for a load balancer: its X-Forwarded-For is believed (one hop),
+    // so that each test client has an address of its own for the per-address limits.
+    const web = spawn(process.execPath, [path.join(root, 'scripts/serve.mjs'), '-H', '127.0.0.1', '-p', String(port)], {
       cwd: root,
-      env: { ...env, NODE_ENV: 'production' },
+      env: { ...env, NODE_ENV: 'production', TRUST_PROXY_HOPS: '1' },
       stdio: ['ignore', 'ignore', 'inherit'],
     });
     push(() => web.exitCode === null && web.kill('SIGTERM'));

@@ -43,8 +43,43 @@ export function bootstrapDerived(fit: FitSuccess, derived: (curve: FittedCurve) 
   const resamples = options.resamples ?? 1000;
   const seed = options.seed ?? 1;
   const level = options.level ?? 0.95;
-  if (!Number.isInteger(resamples) || resamples < 10) throw new RangeError(`bootstrapDerived: resamples must be an integer ≥ 10, got ${resamples}`);
   if (!(level > 0 && level < 1)) throw new RangeError(`bootstrapDerived: level must be in (0, 1), got ${level}`);
+  const boot = bootstrapParameters(fit, { resamples, seed });
+  if (!boot.ok) return boot;
+  const { spec } = fit;
+  const safe = (c: FittedCurve): number | null => {
+    try {
+      const v = derived(c);
+      return typeof v === 'number' && Number.isFinite(v) ? v : null;
+    } catch {
+      return null;
+    }
+  };
+  const estimate = safe(fittedCurve(fit));
+  const values: number[] = [];
+  for (const p of boot.samples) {
+    const v = safe(fittedCurve(spec, Object.fromEntries(spec.parameterNames.map((k, j) => [k, p[j]]))));
+    if (v !== null) values.push(v);
+  }
+  if (values.length < resamples / 2) return { ok: false, reason: `the quantity was defined in only ${values.length} of ${resamples} resamples` };
+  const s = percentileSummary(values, level);
+  return { ok: true, estimate, ...s, level, resamples, defined: values.length, failures: boot.failures, seed };
+}
+
+/**
+ * The parameter vectors of the residual-bootstrap refits behind {@link bootstrapDerived} (same
+ * resampling, same generator), for quantities that combine several fits.
+ * @param fit - a successful fit
+ * @param options.resamples - number of resamples (default 1000, at least 10)
+ * @param options.seed - seed of the generator (default 1)
+ * @returns one parameter vector (in `fit.parameterNames` order) per converged refit, and the number that failed
+ * @throws RangeError for resamples < 10
+ * @example bootstrapParameters(fit, { resamples: 200, seed: 3 }).samples.length
+ */
+export function bootstrapParameters(fit: FitSuccess, options: { resamples?: number; seed?: number } = {}): { ok: true; samples: number[][]; failures: number } | { ok: false; reason: string } {
+  const resamples = options.resamples ?? 1000;
+  const seed = options.seed ?? 1;
+  if (!Number.isInteger(resamples) || resamples < 10) throw new RangeError(`bootstrapDerived: resamples must be an integer ≥ 10, got ${resamples}`);
   const { spec } = fit;
   const start = Object.fromEntries(spec.parameterNames.map((k) => [k, fit.params[k].value]));
   const prep = prepareProblem({ x: spec.x, y: spec.y, model: spec.model, weights: spec.weights ?? undefined, covariates: spec.covariates, bounds: spec.bounds, start });
@@ -57,16 +92,7 @@ export function bootstrapDerived(fit: FitSuccess, derived: (curve: FittedCurve) 
   for (let i = 0; i < m; i++) u[i] -= uMean;
   const rand = mulberry32(seed);
   const p0 = spec.parameterNames.map((k) => fit.params[k].value);
-  const safe = (c: FittedCurve): number | null => {
-    try {
-      const v = derived(c);
-      return typeof v === 'number' && Number.isFinite(v) ? v : null;
-    } catch {
-      return null;
-    }
-  };
-  const estimate = safe(fittedCurve(fit));
-  const values: number[] = [];
+  const samples: number[][] = [];
   let failures = 0;
   const yStar = new Float64Array(m);
   for (let b = 0; b < resamples; b++) {
@@ -76,10 +102,18 @@ export function bootstrapDerived(fit: FitSuccess, derived: (curve: FittedCurve) 
       failures++;
       continue;
     }
-    const v = safe(fittedCurve(spec, Object.fromEntries(spec.parameterNames.map((k, j) => [k, sol.p[j]]))));
-    if (v !== null) values.push(v);
+    samples.push(Array.from(sol.p));
   }
-  if (values.length < resamples / 2) return { ok: false, reason: `the quantity was defined in only ${values.length} of ${resamples} resamples` };
+  return { ok: true, samples, failures };
+}
+
+/**
+ * Mean, SD and percentile interval of a sample (linear interpolation between order statistics).
+ * @param values - the sample (not empty); sorted in place
+ * @param level - interval level in (0, 1)
+ * @example percentileSummary([1, 2, 3, 4], 0.5) // { mean: 2.5, sd: 1.29, ciLow: 1.75, ciHigh: 3.25 }
+ */
+export function percentileSummary(values: number[], level: number): { mean: number; sd: number; ciLow: number; ciHigh: number } {
   values.sort((a, b) => a - b);
   const q = (prob: number): number => {
     const h = (values.length - 1) * prob;
@@ -88,5 +122,5 @@ export function bootstrapDerived(fit: FitSuccess, derived: (curve: FittedCurve) 
   };
   const mean = values.reduce((a, b) => a + b, 0) / values.length;
   const sd = Math.sqrt(values.reduce((a, v) => a + (v - mean) ** 2, 0) / Math.max(1, values.length - 1));
-  return { ok: true, estimate, mean, sd, ciLow: q((1 - level) / 2), ciHigh: q((1 + level) / 2), level, resamples, defined: values.length, failures, seed };
+  return { mean, sd, ciLow: q((1 - level) / 2), ciHigh: q((1 + level) / 2) };
 }

@@ -1,4 +1,5 @@
 import { extent } from '../stats/extent';
+import { goldenSectionMax } from '../stats/golden-section';
 import { fittedCurve, type FittedCurve } from './fitted-curve';
 import type { FitSuccess } from './types';
 
@@ -55,27 +56,6 @@ export function heatOptimum(fit: FitSuccess | FittedCurve, options: { TinC?: num
   if (k === 0 || k === N) {
     return { interior: false, flowM3PerS: grid[k], heatW: h[k], range, note: k === N ? 'heat keeps rising with flow over the range: no interior optimum' : 'heat falls with flow over the whole range: no interior optimum' };
   }
-  let lo = grid[k - 1];
-  let hi = grid[k + 1];
-  const g = (Math.sqrt(5) - 1) / 2;
-  let c = hi - g * (hi - lo);
-  let d = lo + g * (hi - lo);
-  let [hc, hd] = heat([c, d]);
-  for (let it = 0; it < 80 && hi - lo > 1e-12 * hi; it++) {
-    if (hc > hd) {
-      hi = d;
-      d = c;
-      hd = hc;
-      c = hi - g * (hi - lo);
-      hc = heat([c])[0];
-    } else {
-      lo = c;
-      c = d;
-      hc = hd;
-      d = lo + g * (hi - lo);
-      hd = heat([d])[0];
-    }
-  }
-  const q = (lo + hi) / 2;
+  const q = goldenSectionMax((v) => heat([v])[0], grid[k - 1], grid[k + 1], { maxIterations: 80, relTol: 1e-12 });
   return { interior: true, flowM3PerS: q, heatW: heat([q])[0], range, note: 'interior maximum of delivered heat inside the searched range' };
 }

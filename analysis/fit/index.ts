@@ -11,6 +11,6 @@ export { informationCriteria } from './information-criteria';
 export type * from './types';
 export { compareModels, type CompareInput, type CompareModel, type ComparedModel, type ModelComparison } from './compare-models';
 export { runsTest, type RunsTestResult } from './runs-test';
-export { bootstrapDerived, type BootstrapResult } from './bootstrap-derived';
+export { bootstrapDerived, bootstrapParameters, percentileSummary, type BootstrapResult } from './bootstrap-derived';
 export { heatOptimum, type HeatOptimum } from './heat-optimum';
 export { fittedCurve, type FittedCurve } from './fitted-curve';

@@ -11,6 +11,7 @@
  */
 import type { FitSuccess } from '../fit';
 import { requireFinite, requireInRange } from '../units/guards';
+import { goldenSectionMax } from '../stats/golden-section';
 import { waterCpJPerKgK, waterDensityKgPerM3 } from '../water/water-properties';
 import { saturationTempC } from '../water/saturation-pressure';
 import { CAUTION_THRESHOLDS_C } from '../safety/cautions';
@@ -66,31 +67,33 @@ function interiorMax(curve: FittedCurve, p: ArrayLike<number>, a: number, b: num
   let best = 0;
   for (let i = 1; i <= n; i++) if (xs[i] * (ys[i] - tin) > xs[best] * (ys[best] - tin)) best = i;
   if (best === 0 || best === n) return null;
-  let lo = xs[best - 1], hi = xs[best + 1];
-  const g = (Math.sqrt(5) - 1) / 2;
-  let c = hi - g * (hi - lo), d = lo + g * (hi - lo);
-  let fc = heatAt(curve, p, c, tin, rhoCp), fd = heatAt(curve, p, d, tin, rhoCp);
-  for (let i = 0; i < 200 && hi - lo > 1e-13 * hi; i++) {
-    if (fc > fd) { hi = d; d = c; fd = fc; c = hi - g * (hi - lo); fc = heatAt(curve, p, c, tin, rhoCp); }
-    else { lo = c; c = d; fc = fd; d = lo + g * (hi - lo); fd = heatAt(curve, p, d, tin, rhoCp); }
-  }
-  return (lo + hi) / 2;
+  return goldenSectionMax((x) => heatAt(curve, p, x, tin, rhoCp), xs[best - 1], xs[best + 1], { maxIterations: 200, relTol: 1e-13 });
 }
 
-/** Smallest flow in [a, b] (log grid) above which y(x) ≤ limit; 0 if always below, null if never. */
-function crossing(y: (x: number) => number, a: number, b: number, limit: number): number | null {
+/**
+ * Smallest flow in [a, b] above which y(x) ≤ limit: a 400-point log grid finds the last flow where
+ * y exceeds the limit (or is not finite), then bisection the crossing after it. The one search for
+ * minimum flows (here and in test planning).
+ * @param y outlet temperature (or its upper bound), °C, at a flow
+ * @param a lowest flow, m³/s, > 0
+ * @param b highest flow, m³/s, > a
+ * @param limit °C
+ * @returns m³/s; 0 when y ≤ limit over the whole range; null when y exceeds it even at b
+ * @example lowestFlowBelowLimit((x) => 20 + 1e-3 / x, 1e-5, 1e-3, 30) // ≈ 1e-4
+ */
+export function lowestFlowBelowLimit(y: (x: number) => number, a: number, b: number, limit: number): number | null {
   const n = 400;
   const xs = Array.from({ length: n + 1 }, (_, i) => a * (b / a) ** (i / n));
   let last = -1;
-  for (let i = 0; i <= n; i++) if (y(xs[i]) > limit) last = i;
+  for (let i = 0; i <= n; i++) if (!(y(xs[i]) <= limit)) last = i;
   if (last === -1) return 0;
   if (last === n) return null;
   let lo = xs[last], hi = xs[last + 1];
   for (let i = 0; i < 100 && hi - lo > 1e-14 * hi; i++) {
     const mid = (lo + hi) / 2;
-    if (y(mid) > limit) lo = mid; else hi = mid;
+    if (!(y(mid) <= limit)) lo = mid; else hi = mid;
   }
-  return (lo + hi) / 2;
+  return hi; // the side where y ≤ limit
 }
 
 /**
@@ -157,10 +160,10 @@ export function chooseFlow(
     const L = requireFinite(lim.limitC, 'limits[].limitC');
     const base = { label: lim.label, limitC: L };
     if (!(L > tin)) return { ...base, flowM3PerS: null, flowU: null, conservativeFlowM3PerS: null, extrapolated: false, note: 'The inlet is already at or above this limit.' };
-    const best = (p: number[]) => crossing((x) => curve.evaluate(p, [x], tin)[0], a, b, L);
+    const best = (p: number[]) => lowestFlowBelowLimit((x) => curve.evaluate(p, [x], tin)[0], a, b, L);
     const f = best(p0);
     const flowU = f !== null && f > 0 ? deltaMethodU(curve, (p) => { const v = best(p); return v === null || v === 0 ? null : v; }) : null;
-    const cons = crossing((x) => curve.band([x], tin, level)[0].piHigh, a, b, L);
+    const cons = lowestFlowBelowLimit((x) => curve.band([x], tin, level)[0].piHigh, a, b, L);
     const worst = cons === null ? f : Math.max(f ?? 0, cons);
     const extrapolated = (f !== null && f > 0 && (f < lo || f > hi)) || (cons !== null && cons > 0 && (cons < lo || cons > hi));
     let note: string;

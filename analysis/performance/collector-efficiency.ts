@@ -34,6 +34,17 @@ export interface CollectorParameters {
   a2WPerM2K2: number;
 }
 
+/**
+ * The squared excess of the second-order loss term, ΔT² above ambient and −ΔT² below it
+ * (ΔT·|ΔT|, see the module note): the one definition the curve and its fit share.
+ * @param deltaTK Tm − Ta, K
+ * @returns K²
+ * @example secondOrderExcessK2(-2) // -4
+ */
+export function secondOrderExcessK2(deltaTK: number): number {
+  return deltaTK * Math.abs(deltaTK);
+}
+
 /** Validated coefficients. */
 interface Coefficients { A: number; eta0: number; a1: number; a2: number }
 
@@ -60,7 +71,7 @@ export function collectorPowerW(p: CollectorParameters, deltaTK: number, irradia
   const c = coefficients(p);
   const dT = requireFinite(deltaTK, 'deltaTK');
   const G = requireNonNegative(irradianceWPerM2, 'irradianceWPerM2');
-  return c.A * (c.eta0 * G - c.a1 * dT - c.a2 * dT * Math.abs(dT));
+  return c.A * (c.eta0 * G - c.a1 * dT - c.a2 * secondOrderExcessK2(dT));
 }
 
 /**
@@ -130,7 +141,7 @@ export function collectorOutlet(p: CollectorParameters, s: CollectorConditions):
   const outletTempC = 2 * (Ta + x) - Tin;
   return {
     outletTempC, deltaTK: x, heatW: m * cp * (outletTempC - Tin),
-    efficiency: G > 0 ? c.eta0 - (c.a1 * x + c.a2 * x * Math.abs(x)) / G : null,
+    efficiency: G > 0 ? c.eta0 - (c.a1 * x + c.a2 * secondOrderExcessK2(x)) / G : null,
     stagnationTempC: Ta + meanExcessK(c, G, 0, 0),
     cautions: temperatureCautions(outletTempC, 'outlet'),
   };

@@ -5,7 +5,8 @@
  * the inlet temperature, so mass flow is ρ(Tin)·V̇; any other covariate is held at its mean over
  * the fitted data.
  */
-import { compileModel, predictAt, type BandPoint, type FitSuccess } from '../fit';
+import { predictAt, type BandPoint, type FitSuccess } from '../fit';
+import { compileCached } from '../fit/prepare-problem';
 import { requireFinite } from '../units/guards';
 import { waterCpJPerKgK, waterDensityKgPerM3 } from '../water/water-properties';
 
@@ -28,6 +29,30 @@ export interface FittedCurve {
 }
 
 /**
+ * The covariates of a heater model at one inlet temperature, the module's rule: Tin = the inlet,
+ * rho and cp = IF97 at the inlet (ṁ = ρ(Tin)·V̇), any other covariate its mean over the fitted data.
+ * @param names covariate names the model uses
+ * @param m points
+ * @param inletC inlet temperature, °C (0–100)
+ * @param means fallback values by name (a fit's `spec.covariateMeans`)
+ * @throws RangeError for an inlet outside the liquid range, or a covariate with no value
+ * @example heaterCovariates(['Tin', 'rho', 'cp'], 2, 20) // { Tin: [20, 20], rho: [998.2, 998.2], cp: [4184.4, 4184.4] }
+ */
+export function heaterCovariates(names: string[], m: number, inletC: number, means: Record<string, number> = {}): Record<string, number[]> {
+  const out: Record<string, number[]> = {};
+  for (const name of names) {
+    let v: number;
+    if (name === 'Tin') v = requireFinite(inletC, 'inletTempC');
+    else if (name === 'rho') v = waterDensityKgPerM3(inletC, undefined, 'inletTempC');
+    else if (name === 'cp') v = waterCpJPerKgK(inletC, undefined, 'inletTempC');
+    else if (typeof means[name] === 'number') v = means[name];
+    else throw new RangeError(`no value for the covariate ${name}`);
+    out[name] = new Array(m).fill(v);
+  }
+  return out;
+}
+
+/**
  * Wraps a successful fit.
  * @throws RangeError when the fit's expression cannot be compiled (should not happen for a fit
  *   the engine produced).
@@ -35,22 +60,11 @@ export interface FittedCurve {
  */
 export function fittedCurve(fit: FitSuccess): FittedCurve {
   const spec = fit.spec;
-  const compiled = compileModel(spec.expression, { parameters: spec.parameterNames, covariates: spec.covariateNames });
+  const compiled = compileCached(spec.expression, spec.parameterNames, spec.covariateNames);
   if (!compiled.ok) throw new RangeError(`cannot evaluate the fitted model: ${compiled.reason}`);
   const model = compiled.model;
   const tin = spec.covariates.Tin;
-  const covFor = (m: number, inletC: number): Record<string, number[]> => {
-    const out: Record<string, number[]> = {};
-    for (const name of model.covariates) {
-      let v: number;
-      if (name === 'Tin') v = inletC;
-      else if (name === 'rho') v = waterDensityKgPerM3(inletC, undefined, 'inletTempC');
-      else if (name === 'cp') v = waterCpJPerKgK(inletC, undefined, 'inletTempC');
-      else v = spec.covariateMeans[name];
-      out[name] = new Array(m).fill(v);
-    }
-    return out;
-  };
+  const covFor = (m: number, inletC: number) => heaterCovariates(model.covariates, m, inletC, spec.covariateMeans);
   return {
     model: fit.model,
     parameterNames: spec.parameterNames.slice(),

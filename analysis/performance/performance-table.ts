@@ -21,6 +21,8 @@ export interface PerformanceRow {
   heatW: number;
   heatCiW: [number, number];
   heatPiW: [number, number];
+  /** standard error of the mean heat rate, W (the outlet's, scaled like the heat) */
+  heatSeW: number;
   extrapolated: boolean;
   cautions: Caution[];
 }
@@ -35,6 +37,21 @@ export interface PerformanceTable {
   inletTransferable: boolean;
   notes: string[];
   cautions: Caution[];
+}
+
+/**
+ * The capacity rate that turns a temperature rise into delivered heat, the table's rule:
+ * ρ(Tin)·V̇·cp(Tm), cp at the mean water temperature (clamped to 0–100 °C), so q = that × (Tout − Tin).
+ * @param flowM3PerS volume flow, m³/s
+ * @param inletTempC °C
+ * @param outletTempC °C (for the mean temperature of cp)
+ * @param densityKgPerM3 ρ(Tin) when already known
+ * @returns W/K
+ * @throws RangeError for an inlet outside the liquid range
+ * @example heatPerKelvinWPerK(1e-4, 20, 68.8) * (68.8 - 20) // ≈ 20.4 kW
+ */
+export function heatPerKelvinWPerK(flowM3PerS: number, inletTempC: number, outletTempC: number, densityKgPerM3 = waterDensityKgPerM3(inletTempC, undefined, 'inletTempC')): number {
+  return densityKgPerM3 * flowM3PerS * waterCpJPerKgK(Math.min(Math.max((inletTempC + outletTempC) / 2, 0), 100));
 }
 
 /**
@@ -56,12 +73,12 @@ export function performanceTable(
   const curve = fittedCurve(fit);
   const band = curve.band(flows, inletTempC, level);
   const rows = band.map((b, i): PerformanceRow => {
-    const cp = waterCpJPerKgK(Math.min(Math.max((inletTempC + b.y) / 2, 0), 100));
-    const k = rho * flows[i] * cp;
+    const k = heatPerKelvinWPerK(flows[i], inletTempC, b.y, rho);
     return {
       flowM3PerS: flows[i], outletTempC: b.y, outletCiC: [b.ciLow, b.ciHigh], outletPiC: [b.piLow, b.piHigh],
       deltaTK: b.y - inletTempC, heatW: k * (b.y - inletTempC),
       heatCiW: [k * (b.ciLow - inletTempC), k * (b.ciHigh - inletTempC)], heatPiW: [k * (b.piLow - inletTempC), k * (b.piHigh - inletTempC)],
+      heatSeW: k * b.seMean,
       extrapolated: b.extrapolated, cautions: temperatureCautions(b.piHigh, 'outlet'),
     };
   });

@@ -78,7 +78,15 @@ export const PRESETS: Record<PresetName, SteadyCriteria> = {
 };
 
 /**
- * A preset with edits; the result is checked (positive windows, non-negative tolerances).
+ * Bounds on edited times and counts (ours): the segmenter's work grows with the log's length over
+ * the block, and a day covers every test we know; so a request cannot make it count blocks
+ * without end.
+ */
+export const CRITERIA_LIMITS = { minTimeS: 1, maxTimeS: 86_400, maxTransits: 1000 } as const;
+
+/**
+ * A preset with edits; the result is checked (windows and blocks of 1 s to a day, non-negative
+ * tolerances, times at most a day, transit counts at most 1000).
  * @throws RangeError naming the bad threshold and echoing it
  * @example resolveCriteria('field', { maxOutletSlopeKPerS: 0.2 / 60 })
  */
@@ -91,6 +99,7 @@ export function resolveCriteria(preset: PresetName, edits: Partial<Omit<SteadyCr
   for (const k of positive) {
     const v = c[k] as number;
     if (typeof v !== 'number' || !Number.isFinite(v) || v <= 0) throw new RangeError(`${k} must be a number greater than 0, got ${typeof v === 'number' ? String(v) : JSON.stringify(v)}`);
+    if (v < CRITERIA_LIMITS.minTimeS || v > CRITERIA_LIMITS.maxTimeS) throw new RangeError(`${k} must be between ${CRITERIA_LIMITS.minTimeS} s and ${CRITERIA_LIMITS.maxTimeS} s (a day), got ${v}`);
   }
   const nonNeg: (keyof SteadyCriteria)[] = [
     'maxOutletSlopeKPerS', 'maxInletSlopeKPerS', 'inletTolK', 'inletTolFraction', 'flowTolFraction', 'flowTolAbsM3PerS',
@@ -100,6 +109,13 @@ export function resolveCriteria(preset: PresetName, edits: Partial<Omit<SteadyCr
     const v = c[k];
     if (v === null) continue;
     if (typeof v !== 'number' || !Number.isFinite(v) || v < 0) throw new RangeError(`${k} must be a number of 0 or more (or null), got ${typeof v === 'number' ? String(v) : JSON.stringify(v)}`);
+  }
+  for (const k of ['averagingS', 'settlingS', 'transitTimeS', 'maxGapS'] as const) {
+    const v = c[k];
+    if (typeof v === 'number' && v > CRITERIA_LIMITS.maxTimeS) throw new RangeError(`${k} must be at most ${CRITERIA_LIMITS.maxTimeS} s (a day), got ${v}`);
+  }
+  for (const k of ['settlingTransits', 'minDurationTransits'] as const) {
+    if (c[k] > CRITERIA_LIMITS.maxTransits) throw new RangeError(`${k} must be at most ${CRITERIA_LIMITS.maxTransits}, got ${c[k]}`);
   }
   return c;
 }

@@ -2,6 +2,7 @@
  * A synthetic sensor log of steady plateaus joined by first-order transitions, with seeded
  * noise: the fixture and benchmark generator, and a known answer for the segmenter's tests.
  */
+import { mulberry32 } from '../fit/random';
 
 /** One set-point held for `durationS`. */
 export interface PlateauSpec {
@@ -22,17 +23,8 @@ export interface GeneratedLog {
   plateauStarts: number[];
 }
 
-/** Mulberry32: a small seeded generator (public-domain algorithm by T. Ettinger, from memory). */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** The seeded generator of the fitting engine (mulberry32), re-exported for the log generator's callers. */
+export { mulberry32 };
 
 /**
  * Samples at `intervalS`; each channel moves to the next plateau's value with time constant

@@ -3,11 +3,12 @@
 import { useRouter } from 'next/navigation';
 import { useEffect, useId, useState, type ReactNode } from 'react';
 import { api, ApiError } from './api';
+import { safeNextPath } from './safe-next';
 
 export interface Field {
   name: string;
   label: string;
-  type?: 'text' | 'email' | 'password' | 'select' | 'hidden';
+  type?: 'text' | 'email' | 'password' | 'select' | 'hidden' | 'checkbox';
   autoComplete?: string;
   hint?: string;
   value?: string;
@@ -63,7 +64,7 @@ export function JsonForm({
       if (onSuccess.message) setDone(String(body.message ?? onSuccess.message));
       if (onSuccess.redirect) {
         const next = new URLSearchParams(window.location.search).get('next');
-        router.push(next && next.startsWith('/') && !next.startsWith('//') ? next : onSuccess.redirect);
+        router.push(safeNextPath(next, window.location.origin, onSuccess.redirect));
       }
       if (onSuccess.refresh) router.refresh();
     } catch (err) {
@@ -81,6 +82,11 @@ export function JsonForm({
       {fields.map((f) =>
         f.type === 'hidden' ? (
           <input key={f.name} type="hidden" name={f.name} value={f.value ?? ''} />
+        ) : f.type === 'checkbox' ? (
+          <label key={f.name} className="flex items-center gap-2 text-sm text-ink-soft">
+            <input type="checkbox" name={f.name} defaultChecked={f.value === 'on'} className="h-4 w-4" />
+            {f.label}
+          </label>
         ) : (
           <div key={f.name}>
             <label htmlFor={`${id}-${f.name}`} className="field-label">

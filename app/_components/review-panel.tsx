@@ -23,6 +23,8 @@ export function ReviewPanel(props: {
   state: string;
   canSubmit: boolean;
   canDecide: boolean;
+  /** the viewer made or (a study) edited this since the last decision: someone else decides */
+  ownWork?: boolean;
   canComment: boolean;
   comments: { id: string; at: string; by: string | null; body: string; blockId: string | null }[];
   events: { at: string; by: string | null; from: string; to: string; note: string }[];
@@ -54,7 +56,10 @@ export function ReviewPanel(props: {
             Ask for review
           </button>
         ) : null}
-        {props.canDecide && s === 'in-review' ? (
+        {props.canDecide && s === 'in-review' && props.ownWork ? (
+          <p className="text-sm text-ink-soft">You worked on this {props.kind}: another reviewer or owner approves or returns it.</p>
+        ) : null}
+        {props.canDecide && s === 'in-review' && !props.ownWork ? (
           <>
             <button type="button" className="btn-primary" onClick={() => act(`${base}/review`, { move: 'approve', note })}>
               Approve

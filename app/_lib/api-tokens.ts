@@ -2,14 +2,28 @@ import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { ApiToken, type LabRow, type UserRow } from '@/entities';
 import { audit } from './audit';
-import { notFound } from './errors';
+import { HttpError, notFound } from './errors';
+import { verifyPassword } from './passwords';
+import { enforceLimits } from './rate-limit';
 import { newSecret } from './tokens';
 
-/** Creates a personal token acting in one lab; the secret is returned once and only its hash is kept. */
-export async function createToken(em: EntityManager, user: UserRow, lab: LabRow, name: string, ip: string) {
+/** Token lifetimes, days: chosen at creation. */
+export const TOKEN_DAYS = { default: 90, min: 1, max: 365 } as const;
+
+/**
+ * Creates a personal token acting in one lab until it expires; the current password is asked
+ * again (a borrowed session alone cannot mint a long-lived credential). The secret is returned
+ * once and only its hash is kept.
+ */
+export async function createToken(em: EntityManager, user: UserRow, lab: LabRow, input: { name: string; password: string; expiresInDays: number }, ip: string) {
+  await enforceLimits(em, [{ key: `token-create:account:${user.id}`, max: 10, windowS: 900 }]);
+  if (!(await verifyPassword(user.passwordHash, input.password))) {
+    throw new HttpError(422, 'invalid', 'The password is not right.', { fields: { password: 'Enter your current password to create a token.' } });
+  }
   const { token, hash } = newSecret('emb_');
-  const row = em.create(ApiToken, { user, lab, name, prefix: token.slice(0, 10), tokenHash: hash });
-  await audit(em, { kind: 'token-created', actor: user, lab, subject: name, ip });
+  const expiresAt = new Date(Date.now() + input.expiresInDays * 86_400_000);
+  const row = em.create(ApiToken, { user, lab, name: input.name, prefix: token.slice(0, 10), tokenHash: hash, expiresAt });
+  await audit(em, { kind: 'token-created', actor: user, lab, subject: `${input.name} (expires ${expiresAt.toISOString().slice(0, 10)})`, ip });
   return { row, token };
 }
 

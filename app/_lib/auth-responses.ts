@@ -3,18 +3,18 @@ import { NextResponse } from 'next/server';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { UserRow } from '@/entities';
 import { userDto } from './dto';
-import { SESSION_COOKIE, cookieOptions, openSession } from './session';
+import { openSession, setSessionCookie } from './session';
 
 /** Opens a session and answers with the user and the session cookie. */
-export async function signedIn(em: EntityManager, user: UserRow, userAgent: string, secure: boolean, status = 200) {
+export async function signedIn(em: EntityManager, user: UserRow, userAgent: string, status = 200, extra: Record<string, unknown> = {}) {
   const { jwt, expiresAt } = await openSession(em, user, userAgent);
-  const res = NextResponse.json({ user: userDto(user) }, { status });
-  res.cookies.set(SESSION_COOKIE, jwt, cookieOptions(secure, expiresAt));
+  const res = NextResponse.json({ user: userDto(user), ...extra }, { status });
+  setSessionCookie(res, jwt, expiresAt);
   return res;
 }
 
-export function signedOut(secure: boolean) {
+export function signedOut() {
   const res = NextResponse.json({ ok: true });
-  res.cookies.set(SESSION_COOKIE, '', cookieOptions(secure));
+  setSessionCookie(res, '');
   return res;
 }

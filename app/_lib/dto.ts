@@ -34,6 +34,7 @@ export const tokenDto = (t: ApiTokenRow) => ({
   labId: t.lab.id,
   createdAt: t.createdAt.toISOString(),
   lastUsedAt: t.lastUsedAt?.toISOString() ?? null,
+  expiresAt: t.expiresAt.toISOString(),
   revokedAt: t.revokedAt?.toISOString() ?? null,
 });
 

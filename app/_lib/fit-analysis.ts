@@ -32,9 +32,11 @@ export const modelLabel = (id: string) => MODEL_CHOICES.find((m) => m.id === id)
 export const DEFAULT_MEASUREMENT_SD_K = 1 / Math.sqrt(3);
 
 const uuid = z.string().uuid();
+/** Most trials one fit (or one analysis) takes: the work of a fit grows with them. */
+export const MAX_FIT_TRIALS = 5000;
 export const analyzeInput = z
   .object({
-    trialIds: z.array(uuid).max(5000).optional(),
+    trialIds: z.array(uuid).max(MAX_FIT_TRIALS).optional(),
     models: z.array(z.string().trim().min(1).max(400)).min(1, 'Pick at least one model.').max(6, 'Compare at most six models at once.'),
     measurementSdK: z.number().positive().max(20).default(DEFAULT_MEASUREMENT_SD_K),
     planInletC: z.number().min(0).max(99).optional(),
@@ -44,6 +46,12 @@ export type AnalyzeInput = z.infer<typeof analyzeInput>;
 
 /** The trials a fit uses: the given ids (checked to belong to the rig) or every included trial. */
 export async function trialsForFit(em: EntityManager, rig: RigRow, ids?: string[]): Promise<TrialRow[]> {
+  if (!ids) {
+    const n = await em.count(Trial, { rig, excluded: false });
+    if (n > MAX_FIT_TRIALS) {
+      throw new HttpError(422, 'too_many', `This rig has ${n} included trials; a fit takes at most ${MAX_FIT_TRIALS}. Pick the trials to fit, or exclude some.`, { fields: { trialIds: `at most ${MAX_FIT_TRIALS} trials` } });
+    }
+  }
   const rows = ids
     ? await em.find(Trial, { rig, id: { $in: ids } }, { orderBy: { startedAt: 'asc', id: 'asc' } })
     : await em.find(Trial, { rig, excluded: false }, { orderBy: { startedAt: 'asc', id: 'asc' } });

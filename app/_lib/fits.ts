@@ -7,8 +7,9 @@ import { compareModels, type FitSuccess } from '@/analysis/fit';
 import { chooseFlow } from '@/analysis/performance/choose-flow';
 import { performanceTable } from '@/analysis/performance/performance-table';
 import { conflict, forbidden, HttpError } from './errors';
-import { DEFAULT_MEASUREMENT_SD_K, SOFTWARE_VERSION, fitData, modelLabel, trialsForFit, trialsHash } from './fit-analysis';
-import { linkBase, sendMail } from './mail';
+import { DEFAULT_MEASUREMENT_SD_K, MAX_FIT_TRIALS, SOFTWARE_VERSION, fitData, modelLabel, trialsForFit, trialsHash } from './fit-analysis';
+import { audit } from './audit';
+import { appLink, sendMail } from './mail';
 import { can, type Action } from './permissions';
 import type { Role } from '@/entities/membership';
 
@@ -16,7 +17,7 @@ export const saveFitInput = z
   .object({
     title: z.string().trim().min(1, 'Give the fit a title.').max(160),
     model: z.string().trim().min(1).max(400),
-    trialIds: z.array(z.string().uuid()).min(2).max(5000),
+    trialIds: z.array(z.string().uuid()).min(2).max(MAX_FIT_TRIALS),
     compareWith: z.array(z.string().trim().min(1).max(400)).max(5).default([]),
     measurementSdK: z.number().positive().max(20).default(DEFAULT_MEASUREMENT_SD_K),
     planInletC: z.number().min(0).max(99).optional(),
@@ -82,28 +83,34 @@ export const fitListDto = (f: FitRow) => ({
 export const fitDto = (f: FitRow) => ({ ...fitListDto(f), trialIds: f.trialIds, trialsHash: f.trialsHash, settings: f.settings, result: f.result, softwareVersion: f.softwareVersion });
 
 /** Review moves: who may make them, and from which states. */
-const MOVES: Record<string, { action: Action; from: ReviewState[]; to: ReviewState; verb: string }> = {
-  submit: { action: 'fit:write', from: ['draft', 'changes-requested'], to: 'in-review', verb: 'asked for review of' },
-  approve: { action: 'review:decide', from: ['in-review'], to: 'approved', verb: 'approved' },
-  'request-changes': { action: 'review:decide', from: ['in-review'], to: 'changes-requested', verb: 'asked for changes to' },
+const MOVES: Record<string, { action: Action; from: ReviewState[]; to: ReviewState; verb: string; decision: boolean; audit: 'review-submitted' | 'review-approved' | 'review-returned' }> = {
+  submit: { action: 'fit:write', from: ['draft', 'changes-requested'], to: 'in-review', verb: 'asked for review of', decision: false, audit: 'review-submitted' },
+  approve: { action: 'review:decide', from: ['in-review'], to: 'approved', verb: 'approved', decision: true, audit: 'review-approved' },
+  'request-changes': { action: 'review:decide', from: ['in-review'], to: 'changes-requested', verb: 'asked for changes to', decision: true, audit: 'review-returned' },
 };
 export const reviewInput = z.object({ move: z.enum(['submit', 'approve', 'request-changes']), note: z.string().trim().max(4000).default('') }).strict();
 
 /**
  * Moves a fit or study through draft → in review → approved / changes requested, records the
  * step, and tells the author (in-app notice and e-mail) or, on submission, the lab's reviewers.
+ * Nobody decides on their own work: `ownerIds` (a fit's author; a study's author and everyone who
+ * saved it since its last decision) may submit, never approve or return — whatever their role.
  */
 export async function review(
   em: EntityManager,
-  target: { kind: 'fit' | 'study'; id: string; title: string; lab: LabRow; reviewState: ReviewState; authorId: string | null; link: string },
+  target: { kind: 'fit' | 'study'; id: string; title: string; lab: LabRow; reviewState: ReviewState; authorId: string | null; ownerIds: string[]; link: string },
   actor: UserRow,
   role: Role,
   input: z.infer<typeof reviewInput>,
-  origin: string,
+  ip: string,
 ): Promise<ReviewState> {
   const move = MOVES[input.move];
   if (!can(role, move.action)) throw forbidden();
+  if (move.decision && target.ownerIds.includes(actor.id)) {
+    throw new HttpError(403, 'own_work', `You ${target.authorId === actor.id ? 'made' : 'edited'} this ${target.kind}: another reviewer or owner must approve or return it.`);
+  }
   if (!move.from.includes(target.reviewState)) throw conflict(`It is ${target.reviewState}; it cannot be ${move.to} from there.`);
+  await audit(em, { kind: move.audit, actor, lab: target.lab, subject: `${target.kind} "${target.title}"`.slice(0, 300), ip }, false);
   em.create(ReviewEvent, { lab: target.lab, actor, targetKind: target.kind, targetId: target.id, fromState: target.reviewState, toState: move.to, note: input.note });
   const recipients =
     input.move === 'submit'
@@ -118,8 +125,8 @@ export async function review(
     await sendMail(u.email, {
       subject: input.move === 'submit' ? `Review requested: ${target.title}` : `${move.to === 'approved' ? 'Approved' : 'Changes requested'}: ${target.title}`,
       paragraphs: [text, ...(input.note ? [`Note: ${input.note}`] : []), `Lab: ${target.lab.name}.`],
-      action: { label: `Open the ${target.kind}`, url: `${linkBase(origin)}${target.link}` },
-    });
+      action: { label: `Open the ${target.kind}`, url: appLink(target.link) },
+    }, { kind: 'review', labId: target.lab.id });
   }
   return move.to;
 }

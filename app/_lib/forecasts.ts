@@ -10,6 +10,7 @@ import { coilHeater } from '@/analysis/performance/heater-model';
 import { risePerHourTable } from '@/analysis/pool/mixing';
 import { parseQuantity } from '@/analysis/units/parse-quantity';
 import { reduceForDisplay } from '@/analysis/reduce';
+import { checkForecastWork, FORECAST_LIMITS } from '@/analysis/forecast/forecast-limits';
 import { z } from 'zod';
 import { HttpError } from './errors';
 import { plotToSvg } from './plot-svg';
@@ -74,6 +75,29 @@ export async function forecast(em: EntityManager, lab: LabRow, body: Record<stri
       budget: { title: budget.title, summary: budget.summary, svg: plotToSvg(budget.options) },
     },
   };
+}
+
+/**
+ * Why a forecast body would be more work than one forecast may be (the horizon, the step, the
+ * number of steps or of weather rows beyond FORECAST_LIMITS), or null. Checked when a study's
+ * forecast block is saved, so a study never stores a forecast that cannot run; the forecast itself
+ * checks the same limits again when it runs.
+ */
+export function forecastWorkProblem(body: Record<string, unknown>): string | null {
+  try {
+    const hours = body.hours;
+    if (hours === undefined) return null;
+    if (typeof hours !== 'number' || !Number.isFinite(hours) || hours <= 0) return 'hours must be a number of hours greater than 0';
+    const stepS = body.step === undefined ? 60 : parseQuantity(body.step, 'time', 'step');
+    checkForecastWork(hours, stepS);
+    const losses = body.losses as { weather?: unknown } | undefined;
+    if (losses && Array.isArray(losses.weather) && losses.weather.length > FORECAST_LIMITS.maxWeatherRows) {
+      return `losses.weather has ${losses.weather.length} rows; at most ${FORECAST_LIMITS.maxWeatherRows} (a leap year of hours) are allowed`;
+    }
+    return null;
+  } catch (e) {
+    return e instanceof Error ? e.message : String(e);
+  }
 }
 
 /** The forecast of a request body: the saved fit as heater, the pool by shape, the CLI contract. */

@@ -1,12 +1,14 @@
 import 'server-only';
-import type { EntityManager } from '@mikro-orm/postgresql';
-import { Invitation, Membership } from '@/entities';
 import { readCapturedMail } from './mail-capture';
 
-/** Captured messages addressed to the lab's members or invitees (so one lab never reads another's mail). */
-export async function labMail(em: EntityManager, labId: string) {
-  const members = await em.find(Membership, { lab: labId }, { populate: ['user'] });
-  const invites = await em.find(Invitation, { lab: labId });
-  const addresses = new Set([...members.map((m) => m.user.email), ...invites.map((i) => i.email)]);
-  return (await readCapturedMail(300)).filter((m) => m.to.some((t) => addresses.has(t.toLowerCase())));
+/** The kinds of mail a lab causes (and so may read back in demo mode). */
+const LAB_KINDS = new Set(['invitation', 'review']);
+
+/**
+ * Captured messages that this lab caused (its invitations and review notices), for its owners'
+ * demo-mode mail page. Account mail — a sign-up link, a password reset — goes to a person, not
+ * to a lab, and is never shown here, whoever it was sent to; another lab's mail neither.
+ */
+export async function labMail(labId: string) {
+  return (await readCapturedMail(500)).filter((m) => m.labId === labId && LAB_KINDS.has(m.kind));
 }

@@ -5,13 +5,20 @@ import type { Role } from '@/entities/membership';
 import { slugify } from './accounts';
 import { audit } from './audit';
 import { HttpError, conflict, notFound } from './errors';
-import { linkBase, sendMail } from './mail';
+import { appLink, sendMail } from './mail';
 import { enforceLimits } from './rate-limit';
 import { newSecret, sha256 } from './tokens';
 
 const INVITATION_DAYS = 7;
 
+/**
+ * Per person per day (ours): a lab's invitations send mail to any address, so neither labs nor
+ * invitations can be made without end by one account.
+ */
+export const DAILY_LIMITS = { labsPerUser: 5, invitationsPerUser: 50 } as const;
+
 export async function createLab(em: EntityManager, user: UserRow, name: string, ip: string): Promise<LabRow> {
+  await enforceLimits(em, [{ key: `lab-create:account:${user.id}`, max: DAILY_LIMITS.labsPerUser, windowS: 86_400 }]);
   return em.transactional(async (tx) => {
     const lab = tx.create(Lab, { name, slug: slugify(name) });
     tx.create(Membership, { user, lab, role: 'owner' });
@@ -25,11 +32,15 @@ export async function membershipsOf(em: EntityManager, userId: string) {
 }
 
 /** Invites an address to the lab with a role and sends the link; a pending invitation to the same address is replaced. */
-export async function invite(em: EntityManager, lab: LabRow, by: UserRow, emailAddr: string, role: Role, ip: string, origin: string) {
-  await enforceLimits(em, [{ key: `invite:lab:${lab.id}`, max: 50, windowS: 3600 }]);
+export async function invite(em: EntityManager, lab: LabRow, by: UserRow, emailAddr: string, role: Role, ip: string) {
+  await enforceLimits(em, [
+    { key: `invite:lab:${lab.id}`, max: 50, windowS: 3600 },
+    { key: `invite:account:${by.id}`, max: DAILY_LIMITS.invitationsPerUser, windowS: 86_400 },
+  ]);
   const existing = await em.findOne(Membership, { lab, user: { email: emailAddr } });
   if (existing) throw conflict(`${emailAddr} is already a member of this lab.`);
-  await em.nativeUpdate(Invitation, { lab, email: emailAddr, acceptedAt: null, revokedAt: null }, { revokedAt: new Date() });
+  const replaced = await em.nativeUpdate(Invitation, { lab, email: emailAddr, acceptedAt: null, revokedAt: null }, { revokedAt: new Date() });
+  if (replaced) await audit(em, { kind: 'invitation-replaced', actor: by, lab, subject: emailAddr, ip }, false);
   const { token, hash } = newSecret('inv_');
   const invitation = em.create(Invitation, {
     lab,
@@ -47,9 +58,9 @@ export async function invite(em: EntityManager, lab: LabRow, by: UserRow, emailA
       'Emberline is a workbench for testing water heaters: trials, fitted models, pool forecasts and their review.',
       `The invitation is for ${emailAddr} only, works once and expires in ${INVITATION_DAYS} days.`,
     ],
-    action: { label: 'Accept the invitation', url: `${linkBase(origin)}/invitations/${encodeURIComponent(token)}` },
+    action: { label: 'Accept the invitation', url: appLink(`/invitations/${encodeURIComponent(token)}`) },
     footnote: 'If you did not expect this, ignore the message; nothing happens unless you accept.',
-  });
+  }, { kind: 'invitation', labId: lab.id });
   return invitation;
 }
 

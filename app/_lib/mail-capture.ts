@@ -11,6 +11,10 @@ export interface CapturedMail {
   subject: string;
   text: string;
   html: string;
+  /** `X-Emberline-Kind` of the message (see MailTags in mail.ts) */
+  kind: string;
+  /** `X-Emberline-Lab`: the lab that caused the message, or '' for account mail */
+  labId: string;
 }
 
 /** Messages the local SMTP fake stored (scripts/smtp-fake.mjs), newest first. Demo mode only. */
@@ -26,7 +30,8 @@ export async function readCapturedMail(limit = 100): Promise<CapturedMail[]> {
   const out: CapturedMail[] = [];
   for (const f of files.slice(0, limit)) {
     try {
-      out.push(JSON.parse(await readFile(path.join(config.mailCaptureDir, f), 'utf8')) as CapturedMail);
+      const m = JSON.parse(await readFile(path.join(config.mailCaptureDir, f), 'utf8')) as Partial<CapturedMail>;
+      out.push({ ...(m as CapturedMail), kind: m.kind ?? '', labId: m.labId ?? '' });
     } catch {
       /* a message being written right now */
     }

@@ -1,6 +1,14 @@
 import 'server-only';
 import nodemailer, { type Transporter } from 'nodemailer';
-import { config } from './config';
+import { appOrigin, config } from './config';
+
+/**
+ * What a message is, and for mail a lab caused, which lab: sent as headers (`X-Emberline-Kind`,
+ * `X-Emberline-Lab`) so the demo mode's captured-mail page can show a lab only the mail it
+ * caused itself. Account mail (`sign-up`, `account-exists`, `password-reset`) goes to a person,
+ * never to a lab, and has no lab.
+ */
+export type MailTags = { kind: 'invitation' | 'review'; labId: string } | { kind: 'sign-up' | 'account-exists' | 'password-reset' };
 
 export interface MailContent {
   subject: string;
@@ -43,12 +51,22 @@ ${c.footnote ? `<p style="margin:16px 0 0;font-size:12px;line-height:18px;color:
   return { subject: c.subject, text, html };
 }
 
-export async function sendMail(to: string, content: MailContent): Promise<void> {
+export async function sendMail(to: string, content: MailContent, tags: MailTags): Promise<void> {
   const { subject, text, html } = renderMail(content);
-  await transporter().sendMail({ from: config.mailFrom, to, subject, text, html });
+  const headers: Record<string, string> = { 'X-Emberline-Kind': tags.kind };
+  if ('labId' in tags) headers['X-Emberline-Lab'] = tags.labId;
+  await transporter().sendMail({ from: config.mailFrom, to, subject, text, html, headers });
 }
 
-/** The base URL for links in e-mail. */
-export function linkBase(fallbackOrigin: string): string {
-  return config.appUrl || fallbackOrigin;
+/**
+ * Sends a message off the request path: the answer does not wait for the mail server (so it
+ * takes the same time whether or not a message goes out) and a failure is logged, not shown.
+ */
+export function sendMailLater(to: string, content: MailContent, tags: MailTags): void {
+  sendMail(to, content, tags).catch((e: unknown) => console.error(`mail (${tags.kind}) could not be sent:`, e instanceof Error ? e.message : e));
+}
+
+/** An absolute link into the app for e-mail: the configured origin, never a request header. */
+export function appLink(pathAndQuery: string): string {
+  return `${appOrigin()}${pathAndQuery}`;
 }

@@ -8,11 +8,12 @@ import type { Member, RouteContext } from './route';
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
-export const rigInput = z.object({
+/** The fields of a rig as the API takes them, without defaults (so that a patch leaves out what it does not name). */
+const rigFields = z.object({
   name: z.string().trim().min(1, 'Give the rig a name.').max(120),
   heatSource: z.enum(HEAT_SOURCES),
-  description: z.string().trim().max(4000).default(''),
-  notes: z.string().trim().max(20000).default(''),
+  description: z.string().trim().max(4000),
+  notes: z.string().trim().max(20000),
   details: z
     .object({
       coilLengthM: z.number().positive().max(1000).optional(),
@@ -21,10 +22,19 @@ export const rigInput = z.object({
       collectorAreaM2: z.number().positive().max(10000).optional(),
       burnerRatingW: z.number().positive().max(1e7).optional(),
     })
-    .strict()
-    .default({}),
+    .strict(),
 });
-export const rigPatch = rigInput.partial();
+/** A new rig: what it leaves out starts empty. */
+export const rigInput = rigFields.extend({
+  description: rigFields.shape.description.default(''),
+  notes: rigFields.shape.notes.default(''),
+  details: rigFields.shape.details.default({}),
+});
+/**
+ * An edit: only the fields it names change. Built from the fields without defaults — a default
+ * survives `.partial()` in zod and would blank every field the edit leaves out.
+ */
+export const rigPatch = rigFields.partial();
 
 /** Loads a rig and checks the caller's role in its lab: 404 for non-members and unknown ids alike. */
 export async function loadRig<P>(ctx: RouteContext<P>, rigId: string, action: Action): Promise<{ rig: RigRow; member: Member }> {

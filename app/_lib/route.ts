@@ -4,11 +4,13 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import type { z } from 'zod';
 import { ApiToken, Membership, type LabRow } from '@/entities';
 import type { Role } from '@/entities/membership';
-import { config } from './config';
+import { auditRefusal } from './audit';
+import { clientAddress, peerHeaderTrusted } from './client-address';
+import { appOrigin, config, ownOrigins } from './config';
 import { getEm } from './db';
 import { HttpError, errorResponse, forbidden, notFound, unauthorized } from './errors';
 import { can, type Action } from './permissions';
-import { SESSION_COOKIE, readSession, type UserRow } from './session';
+import { readSession, type UserRow } from './session';
 import { sha256 } from './tokens';
 
 export interface Actor {
@@ -30,8 +32,7 @@ export interface RouteContext<P> {
   em: EntityManager;
   actor: Actor | null;
   ip: string;
-  secure: boolean;
-  /** The origin the browser used, for links in e-mail. */
+  /** The configured public origin (`APP_URL`), for links in e-mail and share links. */
   origin: string;
   /** The membership checked by `labAction`, when the route has one. */
   member?: Member;
@@ -58,29 +59,23 @@ export interface RouteOptions {
 const STATE_CHANGING = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
 
 export function clientIp(req: NextRequest): string {
-  // The hop added by our own load balancer is the last one; earlier hops are the client's word.
-  const fwd = req.headers.get('x-forwarded-for');
-  if (config.trustProxy && fwd) return fwd.split(',').at(-1)!.trim();
-  return req.headers.get('x-real-ip') ?? '';
+  return clientAddress(req.headers, config.trustProxyHops, peerHeaderTrusted());
 }
 
-/** The origin the browser used (APP_URL when set): for the same-origin check and links in e-mail. */
-export function publicOrigin(req: NextRequest): string {
-  if (config.appUrl) return new URL(config.appUrl).origin;
-  const host = req.headers.get('x-forwarded-host') ?? req.headers.get('host') ?? '';
-  const proto = req.headers.get('x-forwarded-proto') ?? new URL(req.url).protocol.replace(':', '');
-  return `${proto}://${host}`;
-}
+const crossOrigin = () => new HttpError(403, 'cross_origin', 'Requests from another site are refused.');
 
-/** Cookie-authenticated state changes must come from our own origin (CSRF). */
+/**
+ * Cookie-authenticated state changes must come from our own origin (CSRF): the Origin header
+ * must be the configured origin (or, without one, Sec-Fetch-Site must say same-origin). The
+ * request's Host and X-Forwarded-* headers play no part.
+ */
 function checkOrigin(req: NextRequest) {
   const origin = req.headers.get('origin');
   if (origin) {
-    if (origin !== publicOrigin(req)) throw new HttpError(403, 'cross_origin', 'Requests from another site are refused.');
+    if (!ownOrigins().has(origin)) throw crossOrigin();
     return;
   }
-  const site = req.headers.get('sec-fetch-site');
-  if (site !== 'same-origin') throw new HttpError(403, 'cross_origin', 'Requests from another site are refused.');
+  if (req.headers.get('sec-fetch-site') !== 'same-origin') throw crossOrigin();
 }
 
 async function readLimited(req: NextRequest, max: number): Promise<string> {
@@ -108,13 +103,13 @@ async function resolveActor(req: NextRequest, em: EntityManager): Promise<Actor 
   if (authz) {
     const m = /^Bearer\s+(\S+)$/i.exec(authz);
     if (!m) throw unauthorized('The Authorization header must be "Bearer <token>".');
-    const token = await em.findOne(ApiToken, { tokenHash: sha256(m[1]), revokedAt: null }, { populate: ['user'] });
-    if (!token) throw unauthorized('That API token is not valid or has been revoked.');
+    const token = await em.findOne(ApiToken, { tokenHash: sha256(m[1]), revokedAt: null, expiresAt: { $gt: new Date() } }, { populate: ['user'] });
+    if (!token) throw unauthorized('That API token is not valid, has expired or has been revoked.');
     token.lastUsedAt = new Date();
     await em.flush();
     return { user: token.user, via: 'token', tokenLabId: token.lab.id };
   }
-  const s = await readSession(em, req.cookies.get(SESSION_COOKIE)?.value);
+  const s = await readSession(em, req.cookies.get(config.sessionCookie)?.value);
   return s ? { user: s.user, via: 'session', sessionId: s.session.id } : null;
 }
 
@@ -128,24 +123,25 @@ export function route<P extends Record<string, string> = Record<string, never>>(
   handler: (ctx: RouteContext<P>) => Promise<Response>,
 ) {
   return async (req: NextRequest, segment: { params: Promise<P> }): Promise<Response> => {
+    let em: EntityManager | undefined;
+    let actor: Actor | null = null;
+    let refusedLab: string | null = null;
     try {
       const max = options.maxBodyBytes ?? config.maxJsonBytes;
       const length = Number(req.headers.get('content-length') ?? 0);
       if (length > max) throw tooLarge(max);
       const bearer = req.headers.has('authorization');
       if (STATE_CHANGING.has(req.method) && !bearer) checkOrigin(req);
-      const em = await getEm();
+      em = await getEm();
       const params = (await segment.params) ?? ({} as P);
-      const actor = await resolveActor(req, em);
-      const secure = (req.headers.get('x-forwarded-proto') ?? new URL(req.url).protocol.replace(':', '')) === 'https';
+      actor = await resolveActor(req, em);
       const ctx: RouteContext<P> = {
         req,
         params,
         em,
         actor,
         ip: clientIp(req),
-        secure,
-        origin: publicOrigin(req),
+        origin: appOrigin(),
         async json(schema) {
           const text = await readLimited(req, max);
           let body: unknown;
@@ -164,9 +160,12 @@ export function route<P extends Record<string, string> = Record<string, never>>(
           const a = ctx.requireActor();
           if (!/^[0-9a-f-]{36}$/i.test(labId)) throw notFound();
           if (a.via === 'token' && a.tokenLabId !== labId) throw notFound();
-          const m = await em.findOne(Membership, { user: a.user.id, lab: labId }, { populate: ['lab'] });
+          const m = await em!.findOne(Membership, { user: a.user.id, lab: labId }, { populate: ['lab'] });
           if (!m) throw notFound();
-          if (!can(m.role, action)) throw forbidden();
+          if (!can(m.role, action)) {
+            refusedLab = labId;
+            throw forbidden();
+          }
           return { lab: m.lab, role: m.role };
         },
       };
@@ -183,7 +182,11 @@ export function route<P extends Record<string, string> = Record<string, never>>(
       res.headers.set('Cache-Control', 'no-store');
       return res;
     } catch (e) {
-      return errorResponse(e);
+      const res = errorResponse(e);
+      if (res.status === 403 || res.status === 429) {
+        await auditRefusal(em, { status: res.status, what: `${req.method} ${req.nextUrl.pathname}`, actor: actor?.user ?? null, lab: refusedLab, ip: clientIp(req) });
+      }
+      return res;
     }
   };
 }

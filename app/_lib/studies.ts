@@ -5,6 +5,7 @@ import { z } from 'zod';
 import { ShareLink, Study, type LabRow, type ShareLinkRow, type StudyRow, type UserRow } from '@/entities';
 import { BLOCK_KINDS, type StudyBlock } from '@/entities/study';
 import { costBlockData } from './cost-block';
+import { forecastWorkProblem } from './forecasts';
 import { conflict, HttpError, notFound } from './errors';
 import type { Action } from './permissions';
 import type { Member, RouteContext } from './route';
@@ -26,17 +27,27 @@ export const blockSchema = z
     if (b.kind === 'sensor-log' && b.data.sourceFileId !== undefined && (typeof b.data.sourceFileId !== 'string' || !UUID.test(b.data.sourceFileId))) {
       ctx.addIssue({ code: 'custom', path: ['data', 'sourceFileId'], message: 'Pick an imported sensor log.' });
     }
+    if (b.kind === 'forecast') {
+      const problem = forecastWorkProblem(b.data);
+      if (problem) ctx.addIssue({ code: 'custom', path: ['data'], message: `Forecast: ${problem}` });
+    }
     if (b.kind === 'costs') {
       const c = costBlockData.safeParse(b.data);
       if (!c.success) for (const i of c.error.issues) ctx.addIssue({ code: 'custom', path: ['data', ...i.path.map(String)], message: `Cost sheet: ${i.path.join('.') || 'settings'}: ${i.message}` });
     }
   });
 
+/** Forecast blocks run whenever a study, its share link or its export is read: a study holds only a few. */
+export const MAX_FORECAST_BLOCKS = 10;
+
 export const studyCreate = z.object({ title: z.string().trim().min(1, 'Give the study a title.').max(160) }).strict();
 export const studySave = z
   .object({
     title: z.string().trim().min(1).max(160),
-    blocks: z.array(blockSchema).max(100, 'A study holds at most 100 blocks.'),
+    blocks: z
+      .array(blockSchema)
+      .max(100, 'A study holds at most 100 blocks.')
+      .refine((bs) => bs.filter((b) => b.kind === 'forecast').length <= MAX_FORECAST_BLOCKS, `A study holds at most ${MAX_FORECAST_BLOCKS} forecast blocks (each one runs when the study is read).`),
     /** the revision the editor loaded; a different current revision is a conflict */
     baseRevision: z.number().int().min(1),
   })
@@ -70,6 +81,7 @@ export async function saveStudy(em: EntityManager, study: StudyRow, user: UserRo
       revision: input.baseRevision + 1,
       updatedBy: user,
       updatedAt: new Date(),
+      editedSinceReview: [...new Set([...(study.editedSinceReview ?? []), user.id])],
       // an approval covers the revision it saw: an edit sends the study back to draft
       ...(study.reviewState === 'approved' ? { reviewState: 'draft' as const } : {}),
     },
@@ -125,6 +137,11 @@ export async function sharedStudy(em: EntityManager, token: string) {
 export function shareUnits(param: string | null | undefined, preference?: 'si' | 'us' | null): 'si' | 'us' {
   if (param === 'si' || param === 'us') return param;
   return preference === 'us' ? 'us' : 'si';
+}
+
+/** The people who may not decide the study's review: its author and everyone who saved it since the last decision. */
+export function studyOwners(study: StudyRow): string[] {
+  return [...new Set([...(study.createdBy ? [study.createdBy.id] : []), ...(study.editedSinceReview ?? [])])];
 }
 
 export function assertEditable(study: StudyRow) {

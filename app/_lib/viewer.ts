@@ -6,7 +6,8 @@ import { Notice } from '@/entities';
 import { getEm } from './db';
 import { membershipsOf } from './labs';
 import { can, type Action } from './permissions';
-import { LAB_COOKIE, SESSION_COOKIE, readSession } from './session';
+import { config } from './config';
+import { LAB_COOKIE, readSession } from './session';
 
 /**
  * The signed-in person for a server-rendered page, verified once per request (React cache):
@@ -15,7 +16,7 @@ import { LAB_COOKIE, SESSION_COOKIE, readSession } from './session';
 export const getViewer = cache(async () => {
   const em = await getEm();
   const jar = await cookies();
-  const s = await readSession(em, jar.get(SESSION_COOKIE)?.value);
+  const s = await readSession(em, jar.get(config.sessionCookie)?.value);
   if (!s) return null;
   const memberships = await membershipsOf(em, s.user.id);
   const wanted = jar.get(LAB_COOKIE)?.value;

@@ -42,7 +42,7 @@ export default async function AccountPage() {
         </section>
         <section className="card p-6" aria-labelledby="pw">
           <h2 id="pw" className="text-lg">Password</h2>
-          <p className="mt-1 text-sm text-ink-soft">Changing it signs you out on every other device.</p>
+          <p className="mt-1 text-sm text-ink-soft">Changing it signs you out on every other device. A password reset by e-mail also revokes your API tokens.</p>
           <JsonForm
             className="mt-4"
             action="/api/auth/password"
@@ -51,6 +51,7 @@ export default async function AccountPage() {
             fields={[
               { name: 'currentPassword', label: 'Current password', type: 'password', autoComplete: 'current-password' },
               { name: 'newPassword', label: 'New password', type: 'password', autoComplete: 'new-password', hint: 'At least 12 characters.' },
+              ...(tokens.some((t) => !t.revokedAt) ? [{ name: 'revokeTokens', label: 'Also revoke all my API tokens', type: 'checkbox' as const, required: false }] : []),
             ]}
           />
         </section>
@@ -66,7 +67,8 @@ export default async function AccountPage() {
             <h2 id="tokens" className="text-lg">API tokens</h2>
             <p className="mt-1 text-sm text-ink-soft">
               For scripts and data loggers: send <span className="num">Authorization: Bearer &lt;token&gt;</span>. A token acts in one lab
-              with your role there. It is shown once; we keep only its hash.
+              with your role there until it expires (90 days unless you choose otherwise). It is shown once; we keep only its hash.
+              Creating one asks for your password again.
             </p>
             <TokenManager labs={tokenLabs} initial={tokens} />
           </section>

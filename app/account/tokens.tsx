@@ -10,6 +10,7 @@ interface Token {
   labId: string;
   createdAt: string;
   lastUsedAt: string | null;
+  expiresAt: string;
   revokedAt: string | null;
 }
 
@@ -43,6 +44,20 @@ export function TokenManager({ labs, initial }: { labs: { id: string; name: stri
           <span className="field-label">Token name</span>
           <input name="name" className="field-input" placeholder="e.g. yard logger" required />
         </label>
+        <label className="min-w-[9rem]">
+          <span className="field-label">Expires after</span>
+          <select name="expiresInDays" className="field-input" defaultValue="90">
+            <option value="7">7 days</option>
+            <option value="30">30 days</option>
+            <option value="90">90 days</option>
+            <option value="180">180 days</option>
+            <option value="365">a year</option>
+          </select>
+        </label>
+        <label className="min-w-[12rem]">
+          <span className="field-label">Your password</span>
+          <input name="password" type="password" autoComplete="current-password" className="field-input" required />
+        </label>
         <label className="min-w-[12rem]">
           <span className="field-label">Lab</span>
           <select name="labId" className="field-input">
@@ -72,6 +87,7 @@ export function TokenManager({ labs, initial }: { labs: { id: string; name: stri
               <th scope="col">Token</th>
               <th scope="col">Lab</th>
               <th scope="col">Last used</th>
+              <th scope="col">Expires</th>
               <th scope="col">State</th>
               <th scope="col"><span className="sr-only">Actions</span></th>
             </tr>
@@ -83,7 +99,16 @@ export function TokenManager({ labs, initial }: { labs: { id: string; name: stri
                 <td className="num">{t.prefix}…</td>
                 <td>{labName(t.labId)}</td>
                 <td className="num">{when(t.lastUsedAt)}</td>
-                <td>{t.revokedAt ? <span className="text-ink-muted">revoked</span> : <span className="text-ok-text">active</span>}</td>
+                <td className="num">{when(t.expiresAt)}</td>
+                <td>
+                  {t.revokedAt ? (
+                    <span className="text-ink-muted">revoked</span>
+                  ) : new Date(t.expiresAt) <= new Date() ? (
+                    <span className="text-ink-muted">expired</span>
+                  ) : (
+                    <span className="text-ok-text">active</span>
+                  )}
+                </td>
                 <td className="text-right">
                   {t.revokedAt ? null : (
                     <button

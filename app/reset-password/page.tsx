@@ -34,7 +34,7 @@ export default async function ResetPasswordPage({ searchParams }: { searchParams
     );
   }
   return (
-    <AuthCard title="Choose a new password" lead="Every other session of this account ends when you save it.">
+    <AuthCard title="Choose a new password" lead="Every other session of this account ends and its API tokens are revoked when you save it.">
       <JsonForm
         action="/api/auth/reset-password"
         submitLabel="Save and sign in"

@@ -11,6 +11,7 @@ import { Migration20261201235511_import_jobs } from './Migration20261201235511_i
 import { Migration20261202063741_sensor_sample_storage } from './Migration20261202063741_sensor_sample_storage';
 import { Migration20261202064527_sensor_overview } from './Migration20261202064527_sensor_overview';
 import { Migration20261202090000_sensor_sample_brin } from './Migration20261202090000_sensor_sample_brin';
+import { Migration20261203082759_security } from './Migration20261203082759_security';
 
 export const migrationsList: MigrationObject[] = [
   { name: 'Migration20261201222811', class: Migration20261201222811 },
@@ -21,4 +22,5 @@ export const migrationsList: MigrationObject[] = [
   { name: 'Migration20261202063741_sensor_sample_storage', class: Migration20261202063741_sensor_sample_storage },
   { name: 'Migration20261202064527_sensor_overview', class: Migration20261202064527_sensor_overview },
   { name: 'Migration20261202090000_sensor_sample_brin', class: Migration20261202090000_sensor_sample_brin },
+  { name: 'Migration20261203082759_security', class: Migration20261203082759_security },
 ];

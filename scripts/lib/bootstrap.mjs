@@ -5,10 +5,11 @@ import { ensureNodeModules } from './install.mjs';
 import { startCluster } from './postgres.mjs';
 
 /**
- * @param {{ database: string, fresh?: boolean }} opts  database name for the private cluster
+ * @param {{ database: string, fresh?: boolean, demo: boolean }} opts  database name for the private cluster; demo:
+ *   load the demo lab (its accounts have a published password: never in a production database)
  * @returns {Promise<{ databaseUrl: string, stop: () => void, external: boolean }>}
  */
-export async function bootstrap({ database, fresh = false }) {
+export async function bootstrap({ database, fresh = false, demo }) {
   ensureNodeModules();
   const { ensureDatabase, checkDatabase } = await import('./database.mjs');
   let databaseUrl;
@@ -37,9 +38,9 @@ export async function bootstrap({ database, fresh = false }) {
     }
   }
   try {
-    step(fresh ? `fresh database "${database}": migrations and demo lab` : 'migrations and demo lab');
+    step(`${fresh ? `fresh database "${database}": ` : ''}migrations${demo ? ' and demo lab' : ''}`);
     runVisible(process.execPath, [path.join(root, 'node_modules/tsx/dist/cli.mjs'), path.join(root, 'scripts/setup-db.ts')], 'migrations or demo data failed (see above); the database was left as the last complete migration', {
-      env: { ...process.env, DATABASE_URL: databaseUrl },
+      env: { ...process.env, DATABASE_URL: databaseUrl, EMBERLINE_DEMO: demo ? 'true' : 'false' },
     });
   } catch (e) {
     stop();

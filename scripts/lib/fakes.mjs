@@ -45,11 +45,11 @@ export async function startFakes({ test = false } = {}) {
     const dir = path.join(root, '.data', test ? 'mail-test' : 'mail');
     if (test) rmSync(dir, { recursive: true, force: true });
     try {
-      const { child, info } = await startChild('smtp-fake.mjs', { MAIL_CAPTURE_DIR: dir, SMTP_FAKE_PORT: test ? '0' : (process.env.SMTP_FAKE_PORT ?? '0') }, 'the SMTP fake');
+      const { child, info } = await startChild('smtp-fake.mjs', { MAIL_CAPTURE_DIR: dir, SMTP_FAKE_PORT: test ? '0' : (process.env.SMTP_FAKE_PORT ?? '0'), MAIL_ECHO: test ? '0' : '1' }, 'the SMTP fake');
       children.push(child);
       env.SMTP_URL = `smtp://127.0.0.1:${info.port}`;
       env.MAIL_CAPTURE_DIR = dir;
-      step(`local SMTP fake on 127.0.0.1:${info.port} (messages in ${path.relative(root, dir)}/)`);
+      step(`local SMTP fake on 127.0.0.1:${info.port} (messages in ${path.relative(root, dir)}/${test ? '' : ', and printed here'})`);
     } catch (e) {
       fail(`could not start the local SMTP fake: ${e.message}`);
     }

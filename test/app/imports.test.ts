@@ -6,7 +6,7 @@
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { describe, expect, test } from 'vitest';
-import { baseUrl, signedIn, type Client } from './support/client';
+import { DEMO_PASSWORD, baseUrl, signedIn, type Client } from './support/client';
 
 // A run-unique trailing blank line makes each upload new bytes (other tests import the same fixtures into this lab).
 const fixture = (name: string) => Buffer.concat([readFileSync(path.resolve(__dirname, '..', '..', 'fixtures', 'import', name)), Buffer.from(`\n`.repeat(1 + (Date.now() % 7)))]);
@@ -76,7 +76,7 @@ describe('trial-sheet import', () => {
 
   test('a script imports a sheet in US units in one multipart call with its token, and the mapping is remembered', async () => {
     const { eng, lab, rig } = await setup();
-    const secret = (await eng.post('/api/tokens', { name: 'import script', labId: lab.id })).body.secret;
+    const secret = (await eng.post('/api/tokens', { name: 'import script', labId: lab.id, password: DEMO_PASSWORD })).body.secret;
     const form = new FormData();
     form.set('file', new Blob([new Uint8Array(fixture('trials-imperial.csv'))], { type: 'text/csv' }), 'trials-imperial.csv');
     const res = await fetch(`${baseUrl}/api/rigs/${rig.id}/imports`, { method: 'POST', headers: { Authorization: `Bearer ${secret}` }, body: form });

@@ -16,7 +16,7 @@ import { createImportJobRow, enqueueSensorImport, newBoss, recoverInterruptedJob
 import { ImportCancelled, copyPool, importSensorLog, logImportInput } from '@/app/_lib/sensor-import';
 import { ImportError } from '@/app/_lib/import/import-error';
 import { Rig, SourceFile, User } from '@/entities';
-import { Client, signedIn } from './support/client';
+import { Client, createAccount, signedIn } from './support/client';
 import { LOG_MAPPING as MAPPING, engineerWithRig, jobFinished as finished, logFolder, uploadRaw as upload } from './support/sensor-logs';
 
 const db = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 2 });
@@ -269,10 +269,8 @@ describe('sensor-log import', () => {
     expect((await db.query('SELECT rig_id FROM source_file WHERE id = $1', [b])).rows).toEqual([{ rig_id: null }]);
 
     // a lab of its own, deleted as a whole: its rigs and files go by cascade, and their samples with them
-    const owner = new Client();
     const email = `sample-owner-${Date.now().toString(36)}@example.test`;
-    expect((await owner.post('/api/auth/sign-up', { email, name: 'Sample Owner', password: 'copper coil over a slow fire', labName: 'Sample Bench' })).status).toBe(201);
-    const signed = await signedIn(email, 'copper coil over a slow fire');
+    const { client: signed } = await createAccount(email, 'copper coil over a slow fire', 'Sample Owner', 'Sample Bench');
     const lab = (await signed.get('/api/me')).body.labs[0];
     const ownRig = (await signed.post(`/api/labs/${lab.id}/rigs`, { name: 'Tank loop', heatSource: 'propane-burner' })).body.rig;
     const d = await importLog(signed, ownRig.id, 'd.csv', 800);
@@ -295,11 +293,8 @@ describe('sensor-log import', () => {
     const { eng, rig } = await setup();
     const file = await upload(eng, rig.id, 'scoped.csv', await makeLog(1000));
     const started = await eng.post(`/api/rigs/${rig.id}/uploads/${file.id}/log-import`, { mapping: MAPPING, preset: 'field' });
-    const other = new Client();
     const email = `elsewhere-${Date.now().toString(36)}@example.test`;
-    const signup = await other.post('/api/auth/sign-up', { email, name: 'Other Lab Tester', password: 'copper coil over a slow fire', labName: 'Other Bench' });
-    expect(signup.status).toBe(201);
-    const outsider = await signedIn(email, 'copper coil over a slow fire');
+    const { client: outsider } = await createAccount(email, 'copper coil over a slow fire', 'Other Lab Tester', 'Other Bench');
     expect((await outsider.get(`/api/jobs/${started.body.job.id}`)).status).toBe(404);
     expect((await outsider.request('DELETE', `/api/jobs/${started.body.job.id}`)).status).toBe(404);
     await finished(eng, started.body.job.id);

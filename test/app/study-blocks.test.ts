@@ -10,7 +10,7 @@ import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { getOrm } from '@/app/_lib/db';
 import { copyPool } from '@/app/_lib/sensor-import';
-import { Client, STRONG_PASSWORD, baseUrl, signedIn, uniqueEmail } from './support/client';
+import { Client, STRONG_PASSWORD, baseUrl, createAccount, signedIn, uniqueEmail } from './support/client';
 import { importGeneratedLog } from './support/sensor-logs';
 
 const db = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 2 });
@@ -192,9 +192,7 @@ describe('block data through a share link', () => {
   test('a signed-in reader starts in their own units and may still switch; a signed-out reader starts in SI', async () => {
     const made = await s.eng.post(`/api/studies/${s.study.id}/shares`, { days: 7 });
     const token = made.body.url.split('/share/')[1];
-    const reader = new Client();
-    const email = uniqueEmail('share-reader');
-    expect((await reader.post('/api/auth/sign-up', { email, name: 'Share Reader', password: STRONG_PASSWORD, labName: 'Reader Bench' })).status).toBe(201);
+    const { client: reader } = await createAccount(uniqueEmail('share-reader'), STRONG_PASSWORD, 'Share Reader', 'Reader Bench');
     expect((await reader.request('PATCH', '/api/me', { unitSystem: 'us' })).status).toBe(200);
     const page = async (c: Client, query = '') => {
       const html = (await c.get(`/share/${token}${query}`)).text;

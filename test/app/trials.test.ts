@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { Client, signedIn } from './support/client';
+import { Client, DEMO_PASSWORD, signedIn } from './support/client';
 
 const GAL_M3 = 3.785411784e-3; // NIST SP 811 App. B.8: 1 US gallon = 3.785411784 L exactly
 
@@ -13,7 +13,7 @@ async function engineerAndRig() {
 describe('trials through the API', () => {
   test('a logger script posts a bucket trial in US units with its token; it is stored in SI', async () => {
     const { eng, lab, rig } = await engineerAndRig();
-    const secret = (await eng.post('/api/tokens', { name: 'trial script', labId: lab.id })).body.secret;
+    const secret = (await eng.post('/api/tokens', { name: 'trial script', labId: lab.id, password: DEMO_PASSWORD })).body.secret;
     const script = new Client();
     script.origin = null;
     script.bearer = secret;

@@ -51,6 +51,10 @@ describe('invitation walk-through in Chromium', () => {
     await p.getByLabel('E-mail').fill(invitee);
     await p.getByLabel('Password', { exact: true }).fill(STRONG_PASSWORD);
     await p.getByRole('button', { name: 'Create account' }).click();
+    await p.getByText(`We sent a message to ${invitee}`).waitFor();
+    const confirm = await waitForMailLink(invitee, /Finish signing up/);
+    await visit(p, confirm.link);
+    await p.getByRole('button', { name: 'Create my account' }).click();
     await p.waitForURL('**/invitations/**');
     await p.getByRole('button', { name: 'Accept and join' }).click();
     await p.waitForURL('**/rigs');
@@ -73,9 +77,9 @@ describe('invitation walk-through in Chromium', () => {
     expect(await p.getByRole('button', { name: 'Send invitation' }).count()).toBe(0);
     expect(await p.getByRole('combobox', { name: /Role of/ }).count()).toBe(0);
     await expect(p.getByRole('heading', { name: 'Your role: reviewer' }).count()).resolves.toBe(1);
-    // Pages stream behind loading.tsx, so a refused page answers with the not-found page itself
-    // (the API routes answer 403/404 statuses; see test/app/authorization-matrix.test.ts).
-    await visit(p, '/lab/audit');
+    // A refused page answers 404 with the not-found page (every page and caller: test/app/authorization/pages.test.ts).
+    const refused = await visit(p, '/lab/audit');
+    expect(refused?.status()).toBe(404);
     await expect(p.getByRole('heading', { level: 1 }).innerText()).resolves.toBe('Nothing here');
     expect(await p.getByText('invitation-sent').count()).toBe(0);
     await visit(p, '/account');

@@ -2,7 +2,7 @@ import { labDto } from '@/app/_lib/dto';
 import { createLab, membershipsOf } from '@/app/_lib/labs';
 import { json, route } from '@/app/_lib/route';
 import { createLabInput } from '@/app/_lib/schemas';
-import { LAB_COOKIE } from '@/app/_lib/session';
+import { setLabCookie } from '@/app/_lib/session';
 
 /** GET: the labs the actor belongs to. */
 export const GET = route({ auth: 'user' }, async (ctx) => {
@@ -17,6 +17,6 @@ export const POST = route({ auth: 'session' }, async (ctx) => {
   const { name } = await ctx.json(createLabInput);
   const lab = await createLab(ctx.em, user, name, ctx.ip);
   const res = json({ lab: { ...labDto(lab), role: 'owner' } }, { status: 201 });
-  res.cookies.set(LAB_COOKIE, lab.id, { httpOnly: true, sameSite: 'lax', secure: ctx.secure, path: '/', maxAge: 365 * 86400 });
+  setLabCookie(res, lab.id);
   return res;
 });

@@ -9,10 +9,10 @@ export const GET = route({ auth: 'session' }, async (ctx) => {
   return json({ tokens: tokens.map(tokenDto) });
 });
 
-/** POST: create a token acting in one lab with the user's role there; the secret is shown once. */
+/** POST: create a token acting in one lab with the user's role there until it expires (the current password is asked again); the secret is shown once. */
 export const POST = route({ auth: 'session' }, async (ctx) => {
-  const { name, labId } = await ctx.json(tokenInput);
+  const { name, labId, password, expiresInDays } = await ctx.json(tokenInput);
   const { lab } = await ctx.requireMember(labId, 'token:manage');
-  const { row, token } = await createToken(ctx.em, ctx.requireActor().user, lab, name, ctx.ip);
+  const { row, token } = await createToken(ctx.em, ctx.requireActor().user, lab, { name, password, expiresInDays }, ctx.ip);
   return json({ token: tokenDto(row), secret: token }, { status: 201 });
 });

@@ -96,6 +96,7 @@ export default async function SavedFitPage({ params }: { params: Promise<{ fitId
           state={row.reviewState}
           canSubmit={v.can('fit:write')}
           canDecide={v.can('review:decide')}
+          ownWork={row.createdBy?.id === v.user.id}
           canComment={v.can('review:comment')}
           comments={trail.comments}
           events={trail.events}

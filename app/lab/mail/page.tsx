@@ -10,9 +10,9 @@ export const dynamic = 'force-dynamic';
 export default async function MailPage() {
   if (!config.demo) notFound();
   const v = await requireLabAction('/lab/mail', 'mail:read');
-  const messages = await labMail(v.em, v.current.lab.id);
+  const messages = await labMail(v.current.lab.id);
   return (
-    <AppPage viewer={v} title="Captured mail" lead="Demo mode: e-mail to this lab's members and invitees is caught by a local fake and shown here instead of being sent.">
+    <AppPage viewer={v} title="Captured mail" lead="Demo mode: the invitations and review notices this lab sent are caught by a local mail fake and shown here instead of being delivered. Mail to a person about their account (sign-up links, password resets) is never shown on a lab page; the terminal running npm start prints it.">
       <div className="space-y-4">
         {messages.map((m) => (
           <article key={m.id} className="card p-5">
@@ -26,7 +26,7 @@ export default async function MailPage() {
             <pre className="mt-2 whitespace-pre-wrap break-words font-sans text-sm text-ink-soft">{m.text}</pre>
           </article>
         ))}
-        {messages.length === 0 ? <p className="text-ink-muted">No messages yet. Invite someone or ask for a password reset.</p> : null}
+        {messages.length === 0 ? <p className="text-ink-muted">No messages yet. Invite someone, or ask for a review.</p> : null}
       </div>
     </AppPage>
   );

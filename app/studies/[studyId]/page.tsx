@@ -9,7 +9,7 @@ import { reviewTrail } from '../../_lib/fits';
 import { modelLabel } from '../../_lib/fit-analysis';
 import { UUID } from '../../_lib/rigs';
 import { sensorLogsOf, studyBlocksData } from '../../_lib/study-blocks';
-import { shareDto, studyDto } from '../../_lib/studies';
+import { shareDto, studyDto, studyOwners } from '../../_lib/studies';
 import { requireLabAction } from '../../_lib/viewer';
 import { StudyEditor } from './editor';
 import { StudyLead } from './lead';
@@ -80,6 +80,7 @@ export default async function StudyPage({ params, searchParams }: { params: Prom
             state={study.reviewState}
             canSubmit={v.can('study:write')}
             canDecide={v.can('review:decide')}
+            ownWork={studyOwners(study).includes(v.user.id)}
             canComment={v.can('review:comment')}
             comments={trail.comments}
             events={trail.events}

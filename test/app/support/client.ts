@@ -1,15 +1,19 @@
 /**
  * A small HTTP client for integration tests against the running app: a cookie jar, our own
- * Origin on every request (as a browser sends it), and its own client address (X-Forwarded-For
- * from the documentation range 203.0.113.0/24) so that per-address rate limits of one test do
- * not spill into another.
+ * Origin on every request (as a browser sends it), and its own client address (X-Forwarded-For,
+ * which `npm test` tells the app to believe as from one proxy: TRUST_PROXY_HOPS=1) so that the
+ * per-address rate limits of one test do not spill into another.
  */
+import { randomBytes } from 'node:crypto';
 import { readdirSync, readFileSync, existsSync } from 'node:fs';
 import path from 'node:path';
 
 export const baseUrl = process.env.EMBERLINE_URL ?? 'http://127.0.0.1:3000';
 export const DEMO_PASSWORD = 'ember-demo-lab-2026';
 
+// Client addresses from the IPv6 documentation prefix (RFC 3849), with a random part per test
+// file, so that no two test files (or runs) ever share an address and its rate limits.
+const addressPrefix = `2001:db8:${randomBytes(2).toString('hex')}:${randomBytes(2).toString('hex')}`;
 let nextAddress = 1;
 
 export interface Reply {
@@ -26,7 +30,7 @@ export class Client {
   origin: string | null = baseUrl;
 
   constructor(ip?: string) {
-    this.ip = ip ?? `203.0.113.${(nextAddress++ % 250) + 1}`;
+    this.ip = ip ?? `${addressPrefix}::${(nextAddress++).toString(16)}`;
   }
 
   async request(method: string, url: string, body?: unknown, headers: Record<string, string> = {}): Promise<Reply> {
@@ -34,8 +38,12 @@ export class Client {
     if (this.origin) h.Origin = this.origin;
     if (this.cookies.size) h.Cookie = [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
     if (this.bearer) h.Authorization = `Bearer ${this.bearer}`;
-    let payload: string | undefined;
-    if (body !== undefined) {
+    let payload: string | Uint8Array<ArrayBuffer> | FormData | undefined;
+    if (body instanceof FormData) payload = body; // fetch sets the multipart boundary
+    else if (body instanceof Uint8Array) {
+      payload = new Uint8Array(body);
+      h['Content-Type'] ??= 'application/octet-stream';
+    } else if (body !== undefined) {
       payload = typeof body === 'string' ? body : JSON.stringify(body);
       h['Content-Type'] ??= 'application/json';
     }
@@ -58,7 +66,7 @@ export class Client {
     return { status: res.status, headers: res.headers, body: parsed, text };
   }
 
-  get = (url: string) => this.request('GET', url);
+  get = (url: string, headers?: Record<string, string>) => this.request('GET', url, undefined, headers);
   post = (url: string, body: unknown = {}) => this.request('POST', url, body);
 
   async signIn(email: string, password = DEMO_PASSWORD): Promise<Reply> {
@@ -102,4 +110,19 @@ export async function waitForMailLink(address: string, subject: RegExp): Promise
     await new Promise((r) => setTimeout(r, 100));
   }
   throw new Error(`no mail to ${address} matching ${subject}`);
+}
+
+/**
+ * Makes an account the way a person does: sign up (the answer is 202 either way), follow the link
+ * mailed to the address, confirm. Returns the client, signed in, and the new lab's id.
+ */
+export async function createAccount(email: string, password = STRONG_PASSWORD, name = 'Test Person', labName?: string, client = new Client()): Promise<{ client: Client; labId: string }> {
+  const r = await client.post('/api/auth/sign-up', { email, name, password, ...(labName ? { labName } : {}) });
+  if (r.status !== 202) throw new Error(`sign-up of ${email}: ${r.status} ${r.text}`);
+  const { link } = await waitForMailLink(email, /finish signing up/i);
+  const token = new URL(link).searchParams.get('token')!;
+  const done = await client.post('/api/auth/sign-up/confirm', { token });
+  if (done.status !== 201) throw new Error(`sign-up confirmation of ${email}: ${done.status} ${done.text}`);
+  const me = await client.get('/api/me');
+  return { client, labId: me.body.labs[0].id as string };
 }

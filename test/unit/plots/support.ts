@@ -6,21 +6,11 @@
 import * as Plot from '@observablehq/plot';
 import { parseHTML } from 'linkedom';
 import { fitModel, type FitSuccess } from '../../../analysis/fit';
+import { seededNormals } from '../../support/seeded-normals';
+
+export { seededNormals };
 
 export const LPM = 1 / 60000; // m³/s per L/min
-
-/** Deterministic N(0, 1) draws (mulberry32 + Box–Muller), so every run sees the same trials. */
-export function seededNormals(seed: number, n: number): number[] {
-  let a = seed >>> 0;
-  const next = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return Array.from({ length: n }, () => Math.sqrt(-2 * Math.log(1 - next())) * Math.cos(2 * Math.PI * next()));
-}
 
 export const coilOutletC = (m3PerS: number) => 90 - (90 - 20) * Math.exp(-500 / (1000 * m3PerS * 4186));
 

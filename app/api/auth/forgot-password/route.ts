@@ -5,6 +5,6 @@ import { forgotInput } from '@/app/_lib/schemas';
 /** POST: send a reset link if the address has an account. The answer is the same either way. */
 export const POST = route({ auth: 'public' }, async (ctx) => {
   const { email } = await ctx.json(forgotInput);
-  await requestReset(ctx.em, email, ctx.ip, ctx.origin);
+  await requestReset(ctx.em, email, ctx.ip);
   return json({ ok: true, message: 'If that address has an account, a reset link is on its way. It works once, for one hour.' });
 });

@@ -7,5 +7,5 @@ import { resetInput } from '@/app/_lib/schemas';
 export const POST = route({ auth: 'public' }, async (ctx) => {
   const { token, password } = await ctx.json(resetInput);
   const user = await resetPassword(ctx.em, token, password, ctx.ip);
-  return signedIn(ctx.em, user, ctx.req.headers.get('user-agent') ?? '', ctx.secure);
+  return signedIn(ctx.em, user, ctx.req.headers.get('user-agent') ?? '');
 });

@@ -7,5 +7,5 @@ import { signInInput } from '@/app/_lib/schemas';
 export const POST = route({ auth: 'public' }, async (ctx) => {
   const { email, password } = await ctx.json(signInInput);
   const user = await signIn(ctx.em, email, password, ctx.ip);
-  return signedIn(ctx.em, user, ctx.req.headers.get('user-agent') ?? '', ctx.secure);
+  return signedIn(ctx.em, user, ctx.req.headers.get('user-agent') ?? '');
 });

@@ -8,5 +8,5 @@ export const POST = route({ auth: 'session' }, async (ctx) => {
   const { user } = ctx.requireActor();
   await endAllSessions(ctx.em, user);
   await audit(ctx.em, { kind: 'sign-out-everywhere', actor: user, subject: user.email, ip: ctx.ip });
-  return signedOut(ctx.secure);
+  return signedOut();
 });

@@ -8,5 +8,5 @@ export const POST = route({ auth: 'session' }, async (ctx) => {
   const actor = ctx.requireActor();
   await ctx.em.nativeUpdate(Session, { id: actor.sessionId }, { revokedAt: new Date() });
   await audit(ctx.em, { kind: 'sign-out', actor: actor.user, subject: actor.user.email, ip: ctx.ip });
-  return signedOut(ctx.secure);
+  return signedOut();
 });

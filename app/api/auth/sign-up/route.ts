@@ -1,11 +1,13 @@
-import { signUp } from '@/app/_lib/accounts';
-import { signedIn } from '@/app/_lib/auth-responses';
-import { route } from '@/app/_lib/route';
+import { SIGN_UP_SENT, signUp } from '@/app/_lib/accounts';
+import { json, route } from '@/app/_lib/route';
 import { signUpInput } from '@/app/_lib/schemas';
 
-/** POST: create an account and its first lab, then sign in. */
+/**
+ * POST: start a sign-up. The answer is the same (202) whether or not the address has an account:
+ * the mail to it either carries the link that makes the account or says that it exists.
+ */
 export const POST = route({ auth: 'public' }, async (ctx) => {
   const input = await ctx.json(signUpInput);
-  const user = await signUp(ctx.em, input, ctx.ip);
-  return signedIn(ctx.em, user, ctx.req.headers.get('user-agent') ?? '', ctx.secure, 201);
+  await signUp(ctx.em, input, ctx.ip);
+  return json({ ok: true, message: SIGN_UP_SENT(input.email) }, { status: 202 });
 });

@@ -2,6 +2,7 @@ import { Readable } from 'node:stream';
 import { SourceFile } from '@/entities';
 import { notFound } from '@/app/_lib/errors';
 import { UUID } from '@/app/_lib/rigs';
+import { audit } from '@/app/_lib/audit';
 import { route } from '@/app/_lib/route';
 import { getObjectStream } from '@/app/_lib/storage';
 
@@ -14,6 +15,8 @@ export const GET = route<{ fileId: string }>({ auth: 'user' }, async (ctx) => {
   await ctx.requireMember(file.lab.id, 'lab:read');
   const body = Readable.toWeb(await getObjectStream(file.storageKey)) as ReadableStream<Uint8Array>;
   const inline = file.purpose === 'photo';
+  // raw files leaving the app are recorded; rig photos shown on pages are not
+  if (!inline) await audit(ctx.em, { kind: 'file-downloaded', actor: ctx.requireActor().user, lab: file.lab.id, subject: file.filename, ip: ctx.ip });
   return new Response(body, {
     headers: {
       'Content-Type': inline ? file.contentType : 'application/octet-stream',

@@ -1,12 +1,12 @@
 import { labDto } from '@/app/_lib/dto';
 import { acceptInvitation } from '@/app/_lib/labs';
 import { json, route } from '@/app/_lib/route';
-import { LAB_COOKIE } from '@/app/_lib/session';
+import { setLabCookie } from '@/app/_lib/session';
 
 /** POST: accept an invitation as the signed-in user (the invited address only). */
 export const POST = route<{ token: string }>({ auth: 'session' }, async (ctx) => {
   const m = await acceptInvitation(ctx.em, ctx.params.token, ctx.requireActor().user, ctx.ip);
   const res = json({ lab: { ...labDto(m.lab), role: m.role } });
-  res.cookies.set(LAB_COOKIE, m.lab.id, { httpOnly: true, sameSite: 'lax', secure: ctx.secure, path: '/', maxAge: 365 * 86400 });
+  setLabCookie(res, m.lab.id);
   return res;
 });

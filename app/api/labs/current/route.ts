@@ -1,13 +1,13 @@
 import { labDto } from '@/app/_lib/dto';
 import { json, route } from '@/app/_lib/route';
 import { switchLabInput } from '@/app/_lib/schemas';
-import { LAB_COOKIE } from '@/app/_lib/session';
+import { setLabCookie } from '@/app/_lib/session';
 
 /** POST: make one of the user's labs the current one (the lab switcher). */
 export const POST = route({ auth: 'session' }, async (ctx) => {
   const { labId } = await ctx.json(switchLabInput);
   const { lab, role } = await ctx.requireMember(labId, 'lab:read');
   const res = json({ lab: { ...labDto(lab), role } });
-  res.cookies.set(LAB_COOKIE, lab.id, { httpOnly: true, sameSite: 'lax', secure: ctx.secure, path: '/', maxAge: 365 * 86400 });
+  setLabCookie(res, lab.id);
   return res;
 });

@@ -1,6 +1,7 @@
 import { ShareLink } from '@/entities';
 import { notFound } from '@/app/_lib/errors';
 import { UUID } from '@/app/_lib/rigs';
+import { audit } from '@/app/_lib/audit';
 import { json, route } from '@/app/_lib/route';
 import { shareDto } from '@/app/_lib/studies';
 
@@ -11,7 +12,10 @@ export const DELETE = route<{ shareId: string }>({ auth: 'session' }, async (ctx
   const link = await ctx.em.findOne(ShareLink, { id: ctx.params.shareId });
   if (!link) throw notFound();
   await ctx.requireMember(link.lab.id, 'share:manage');
-  link.revokedAt ??= new Date();
+  if (!link.revokedAt) {
+    link.revokedAt = new Date();
+    await audit(ctx.em, { kind: 'share-revoked', actor: ctx.requireActor().user, lab: link.lab, subject: `share link ${link.id} of study ${link.study.id}`, ip: ctx.ip }, false);
+  }
   await ctx.em.flush();
   return json({ share: shareDto(link) });
 });

@@ -2,17 +2,17 @@ import { loadFit } from '@/app/_lib/fit-access';
 import { review, reviewInput } from '@/app/_lib/fits';
 import { json, route } from '@/app/_lib/route';
 
-/** POST: submit for review (authors), approve or request changes (reviewers and owners). */
+/** POST: submit for review (authors), approve or request changes (reviewers and owners, never the fit's author). */
 export const POST = route<{ fitId: string }>({ auth: 'session' }, async (ctx) => {
   const { fit, member } = await loadFit(ctx, 'lab:read');
   const input = await ctx.json(reviewInput);
   const state = await review(
     ctx.em,
-    { kind: 'fit', id: fit.id, title: `${fit.title} v${fit.version}`, lab: member.lab, reviewState: fit.reviewState, authorId: fit.createdBy?.id ?? null, link: `/fits/${fit.id}` },
+    { kind: 'fit', id: fit.id, title: `${fit.title} v${fit.version}`, lab: member.lab, reviewState: fit.reviewState, authorId: fit.createdBy?.id ?? null, ownerIds: fit.createdBy ? [fit.createdBy.id] : [], link: `/fits/${fit.id}` },
     ctx.requireActor().user,
     member.role,
     input,
-    ctx.origin,
+    ctx.ip,
   );
   fit.reviewState = state;
   await ctx.em.flush();

@@ -15,6 +15,6 @@ export const GET = route<P>({ auth: 'session', labAction: 'member:manage' }, asy
 /** POST: invite an e-mail address with a role; the link is mailed, valid 7 days, single use. */
 export const POST = route<P>({ auth: 'session', labAction: 'member:manage' }, async (ctx) => {
   const { email, role } = await ctx.json(inviteInput);
-  const inv = await invite(ctx.em, ctx.member!.lab, ctx.requireActor().user, email, role, ctx.ip, ctx.origin);
+  const inv = await invite(ctx.em, ctx.member!.lab, ctx.requireActor().user, email, role, ctx.ip);
   return json({ invitation: invitationDto(inv) }, { status: 201 });
 });

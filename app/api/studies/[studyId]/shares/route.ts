@@ -1,4 +1,5 @@
 import { ShareLink } from '@/entities';
+import { audit } from '@/app/_lib/audit';
 import { json, route } from '@/app/_lib/route';
 import { createShare, loadStudy, shareDto, shareInput } from '@/app/_lib/studies';
 
@@ -16,5 +17,6 @@ export const POST = route<P>({ auth: 'session' }, async (ctx) => {
   const { study } = await loadStudy(ctx, 'share:manage');
   const { days } = await ctx.json(shareInput);
   const { link, token } = await createShare(ctx.em, study, ctx.requireActor().user, days);
+  await audit(ctx.em, { kind: 'share-created', actor: ctx.requireActor().user, lab: study.lab, subject: `study "${study.title}" for ${days} days`.slice(0, 300), ip: ctx.ip });
   return json({ share: shareDto(link), url: `${ctx.origin}/share/${token}` }, { status: 201 });
 });
