@@ -68,7 +68,10 @@ function exposure(c: number): string {
 function theWater(where: string): string {
   const w = where.trim();
   const named = /^(the|this|that|a|an)\b/i.test(w) ? w : `the ${w}`;
-  return /\bwater\b/i.test(w) ? named : `${named} water`;
+  if (/\bwater\b/i.test(w)) return named;
+  // 'planned outlet (upper prediction bound)' → 'the planned outlet water (upper prediction bound)'
+  const paren = /^(.*?\S)\s*(\([^()]*\))$/.exec(named);
+  return paren ? `${paren[1]} water ${paren[2]}` : `${named} water`;
 }
 
 /** First letter up, for a `where` that starts a sentence. */

@@ -132,7 +132,7 @@ function callerPlaces(): string[] {
   walk(join(root, 'app'));
   const places = new Set<string>();
   const patterns = [
-    /temperatureCautions\([^,()]+(?:\([^()]*\))?[^,()]*,\s*'([^']+)'\)/g,
+    /temperatureCautions\([^;']*?,\s*'([^']+)'(?:,\s*\w+)?\)/g,
     /deadHeadingCaution\('([^']+)'\)/g,
     /\{\s*where:\s*'([^']+)'\s*,\s*valuesC/g,
   ];
@@ -146,7 +146,7 @@ function callerPlaces(): string[] {
 describe('caution wording', () => {
   const places = callerPlaces();
   test('the callers were found (outlet, pool, tub, coil water, mixed water, dead-heading places)', () => {
-    expect(places).toEqual(expect.arrayContaining(['outlet', 'pool', 'tub', 'coil water', 'mixed water', 'zero flow', 'this trial', 'the fill']));
+    expect(places).toEqual(expect.arrayContaining(['outlet', 'pool', 'tub', 'coil water', 'mixed water', 'planned outlet (upper prediction bound)', 'zero flow', 'this trial', 'the fill', 'logged outlet', 'sample outlet']));
   });
   test('no template doubles a word with any place the code base passes ("the mixed water water")', () => {
     const messages = places.flatMap((w) => [
@@ -159,6 +159,7 @@ describe('caution wording', () => {
   test('a place that names the water is not given a second "water"; one that does not, is', () => {
     expect(temperatureCautions(50, 'mixed water')[0].message).toMatch(/^The mixed water reaches/);
     expect(temperatureCautions(50, 'outlet')[0].message).toMatch(/^The outlet water reaches/);
+    expect(temperatureCautions(50, 'planned outlet (upper prediction bound)')[0].message).toMatch(/^The planned outlet water \(upper prediction bound\) reaches/);
   });
 });
 
