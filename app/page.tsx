@@ -3,9 +3,14 @@ import * as Plot from '@observablehq/plot';
 import { SiteHeader } from './_components/site-header';
 import { plotToSvg } from './_lib/plot-svg';
 import { sampleCoilData } from './_lib/sample-curve';
+import { HAZARD_BANDS } from '@/analysis/safety/cautions';
+import { TemperatureCautions } from './_components/safety-notice';
 
 function SamplePlot() {
   const { curve, points, tin } = sampleCoilData();
+  // the caution thresholds inside the plotted range, with their words (analysis/safety)
+  const lines = HAZARD_BANDS.filter((b) => b.thresholdC >= 10 && b.thresholdC <= 90)
+    .map((b) => ({ y: b.thresholdC, text: `${b.short} ${b.thresholdC} °C`, stroke: b.level === 'danger' ? '#9B1C13' : '#7A4B00' }));
   const svg = plotToSvg({
     width: 640,
     height: 340,
@@ -17,6 +22,10 @@ function SamplePlot() {
     marks: [
       Plot.areaY(curve, { x: 'q', y1: 'lo', y2: 'hi', fill: '#F8A066', fillOpacity: 0.28 }),
       Plot.lineY(curve, { x: 'q', y: 't', stroke: '#B84E0C', strokeWidth: 2.5 }),
+      ...lines.flatMap((l) => [
+        Plot.ruleY([l.y], { stroke: l.stroke, strokeDasharray: '6 3', strokeWidth: 1.25 }),
+        Plot.text([l], { y: 'y', text: 'text', fill: l.stroke, frameAnchor: 'right', textAnchor: 'end', dx: -4, dy: -7 }),
+      ]),
       Plot.ruleY([tin], { stroke: '#0F6E73', strokeDasharray: '4 4' }),
       Plot.text([{ x: 23.5, y: tin + 3 }], { x: 'x', y: 'y', text: () => 'inlet 18 °C', fill: '#0F6E73', textAnchor: 'end' }),
       Plot.dot(points, { x: 'q', y: 't', r: 4.5, fill: '#241E1B', stroke: 'white', strokeWidth: 1.5 }),
@@ -28,7 +37,11 @@ function SamplePlot() {
       <figcaption className="mt-2 text-sm text-ink-muted">
         Invented sample: eleven bucket trials of a coil over a fire, the fitted constant-source model and its 95 %
         prediction band. Heat delivered keeps rising with flow toward a ceiling of UA·(Ts − Tin) — no false optimum.
+        Dashed lines mark the caution thresholds: {lines.map((l) => l.text).join(', ')}.
       </figcaption>
+      <div className="mt-3">
+        <TemperatureCautions label="Cautions for the sample" places={[{ where: 'sample outlet', valuesC: points.map((p) => p.t) }]} />
+      </div>
     </figure>
   );
 }

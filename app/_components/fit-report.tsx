@@ -4,6 +4,7 @@
  * and its verdict, the recommended and minimum flows, the performance table and cautions.
  * Plain components without hooks, so both sides can render them.
  */
+import { TempValue } from './safety-notice';
 import { dtOut, dtUnit, flowOut, flowUnit, tempOut, tempUnit, type Units } from './units';
 
 type Num = number | null | undefined;
@@ -175,7 +176,7 @@ export function FlowChoice({ choice, units }: { choice: ChoiceView; units: Units
   return (
     <div className="space-y-3 text-sm">
       <p>
-        For an inlet of <span className="num">{f(tempOut(choice.inletTempC, units), 1)} {tempUnit(units)}</span>:
+        For an inlet of <span className="num"><TempValue c={choice.inletTempC} units={units} withUnit /></span>:
       </p>
       {choice.ceiling ? (
         <p className="rounded-lg bg-ember-50 px-3 py-2 text-ink">
@@ -233,7 +234,7 @@ export function PerformanceTableView({ table, units }: { table: PerformanceView;
     <div className="overflow-x-auto">
       <table className="data-table">
         <caption className="py-1 text-left text-sm font-semibold text-ink">
-          Performance at an inlet of {f(tempOut(table.inletTempC, units), 1)} {tempUnit(units)} (95 % prediction intervals)
+          Performance at an inlet of <TempValue c={table.inletTempC} units={units} withUnit /> (95 % prediction intervals)
         </caption>
         <thead>
           <tr>
@@ -249,7 +250,7 @@ export function PerformanceTableView({ table, units }: { table: PerformanceView;
             <tr key={r.flowM3PerS} className={r.extrapolated ? 'text-ink-muted' : ''}>
               <td className="num text-right">{f(flowOut(r.flowM3PerS, units), 2)}</td>
               <td className="num text-right">
-                {f(tempOut(r.outletTempC, units), 1)} <span className="text-xs">({f(tempOut(r.outletPiC[0], units), 1)}–{f(tempOut(r.outletPiC[1], units), 1)})</span>
+                <TempValue c={r.outletTempC} units={units} /> <span className="text-xs">({f(tempOut(r.outletPiC[0], units), 1)}–{f(tempOut(r.outletPiC[1], units), 1)})</span>
               </td>
               <td className="num text-right">{f(dtOut(r.deltaTK, units), 1)}</td>
               <td className="num text-right">{kw(r.heatW, units)}</td>
@@ -262,21 +263,5 @@ export function PerformanceTableView({ table, units }: { table: PerformanceView;
         <p key={n} className="mt-2 text-sm text-ink-muted">{n}</p>
       ))}
     </div>
-  );
-}
-
-/** Cautions, worst first, once each. */
-export function Cautions({ cautions }: { cautions: { code: string; level: string; message: string }[] }) {
-  const seen = new Set<string>();
-  const list = cautions.filter((c) => !seen.has(c.code) && seen.add(c.code)).sort((a, b) => (a.level === 'danger' ? -1 : 0) - (b.level === 'danger' ? -1 : 0));
-  if (!list.length) return null;
-  return (
-    <ul className="space-y-2" aria-label="Cautions">
-      {list.map((c) => (
-        <li key={c.code} className={`rounded-lg border px-3 py-2 text-sm ${c.level === 'danger' ? 'border-danger-line bg-danger-bg text-danger-text' : 'border-caution-line bg-caution-bg text-caution-text'}`}>
-          {c.message}
-        </li>
-      ))}
-    </ul>
   );
 }

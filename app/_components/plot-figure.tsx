@@ -2,6 +2,8 @@
 
 import type { PlotOptions } from '@observablehq/plot';
 import { useEffect, useId, useRef, useState } from 'react';
+import type { CautionLike } from '@/analysis/safety/cautions';
+import { CautionList } from './safety-notice';
 
 /** Props of {@link PlotFigure}. */
 export interface PlotFigureProps {
@@ -20,6 +22,8 @@ export interface PlotFigureProps {
    */
   options?: PlotOptions;
   className?: string;
+  /** the cautions of the temperatures the plot shows, listed under it (one per hazard and place) */
+  cautions?: readonly CautionLike[];
 }
 
 const SVG_NS = 'http://www.w3.org/2000/svg';
@@ -82,7 +86,7 @@ function saveBlob(blob: Blob, name: string) {
  * with Observable Plot in the browser, a figcaption with the summary, and "Download SVG" and
  * "Download PNG" buttons (both files are made in the browser when clicked).
  */
-export function PlotFigure({ svg, summary, title, filename, options, className }: PlotFigureProps) {
+export function PlotFigure({ svg, summary, title, filename, options, className, cautions }: PlotFigureProps) {
   const liveRef = useRef<HTMLDivElement>(null);
   const [liveSvg, setLiveSvg] = useState<string | null>(null);
   const captionId = useId();
@@ -140,6 +144,11 @@ export function PlotFigure({ svg, summary, title, filename, options, className }
       <figcaption id={captionId} className="mt-2 text-sm text-ink-muted">
         <span className="font-semibold text-ink">{title}.</span> {summary}
       </figcaption>
+      {cautions?.length ? (
+        <div className="mt-3">
+          <CautionList cautions={cautions} label={`Cautions for ${title.charAt(0).toLowerCase()}${title.slice(1)}`} />
+        </div>
+      ) : null}
       <p className="mt-2 flex flex-wrap gap-2 print:hidden">
         {/* made on click: a data URL in the page would carry the whole SVG a second time (URL-encoded) */}
         <button type="button" className="btn-quiet" onClick={() => saveBlob(new Blob([current], { type: 'image/svg+xml;charset=utf-8' }), download)}>

@@ -6,19 +6,19 @@
  */
 import type { ChoiceView, ComparisonView, FitView, PerformanceView } from './fit-report';
 import type { Units } from './units';
+import type { CautionLike } from '@/analysis/safety/cautions';
 
 /** A plot as the server rendered it (plotToSvg) with the words of its figcaption. */
 export interface PlotView {
   title: string;
   summary: string;
   svg: string;
+  /** the cautions of the temperatures the plot shows (absent when none reaches 40 °C) */
+  cautions?: CautionView[];
 }
 
-export interface CautionView {
-  code: string;
-  level: string;
-  message: string;
-}
+/** A caution as blocks carry it (JSON of analysis/safety's Caution). */
+export type CautionView = CautionLike;
 
 /** The saved fit a block shows; `fitId` is null on the public share view (no links into the lab). */
 export interface FitHead {

@@ -2,11 +2,12 @@
 
 import type { ReactNode } from 'react';
 import { ApiError } from './api';
-import { Cautions, ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTableView } from './fit-report';
+import { ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTableView } from './fit-report';
 import { PlotFigure } from './plot-figure';
+import { CautionList, TempValue, TemperatureCautions } from './safety-notice';
 import { StateBadge } from './review-panel';
 import { sharedBlockKey, studyBlockKey, type BlockBody, type BlockData, type CostView, type FitHead } from './study-block-types';
-import { dtOut, dtUnit, flowOut, flowUnit, tempOut, tempUnit, volOut, volUnit, type Units } from './units';
+import { dtOut, dtUnit, flowOut, flowUnit, tempUnit, volOut, volUnit, type Units } from './units';
 import { useStudy } from './use-study';
 import { useStudyBlock } from './use-study-block';
 
@@ -90,10 +91,10 @@ export function BlockView({ block }: { block: BlockData }) {
       return (
         <div className="space-y-3">
           <p className="text-sm">
-            Final <span className="num">{tempOut(b.finalTempC, units).toFixed(1)} {tempUnit(units)}</span>
+            Final <span className="num"><TempValue c={b.finalTempC} units={units} withUnit /></span>
             {b.hoursToTarget != null ? <>, target reached after <span className="num">{b.hoursToTarget.toFixed(1)} h</span></> : null}. {b.fitNote}
           </p>
-          <Cautions cautions={b.cautions} />
+          <CautionList cautions={b.cautions} />
           <PlotFigure {...b.plot} filename="forecast" />
         </div>
       );
@@ -119,7 +120,7 @@ export function BlockView({ block }: { block: BlockData }) {
         <div className="space-y-3">
           <Head head={b.head} />
           <PerformanceTableView table={b.table} units={units} />
-          <Cautions cautions={b.table.cautions} />
+          <CautionList cautions={b.table.cautions} />
         </div>
       );
     case 'trials':
@@ -140,12 +141,15 @@ export function BlockView({ block }: { block: BlockData }) {
                 <tr key={i}>
                   <td className="num">{t.startedAt.slice(0, 16).replace('T', ' ')}</td>
                   <td className="num text-right">{flowOut(t.flowM3PerS, units).toFixed(2)}</td>
-                  <td className="num text-right">{tempOut(t.inletC, units).toFixed(1)}</td>
-                  <td className="num text-right">{tempOut(t.outletC, units).toFixed(1)}</td>
+                  <td className="num text-right"><TempValue c={t.inletC} units={units} /></td>
+                  <td className="num text-right"><TempValue c={t.outletC} units={units} /></td>
                 </tr>
               ))}
             </tbody>
           </table>
+          <div className="mt-3">
+            <TemperatureCautions units={units} label="Cautions for these trials" places={[{ where: 'outlet', valuesC: b.trials.map((t) => t.outletC) }, { where: 'inlet', valuesC: b.trials.map((t) => t.inletC) }]} />
+          </div>
         </div>
       );
     case 'costs':
@@ -188,13 +192,16 @@ export function BlockView({ block }: { block: BlockData }) {
                       <td className="num">{new Date(Date.parse(b.startedAt) + s.startS * 1000).toISOString().slice(11, 19)}</td>
                       <td className="num text-right">{((s.endS - s.startS) / 60).toFixed(1)}</td>
                       <td className="num text-right">{flowOut(s.flowM3PerS, units).toFixed(2)}</td>
-                      <td className="num text-right">{tempOut(s.inletC, units).toFixed(1)}</td>
-                      <td className="num text-right">{tempOut(s.outletC, units).toFixed(1)}</td>
+                      <td className="num text-right"><TempValue c={s.inletC} units={units} /></td>
+                      <td className="num text-right"><TempValue c={s.outletC} units={units} /></td>
                       <td className="num text-right">{dtOut(s.outletC - s.inletC, units).toFixed(1)}</td>
                     </tr>
                   ))}
                 </tbody>
               </table>
+              <div className="mt-3">
+                <TemperatureCautions units={units} label="Cautions for these segments" places={[{ where: 'outlet', valuesC: b.segments.map((s) => s.outletC) }, { where: 'inlet', valuesC: b.segments.map((s) => s.inletC) }]} />
+              </div>
             </div>
           ) : (
             <p className="text-sm text-ink-muted">No steady segment in this log.</p>

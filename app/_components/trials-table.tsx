@@ -3,7 +3,8 @@
 import { useState } from 'react';
 import { api, ApiError } from './api';
 import { DEFAULT_TRIAL_QUERY, useTrials, type TrialQuery, type TrialRowDto } from './use-trials';
-import { dtOut, dtUnit, flowOut, flowUnit, tempOut, tempUnit, type Units } from './units';
+import { TempValue, TemperatureCautions } from './safety-notice';
+import { dtOut, dtUnit, flowOut, flowUnit, tempUnit, type Units } from './units';
 
 const fmt = (v: number, d: number) => v.toFixed(d);
 
@@ -85,6 +86,13 @@ export function TrialsTable({ rigId, units, canWrite }: { rigId: string; units: 
         ) : null}
       </div>
       {error ? <p role="alert" className="rounded-lg border border-danger-line bg-danger-bg px-3 py-2 text-sm text-danger-text">{error}</p> : null}
+      <TemperatureCautions units={units}
+        label="Cautions for these trials"
+        places={[
+          { where: 'outlet', valuesC: [data?.hottest?.outletC, ...rows.map((r) => r.outletC)] },
+          { where: 'inlet', valuesC: [data?.hottest?.inletC, ...rows.map((r) => r.inletC)] },
+        ]}
+      />
       <div className="card overflow-x-auto" aria-busy={isLoading}>
         <table className="data-table">
           <thead>
@@ -130,15 +138,16 @@ export function TrialsTable({ rigId, units, canWrite }: { rigId: string; units: 
                   {t.excluded ? <span className="ml-2 rounded bg-white px-1.5 py-0.5 text-xs text-ink-muted ring-1 ring-paper-line">excluded</span> : null}
                 </td>
                 <td className="num text-right">{fmt(flowOut(t.flowM3PerS, units), 2)}</td>
-                <td className="num text-right">{fmt(tempOut(t.inletC, units), 1)}</td>
-                <td className="num text-right">{fmt(tempOut(t.outletC, units), 1)}</td>
+                <td className="num text-right"><TempValue c={t.inletC} units={units} /></td>
+                <td className="num text-right"><TempValue c={t.outletC} units={units} /></td>
                 <td className="num text-right">{fmt(dtOut(t.outletC - t.inletC, units), 1)}</td>
                 <td className="min-w-[14rem] text-sm">
                   {t.isReference ? <span className="mr-1 rounded bg-water-50 px-1.5 py-0.5 text-xs font-medium text-water-800">reference</span> : null}
                   {t.origin === 'log-segment' ? <span title={`A steady period of a sensor log, from line ${t.sourceLine ?? '?'}`} className="mr-1 rounded bg-paper-deep px-1.5 py-0.5 text-xs text-ink-soft">logged</span> : null}
                   {t.warnings.map((w) => (
                     <span key={w} title={w} className="mr-1 rounded bg-caution-bg px-1.5 py-0.5 text-xs text-caution-text">
-                      check
+                      <span aria-hidden="true">check</span>
+                      <span className="sr-only">Check: {w}</span>
                     </span>
                   ))}
                   {canWrite ? (

@@ -20,6 +20,15 @@ export interface TrialRowDto {
   warnings: string[];
 }
 
+/** One page of a rig's trials, with the hottest inlet and outlet (°C) of all trials matching the query. */
+export interface TrialPage {
+  trials: TrialRowDto[];
+  total: number;
+  page: number;
+  pageSize: number;
+  hottest?: { inletC: number | null; outletC: number | null };
+}
+
 export interface TrialQuery {
   page: number;
   pageSize: number;
@@ -39,5 +48,5 @@ export function trialsKey(rigId: string, q: TrialQuery): string {
 }
 
 export function useTrials(rigId: string, q: TrialQuery) {
-  return useSWR<{ trials: TrialRowDto[]; total: number; page: number; pageSize: number }>(trialsKey(rigId, q), fetcher, { keepPreviousData: true });
+  return useSWR<TrialPage>(trialsKey(rigId, q), fetcher, { keepPreviousData: true });
 }

@@ -84,7 +84,7 @@ export function fitData(trials: TrialRow[]) {
   };
 }
 
-const svgOf = (f: PlotFigure) => ({ title: f.title, summary: f.summary, svg: plotToSvg(f.options) });
+const svgOf = (f: PlotFigure) => ({ title: f.title, summary: f.summary, svg: plotToSvg(f.options), ...(f.cautions?.length ? { cautions: f.cautions } : {}) });
 
 /** Everything the fit page shows, computed on the server from the stored trials. */
 export async function analyze(em: EntityManager, rig: RigRow, input: AnalyzeInput, units: UnitSystem) {
@@ -98,7 +98,7 @@ export async function analyze(em: EntityManager, rig: RigRow, input: AnalyzeInpu
   const planInletC = input.planInletC ?? Math.round(meanTin * 10) / 10;
   const labels = used.map((t) => t.startedAt.toISOString().slice(0, 16).replace('T', ' '));
   const excludedPts = excluded.map((t) => ({ flowM3PerS: t.flowM3PerS, outletC: t.outletC, label: 'excluded' }));
-  let plots: Record<string, { title: string; summary: string; svg: string }> = {};
+  let plots: Record<string, { title: string; summary: string; svg: string; cautions?: PlotFigure['cautions'] }> = {};
   let choice = null;
   let performance = null;
   const primary = okFits[0]?.fit;

@@ -81,7 +81,19 @@ const rowsView = (r: TrialSheetResult, limit = 500) => ({
   notices: r.notices,
   issues: r.rows.flatMap((x) => x.issues).slice(0, limit),
   preview: r.rows.slice(0, 8).map((x) => (x.ok ? { line: x.line, ok: true, row: x.row } : { line: x.line, ok: false })),
+  hottest: hottestRows(r),
 });
+
+/** The hottest inlet and outlet of the rows that can be imported (°C, with the outlet's line), for the cautions of the check. */
+function hottestRows(r: TrialSheetResult): { inletC: number | null; outletC: number | null; outletLine: number | null } {
+  let inletC: number | null = null, outletC: number | null = null, outletLine: number | null = null;
+  for (const x of r.rows) {
+    if (!x.ok) continue;
+    if (inletC === null || x.row.inletTempC > inletC) inletC = x.row.inletTempC;
+    if (outletC === null || x.row.outletTempC > outletC) { outletC = x.row.outletTempC; outletLine = x.line; }
+  }
+  return { inletC, outletC, outletLine };
+}
 
 const logHeadView = (log: SensorLog) => ({
   accepted: log.n,

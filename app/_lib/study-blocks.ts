@@ -10,6 +10,7 @@ import { CostInputError, costView } from './cost-block';
 import { modelLabel } from './fit-analysis';
 import { forecast } from './forecasts';
 import { renderMarkdown } from './markdown';
+import { STANDING_NOTICE } from '@/analysis/safety/standing-notice';
 import { plotToSvg } from './plot-svg';
 import { DISPLAY_MAX_POINTS, reduceForDisplay } from '@/analysis/reduce';
 import { fitCurveInputFromFits, fitCurvePlot, timeSeriesSegmentsPlot, type FitCurveTrial, type PlotFigure } from './plots';
@@ -23,13 +24,8 @@ import { ensureSensorOverview } from './sensor-overview';
  * The public view (a share link) never carries links into the lab, member names or raw files.
  */
 
-/** The standing cautions of every caution block (DOMAIN.md §5; our wording). */
-export const STANDING_CAUTIONS = [
-  'Emberline is an analysis aid, not a design approval: local codes, inspectors and licensed professionals have the final word.',
-  'Hot water burns in seconds above 60 °C (140 °F); keep water people touch below 49 °C (120 °F) and spas at or below 40 °C (104 °F).',
-  'Never heat a coil that cannot vent; start the flow before lighting and keep it until the coil is cold. Never run a pump against a closed valve.',
-  'Fuel-burning equipment makes carbon monoxide: outdoors only, away from openings, with a CO alarm nearby. Electrical equipment near a pool needs GFCI protection.',
-];
+/** The standing cautions of every caution block: the standing notice (analysis/safety/standing-notice.ts). */
+export const STANDING_CAUTIONS = STANDING_NOTICE;
 
 export interface BlockContext {
   em: EntityManager;
@@ -51,7 +47,7 @@ interface StoredFitResult {
 }
 
 const FIT_KINDS = new Set(['fit', 'comparison', 'performance', 'trials']);
-const plotView = (f: PlotFigure): PlotView => ({ title: f.title, summary: f.summary, svg: plotToSvg(f.options) });
+const plotView = (f: PlotFigure): PlotView => ({ title: f.title, summary: f.summary, svg: plotToSvg(f.options), ...(f.cautions?.length ? { cautions: f.cautions } : {}) });
 
 /** The saved fits the given blocks point at (lab-scoped), by id. */
 export async function blockFits(em: EntityManager, lab: LabRow, blocks: readonly StudyBlock[]): Promise<Map<string, FitRow>> {

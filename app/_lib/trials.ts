@@ -1,5 +1,5 @@
 import 'server-only';
-import type { EntityManager } from '@mikro-orm/postgresql';
+import { raw, type EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
 import { Trial, TrialChange, type RigRow, type TrialRow, type UserRow } from '@/entities';
 import { parseQuantity, type QuantityKind } from '@/analysis/units/parse-quantity';
@@ -107,7 +107,11 @@ export async function listTrials(em: EntityManager, rig: RigRow, q: z.infer<type
     limit: q.pageSize,
     offset: (q.page - 1) * q.pageSize,
   });
-  return { rows, total, page: q.page, pageSize: q.pageSize };
+  // the hottest inlet and outlet of every matching trial, not only of this page, for the cautions beside the table
+  const agg = await em.createQueryBuilder(Trial).select([raw('max(inlet_c) as inlet_c'), raw('max(outlet_c) as outlet_c')]).where(where).execute<{ inlet_c: number | string | null; outlet_c: number | string | null }>('get', false);
+  const asNum = (v: number | string | null | undefined) => (v === null || v === undefined ? null : Number(v));
+  const hottest = { inletC: asNum(agg?.inlet_c), outletC: asNum(agg?.outlet_c) };
+  return { rows, total, page: q.page, pageSize: q.pageSize, hottest };
 }
 
 export const trialPatch = z.object({ notes: z.string().max(2000).optional(), excluded: z.boolean().optional() }).strict();

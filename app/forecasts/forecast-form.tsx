@@ -2,9 +2,9 @@
 
 import { useState } from 'react';
 import { api, ApiError } from '../_components/api';
-import { Cautions } from '../_components/fit-report';
+import { CautionList, TempValue } from '../_components/safety-notice';
 import { PlotFigure } from '../_components/plot-figure';
-import { flowOut, flowUnit, tempOut, tempUnit, type Units } from '../_components/units';
+import { flowOut, flowUnit, tempUnit, type Units } from '../_components/units';
 import { parseWeatherCsv, type WeatherTable } from './weather-csv';
 
 /** Hours of the day from `from` up to (not including) `to`, wrapping past midnight; from = to is all day. */
@@ -262,11 +262,11 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
           <>
             <dl className="grid gap-3 sm:grid-cols-3">
               {[
-                ['Final temperature', `${tempOut(res.finalTemp_degC, units).toFixed(1)} ${tempUnit(units)}`],
+                ['Final temperature', <TempValue key="f" c={res.finalTemp_degC} units={units} withUnit />],
                 ['Hours to target', res.hoursToTarget_h == null ? 'not reached' : `${res.hoursToTarget_h.toFixed(1)} h`],
-                ['Equilibrium', res.equilibriumTemp_degC == null ? '—' : `${tempOut(res.equilibriumTemp_degC, units).toFixed(1)} ${tempUnit(units)}`],
+                ['Equilibrium', res.equilibriumTemp_degC == null ? '—' : <TempValue key="e" c={res.equilibriumTemp_degC} units={units} withUnit />],
               ].map(([k, val]) => (
-                <div key={k} className="card p-4">
+                <div key={String(k)} className="card p-4">
                   <dt className="text-sm text-ink-soft">{k}</dt>
                   <dd className="num mt-1 text-2xl text-ink">{val}</dd>
                 </div>
@@ -279,7 +279,7 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
                 <span className="num">{us ? (res.pool.area_m2 * 10.7639).toFixed(0) + ' ft²' : res.pool.area_m2.toFixed(1) + ' m²'}</span>.
               </p>
             ) : null}
-            <Cautions cautions={res.cautions} />
+            <CautionList cautions={res.cautions} />
             <PlotFigure {...res.plots.trajectory} filename="forecast" />
             <PlotFigure {...res.plots.budget} filename="energy-budget" />
             {res.cost ? (

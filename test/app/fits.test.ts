@@ -79,7 +79,10 @@ describe('fit exports', () => {
     const res = await get('?format=csv&table=Trials');
     expect(res.status).toBe(200);
     const csv = await res.text();
-    expect(csv.split('\n')[0]).toMatch(/flow_L_per_min/);
+    // the safety notice comes first as "# " comment lines (DOMAIN.md §5 thresholds), then the header
+    const lines = csv.split('\r\n');
+    expect(lines[0]).toMatch(/^# Safety: temperatures at or above 40 °C/);
+    expect(lines.find((l) => !l.startsWith('#'))).toMatch(/flow_L_per_min/);
     expect(csv).not.toMatch(/(^|,)"?=HYPERLINK/m);
     expect(csv).toContain("'=HYPERLINK");
     expect((await get('?format=csv&table=Nope')).status).toBe(422);

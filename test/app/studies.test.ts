@@ -46,7 +46,7 @@ describe('studies', () => {
     await wb.xlsx.load(await xlsx.arrayBuffer());
     const sheet = wb.getWorksheet('Fit')!;
     const api = (await eng.get(`/api/fits/${fit.id}`)).body.fit.result.fit.params;
-    const header = (sheet.getRow(1).values as unknown[]).map(String);
+    const header = (sheet.getRow((sheet.views[0] as { ySplit?: number }).ySplit ?? 1).values as unknown[]).map(String); // the frozen header row, under the safety notice
     const col = (h: string) => header.indexOf(h);
     let uaRow: ExcelJS.Row | undefined;
     sheet.eachRow((r) => {

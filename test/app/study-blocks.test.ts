@@ -128,8 +128,12 @@ describe('block data for lab members', () => {
     await wb.xlsx.load(await res.arrayBuffer());
     const sheet = wb.getWorksheet('Forecast')!;
     expect(sheet).toBeDefined();
+    // the safety notice heads the sheet (DOMAIN.md §5 thresholds); the frozen row under it is the header
+    expect(String(sheet.getCell(1, 1).value)).toMatch(/^Safety: temperatures at or above 40 °C \(104 °F\) spa limit/);
+    const headerRow = (sheet.views[0] as { ySplit?: number }).ySplit ?? 1;
+    expect(headerRow).toBeGreaterThan(1);
     // row values are 1-based (index 0 is empty), as the cells
-    const header = Array.from(sheet.getRow(1).values as unknown[], (v) => String(v ?? ''));
+    const header = Array.from(sheet.getRow(headerRow).values as unknown[], (v) => String(v ?? ''));
     const hoursCol = header.findIndex((h) => h.startsWith('Elapsed'));
     const poolCol = header.findIndex((h) => h.startsWith('Pool temperature'));
     expect(header[poolCol]).toBe('Pool temperature (°C)');
@@ -140,6 +144,20 @@ describe('block data for lab members', () => {
     expect(last).not.toBeNull();
     expect(Number(last!.getCell(hoursCol).value)).toBeCloseTo(48, 9);
     expect(Number(last!.getCell(poolCol).value)).toBeCloseTo(block.finalTempC, 9);
+  });
+
+  test('the CSV of a table starts with the safety notice as comment lines, and the forecast CSV keeps the forecast’s cautions', async () => {
+    const block = (await s.eng.get(`/api/studies/${s.study.id}/blocks/fc`)).body.block.body;
+    const res = await fetch(`${baseUrl}/api/studies/${s.study.id}/export?format=csv&table=Forecast`, { headers: { Cookie: [...s.eng.cookies].map(([k, v]) => `${k}=${v}`).join('; ') } });
+    expect(res.status).toBe(200);
+    const lines = (await res.text()).split('\r\n');
+    expect(lines[0]).toMatch(/^# Safety: temperatures at or above 40 °C/);
+    const comments = lines.filter((l) => l.startsWith('# '));
+    for (const c of block.cautions as { message: string }[]) {
+      const head = c.message.slice(0, 60).split(',').join(';'); // the caution's opening words, delimiter swapped
+      expect(comments.some((l) => l.includes(head)), c.message).toBe(true);
+    }
+    expect(lines.find((l) => !l.startsWith('#'))).toMatch(/^"forecast"/);
   });
 });
 

@@ -35,6 +35,19 @@ describe('trials through the API', () => {
     expect(t.origin).toBe('api');
   });
 
+  test('a page of trials carries the hottest inlet and outlet of every matching trial, for the cautions beside the table', async () => {
+    const { eng, rig } = await engineerAndRig();
+    const all = (await eng.get(`/api/rigs/${rig.id}/trials?pageSize=500`)).body.trials as { inletC: number; outletC: number; notes: string }[];
+    const page = (await eng.get(`/api/rigs/${rig.id}/trials?pageSize=2&sort=outletC&dir=asc`)).body;
+    expect(page.trials).toHaveLength(2);
+    // the coolest two on the page, the hottest of all in `hottest` (the burner loop reaches about 90 °C, fixtures/README.md)
+    expect(page.hottest.outletC).toBe(Math.max(...all.map((t) => t.outletC)));
+    expect(page.hottest.inletC).toBe(Math.max(...all.map((t) => t.inletC)));
+    expect(page.hottest.outletC).toBeGreaterThan(page.trials[1].outletC);
+    const none = (await eng.get(`/api/rigs/${rig.id}/trials?q=${encodeURIComponent('no trial has this note ' + Date.now())}`)).body;
+    expect(none.hottest).toEqual({ inletC: null, outletC: null });
+  });
+
   test('a batch with one bad trial stores nothing and names the field', async () => {
     const { eng, rig } = await engineerAndRig();
     const before = (await eng.get(`/api/rigs/${rig.id}/trials?pageSize=1`)).body.total;

@@ -105,7 +105,7 @@ describe('the whole job in Chromium', () => {
       const wb = new ExcelJS.Workbook();
       await wb.xlsx.readFile((await download.path())!);
       const sheet = wb.getWorksheet('Fit')!;
-      const header = (sheet.getRow(1).values as unknown[]).map(String);
+      const header = (sheet.getRow((sheet.views[0] as { ySplit?: number }).ySplit ?? 1).values as unknown[]).map(String); // the frozen header row, under the safety notice
       const values = new Map<string, number>();
       sheet.eachRow((row, n) => {
         if (n > 1) values.set(String(row.getCell(header.indexOf('Parameter')).value), Number(row.getCell(header.indexOf('Estimate')).value));

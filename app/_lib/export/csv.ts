@@ -10,6 +10,11 @@ export interface CsvOptions {
   newline?: '\r\n' | '\n';
   /** put a UTF-8 byte-order mark first, so that spreadsheets read "°" correctly (default false) */
   bom?: boolean;
+  /**
+   * lines written before the header, each as a comment starting with "# " (the safety notice,
+   * the cautions and notes of the table); line breaks inside a line become spaces
+   */
+  comments?: readonly string[];
 }
 
 function csvCell(value: ReturnType<typeof neutraliseCell>): string | number | boolean | null {
@@ -21,7 +26,9 @@ function csvCell(value: ReturnType<typeof neutraliseCell>): string | number | bo
  * A table as CSV through papaparse `unparse`: one header row with the units in the names
  * (`flow_L_per_min`, `outlet_degC`), '.' as the decimal separator (JavaScript number text),
  * ISO 8601 UTC timestamps, and every text cell neutralised against formula injection and quoted
- * (OWASP "CSV Injection"; see cells.ts). Numbers are never quoted, so they stay numbers.
+ * (OWASP "CSV Injection"; see cells.ts). Numbers are never quoted, so they stay numbers. Comment
+ * lines ("# …", the safety notice) go first; a comment starts with "#", so no spreadsheet reads it
+ * as a formula, and our trial-sheet import keeps such lines above the header as notes.
  * @param columns the columns, in order
  * @param rows the rows; missing keys give empty cells
  * @throws TypeError naming the row and column for NaN, Infinity, an invalid date or an object.
@@ -40,5 +47,10 @@ export function toCsv(columns: readonly ExportColumn[], rows: readonly ExportRow
       header: true,
     },
   );
-  return options.bom ? `\uFEFF${csv}` : csv;
+  const nl = options.newline ?? '\r\n';
+  // one cell per comment line in a spreadsheet: the delimiter inside the text is swapped for the
+  // other one, so no part of a comment becomes a cell of its own (which could start with "=")
+  const other = (options.delimiter ?? ',') === ',' ? ';' : ',';
+  const head = (options.comments ?? []).map((c) => `# ${c.replace(/[\r\n\t]+/g, ' ').split(options.delimiter ?? ',').join(other)}${nl}`).join('');
+  return options.bom ? `\uFEFF${head}${csv}` : head + csv;
 }

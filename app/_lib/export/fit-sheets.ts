@@ -12,6 +12,7 @@ import { displayUnit, toDisplay, spreadToDisplay, type UnitSystem } from './disp
 import { FMT, quantityColumn } from './quantity-columns';
 import type { FitExport } from './types';
 import type { SheetSpec, SummaryItem } from './xlsx';
+import { cautionCell, sheetNotice } from './safety';
 
 interface ParamUnit { label: string; factor: number; offset: number }
 
@@ -72,7 +73,7 @@ export function fitSheet(fits: readonly FitExport[], system: UnitSystem): SheetS
     });
   });
   return {
-    name: 'Fit', columns, rows,
+    name: 'Fit', notice: sheetNotice(system), columns, rows,
     notes: ['Covariance is in the units of the row parameter times those of the column parameter.',
       ...fits.flatMap((fx) => fx.fit.warnings.map((w) => `${label(fx)}: ${w.message}`))],
   };
@@ -92,6 +93,7 @@ export function residualsSheet(fits: readonly FitExport[], system: UnitSystem): 
     { key: 'leverage', header: 'Leverage', numFmt: '0.000' }, { key: 'cooks', header: "Cook's distance", numFmt: '0.000' },
     { key: 'dffits', header: 'DFFITS', numFmt: '0.000' },
     { key: 'highLeverage', header: 'High leverage' }, { key: 'influential', header: 'Influential' }, { key: 'outlier', header: 'Outlier' },
+    ...(heater ? [{ key: 'caution', header: 'Caution' }] : []),
   ];
   const rows = fits.flatMap((fx) => {
     const f = fx.fit;
@@ -104,10 +106,14 @@ export function residualsSheet(fits: readonly FitExport[], system: UnitSystem): 
       residual: D(f.residuals[i]), standardized: f.standardizedResiduals[i], studentized: f.studentizedResiduals[i],
       leverage: f.leverage[i], cooks: f.cooksDistance[i], dffits: f.dffits[i],
       highLeverage: hi.has(i), influential: inf.has(i), outlier: out.has(i),
+      ...(heater ? { caution: cautionCell([['observed outlet', f.spec.y[i]], ['fitted outlet', f.fitted[i]]], system) } : {}),
     }));
   });
+  const notice = heater
+    ? sheetNotice(system, [{ where: 'outlet', valuesC: fits.flatMap((fx) => [...fx.fit.spec.y, ...fx.fit.fitted]) }])
+    : undefined;
   return {
-    name: 'Residuals', columns, rows,
+    name: 'Residuals', ...(notice ? { notice } : {}), columns, rows,
     notes: ['High leverage: h > 2p/n; influential: Cook’s D > 4/n or |DFFITS| > 2√(p/n) (Belsley, Kuh & Welsch 1980).'],
   };
 }

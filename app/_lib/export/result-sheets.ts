@@ -8,6 +8,7 @@ import { displayUnit, spreadToDisplay, toDisplay, type UnitSystem } from './disp
 import { FMT, quantityColumn } from './quantity-columns';
 import type { CostExport, ForecastExport, PerformanceExport } from './types';
 import type { SheetSpec, SummaryItem } from './xlsx';
+import { cautionCell, cautionLines, sheetNotice } from './safety';
 
 /** The Performance table sheet: every row of every table, intervals, heat and cautions. */
 export function performanceSheet(tables: readonly PerformanceExport[], system: UnitSystem): SheetSpec {
@@ -19,7 +20,7 @@ export function performanceSheet(tables: readonly PerformanceExport[], system: U
     t('outletPiLow', 'Outlet PI low'), t('outletPiHigh', 'Outlet PI high'),
     quantityColumn('deltaT', 'Temperature rise', 'temperatureDifference', system),
     q('heat', 'Heat rate'), q('heatCiLow', 'Heat CI low'), q('heatCiHigh', 'Heat CI high'), q('heatPiLow', 'Heat PI low'), q('heatPiHigh', 'Heat PI high'),
-    { key: 'level', header: 'Level', numFmt: '0%' }, { key: 'extrapolated', header: 'Extrapolated' }, { key: 'cautions', header: 'Cautions' },
+    { key: 'level', header: 'Level', numFmt: '0%' }, { key: 'extrapolated', header: 'Extrapolated' }, { key: 'caution', header: 'Caution' },
   ];
   const T = (v: number) => toDisplay(v, 'temperature', system), Q = (v: number) => toDisplay(v, 'power', system);
   const rows = tables.flatMap(({ label, table }) => table.rows.map((r): ExportRow => ({
@@ -27,10 +28,13 @@ export function performanceSheet(tables: readonly PerformanceExport[], system: U
     outlet: T(r.outletTempC), outletCiLow: T(r.outletCiC[0]), outletCiHigh: T(r.outletCiC[1]), outletPiLow: T(r.outletPiC[0]), outletPiHigh: T(r.outletPiC[1]),
     deltaT: spreadToDisplay(r.deltaTK, 'temperatureDifference', system),
     heat: Q(r.heatW), heatCiLow: Q(r.heatCiW[0]), heatCiHigh: Q(r.heatCiW[1]), heatPiLow: Q(r.heatPiW[0]), heatPiHigh: Q(r.heatPiW[1]),
-    level: table.level, extrapolated: r.extrapolated, cautions: r.cautions.map((c) => c.message).join(' ') || null,
+    level: table.level, extrapolated: r.extrapolated,
+    caution: cautionCell([['outlet', r.outletTempC], ['outlet (upper prediction limit)', r.outletPiC[1]]], system),
   })));
   const notes = tables.flatMap(({ label, table }) => table.notes.map((n) => (tables.length > 1 ? `${label ?? table.model}: ${n}` : n)));
-  return { name: 'Performance', columns, rows, notes };
+  // one caution per hazard: the predicted outlet up to its upper prediction limit
+  const notice = sheetNotice(system, [{ where: 'predicted outlet', valuesC: tables.flatMap(({ table }) => table.rows.flatMap((r) => [r.outletTempC, r.outletPiC[1]])) }]);
+  return { name: 'Performance', notice, columns, rows, notes };
 }
 
 /** The Forecast series sheet: pool and outlet temperature at the sample times of every forecast. */
@@ -42,6 +46,7 @@ export function forecastSheet(forecasts: readonly ForecastExport[], system: Unit
     { key: 'hours', header: 'Elapsed', unit: 'h', numFmt: FMT.hours },
     quantityColumn('pool', 'Pool temperature', 'temperature', system),
     quantityColumn('outlet', 'Heater outlet temperature', 'temperature', system),
+    { key: 'caution', header: 'Caution' },
   ];
   const rows: ExportRow[] = [];
   forecasts.forEach((f, k) => {
@@ -50,10 +55,13 @@ export function forecastSheet(forecasts: readonly ForecastExport[], system: Unit
       rows.push({
         forecast: name, hours: r.timeH[i], time: f.startTime ? new Date(f.startTime.getTime() + r.timeH[i] * 3_600_000) : null,
         pool: toDisplay(r.tempC[i], 'temperature', system), outlet: toDisplay(r.outletTempC[i], 'temperature', system),
+        caution: cautionCell([['pool', r.tempC[i]], ['heater outlet', r.outletTempC[i]]], system),
       });
     }
   });
-  return { name: 'Forecast', columns, rows, notes: forecasts.flatMap((f) => f.result.cautions.map((c) => c.message)) };
+  // the forecast's own cautions (dead-heading, a source above boiling, its pool and outlet) head the sheet
+  const own = forecasts.flatMap((f, k) => cautionLines(f.result.cautions, forecasts.length > 1 ? `${f.label ?? `Forecast ${k + 1}`}: ` : ''));
+  return { name: 'Forecast', notice: sheetNotice(system, [], own), columns, rows };
 }
 
 /** Scalar forecast results (energy budget by term, hours to target, equilibrium) for the Summary. */

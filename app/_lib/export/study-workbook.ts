@@ -9,6 +9,7 @@ import { costsSheet, forecastSheet, forecastSummaryItems, performanceSheet } fro
 import { trialsSheet } from './trial-sheet';
 import type { ExportProvenance, FitWorkbookInput, StudyExport } from './types';
 import { buildWorkbook, summarySheet, type SheetSpec, type SummaryItem, type WorkbookSpec } from './xlsx';
+import { limitItems, sheetNotice, STANDING_NOTES } from './safety';
 
 /** The standing notice under every Summary (issue 7 §8). */
 export const ANALYSIS_AID_NOTICE =
@@ -57,8 +58,12 @@ export function studyWorkbookSpec(s: StudyExport): WorkbookSpec {
   if (forecasts.length) sheets.push(forecastSheet(forecasts, sys));
   if (s.costs) sheets.push(costsSheet(s.costs, sys));
   return {
-    summary: [...provenanceItems(s.provenance, sys), ...fitSummaryItems(fits, sys), ...forecastSummaryItems(forecasts, sys)],
-    summaryNotes: [...(s.notes ?? []), ANALYSIS_AID_NOTICE],
+    summary: [...provenanceItems(s.provenance, sys), ...limitItems(sys), ...fitSummaryItems(fits, sys), ...forecastSummaryItems(forecasts, sys)],
+    summaryNotice: sheetNotice(sys, forecasts.flatMap((f, k) => [
+      { where: `pool of ${f.label ?? `Forecast ${k + 1}`}`, valuesC: [f.result.maxTempC] },
+      { where: `heater outlet of ${f.label ?? `Forecast ${k + 1}`}`, valuesC: [f.result.maxOutletTempC] },
+    ])),
+    summaryNotes: [...(s.notes ?? []), ANALYSIS_AID_NOTICE, ...STANDING_NOTES.slice(1)],
     sheets,
     created: s.provenance.exportedAt,
   };
@@ -87,11 +92,15 @@ export function fitWorkbook(f: FitWorkbookInput): Promise<Buffer> {
  */
 export function studyCsv(s: StudyExport, sheet: StudySheetName, options?: CsvOptions): string | null {
   const spec = studyWorkbookSpec(s);
-  const table = sheet === 'Summary' ? summarySheet(spec.summary ?? []) : spec.sheets.find((t) => t.name === sheet);
+  const table = sheet === 'Summary' ? summarySheet(spec.summary ?? [], spec.summaryNotes, spec.summaryNotice) : spec.sheets.find((t) => t.name === sheet);
   return table ? sheetCsv(table, options) : null;
 }
 
-/** Any sheet description as CSV. */
+/**
+ * Any sheet description as CSV: its notice rows and its notes (cautions, the analysis-aid notice)
+ * as "# " comment lines before the header, so a CSV never travels without them.
+ */
 export function sheetCsv(sheet: SheetSpec, options?: CsvOptions): string {
-  return toCsv(sheet.columns, sheet.rows, options);
+  const notice = sheet.notice?.length ? sheet.notice : [ANALYSIS_AID_NOTICE];
+  return toCsv(sheet.columns, sheet.rows, { ...options, comments: [...(options?.comments ?? []), ...notice, ...(sheet.notes ?? [])] });
 }

@@ -5,6 +5,7 @@ import { toDisplay, spreadToDisplay, type UnitSystem } from './display-units';
 import { FMT, quantityColumn } from './quantity-columns';
 import type { TrialExportRow } from './types';
 import type { SheetSpec } from './xlsx';
+import { cautionCell, sheetNotice } from './safety';
 
 /**
  * Adapter: a trial's record, its `deriveTrial` input and result → one export row.
@@ -53,6 +54,7 @@ export function trialsSheet(trials: readonly TrialExportRow[], system: UnitSyste
     { key: 'effectiveness', header: 'Effectiveness', numFmt: FMT.ratio },
     q('ua', 'UA', 'conductance'),
     { key: 'notes', header: 'Notes' },
+    { key: 'caution', header: 'Caution' },
   ];
   const rows = trials.map((t): ExportRow => {
     const row: ExportRow = {
@@ -64,9 +66,11 @@ export function trialsSheet(trials: readonly TrialExportRow[], system: UnitSyste
       massFlow: toDisplay(t.massFlowKgPerS, 'massFlow', system), deltaT: spreadToDisplay(t.deltaTK, 'temperatureDifference', system),
       heat: toDisplay(t.heatW, 'power', system), heatU: toDisplay(t.heatUncertaintyW, 'power', system),
       effectiveness: t.effectiveness ?? null, ua: toDisplay(t.uaWPerK, 'conductance', system), notes: t.notes ?? null,
+      caution: cautionCell([['inlet', t.inletTempC], ['outlet', t.outletTempC]], system),
     };
     t.fillTimesS?.forEach((s, k) => { row[`fill${k + 1}`] = s; });
     return row;
   });
-  return { name: 'Trials', columns, rows };
+  const notice = sheetNotice(system, [{ where: 'outlet', valuesC: trials.map((t) => t.outletTempC) }, { where: 'inlet', valuesC: trials.map((t) => t.inletTempC) }]);
+  return { name: 'Trials', notice, columns, rows };
 }

@@ -2,9 +2,11 @@ import ExcelJS from 'exceljs';
 import { neutraliseCell, type CellValue, type SafeCell } from './cells';
 import { xlsxHeader, type ExportColumn, type ExportRow } from './columns';
 
-/** One sheet: a single table with one frozen header row; notes go below the table. */
+/** One sheet: notice rows, then a single table with a frozen header row; notes go below the table. */
 export interface SheetSpec {
   name: string;
+  /** plain-text lines written above the table, one row each (the safety notice of a sheet that shows temperatures) */
+  notice?: string[];
   columns: ExportColumn[];
   rows: ExportRow[];
   /** plain-text lines written under the table after one empty row */
@@ -26,6 +28,8 @@ export interface WorkbookSpec {
   summary?: SummaryItem[];
   /** notes under the Summary table (the analysis-aid notice, cautions…) */
   summaryNotes?: string[];
+  /** notice rows above the Summary table (the safety notice) */
+  summaryNotice?: string[];
   sheets: SheetSpec[];
   /** workbook creation time written to the file's properties (default now) */
   created?: Date;
@@ -61,8 +65,27 @@ function shownLength(value: SafeCell, numFmt: string | undefined): number {
   return numFmt?.includes(',') ? text.length + Math.floor(Math.abs(value)).toString().length / 3 : text.length;
 }
 
+/** Writes the notice rows: bold caution-coloured text over the width of the table, one line each. */
+function addNotice(ws: ExcelJS.Worksheet, sheet: SheetSpec): number {
+  const lines = sheet.notice ?? [];
+  const span = Math.max(1, Math.min(sheet.columns.length, 12));
+  lines.forEach((line, i) => {
+    const r = ws.addRow([neutraliseCell(line, `${sheet.name}: notice`)]);
+    if (span > 1) ws.mergeCells(r.number, 1, r.number, span);
+    const cell = r.getCell(1);
+    cell.font = { bold: i === 0, color: { argb: 'FF7A4B00' } };
+    cell.fill = { type: 'pattern', pattern: 'solid', fgColor: { argb: 'FFFFF6DB' } };
+    cell.alignment = { vertical: 'top', wrapText: true };
+    // a merged, wrapped cell does not grow by itself: about 110 characters a line over 12 columns
+    r.height = 15 * Math.max(1, Math.ceil(line.length / (span >= 8 ? 110 : 14 * span)));
+  });
+  return lines.length;
+}
+
 function addTable(ws: ExcelJS.Worksheet, sheet: SheetSpec): void {
   const { columns, rows } = sheet;
+  const top = addNotice(ws, sheet);
+  const headerRow = top + 1;
   const headers = columns.map((c) => neutraliseCell(xlsxHeader(c), `${sheet.name}: header of ${c.key}`));
   const header = ws.addRow(headers);
   header.font = { bold: true };
@@ -85,8 +108,8 @@ function addTable(ws: ExcelJS.Worksheet, sheet: SheetSpec): void {
     ws.getColumn(j + 1).width = c.width ?? Math.min(WIDTH_MAX, Math.max(WIDTH_MIN, Math.ceil(widths[j]) + 2));
   });
   if (columns.length > 0) {
-    ws.views = [{ state: 'frozen', xSplit: 0, ySplit: 1, topLeftCell: 'A2', activeCell: 'A2' }];
-    ws.autoFilter = { from: { row: 1, column: 1 }, to: { row: 1 + rows.length, column: columns.length } };
+    ws.views = [{ state: 'frozen', xSplit: 0, ySplit: headerRow, topLeftCell: `A${headerRow + 1}`, activeCell: `A${headerRow + 1}` }];
+    ws.autoFilter = { from: { row: headerRow, column: 1 }, to: { row: headerRow + rows.length, column: columns.length } };
   }
   if (sheet.notes?.length) {
     ws.addRow([]);
@@ -106,9 +129,10 @@ export const SUMMARY_COLUMNS: ExportColumn[] = [
 ];
 
 /** The Summary items as a sheet (also usable for CSV). */
-export function summarySheet(items: readonly SummaryItem[], notes?: string[]): SheetSpec {
+export function summarySheet(items: readonly SummaryItem[], notes?: string[], notice?: string[]): SheetSpec {
   return {
     name: 'Summary',
+    ...(notice?.length ? { notice } : {}),
     columns: SUMMARY_COLUMNS,
     rows: items.map((it) => ({ section: it.section ?? '', key: it.key, value: it.value, unit: it.unit ?? '' })),
     notes,
@@ -125,13 +149,14 @@ export function workbookDocument(spec: WorkbookSpec): ExcelJS.Workbook {
   wb.created = spec.created ?? new Date();
   wb.modified = wb.created;
   const taken = new Set<string>();
-  const sheets = spec.summary ? [summarySheet(spec.summary, spec.summaryNotes), ...spec.sheets] : spec.sheets;
+  const sheets = spec.summary ? [summarySheet(spec.summary, spec.summaryNotes, spec.summaryNotice), ...spec.sheets] : spec.sheets;
   for (const sheet of sheets) {
     const ws = wb.addWorksheet(sheetName(sheet.name, taken));
     addTable(ws, sheet);
     if (sheet === sheets[0] && spec.summary) {
       // per-line number formats of the Value column
-      spec.summary.forEach((it, i) => { if (it.numFmt && typeof it.value === 'number') ws.getCell(i + 2, 3).numFmt = it.numFmt; });
+      const first = (spec.summaryNotice?.length ?? 0) + 2;
+      spec.summary.forEach((it, i) => { if (it.numFmt && typeof it.value === 'number') ws.getCell(first + i, 3).numFmt = it.numFmt; });
     }
   }
   return wb;

@@ -5,7 +5,7 @@
  */
 import * as Plot from '@observablehq/plot';
 import { predictAt, type BandPoint, type FitSuccess } from '../../../analysis/fit';
-import { CAUTION_THRESHOLDS_C } from '../../../analysis/safety/cautions';
+import { CAUTION_THRESHOLDS_C, HAZARD_BANDS, hottestCautions } from '../../../analysis/safety/cautions';
 import { baseOptions, COLORS, DASHES, MODEL_STROKES, type PlotFigure } from './theme';
 
 /** Trials with a hover tooltip each, at most. */
@@ -124,7 +124,7 @@ export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { wi
   const primary = input.models[0];
   const [lo, hi] = input.testedRange;
 
-  const band = (primary?.points ?? []).map((p) => ({ x: F(p.x), ci1: T(p.ciLow), ci2: T(p.ciHigh), pi1: T(p.piLow), pi2: T(p.piHigh) }));
+  const bandRows = (primary?.points ?? []).map((p) => ({ x: F(p.x), ci1: T(p.ciLow), ci2: T(p.ciHigh), pi1: T(p.piLow), pi2: T(p.piHigh) }));
   const curves = input.models.map((m) => m.points.map((p) => ({ x: F(p.x), y: T(p.y) })));
   const allX = [...input.trials.map((t) => t.flowM3PerS), ...input.models.flatMap((m) => m.points.map((p) => p.x)), lo, hi];
   const xMin = Math.min(...allX);
@@ -146,9 +146,11 @@ export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { wi
 
   const refs: { y: number; text: string; stroke: string; dash: string; kind: string }[] = [];
   if (input.inletC !== null) refs.push({ y: input.inletC, text: `inlet ${withUnit(input.inletC, u.temp)}`, stroke: COLORS.water, dash: '4 4', kind: 'inlet' });
+  const band = (code: string) => HAZARD_BANDS.find((b) => b.code === code)!;
   const safety = [
-    { c: CAUTION_THRESHOLDS_C.scald, text: 'scald risk above', stroke: COLORS.caution, kind: 'scald' },
-    { c: CAUTION_THRESHOLDS_C.scaldSeconds, text: 'burns in seconds above', stroke: COLORS.danger, kind: 'scald-seconds' },
+    { c: CAUTION_THRESHOLDS_C.spaLimit, text: band('spa-limit').short, stroke: COLORS.caution, kind: 'spa-limit' },
+    { c: CAUTION_THRESHOLDS_C.scald, text: band('scald').short, stroke: COLORS.caution, kind: 'scald' },
+    { c: CAUTION_THRESHOLDS_C.scaldSeconds, text: band('scald-seconds').short, stroke: COLORS.danger, kind: 'scald-seconds' },
     { c: BOILING_C, text: 'boiling at', stroke: COLORS.danger, kind: 'boiling' },
   ];
   for (const s of safety) if (s.c >= yLo && s.c <= yHi) refs.push({ y: s.c, text: `${s.text} ${withUnit(s.c, u.temp)}`, stroke: s.stroke, dash: s.kind === 'boiling' ? 'none' : '6 3', kind: s.kind });
@@ -173,8 +175,8 @@ export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { wi
   const marks: Plot.Markish[] = [
     Plot.rect(extrap, { x1: 'x1', x2: 'x2', fill: COLORS.paperDeep, fillOpacity: 0.9, ariaDescription: 'extrapolated region' }),
     Plot.text(extrap.filter((d) => d.x2 - d.x1 >= 0.12 * (F(xMax) - F(xMin))), { x: (d: { x1: number; x2: number }) => (d.x1 + d.x2) / 2, frameAnchor: 'bottom', dy: -6, text: () => 'extrapolated', fill: COLORS.inkMuted, ariaDescription: 'extrapolated label' }),
-    Plot.areaY(band, { x: 'x', y1: 'pi1', y2: 'pi2', fill: COLORS.heatPale, fillOpacity: 0.22, ariaDescription: `${pct} prediction band` }),
-    Plot.areaY(band, { x: 'x', y1: 'ci1', y2: 'ci2', fill: COLORS.heatLight, fillOpacity: 0.35, ariaDescription: `${pct} confidence band` }),
+    Plot.areaY(bandRows, { x: 'x', y1: 'pi1', y2: 'pi2', fill: COLORS.heatPale, fillOpacity: 0.22, ariaDescription: `${pct} prediction band` }),
+    Plot.areaY(bandRows, { x: 'x', y1: 'ci1', y2: 'ci2', fill: COLORS.heatLight, fillOpacity: 0.35, ariaDescription: `${pct} confidence band` }),
     ...refRows.flatMap((r) => [
       Plot.ruleY([r.yd], { stroke: r.stroke, strokeDasharray: r.dash, strokeWidth: 1.25, ariaDescription: `${r.kind} line` }),
       Plot.text([r], {
@@ -208,9 +210,16 @@ export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { wi
   if (warn.length) parts.push(`safety lines: ${warn.join('; ')}`);
   const summary = sentences(parts);
 
+  // one caution per hazard for the outlet the plot shows: measured trials and the curve over the tested flows
+  const cautions = hottestCautions([{
+    where: 'outlet',
+    valuesC: [...input.trials.map((t) => t.outletC), ...(primary?.points ?? []).filter((p) => p.x >= lo && p.x <= hi).map((p) => p.y)],
+  }], units);
+
   return {
     title,
     summary,
+    cautions,
     options: {
       ...baseOptions({ ...size, ariaLabel: title, ariaDescription: summary }),
       x: { label: `Flow (${u.flow.label}) →`, domain: [F(xMin), F(xMax)], grid: true, nice: false },

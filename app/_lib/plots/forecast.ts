@@ -4,7 +4,7 @@
  */
 import * as Plot from '@observablehq/plot';
 import type { EnergyBudget, ForecastResult } from '../../../analysis/forecast/recirculating-forecast';
-import { CAUTION_THRESHOLDS_C } from '../../../analysis/safety/cautions';
+import { CAUTION_THRESHOLDS_C, HAZARD_BANDS } from '../../../analysis/safety/cautions';
 import { baseOptions, COLORS, type PlotFigure } from './theme';
 import { displayUnits, fmt, sentences, withUnit, type UnitSystem } from './units';
 
@@ -41,13 +41,9 @@ export function forecastInputFromResult(result: ForecastResult, options: { targe
   };
 }
 
-const THRESHOLD_WORDS: { c: number; text: string; stroke: string }[] = [
-  { c: CAUTION_THRESHOLDS_C.spaLimit, text: 'spa limit', stroke: COLORS.caution },
-  { c: CAUTION_THRESHOLDS_C.scald, text: 'scald risk above', stroke: COLORS.caution },
-  { c: CAUTION_THRESHOLDS_C.scaldSeconds, text: 'burns in seconds above', stroke: COLORS.danger },
-  { c: CAUTION_THRESHOLDS_C.nearBoiling, text: 'near boiling above', stroke: COLORS.danger },
-];
-
+/** The caution lines, from the shared hazard bands (analysis/safety): their words, danger bands in red. */
+const THRESHOLD_WORDS: { c: number; text: string; stroke: string }[] = [...HAZARD_BANDS].reverse()
+  .map((b) => ({ c: b.thresholdC, text: b.short, stroke: b.level === 'danger' ? COLORS.danger : COLORS.caution }));
 /**
  * Pool (or tub) temperature against time, in the user's units.
  * @example plotToSvg(forecastPlot(forecastInputFromResult(result, { targetC: 28 }), 'si').options)

@@ -3,6 +3,7 @@
  * ink for text and data points, caution and danger tones for safety lines.
  */
 import type * as Plot from '@observablehq/plot';
+import type { Caution } from '../../../analysis/safety/cautions';
 
 export const COLORS = {
   heat: '#B84E0C', // ember-600
@@ -52,4 +53,9 @@ export interface PlotFigure {
   /** one or two sentences for a figcaption (also the SVG's aria-description) */
   summary: string;
   options: Plot.PlotOptions;
+  /**
+   * the cautions of the temperatures the plot shows (one per hazard and place, from
+   * analysis/safety hottestCautions), shown beside it; absent or empty when all are below 40 °C
+   */
+  cautions?: Caution[];
 }

@@ -6,7 +6,8 @@
  */
 import * as Plot from '@observablehq/plot';
 import { baseOptions, COLORS, type PlotFigure } from './theme';
-import { displayUnits, fmt, sentences, type UnitSystem } from './units';
+import { HAZARD_BANDS, hottestCautions } from '../../../analysis/safety/cautions';
+import { displayUnits, fmt, sentences, withUnit, type UnitSystem } from './units';
 
 /** Gaps between steady segments narrower than this, in CSS px, are not drawn (one band). */
 const MERGE_PX = 2;
@@ -119,10 +120,24 @@ export function timeSeriesSegmentsPlot(input: TimeSeriesInput, units: UnitSystem
   const rIn = range(inlet);
   const rFlow = range(flow);
 
+  // a line at each caution threshold the logged temperatures reach, and one caution per hazard beside the plot
+  const cautions = hottestCautions([
+    { where: 'logged outlet', valuesC: input.points.map((p) => p.outletC) },
+    { where: 'logged inlet', valuesC: input.points.map((p) => p.inletC) },
+  ], units);
+  const reached = new Set(cautions.map((c) => c.thresholdC));
+  const hazardLines = HAZARD_BANDS.filter((b) => reached.has(b.thresholdC))
+    .map((b) => ({ y: u.temp.from(b.thresholdC), text: `${b.short} ${withUnit(b.thresholdC, u.temp)}`, stroke: b.level === 'danger' ? COLORS.danger : COLORS.caution }));
+  const hazardMarks: Plot.Markish[] = hazardLines.flatMap((l) => [
+    Plot.ruleY([l.y], { stroke: l.stroke, strokeDasharray: '6 3', strokeWidth: 1.25, ariaDescription: 'caution line' }),
+    Plot.text([l], { y: 'y', text: 'text', fill: l.stroke, frameAnchor: 'right', textAnchor: 'end', dx: -4, dy: -7, ariaDescription: 'caution label' }),
+  ]);
+
   const tTitle = 'Logged inlet and outlet temperatures';
   const tSummary = sentences([
     `${n} samples over ${duration}; teal is the inlet${rIn ? ` (${fmt(rIn[0])}–${fmt(rIn[1])} ${u.temp.label})` : ''}, ember the outlet${rOut ? ` (${fmt(rOut[0])}–${fmt(rOut[1])} ${u.temp.label})` : ''}`,
     segWords,
+    hazardLines.length ? `caution lines: ${hazardLines.map((l) => l.text).join('; ')}` : '',
   ]);
   const fTitle = 'Logged flow';
   const fSummary = sentences([`${n} samples of flow over ${duration}${rFlow ? `, ${fmt(rFlow[0])}–${fmt(rFlow[1])} ${u.flow.label}` : ''}`, segWords]);
@@ -133,11 +148,12 @@ export function timeSeriesSegmentsPlot(input: TimeSeriesInput, units: UnitSystem
     temperatures: {
       title: tTitle,
       summary: tSummary,
+      cautions,
       options: {
         ...baseOptions({ width, height: 300, ariaLabel: tTitle, ariaDescription: tSummary }),
         x: { ...xOpts },
         y: { label: `↑ Temperature (${u.temp.label})`, grid: true },
-        marks: [...shade(), line(inlet, COLORS.water, 'inlet'), line(outlet, COLORS.heat, 'outlet')],
+        marks: [...shade(), ...hazardMarks, line(inlet, COLORS.water, 'inlet'), line(outlet, COLORS.heat, 'outlet')],
       },
     },
     flow: {

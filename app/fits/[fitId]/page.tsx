@@ -4,8 +4,9 @@ import { Fit, Rig } from '@/entities';
 import type { FitSuccess } from '@/analysis/fit';
 import type { FlowChoice as Choice } from '@/analysis/performance/choose-flow';
 import { AppPage } from '../../_components/app-page';
-import { Cautions, ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTableView, type ComparisonView, type PerformanceView } from '../../_components/fit-report';
+import { ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTableView, type ComparisonView, type PerformanceView } from '../../_components/fit-report';
 import { PlotFigure } from '../../_components/plot-figure';
+import { CautionList } from '../../_components/safety-notice';
 import { ReviewPanel } from '../../_components/review-panel';
 import { modelLabel } from '../../_lib/fit-analysis';
 import { reviewTrail } from '../../_lib/fits';
@@ -17,7 +18,7 @@ import { requireLabAction } from '../../_lib/viewer';
 export const metadata = { title: 'Saved fit' };
 export const dynamic = 'force-dynamic';
 
-const svg = (f: Figure) => ({ title: f.title, summary: f.summary, svg: plotToSvg(f.options) });
+const svg = (f: Figure) => ({ title: f.title, summary: f.summary, svg: plotToSvg(f.options), cautions: f.cautions });
 
 export default async function SavedFitPage({ params }: { params: Promise<{ fitId: string }> }) {
   const { fitId } = await params;
@@ -86,7 +87,7 @@ export default async function SavedFitPage({ params }: { params: Promise<{ fitId
           </section>
           <section className="card space-y-3 p-4">
             <PerformanceTableView table={r.performance} units={u} />
-            <Cautions cautions={r.performance.cautions} />
+            <CautionList cautions={r.performance.cautions} />
           </section>
         </div>
         <ReviewPanel

@@ -10,11 +10,15 @@ async function readBack(buf: Buffer): Promise<ExcelJS.Workbook> {
   return wb;
 }
 
-/** Row objects of a sheet keyed by the header text (row 1), up to the first empty row. */
+/** The header row of a sheet: the frozen row, under the notice rows. */
+const headerRow = (ws: ExcelJS.Worksheet) => (ws.views[0] as { ySplit?: number } | undefined)?.ySplit ?? 1;
+
+/** Row objects of a sheet keyed by the header text (the frozen header row), up to the first empty row. */
 function table(ws: ExcelJS.Worksheet): Record<string, ExcelJS.CellValue>[] {
-  const headers = (ws.getRow(1).values as ExcelJS.CellValue[]).slice(1).map(String);
+  const h = headerRow(ws);
+  const headers = (ws.getRow(h).values as ExcelJS.CellValue[]).slice(1).map(String);
   const out: Record<string, ExcelJS.CellValue>[] = [];
-  for (let r = 2; r <= ws.rowCount; r++) {
+  for (let r = h + 1; r <= ws.rowCount; r++) {
     const row = ws.getRow(r);
     if (!row.hasValues) break;
     out.push(Object.fromEntries(headers.map((h, j) => [h, row.getCell(j + 1).value])));
@@ -40,7 +44,53 @@ describe('studyWorkbook, SI', async () => {
 
   test('holds the issue 7 sheets in order, each with a frozen header row', () => {
     expect(wb.worksheets.map((w) => w.name)).toEqual(['Summary', 'Trials', 'Fit', 'Residuals', 'Performance', 'Forecast', 'Costs']);
-    for (const ws of wb.worksheets) expect(ws.views[0], ws.name).toMatchObject({ state: 'frozen', ySplit: 1 });
+    for (const ws of wb.worksheets) {
+      expect(ws.views[0], ws.name).toMatchObject({ state: 'frozen' });
+      const h = headerRow(ws);
+      expect(ws.getRow(h).font?.bold, ws.name).toBe(true);
+      expect(String(ws.autoFilter), ws.name).toMatch(new RegExp(`^A${h}:`)); // exceljs reads the filter back as a range
+    }
+  });
+
+  // Thresholds (DOMAIN.md §5, §3.7): 40 °C spa limit (CPSC 79-071 / UL 1563), 49 °C scald and 60 °C
+  // burns in seconds (scald-time table [39]), 95 °C steam (common practice).
+  test('every sheet that shows temperatures has the safety notice in its header rows, with one caution per hazard reached', () => {
+    for (const name of ['Summary', 'Trials', 'Fit', 'Residuals', 'Performance', 'Forecast']) {
+      const ws = wb.getWorksheet(name)!;
+      const h = headerRow(ws);
+      expect(h, name).toBeGreaterThan(1);
+      const notice = Array.from({ length: h - 1 }, (_, i) => String(ws.getCell(i + 1, 1).value));
+      expect(notice[0], name).toBe('Safety: temperatures at or above 40 °C (104 °F) spa limit / 49 °C (120 °F) scald risk / 60 °C (140 °F) burns in seconds / 95 °C (203 °F) steam risk are marked in the Caution column.');
+      expect(notice.at(-1), name).toMatch(/local codes and licensed practice/);
+    }
+    // the trials reach 85.6 °C at 2 L/min (Ts 90 °C coil): burns in seconds, scald and spa limit, each once
+    const trialsNotice = Array.from({ length: headerRow(wb.getWorksheet('Trials')!) - 1 }, (_, i) => String(wb.getWorksheet('Trials')!.getCell(i + 1, 1).value));
+    expect(trialsNotice.filter((l) => /^Danger: The outlet water reaches .*burns skin in seconds/.test(l))).toHaveLength(1);
+    expect(trialsNotice.filter((l) => /^Warning: The outlet water reaches .*can scald/.test(l))).toHaveLength(1);
+    expect(trialsNotice.filter((l) => /spas and tubs/.test(l))).toHaveLength(1);
+    expect(wb.getWorksheet('Costs')!.getCell(1, 1).value).toBe('Section');
+  });
+
+  test('each row says in words which limit its temperature reaches (Caution column)', () => {
+    const rows = table(wb.getWorksheet('Trials')!);
+    rows.forEach((r, i) => {
+      const t = outletC[i];
+      const want = t >= 95 ? /steam/ : t >= 60 ? /^outlet at or above 60 °C: burns in seconds$/ : t >= 49 ? /^outlet at or above 49 °C: can scald$/ : t >= 40 ? /^outlet at or above the 40 °C spa limit$/ : null;
+      if (want) expect(r.Caution, `${t} °C`).toMatch(want);
+      else expect(r.Caution, `${t} °C`).toBeNull();
+    });
+    expect(rows[0].Caution).toBe('outlet at or above 60 °C: burns in seconds'); // 85.6 °C
+    const perfRows = table(wb.getWorksheet('Performance')!);
+    expect(perfRows.some((r) => typeof r.Caution === 'string')).toBe(true);
+  });
+
+  test('the Summary states the limits with their meaning: 40, 49, 60 and 95 °C', () => {
+    const rows = table(wb.getWorksheet('Summary')!).filter((r) => r.Section === 'Safety limits');
+    expect(rows.map((r) => [r.Value, r.Unit])).toEqual([[40, '°C'], [49, '°C'], [60, '°C'], [95, '°C']]);
+    expect(String(rows[0].Item)).toMatch(/spa.*CPSC.*UL 1563/);
+    expect(String(rows[1].Item)).toMatch(/scald/);
+    expect(String(rows[2].Item)).toMatch(/seconds/);
+    expect(String(rows[3].Item)).toMatch(/steam.*common practice/);
   });
 
   test('states provenance on the Summary sheet, with the analysis-aid notice (DOMAIN.md §7 reproducibility; issue 7 §8)', () => {
@@ -68,7 +118,8 @@ describe('studyWorkbook, SI', async () => {
       expect(r['Heat rate (kW)']).toBeCloseTo((trials[i].heatW as number) / 1000, 12);
       expect(r['Ambient temperature (°C)']).toBe(-2.5);
     });
-    expect(wb.getWorksheet('Trials')!.getCell('F2').numFmt).toBe('0.00');
+    const ws = wb.getWorksheet('Trials')!;
+    expect(ws.getCell(headerRow(ws) + 1, 6).numFmt).toBe('0.00');
   });
 
   test('gives every parameter with its error, interval and covariance as fitted (coil: °C, W/K)', () => {
@@ -99,7 +150,7 @@ describe('studyWorkbook, SI', async () => {
       expect(r['High leverage']).toBe(coil.flags.highLeverage.includes(i));
     });
     const negative = coil.residuals.findIndex((e) => e < 0);
-    expect(ws.getCell(negative + 2, 7).type).toBe(ExcelJS.ValueType.Number);
+    expect(ws.getCell(headerRow(ws) + 1 + negative, 7).type).toBe(ExcelJS.ValueType.Number);
   });
 
   test('writes the performance table with intervals and the extrapolated flag', () => {
@@ -188,14 +239,15 @@ describe('fitWorkbook and studyCsv', () => {
 
   test('writes any table as CSV with unit-suffixed headers that papaparse reads back (DOMAIN.md §7)', () => {
     const csv = studyCsv(study('us'), 'Trials')!;
-    const back = Papa.parse<Record<string, unknown>>(csv, { header: true, dynamicTyping: true, skipEmptyLines: true });
+    const back = Papa.parse<Record<string, unknown>>(csv, { header: true, dynamicTyping: true, skipEmptyLines: true, comments: '#' });
     expect(back.errors).toEqual([]);
     expect(back.meta.fields).toEqual(expect.arrayContaining(['flow_gpm', 'outlet_degF', 'heat_Btu_per_h', 'ua_Btu_per_h_degF', 'timestamp_utc', 'fill1_s']));
     expect(back.data[3].flow_gpm).toBeCloseTo(8 * GPM_PER_LPM, 10);
     expect(back.data[0].notes).toBe('\'=HYPERLINK("http://127.0.0.1/x","open")');
     expect(back.data[0].ambient_degF).toBeCloseTo(F(-2.5), 12);
     expect(studyCsv({ ...study('si'), costs: undefined }, 'Costs')).toBeNull();
-    expect(studyCsv(study('si'), 'Summary')!.split('\r\n')[0]).toBe('"section","key","value","unit"');
+    const summaryLines = studyCsv(study('si'), 'Summary')!.split('\r\n');
+    expect(summaryLines.find((l) => !l.startsWith('#'))).toBe('"section","key","value","unit"');
   });
 
   test('refuses an unknown unit system (STYLE.md §10)', () => {

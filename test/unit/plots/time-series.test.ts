@@ -23,6 +23,16 @@ describe('timeSeriesSegmentsPlot', () => {
     expect(svg).not.toMatch(/NaN|Infinity|undefined/);
   });
 
+  // DOMAIN.md §5: 60 °C burns in seconds and 49 °C scalds (scald-time table [39]); 40 °C spa limit (CPSC / UL 1563)
+  test('an outlet logged at 60 °C gets a line and a caution for each threshold reached, in words', () => {
+    expect(figs.temperatures.cautions?.map((c) => `${c.code}@${c.where}`)).toEqual(['scald-seconds@logged outlet', 'scald@logged outlet', 'spa-limit@logged outlet']);
+    const { doc } = renderPlot(figs.temperatures.options);
+    expect([...group(doc, 'caution label')].map((g) => g.textContent)).toEqual(['burns in seconds 60.0 °C', 'scald risk 49.0 °C', 'spa limit 40.0 °C']);
+    expect(figs.temperatures.summary).toMatch(/Caution lines: burns in seconds 60.0 °C; scald risk 49.0 °C; spa limit 40.0 °C\./);
+    const cool = timeSeriesSegmentsPlot({ points: points.map((p) => ({ ...p, outletC: 30 })), segments }, 'si');
+    expect(cool.temperatures.cautions).toEqual([]);
+  });
+
   test('draws inlet and outlet lines and leaves a gap at a missing reading', () => {
     const { doc } = renderPlot(figs.temperatures.options);
     expect(group(doc, 'inlet')[0].querySelector('path')).not.toBeNull();

@@ -2,6 +2,7 @@
 
 import { useEffect, useRef, useState } from 'react';
 import { api, ApiError } from '../../../_components/api';
+import { TempValue, TemperatureCautions } from '../../../_components/safety-notice';
 import { flowOut, flowUnit, tempOut, tempUnit, volOut, volUnit, type Units } from '../../../_components/units';
 
 interface Previous {
@@ -23,6 +24,7 @@ export function EntryForm({ rigId, units, previous }: { rigId: string; units: Un
   const [runningSince, setRunningSince] = useState<number | null>(null);
   const [now, setNow] = useState(0);
   const [message, setMessage] = useState<string | null>(null);
+  const [saved, setSaved] = useState<{ inletC: number; outletC: number } | null>(null);
   const [warnings, setWarnings] = useState<string[]>([]);
   const [error, setError] = useState<string | null>(null);
   const [fieldErrors, setFieldErrors] = useState<Record<string, string>>({});
@@ -67,11 +69,13 @@ export function EntryForm({ rigId, units, previous }: { rigId: string; units: Un
     setError(null);
     setFieldErrors({});
     setMessage(null);
+    setSaved(null);
     setWarnings([]);
     try {
       const r = await api<{ trials: { flowM3PerS: number; outletC: number; inletC: number }[]; warnings: { messages: string[] }[] }>(`/api/rigs/${rigId}/trials`, { body });
       const saved = r.trials[0];
       setMessage(`Saved: ${flowOut(saved.flowM3PerS, units).toFixed(2)} ${flowUnit(units)}, rise ${(tempOut(saved.outletC, units) - tempOut(saved.inletC, units)).toFixed(1)} ${units === 'us' ? '°F' : 'K'}.`);
+      setSaved({ inletC: saved.inletC, outletC: saved.outletC });
       setWarnings(r.warnings.flatMap((w) => w.messages));
       setFills([]);
       const outlet = formRef.current?.elements.namedItem('outlet') as HTMLInputElement | null;
@@ -151,7 +155,13 @@ export function EntryForm({ rigId, units, previous }: { rigId: string; units: Un
         </label>
       </fieldset>
       {error ? <p role="alert" className="rounded-lg border border-danger-line bg-danger-bg px-3 py-2 text-sm text-danger-text">{error}</p> : null}
-      {message ? <p role="status" className="rounded-lg bg-ok-bg px-3 py-2 text-sm text-ok-text">{message}</p> : null}
+      {message ? (
+        <p role="status" className="rounded-lg bg-ok-bg px-3 py-2 text-sm text-ok-text">
+          {message}
+          {saved ? <> Outlet <span className="num"><TempValue c={saved.outletC} units={units} withUnit /></span>.</> : null}
+        </p>
+      ) : null}
+      {saved ? <TemperatureCautions units={units} label="Cautions for this trial" places={[{ where: 'outlet', valuesC: [saved.outletC] }, { where: 'inlet', valuesC: [saved.inletC] }]} /> : null}
       {warnings.map((w) => (
         <p key={w} className="rounded-lg border border-caution-line bg-caution-bg px-3 py-2 text-sm text-caution-text">{w}</p>
       ))}

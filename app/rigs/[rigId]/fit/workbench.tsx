@@ -3,14 +3,17 @@
 import { useRouter } from 'next/navigation';
 import { useEffect, useState } from 'react';
 import { api, ApiError } from '../../../_components/api';
-import { Cautions, ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTableView, type ChoiceView, type ComparisonView, type FitView, type PerformanceView } from '../../../_components/fit-report';
+import { ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTableView, type ChoiceView, type ComparisonView, type FitView, type PerformanceView } from '../../../_components/fit-report';
 import { PlotFigure } from '../../../_components/plot-figure';
+import { CautionList } from '../../../_components/safety-notice';
+import type { CautionLike } from '@/analysis/safety/cautions';
 import { tempIn, tempOut, tempUnit, type Units } from '../../../_components/units';
 
 interface Figure {
   title: string;
   summary: string;
   svg: string;
+  cautions?: CautionLike[];
 }
 interface Analysis {
   trialIds: string[];
@@ -165,7 +168,7 @@ export function FitWorkbench({ rigId, rigName, labId, units, canSave }: { rigId:
               <section className="card space-y-3 p-4" aria-labelledby="perf-h">
                 <h2 id="perf-h" className="text-lg">Performance table</h2>
                 <PerformanceTableView table={result.performance} units={units} />
-                <Cautions cautions={result.performance.cautions} />
+                <CautionList cautions={result.performance.cautions} />
               </section>
             ) : null}
             {fitsOk.slice(1).map((fv) => (

@@ -7,7 +7,8 @@ import { timeSeriesSegmentsPlot, type LogSegment } from '@/app/_lib/plots/time-s
 import { api, ApiError } from '../../../_components/api';
 import { JobProgress } from '../../../_components/job-progress';
 import { PlotFigure } from '../../../_components/plot-figure';
-import { dtOut, dtUnit, flowOut, flowUnit, tempOut, tempUnit, type Units } from '../../../_components/units';
+import { TempValue, TemperatureCautions } from '../../../_components/safety-notice';
+import { dtOut, dtUnit, flowOut, flowUnit, tempUnit, type Units } from '../../../_components/units';
 
 const PRESET_TEXT: Record<PresetName, { label: string; note: string }> = {
   laboratory: { label: 'Laboratory', note: 'After ASHRAE 93: outlet drifting under 0.05 K/min, inlet within ±1 K, flow within ±2 %, at least 15 min.' },
@@ -364,7 +365,7 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
               </button>
             ) : null}
           </div>
-          <PlotFigure svg="" options={figures.temperatures.options} title={figures.temperatures.title} summary={figures.temperatures.summary} filename="log-temperatures" />
+          <PlotFigure svg="" options={figures.temperatures.options} title={figures.temperatures.title} summary={figures.temperatures.summary} cautions={figures.temperatures.cautions} filename="log-temperatures" />
           <PlotFigure svg="" options={figures.flow.options} title={figures.flow.title} summary={figures.flow.summary} filename="log-flow" />
           <div className="overflow-x-auto">
             <table className="data-table" aria-label="Steady periods">
@@ -426,8 +427,8 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
                       ))}
                       <td className="num text-right">{num((c.endS - c.startS) / 60, 1)}</td>
                       <td className="num text-right">{m ? num(flowOut(m.mean.flowM3PerS, units), 2) : '…'}</td>
-                      <td className="num text-right">{m ? num(tempOut(m.mean.inletTempC, units), 2) : '…'}</td>
-                      <td className="num text-right">{m ? num(tempOut(m.mean.outletTempC, units), 2) : '…'}</td>
+                      <td className="num text-right">{m ? <TempValue c={m.mean.inletTempC} units={units} digits={2} /> : '…'}</td>
+                      <td className="num text-right">{m ? <TempValue c={m.mean.outletTempC} units={units} digits={2} /> : '…'}</td>
                       <td className="num text-right">{m?.blockStdError ? num(dtOut(m.blockStdError.outletTempC, units), 3) : m ? '—' : '…'}</td>
                       <td className="num text-xs">{m ? `${m.startLine}–${m.endLine}` : ''}</td>
                       <td className="text-xs text-caution-text">{m?.notes.join('; ')}</td>
@@ -440,6 +441,13 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
               </tbody>
             </table>
           </div>
+          <TemperatureCautions units={units}
+            label="Cautions for these periods"
+            places={[
+              { where: 'outlet', valuesC: choices.filter((c) => c.use).map((c) => c.measured?.mean.outletTempC) },
+              { where: 'inlet', valuesC: choices.filter((c) => c.use).map((c) => c.measured?.mean.inletTempC) },
+            ]}
+          />
           <div className="flex flex-wrap items-center gap-3 text-sm">
             {choices.length > PAGE ? (
               <>

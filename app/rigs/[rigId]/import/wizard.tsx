@@ -3,7 +3,8 @@
 import Link from 'next/link';
 import { useState } from 'react';
 import { api, ApiError } from '../../../_components/api';
-import { flowOut, flowUnit, tempOut, tempUnit, type Units } from '../../../_components/units';
+import { TempValue, TemperatureCautions } from '../../../_components/safety-notice';
+import { flowOut, flowUnit, tempUnit, type Units } from '../../../_components/units';
 import { LogPeriods } from './log-periods';
 
 type Field = 'time' | 'bucketVolume' | 'fillTime' | 'flow' | 'inletTemp' | 'outletTemp' | 'ambientTemp' | 'notes';
@@ -43,7 +44,7 @@ interface Preview {
   savedMapping: boolean;
   mapping: Mapping;
   mappingError: string | null;
-  check: { okCount: number; errorCount: number; warningCount: number; notices: string[]; issues: Issue[]; preview: { line: number; ok: boolean; row?: { flowM3PerS: number; inletTempC: number; outletTempC: number } }[] } | null;
+  check: { okCount: number; errorCount: number; warningCount: number; notices: string[]; issues: Issue[]; preview: { line: number; ok: boolean; row?: { flowM3PerS: number; inletTempC: number; outletTempC: number } }[]; hottest?: { inletC: number | null; outletC: number | null; outletLine: number | null } } | null;
 }
 
 const FIELDS: { id: Field | ''; label: string; units: string[] }[] = [
@@ -103,8 +104,8 @@ function ConvertedRows({ rows, units, tempDigits, caption }: { rows: { line: num
             <td className="num">{r.line}</td>
             {timed ? <td className="num text-right">{r.timeS?.toFixed(1)}</td> : null}
             <td className="num text-right">{flowOut(r.flowM3PerS, units).toFixed(2)}</td>
-            <td className="num text-right">{tempOut(r.inletTempC, units).toFixed(tempDigits)}</td>
-            <td className="num text-right">{tempOut(r.outletTempC, units).toFixed(tempDigits)}</td>
+            <td className="num text-right"><TempValue c={r.inletTempC} units={units} digits={tempDigits} /></td>
+            <td className="num text-right"><TempValue c={r.outletTempC} units={units} digits={tempDigits} /></td>
           </tr>
         ))}
       </tbody>
@@ -379,6 +380,7 @@ export function ImportWizard({ rigId, units, maxMb }: { rigId: string; units: Un
               <section className="card space-y-3 p-4" aria-labelledby="head-h">
                 <h2 id="head-h" className="text-lg">First samples, converted</h2>
                 {preview.logHead.rows.length ? <ConvertedRows rows={preview.logHead.rows} units={units} tempDigits={2} /> : null}
+                <TemperatureCautions units={units} label="Cautions for these samples" places={[{ where: 'logged outlet', valuesC: preview.logHead.rows.map((r) => r.outletTempC) }, { where: 'logged inlet', valuesC: preview.logHead.rows.map((r) => r.inletTempC) }]} />
                 {preview.logHead.issues.length ? (
                   <ul className="text-sm text-danger-text">
                     {preview.logHead.issues.slice(0, 5).map((i) => (
@@ -414,6 +416,19 @@ export function ImportWizard({ rigId, units, maxMb }: { rigId: string; units: Un
                   tempDigits={1}
                 />
               ) : null}
+              {preview.check.hottest?.outletC != null ? (
+                <p className="text-sm">
+                  Hottest outlet in the file: <span className="num"><TempValue c={preview.check.hottest.outletC} units={units} withUnit /></span>
+                  {preview.check.hottest.outletLine != null ? <> (line <span className="num">{preview.check.hottest.outletLine}</span>)</> : null}.
+                </p>
+              ) : null}
+              <TemperatureCautions units={units}
+                label="Cautions for this file"
+                places={[
+                  { where: 'outlet', valuesC: [preview.check.hottest?.outletC, ...preview.check.preview.map((r) => r.row?.outletTempC)] },
+                  { where: 'inlet', valuesC: [preview.check.hottest?.inletC, ...preview.check.preview.map((r) => r.row?.inletTempC)] },
+                ]}
+              />
               {preview.check.issues.length ? (
                 <table className="data-table" aria-label="Row problems">
                   <thead>

@@ -10,7 +10,7 @@ export const GET = route<P>({ auth: 'user' }, async (ctx) => {
   const { rig } = await loadRig(ctx, ctx.params.rigId, 'lab:read');
   const q = listQuery.parse(Object.fromEntries(ctx.req.nextUrl.searchParams));
   const r = await listTrials(ctx.em, rig, q);
-  return json({ trials: r.rows.map(trialDto), total: r.total, page: r.page, pageSize: r.pageSize });
+  return json({ trials: r.rows.map(trialDto), total: r.total, page: r.page, pageSize: r.pageSize, hottest: r.hottest });
 });
 
 const batch = z.object({ trials: z.array(trialInput).min(1, 'Send at least one trial.').max(1000, 'Send at most 1,000 trials at once.') }).strict();
