@@ -1,13 +1,13 @@
 /**
  * Runs once when a Next.js server starts (Node runtime only): a production server whose
  * configuration is unsafe refuses to start, with one clear message per problem (APP_URL missing,
- * SESSION_SECRET too short…; app/_lib/startup.ts); then the background-job workers start with the
+ * SESSION_SECRET too short…; app/_lib/server/startup.ts); then the background-job workers start with the
  * web server (EMBERLINE_JOB_WORKER=off starts a web process without them).
  */
 export async function register() {
   if (process.env.NEXT_RUNTIME !== 'nodejs') return;
-  (await import('./app/_lib/startup')).refuseUnsafeStart();
+  (await import('./app/_lib/server/startup')).refuseUnsafeStart();
   if (process.env.EMBERLINE_JOB_WORKER === 'off') return;
-  const { startJobWorkers } = await import('./app/_lib/jobs');
+  const { startJobWorkers } = await import('./app/_lib/jobs/jobs');
   startJobWorkers().catch((e: unknown) => console.error('background jobs did not start:', e instanceof Error ? e.message : e));
 }

@@ -1,9 +1,9 @@
 import { NextResponse, type NextRequest } from 'next/server';
-import { config as appConfig } from '@/app/_lib/config';
-import { newNonce, pageCsp, setSecurityHeaders } from '@/app/_lib/security-headers';
+import { config as appConfig } from '@/app/_lib/server/config';
+import { newNonce, pageCsp, setSecurityHeaders } from '@/app/_lib/server/security-headers';
 
 /**
- * Security headers for pages and static files (app/_lib/security-headers.ts). Each page request
+ * Security headers for pages and static files (app/_lib/server/security-headers.ts). Each page request
  * gets a fresh nonce: it is put in the request's Content-Security-Policy, where Next.js finds it
  * and writes it on its own scripts and styles while it renders (the pages are rendered per
  * request: the root layout is force-dynamic), and in the response's.

@@ -1,8 +1,8 @@
 import Link from 'next/link';
 import * as Plot from '@observablehq/plot';
 import { SiteHeader } from './_components/site-header';
-import { plotToSvg } from './_lib/plot-svg';
-import { sampleCoilData } from './_lib/sample-curve';
+import { plotToSvg } from './_lib/plots/plot-svg';
+import { sampleCoilData } from './_lib/plots/sample-curve';
 import { HAZARD_BANDS } from '@/analysis/safety/cautions';
 import { TemperatureCautions } from './_components/safety-notice';
 

@@ -11,10 +11,10 @@ import { createReadStream, createWriteStream, mkdtempSync, rmSync, statSync } fr
 import { once } from 'node:events';
 import os from 'node:os';
 import path from 'node:path';
-import { openDelimited } from '@/app/_lib/import/read-delimited';
-import { suggestMapping } from '@/app/_lib/import/auto-map';
-import { createSensorLogBuilder } from '@/app/_lib/import/sensor-log';
-import type { ConfirmedMappingInput } from '@/app/_lib/import/apply-mapping';
+import { openDelimited } from '@/app/_lib/imports/read-delimited';
+import { suggestMapping } from '@/app/_lib/imports/auto-map';
+import { createSensorLogBuilder } from '@/app/_lib/imports/sensor-log';
+import type { ConfirmedMappingInput } from '@/app/_lib/imports/apply-mapping';
 import { mulberry32 } from '@/analysis/segment/synthetic-log';
 import { segmentLog } from '@/analysis/segment/segment-log';
 

@@ -75,9 +75,9 @@ const fmtCpu = (ms: number | null) => (ms === null ? 'n/a' : `${(ms / 1000).toFi
 
 async function main() {
   const { writeSensorLogCsv, SENSOR_LOG_MAPPING } = await import('./import-parse');
-  const { getEm, getOrm } = await import('@/app/_lib/db');
-  const { copyPool, importSensorLog, logImportInput } = await import('@/app/_lib/sensor-import');
-  const { listTrials, listQuery } = await import('@/app/_lib/trials');
+  const { getEm, getOrm } = await import('@/app/_lib/server/db');
+  const { copyPool, importSensorLog, logImportInput } = await import('@/app/_lib/imports/sensor-import');
+  const { listTrials, listQuery } = await import('@/app/_lib/rigs/trials');
   const { Lab, Rig, SourceFile } = await import('@/entities');
 
   const rows = Number(process.argv[2] ?? 1_000_000);

@@ -117,12 +117,12 @@ async function* logRows(fileId: string, rigId: string, startMs: number, n: numbe
 async function child() {
   const base = process.env.STUDY_BENCH_URL!;
   const rows = Number(process.argv[2] ?? 1_000_000);
-  const { getEm, getOrm } = await import('@/app/_lib/db');
-  const { copyPool } = await import('@/app/_lib/sensor-import');
-  const { ensureSensorOverview } = await import('@/app/_lib/sensor-overview');
-  const { saveFit } = await import('@/app/_lib/fits');
-  const { openSession } = await import('@/app/_lib/session');
-  const SESSION_COOKIE = (await import('@/app/_lib/config')).config.sessionCookie;
+  const { getEm, getOrm } = await import('@/app/_lib/server/db');
+  const { copyPool } = await import('@/app/_lib/imports/sensor-import');
+  const { ensureSensorOverview } = await import('@/app/_lib/imports/sensor-overview');
+  const { saveFit } = await import('@/app/_lib/fits/fits');
+  const { openSession } = await import('@/app/_lib/accounts/session');
+  const SESSION_COOKIE = (await import('@/app/_lib/server/config')).config.sessionCookie;
   const { Lab, Rig, SensorOverview, SourceFile, Study, User } = await import('@/entities');
   const pool = copyPool();
   const em = await getEm();

@@ -3,7 +3,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { hash } from '@node-rs/argon2';
 import { Lab, Membership, Rig, Trial, User } from '../entities';
 import { DEMO_PASSWORD, demoLab, demoUsers, generateTrials, rigPlans } from '../fixtures/demo-lab';
-import { ARGON2_OPTIONS } from '../app/_lib/password-options';
+import { ARGON2_OPTIONS } from '../app/_lib/accounts/password-options';
 
 export async function seedDemoLab(em: EntityManager): Promise<boolean> {
   if (await em.findOne(Lab, { slug: demoLab.slug })) return false;

@@ -4,7 +4,7 @@
 // sent (it only fills the header when it is absent), so without a proxy that header is the
 // client's word. This server sets `x-emberline-peer` from the socket on every request (replacing
 // whatever a client sent under that name) and marks the process, so the app trusts that header
-// only when it runs here (app/_lib/client-address.ts). Behind a load balancer, set
+// only when it runs here (app/_lib/server/client-address.ts). Behind a load balancer, set
 // TRUST_PROXY_HOPS instead; plain `next start` then works as well.
 //
 //   node scripts/serve.mjs [-H host] [-p port] [--dev]

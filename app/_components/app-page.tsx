@@ -1,7 +1,7 @@
 import Link from 'next/link';
 import type { ReactNode } from 'react';
-import { config } from '../_lib/config';
-import type { Viewer } from '../_lib/viewer';
+import { config } from '../_lib/server/config';
+import type { Viewer } from '../_lib/accounts/viewer';
 import { LabSwitcher, SignOutButton } from './lab-switcher';
 import { SiteHeader } from './site-header';
 

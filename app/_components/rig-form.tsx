@@ -2,7 +2,7 @@
 
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
-import { HEAT_SOURCE_LABELS } from '../_lib/labels';
+import { HEAT_SOURCE_LABELS } from '../_lib/rigs/labels';
 import { api, ApiError } from './api';
 
 

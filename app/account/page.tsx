@@ -1,10 +1,10 @@
 import { AppPage } from '../_components/app-page';
 import { JsonForm } from '../_components/json-form';
 import { SignOutButton } from '../_components/lab-switcher';
-import { listTokens } from '../_lib/api-tokens';
-import { tokenDto } from '../_lib/dto';
-import { can } from '../_lib/permissions';
-import { requireViewer } from '../_lib/viewer';
+import { listTokens } from '../_lib/accounts/api-tokens';
+import { tokenDto } from '../_lib/server/dto';
+import { can } from '../_lib/labs/permissions';
+import { requireViewer } from '../_lib/accounts/viewer';
 import { TokenManager } from './tokens';
 
 export const metadata = { title: 'Account' };

@@ -2,8 +2,8 @@ import Link from 'next/link';
 import { Fit } from '@/entities';
 import { AppPage } from '../_components/app-page';
 import { StateBadge } from '../_components/review-panel';
-import { modelLabel } from '../_lib/fit-analysis';
-import { requireLabAction } from '../_lib/viewer';
+import { modelLabel } from '../_lib/fits/fit-analysis';
+import { requireLabAction } from '../_lib/accounts/viewer';
 
 export const metadata = { title: 'Fits' };
 export const dynamic = 'force-dynamic';

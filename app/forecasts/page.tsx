@@ -1,6 +1,6 @@
 import { Fit } from '@/entities';
 import { AppPage } from '../_components/app-page';
-import { requireLabAction } from '../_lib/viewer';
+import { requireLabAction } from '../_lib/accounts/viewer';
 import { ForecastForm } from './forecast-form';
 
 export const metadata = { title: 'Forecasts' };

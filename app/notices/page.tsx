@@ -1,7 +1,7 @@
 import Link from 'next/link';
 import { Notice } from '@/entities';
 import { AppPage } from '../_components/app-page';
-import { requireViewer } from '../_lib/viewer';
+import { requireViewer } from '../_lib/accounts/viewer';
 
 export const metadata = { title: 'Notices' };
 export const dynamic = 'force-dynamic';

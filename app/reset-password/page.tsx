@@ -2,8 +2,8 @@ import Link from 'next/link';
 import { PasswordReset } from '@/entities';
 import { AuthCard } from '../_components/app-page';
 import { JsonForm } from '../_components/json-form';
-import { getEm } from '../_lib/db';
-import { sha256 } from '../_lib/tokens';
+import { getEm } from '../_lib/server/db';
+import { sha256 } from '../_lib/server/secrets';
 
 export const metadata = { title: 'Choose a new password' };
 export const dynamic = 'force-dynamic';

@@ -1,8 +1,8 @@
 import Link from 'next/link';
 import { Rig, Trial } from '@/entities';
 import { AppPage } from '../_components/app-page';
-import { HEAT_SOURCE_LABELS } from '../_lib/labels';
-import { requireLabAction } from '../_lib/viewer';
+import { HEAT_SOURCE_LABELS } from '../_lib/rigs/labels';
+import { requireLabAction } from '../_lib/accounts/viewer';
 
 export const metadata = { title: 'Rigs' };
 export const dynamic = 'force-dynamic';

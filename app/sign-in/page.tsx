@@ -2,8 +2,8 @@ import Link from 'next/link';
 import { redirect } from 'next/navigation';
 import { AuthCard } from '../_components/app-page';
 import { JsonForm } from '../_components/json-form';
-import { config } from '../_lib/config';
-import { getViewer } from '../_lib/viewer';
+import { config } from '../_lib/server/config';
+import { getViewer } from '../_lib/accounts/viewer';
 import { DEMO_PASSWORD, demoUsers } from '@/fixtures/demo-lab';
 
 export const metadata = { title: 'Sign in' };

@@ -1,7 +1,7 @@
 import Link from 'next/link';
 import { AuthCard } from '../_components/app-page';
 import { JsonForm } from '../_components/json-form';
-import { config } from '../_lib/config';
+import { config } from '../_lib/server/config';
 
 export const metadata = { title: 'Create an account' };
 export const dynamic = 'force-dynamic';

@@ -3,7 +3,7 @@ import { Study } from '@/entities';
 import { AppPage } from '../_components/app-page';
 import { JsonForm } from '../_components/json-form';
 import { StateBadge } from '../_components/review-panel';
-import { requireLabAction } from '../_lib/viewer';
+import { requireLabAction } from '../_lib/accounts/viewer';
 
 export const metadata = { title: 'Studies' };
 export const dynamic = 'force-dynamic';

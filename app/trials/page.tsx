@@ -2,7 +2,7 @@ import Link from 'next/link';
 import { Rig } from '@/entities';
 import { AppPage } from '../_components/app-page';
 import { TrialsTable } from '../_components/trials-table';
-import { requireLabAction } from '../_lib/viewer';
+import { requireLabAction } from '../_lib/accounts/viewer';
 
 export const metadata = { title: 'Trials' };
 export const dynamic = 'force-dynamic';

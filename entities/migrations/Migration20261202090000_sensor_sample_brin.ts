@@ -9,7 +9,7 @@ import { Migration } from '@mikro-orm/migrations';
  *
  * (source file, line) stays unique by construction: a file is imported once, in one transaction
  * that holds its `source_file` row FOR UPDATE and marks it imported, and within the file every
- * line number is emitted once, in increasing order (app/_lib/sensor-import.ts).
+ * line number is emitted once, in increasing order (app/_lib/imports/sensor-import.ts).
  */
 export class Migration20261202090000_sensor_sample_brin extends Migration {
 

@@ -12,7 +12,7 @@ import http from 'node:http';
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { beforeAll, describe, expect, test } from 'vitest';
-import { getEm } from '@/app/_lib/db';
+import { getEm } from '@/app/_lib/server/db';
 import { SourceFile } from '@/entities';
 import { baseUrl, signedIn, type Client } from './support/client';
 

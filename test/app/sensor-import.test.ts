@@ -11,10 +11,10 @@
  */
 import pg from 'pg';
 import { afterAll, describe, expect, test } from 'vitest';
-import { getEm, getOrm } from '@/app/_lib/db';
-import { createImportJobRow, enqueueSensorImport, newBoss, recoverInterruptedJobs, startBoss, workSensorImports } from '@/app/_lib/jobs';
-import { ImportCancelled, copyPool, importSensorLog, logImportInput } from '@/app/_lib/sensor-import';
-import { ImportError } from '@/app/_lib/import/import-error';
+import { getEm, getOrm } from '@/app/_lib/server/db';
+import { createImportJobRow, enqueueSensorImport, newBoss, recoverInterruptedJobs, startBoss, workSensorImports } from '@/app/_lib/jobs/jobs';
+import { ImportCancelled, copyPool, importSensorLog, logImportInput } from '@/app/_lib/imports/sensor-import';
+import { ImportError } from '@/app/_lib/imports/import-error';
 import { Rig, SourceFile, User } from '@/entities';
 import { Client, createAccount, signedIn } from './support/client';
 import { LOG_MAPPING as MAPPING, engineerWithRig, jobFinished as finished, logFolder, uploadRaw as upload } from './support/sensor-logs';

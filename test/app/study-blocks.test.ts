@@ -8,8 +8,8 @@
 import ExcelJS from 'exceljs';
 import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import { getOrm } from '@/app/_lib/db';
-import { copyPool } from '@/app/_lib/sensor-import';
+import { getOrm } from '@/app/_lib/server/db';
+import { copyPool } from '@/app/_lib/imports/sensor-import';
 import { Client, STRONG_PASSWORD, baseUrl, createAccount, signedIn, uniqueEmail } from './support/client';
 import { importGeneratedLog } from './support/sensor-logs';
 

@@ -15,8 +15,8 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { openBrowser, resultsDir, screenshot, signInAs, visit } from './support/browser';
 import { signedIn, type Client } from '../app/support/client';
 import { importGeneratedLog } from '../app/support/sensor-logs';
-import { getOrm } from '@/app/_lib/db';
-import { copyPool } from '@/app/_lib/sensor-import';
+import { getOrm } from '@/app/_lib/server/db';
+import { copyPool } from '@/app/_lib/imports/sensor-import';
 
 /** The words of the marks and cautions, from analysis/safety (hazardBand, temperatureCautions). */
 const SECONDS = 'at or above 60 °C: burns in seconds';

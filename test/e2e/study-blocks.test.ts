@@ -11,8 +11,8 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { openBrowser, resultsDir, screenshot, signInAs, visit } from './support/browser';
 import { signedIn, type Client } from '../app/support/client';
 import { importGeneratedLog } from '../app/support/sensor-logs';
-import { getOrm } from '@/app/_lib/db';
-import { copyPool } from '@/app/_lib/sensor-import';
+import { getOrm } from '@/app/_lib/server/db';
+import { copyPool } from '@/app/_lib/imports/sensor-import';
 
 const PNG_SIGNATURE = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]; // PNG (ISO/IEC 15948) §5.2
 

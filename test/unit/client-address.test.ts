@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { clientAddress, PEER_HEADER } from '../../app/_lib/client-address';
+import { clientAddress, PEER_HEADER } from '../../app/_lib/server/client-address';
 
 // OWASP ASVS 4.0.3 V13.1 / the X-Forwarded-For semantics of RFC 7239 §5.2 (each proxy appends
 // the address it saw; everything to its left is the client's word).

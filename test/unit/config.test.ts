@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { configProblems, ownOrigins, readConfig } from '../../app/_lib/config';
+import { configProblems, ownOrigins, readConfig } from '../../app/_lib/server/config';
 import { safeNextPath } from '../../app/_components/safe-next';
 
 const secret = 'x'.repeat(40);

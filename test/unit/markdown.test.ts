@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { renderMarkdown } from '../../app/_lib/markdown';
+import { renderMarkdown } from '../../app/_lib/studies/markdown';
 
 // OWASP XSS prevention (common practice): user text never becomes markup or script.
 describe('study text is Markdown, sanitised', () => {

@@ -1,8 +1,8 @@
 import { createHash } from 'node:crypto';
 import * as Plot from '@observablehq/plot';
 import { describe, expect, test } from 'vitest';
-import { plotToSvg } from '../../app/_lib/plot-svg';
-import { PLOT_STYLE_SHA256, commonHeaders, newNonce, pageCsp } from '../../app/_lib/security-headers';
+import { plotToSvg } from '../../app/_lib/plots/plot-svg';
+import { PLOT_STYLE_SHA256, commonHeaders, newNonce, pageCsp } from '../../app/_lib/server/security-headers';
 import { fitCurveInputFromFits, fitCurvePlot } from '../../app/_lib/plots';
 import { fitOrThrow } from './plots/support';
 

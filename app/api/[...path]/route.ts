@@ -1,6 +1,6 @@
 import type { NextRequest } from 'next/server';
-import { notFound } from '@/app/_lib/errors';
-import { route } from '@/app/_lib/route';
+import { notFound } from '@/app/_lib/server/errors';
+import { route } from '@/app/_lib/server/route';
 
 /**
  * Any /api path that no route answers: a JSON 404 through the route wrapper (its headers, its

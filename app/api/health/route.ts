@@ -1,7 +1,7 @@
 import { NextResponse } from 'next/server';
-import { config } from '@/app/_lib/config';
-import { getOrm } from '@/app/_lib/db';
-import { setSecurityHeaders } from '@/app/_lib/security-headers';
+import { config } from '@/app/_lib/server/config';
+import { getOrm } from '@/app/_lib/server/db';
+import { setSecurityHeaders } from '@/app/_lib/server/security-headers';
 
 export const dynamic = 'force-dynamic';
 

@@ -1,8 +1,8 @@
-import { labDto } from '@/app/_lib/dto';
-import { createLab, membershipsOf } from '@/app/_lib/labs';
-import { json, route } from '@/app/_lib/route';
-import { createLabInput } from '@/app/_lib/schemas';
-import { setLabCookie } from '@/app/_lib/session';
+import { labDto } from '@/app/_lib/server/dto';
+import { createLab, membershipsOf } from '@/app/_lib/labs/labs';
+import { json, route } from '@/app/_lib/server/route';
+import { createLabInput } from '@/app/_lib/accounts/schemas';
+import { setLabCookie } from '@/app/_lib/accounts/session';
 
 /** GET: the labs the actor belongs to. */
 export const GET = route({ auth: 'user' }, async (ctx) => {

@@ -1,7 +1,7 @@
-import { labDto, userDto } from '@/app/_lib/dto';
-import { membershipsOf } from '@/app/_lib/labs';
-import { json, route } from '@/app/_lib/route';
-import { preferencesInput } from '@/app/_lib/schemas';
+import { labDto, userDto } from '@/app/_lib/server/dto';
+import { membershipsOf } from '@/app/_lib/labs/labs';
+import { json, route } from '@/app/_lib/server/route';
+import { preferencesInput } from '@/app/_lib/accounts/schemas';
 
 /** GET: who is signed in and their labs with roles. */
 export const GET = route({ auth: 'user' }, async (ctx) => {

@@ -1,7 +1,7 @@
-import { createToken, listTokens } from '@/app/_lib/api-tokens';
-import { tokenDto } from '@/app/_lib/dto';
-import { json, route } from '@/app/_lib/route';
-import { tokenInput } from '@/app/_lib/schemas';
+import { createToken, listTokens } from '@/app/_lib/accounts/api-tokens';
+import { tokenDto } from '@/app/_lib/server/dto';
+import { json, route } from '@/app/_lib/server/route';
+import { tokenInput } from '@/app/_lib/accounts/schemas';
 
 /** GET: the user's personal API tokens (never their secrets). */
 export const GET = route({ auth: 'session' }, async (ctx) => {

@@ -8,12 +8,12 @@ import { ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTable
 import { PlotFigure } from '../../_components/plot-figure';
 import { CautionList } from '../../_components/safety-notice';
 import { ReviewPanel } from '../../_components/review-panel';
-import { modelLabel } from '../../_lib/fit-analysis';
-import { reviewTrail } from '../../_lib/fits';
-import { plotToSvg } from '../../_lib/plot-svg';
+import { modelLabel } from '../../_lib/fits/fit-analysis';
+import { reviewTrail } from '../../_lib/fits/fits';
+import { plotToSvg } from '../../_lib/plots/plot-svg';
 import { fitCurveInputFromFits, fitCurvePlot, heatInputFromFit, heatPlot, residualInputFromFit, residualPlots, type PlotFigure as Figure } from '../../_lib/plots';
-import { UUID } from '../../_lib/rigs';
-import { requireLabAction } from '../../_lib/viewer';
+import { UUID } from '../../_lib/rigs/rigs';
+import { requireLabAction } from '../../_lib/accounts/viewer';
 
 export const metadata = { title: 'Saved fit' };
 export const dynamic = 'force-dynamic';

@@ -1,10 +1,10 @@
 import { ROLES } from '@/entities/membership';
 import { SiteHeader } from '../../_components/site-header';
-import { ACTIONS, ROLE_SUMMARIES, can, type Action } from '../../_lib/permissions';
+import { ACTIONS, ROLE_SUMMARIES, can, type Action } from '../../_lib/labs/permissions';
 
 export const metadata = { title: 'Roles and permissions' };
 
-/** The permissions table exactly as the server enforces it (rendered from app/_lib/permissions.ts). */
+/** The permissions table exactly as the server enforces it (rendered from app/_lib/labs/permissions.ts). */
 export default function PermissionsHelp() {
   const actions = Object.keys(ACTIONS) as Action[];
   return (

@@ -1,9 +1,9 @@
 import Link from 'next/link';
 import { AuthCard } from '../../_components/app-page';
 import { AcceptInvitation } from './accept';
-import { getEm } from '../../_lib/db';
-import { findInvitation, invitationProblem } from '../../_lib/labs';
-import { getViewer } from '../../_lib/viewer';
+import { getEm } from '../../_lib/server/db';
+import { findInvitation, invitationProblem } from '../../_lib/labs/labs';
+import { getViewer } from '../../_lib/accounts/viewer';
 
 export const metadata = { title: 'Invitation' };
 export const dynamic = 'force-dynamic';

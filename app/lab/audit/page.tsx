@@ -1,7 +1,7 @@
 import { AuditEvent } from '@/entities';
 import { AppPage } from '../../_components/app-page';
-import { auditDto } from '../../_lib/dto';
-import { requireLabAction } from '../../_lib/viewer';
+import { auditDto } from '../../_lib/server/dto';
+import { requireLabAction } from '../../_lib/accounts/viewer';
 
 export const metadata = { title: 'Audit log' };
 export const dynamic = 'force-dynamic';

@@ -1,8 +1,8 @@
 import { notFound } from 'next/navigation';
 import { AppPage } from '../../_components/app-page';
-import { config } from '../../_lib/config';
-import { labMail } from '../../_lib/lab-mail';
-import { requireLabAction } from '../../_lib/viewer';
+import { config } from '../../_lib/server/config';
+import { labMail } from '../../_lib/mail/lab-mail';
+import { requireLabAction } from '../../_lib/accounts/viewer';
 
 export const metadata = { title: 'Captured mail' };
 export const dynamic = 'force-dynamic';

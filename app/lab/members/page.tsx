@@ -2,9 +2,9 @@ import { Invitation, Membership } from '@/entities';
 import { ROLES } from '@/entities/membership';
 import { AppPage } from '../../_components/app-page';
 import { JsonForm } from '../../_components/json-form';
-import { invitationDto, memberDto } from '../../_lib/dto';
-import { ROLE_SUMMARIES } from '../../_lib/permissions';
-import { requireLabAction } from '../../_lib/viewer';
+import { invitationDto, memberDto } from '../../_lib/server/dto';
+import { ROLE_SUMMARIES } from '../../_lib/labs/permissions';
+import { requireLabAction } from '../../_lib/accounts/viewer';
 import { MemberRow } from './member-row';
 
 export const metadata = { title: 'Members' };

@@ -1,6 +1,6 @@
 import { AppPage } from '../../_components/app-page';
 import { JsonForm } from '../../_components/json-form';
-import { requireViewer } from '../../_lib/viewer';
+import { requireViewer } from '../../_lib/accounts/viewer';
 
 export const metadata = { title: 'New lab' };
 export const dynamic = 'force-dynamic';

@@ -4,13 +4,13 @@ import { Rig, SourceFile } from '@/entities';
 import { AppPage } from '../../_components/app-page';
 import { RigForm } from '../../_components/rig-form';
 import { RigPhotos } from '../../_components/rig-photos';
-import { HEAT_SOURCE_LABELS } from '../../_lib/labels';
+import { HEAT_SOURCE_LABELS } from '../../_lib/rigs/labels';
 import { TrialsTable } from '../../_components/trials-table';
 import { RigJobs } from '../../_components/job-progress';
-import { importJobDto, listRigJobs } from '../../_lib/jobs';
-import { rigDto } from '../../_lib/dto';
-import { UUID } from '../../_lib/rigs';
-import { requireLabAction } from '../../_lib/viewer';
+import { importJobDto, listRigJobs } from '../../_lib/jobs/jobs';
+import { rigDto } from '../../_lib/server/dto';
+import { UUID } from '../../_lib/rigs/rigs';
+import { requireLabAction } from '../../_lib/accounts/viewer';
 
 export const dynamic = 'force-dynamic';
 

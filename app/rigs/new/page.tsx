@@ -1,6 +1,6 @@
 import { AppPage } from '../../_components/app-page';
 import { RigForm } from '../../_components/rig-form';
-import { requireLabAction } from '../../_lib/viewer';
+import { requireLabAction } from '../../_lib/accounts/viewer';
 
 export const metadata = { title: 'New rig' };
 export const dynamic = 'force-dynamic';

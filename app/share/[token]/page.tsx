@@ -2,10 +2,10 @@ import { SWRConfig } from 'swr';
 import { SiteHeader } from '../../_components/site-header';
 import { StudyBlocks } from '../../_components/study-blocks';
 import { sharedBlockKey } from '../../_components/study-block-types';
-import { getEm } from '../../_lib/db';
-import { studyBlocksData } from '../../_lib/study-blocks';
-import { sharedStudy, shareUnits } from '../../_lib/studies';
-import { getViewer } from '../../_lib/viewer';
+import { getEm } from '../../_lib/server/db';
+import { studyBlocksData } from '../../_lib/studies/study-blocks';
+import { sharedStudy, shareUnits } from '../../_lib/studies/studies';
+import { getViewer } from '../../_lib/accounts/viewer';
 
 export const metadata = { title: 'Shared study', robots: { index: false } };
 export const dynamic = 'force-dynamic';

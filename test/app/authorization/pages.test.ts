@@ -3,7 +3,7 @@
  * new page without an entry fails), fetched with lab A's objects in its path by every caller of
  * test/app/support/authz.ts, without following redirects. Anonymous callers of member pages are
  * sent to /sign-in?next=<the page> (3xx); a member of lab B gets 404 for lab A's objects, and a
- * role without the page's action 404 (`requireLabAction` in app/_lib/viewer.ts: no hint of what
+ * role without the page's action 404 (`requireLabAction` in app/_lib/accounts/viewer.ts: no hint of what
  * exists); public pages answer 200. Pages read the session cookie only: a Bearer token opens no
  * page, so the token callers are anonymous here. Pages that list the current lab's things, seen by
  * lab B's owner, hold nothing of lab A.

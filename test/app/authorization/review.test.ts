@@ -1,5 +1,5 @@
 /**
- * Review transitions of fits and studies (`review()` in app/_lib/fits.ts: draft → in review →
+ * Review transitions of fits and studies (`review()` in app/_lib/fits/fits.ts: draft → in review →
  * approved / changes requested), made by authors and others of lab A (the demo lab's roles,
  * test/app/support/authz.ts) on objects made here. Who may make a move is the permissions table
  * (submit: fit:write; approve and request-changes: review:decide); on top of it nobody approves or

@@ -8,7 +8,7 @@
  * Then: the CSRF refusal of every cookie-authenticated state-changing route, and no response
  * carrying a password hash, a token hash, a session cookie or a secret.
  *
- * The expected statuses follow the permissions table of app/_lib/permissions.ts, written out here
+ * The expected statuses follow the permissions table of app/_lib/labs/permissions.ts, written out here
  * (not computed from it) so that a change of the table shows up as a change of this matrix.
  */
 import { readFileSync } from 'node:fs';

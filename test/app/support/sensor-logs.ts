@@ -10,8 +10,8 @@ import os from 'node:os';
 import path from 'node:path';
 import { expect } from 'vitest';
 import { writeSensorLogCsv, SENSOR_LOG_MAPPING } from '../../../bench/import-parse';
-import { getEm } from '@/app/_lib/db';
-import { importSensorLog, logImportInput, type SensorImportResult } from '@/app/_lib/sensor-import';
+import { getEm } from '@/app/_lib/server/db';
+import { importSensorLog, logImportInput, type SensorImportResult } from '@/app/_lib/imports/sensor-import';
 import { Lab, Rig, SourceFile } from '@/entities';
 import { Client, baseUrl, signedIn } from './client';
 

@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { FORMULA_TRIGGERS, neutraliseCell, neutraliseText } from '../../../app/_lib/export/cells';
+import { FORMULA_TRIGGERS, neutraliseCell, neutraliseText } from '../../../app/_lib/exports/cells';
 
 // OWASP, "CSV Injection": cells beginning with = + - @ tab or carriage return are read as formulas;
 // prepend a single quote so the spreadsheet reads them as text.

@@ -1,8 +1,8 @@
 import Papa from 'papaparse';
 import { describe, expect, test } from 'vitest';
-import { toCsv } from '../../../app/_lib/export/csv';
-import { csvHeader, unitToken, xlsxHeader } from '../../../app/_lib/export/columns';
-import type { ExportColumn } from '../../../app/_lib/export/columns';
+import { toCsv } from '../../../app/_lib/exports/csv';
+import { csvHeader, unitToken, xlsxHeader } from '../../../app/_lib/exports/columns';
+import type { ExportColumn } from '../../../app/_lib/exports/columns';
 
 const columns: ExportColumn[] = [
   { key: 'timestamp', header: 'Time' },

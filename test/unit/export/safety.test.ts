@@ -1,5 +1,5 @@
 /**
- * Safety in the exports: the notice rows and caution cells (app/_lib/export/safety.ts), the CSV
+ * Safety in the exports: the notice rows and caution cells (app/_lib/exports/safety.ts), the CSV
  * comment lines, and our own trial-sheet import reading such a CSV back.
  * Thresholds and their basis (DOMAIN.md §5, §3.7): 40 °C spa limit (CPSC advisory 79-071, UL 1563
  * [38]); 49 °C scald and 60 °C burns in seconds (the scald-time table [39]); 95 °C near boiling,
@@ -7,12 +7,12 @@
  */
 import Papa from 'papaparse';
 import { describe, expect, test } from 'vitest';
-import { toCsv } from '../../../app/_lib/export/csv';
-import { cautionCell, limitItems, sheetNotice } from '../../../app/_lib/export/safety';
-import { studyCsv } from '../../../app/_lib/export/study-workbook';
-import { readDelimited } from '../../../app/_lib/import/read-delimited';
-import { suggestMapping } from '../../../app/_lib/import/auto-map';
-import { importTrialSheet } from '../../../app/_lib/import/import-trial-sheet';
+import { toCsv } from '../../../app/_lib/exports/csv';
+import { cautionCell, limitItems, sheetNotice } from '../../../app/_lib/exports/safety';
+import { studyCsv } from '../../../app/_lib/exports/study-workbook';
+import { readDelimited } from '../../../app/_lib/imports/read-delimited';
+import { suggestMapping } from '../../../app/_lib/imports/auto-map';
+import { importTrialSheet } from '../../../app/_lib/imports/import-trial-sheet';
 import { recirculatingForecast } from '../../../analysis/forecast/recirculating-forecast';
 import { coilHeater } from '../../../analysis/performance/heater-model';
 import { CAUTION_DEFER } from '../../../analysis/safety/cautions';

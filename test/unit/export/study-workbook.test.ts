@@ -1,7 +1,7 @@
 import ExcelJS from 'exceljs';
 import Papa from 'papaparse';
 import { describe, expect, test } from 'vitest';
-import { fitWorkbook, studyCsv, studyWorkbook, ANALYSIS_AID_NOTICE } from '../../../app/_lib/export/study-workbook';
+import { fitWorkbook, studyCsv, studyWorkbook, ANALYSIS_AID_NOTICE } from '../../../app/_lib/exports/study-workbook';
 import { coil, expInlet, flowsLpm, forecast, LPM, outletC, perf, study, trials } from './support';
 
 async function readBack(buf: Buffer): Promise<ExcelJS.Workbook> {

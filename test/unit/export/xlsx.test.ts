@@ -1,6 +1,6 @@
 import ExcelJS from 'exceljs';
 import { describe, expect, test } from 'vitest';
-import { buildWorkbook, DATE_NUM_FMT, type SheetSpec } from '../../../app/_lib/export/xlsx';
+import { buildWorkbook, DATE_NUM_FMT, type SheetSpec } from '../../../app/_lib/exports/xlsx';
 
 async function readBack(buf: Buffer): Promise<ExcelJS.Workbook> {
   const wb = new ExcelJS.Workbook();

@@ -1,7 +1,7 @@
 import { describe, expect, test } from 'vitest';
-import { readNumber, readNumberWithUnit } from '@/app/_lib/import/read-number';
-import { detectDateOrder, readDate, readSerialDate } from '@/app/_lib/import/read-date';
-import { readUnit, toSI, type ColumnUnit } from '@/app/_lib/import/column-units';
+import { readNumber, readNumberWithUnit } from '@/app/_lib/imports/read-number';
+import { detectDateOrder, readDate, readSerialDate } from '@/app/_lib/imports/read-date';
+import { readUnit, toSI, type ColumnUnit } from '@/app/_lib/imports/column-units';
 import { convert } from '@/analysis/units/parse-quantity';
 
 describe('numbers in cells', () => {

@@ -10,12 +10,12 @@
  * StringToNumber, round to nearest).
  */
 import { describe, expect, test } from 'vitest';
-import { FastDateTime, fastDecimal } from '@/app/_lib/import/fast-row';
-import { openDelimited, type DataBlock } from '@/app/_lib/import/read-delimited';
-import { readDate } from '@/app/_lib/import/read-date';
-import { createSensorLogBuilder, type SensorLog } from '@/app/_lib/import/sensor-log';
+import { FastDateTime, fastDecimal } from '@/app/_lib/imports/fast-row';
+import { openDelimited, type DataBlock } from '@/app/_lib/imports/read-delimited';
+import { readDate } from '@/app/_lib/imports/read-date';
+import { createSensorLogBuilder, type SensorLog } from '@/app/_lib/imports/sensor-log';
 import { mulberry32 } from '@/analysis/segment/synthetic-log';
-import type { ConfirmedMappingInput } from '@/app/_lib/import/apply-mapping';
+import type { ConfirmedMappingInput } from '@/app/_lib/imports/apply-mapping';
 import { chunked } from './helpers';
 
 const DOT = 46, COMMA = 44;

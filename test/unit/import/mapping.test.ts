@@ -1,7 +1,7 @@
 import { describe, expect, test } from 'vitest';
-import { splitHeader, suggestMapping } from '@/app/_lib/import/auto-map';
-import { headerSignature, normaliseHeaderName } from '@/app/_lib/import/header-signature';
-import { checkMapping } from '@/app/_lib/import/apply-mapping';
+import { splitHeader, suggestMapping } from '@/app/_lib/imports/auto-map';
+import { headerSignature, normaliseHeaderName } from '@/app/_lib/imports/header-signature';
+import { checkMapping } from '@/app/_lib/imports/apply-mapping';
 import { importErrorOf } from './helpers';
 
 describe('auto-mapping from header names and unit hints', () => {

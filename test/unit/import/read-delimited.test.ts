@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { openDelimited, readDelimited } from '@/app/_lib/import/read-delimited';
+import { openDelimited, readDelimited } from '@/app/_lib/imports/read-delimited';
 import { chunked, fixture, importErrorOf } from './helpers';
 
 const enc = (s: string) => new TextEncoder().encode(s);

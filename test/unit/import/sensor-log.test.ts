@@ -1,7 +1,7 @@
 import { describe, expect, test } from 'vitest';
-import { openDelimited, readDelimited } from '@/app/_lib/import/read-delimited';
-import { createSensorLogBuilder } from '@/app/_lib/import/sensor-log';
-import type { ConfirmedMappingInput } from '@/app/_lib/import/apply-mapping';
+import { openDelimited, readDelimited } from '@/app/_lib/imports/read-delimited';
+import { createSensorLogBuilder } from '@/app/_lib/imports/sensor-log';
+import type { ConfirmedMappingInput } from '@/app/_lib/imports/apply-mapping';
 import { segmentLog } from '@/analysis/segment/segment-log';
 import { fixture, importErrorOf } from './helpers';
 

@@ -3,9 +3,9 @@
  * (common practice: loggers record every 1–15 s, hand-written trials are minutes apart).
  */
 import { describe, expect, test } from 'vitest';
-import { readDelimited } from '@/app/_lib/import/read-delimited';
-import { suggestMapping } from '@/app/_lib/import/auto-map';
-import { logMappingFrom, suggestShape } from '@/app/_lib/import/suggest-shape';
+import { readDelimited } from '@/app/_lib/imports/read-delimited';
+import { suggestMapping } from '@/app/_lib/imports/auto-map';
+import { logMappingFrom, suggestShape } from '@/app/_lib/imports/suggest-shape';
 import { fixture } from './helpers';
 
 async function shapeOf(name: string) {

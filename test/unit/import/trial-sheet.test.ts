@@ -1,10 +1,10 @@
 import { describe, expect, test } from 'vitest';
-import { readDelimited } from '@/app/_lib/import/read-delimited';
-import { suggestMapping } from '@/app/_lib/import/auto-map';
-import { importTrialSheet, type CellTable } from '@/app/_lib/import/import-trial-sheet';
-import { checkTrialRow, trialRowSchema } from '@/app/_lib/import/trial-row';
-import type { ConfirmedMappingInput } from '@/app/_lib/import/apply-mapping';
-import type { DecimalSeparator } from '@/app/_lib/import/detect-dialect';
+import { readDelimited } from '@/app/_lib/imports/read-delimited';
+import { suggestMapping } from '@/app/_lib/imports/auto-map';
+import { importTrialSheet, type CellTable } from '@/app/_lib/imports/import-trial-sheet';
+import { checkTrialRow, trialRowSchema } from '@/app/_lib/rigs/trial-rule';
+import type { ConfirmedMappingInput } from '@/app/_lib/imports/apply-mapping';
+import type { DecimalSeparator } from '@/app/_lib/imports/detect-dialect';
 import { fixture } from './helpers';
 
 const GAL = 3.785411784e-3; // m³, NIST SP 811 B.8 (exact)

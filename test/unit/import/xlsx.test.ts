@@ -1,9 +1,9 @@
 import ExcelJS from 'exceljs';
 import { deflateRawSync } from 'node:zlib';
 import { describe, expect, test } from 'vitest';
-import { listSheets, readXlsxSheet } from '@/app/_lib/import/read-xlsx';
-import { checkZip, listZipEntries } from '@/app/_lib/import/zip-guard';
-import { importTrialSheet } from '@/app/_lib/import/import-trial-sheet';
+import { listSheets, readXlsxSheet } from '@/app/_lib/imports/read-xlsx';
+import { checkZip, listZipEntries } from '@/app/_lib/imports/zip-guard';
+import { importTrialSheet } from '@/app/_lib/imports/import-trial-sheet';
 import { fixture, importErrorOf } from './helpers';
 
 interface FakeEntry { name: string; data: Buffer; declaredSize?: number }

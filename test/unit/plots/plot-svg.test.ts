@@ -1,6 +1,6 @@
 import * as Plot from '@observablehq/plot';
 import { describe, expect, test } from 'vitest';
-import { plotToSvg } from '../../../app/_lib/plot-svg';
+import { plotToSvg } from '../../../app/_lib/plots/plot-svg';
 
 describe('plotToSvg', () => {
   // A line through fractional positions and a tooltip with a long decimal (our data, common practice).

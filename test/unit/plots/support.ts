@@ -41,7 +41,7 @@ export function group(doc: ReturnType<typeof parseSvg>, description: string) {
 }
 
 /**
- * Renders Plot options to an SVG string as app/_lib/plot-svg.ts `plotToSvg` does (linkedom
+ * Renders Plot options to an SVG string as app/_lib/plots/plot-svg.ts `plotToSvg` does (linkedom
  * document, xmlns and role on the root), but without its rounding of the geometry to 0.1 px, so
  * that the tests read exact positions (test/unit/plots/plot-svg.test.ts checks the rounding). A copy because vitest cannot load that file yet: its
  * `import 'server-only'` goes through the alias `server-only/empty.js`, which the package's

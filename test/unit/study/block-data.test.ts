@@ -5,7 +5,7 @@
  */
 import { describe, expect, test } from 'vitest';
 import { fitModel, type FitSuccess } from '../../../analysis/fit';
-import { blockData, type BlockContext } from '../../../app/_lib/study-blocks';
+import { blockData, type BlockContext } from '../../../app/_lib/studies/study-blocks';
 import type { FitRow } from '../../../entities';
 import { coilOutletC, LPM, seededNormals } from '../plots/support';
 

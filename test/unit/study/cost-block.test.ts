@@ -3,8 +3,8 @@
  * brief's illustrative inputs; heat contents are the EIA factors of analysis/cost/fuels.
  */
 import { describe, expect, test } from 'vitest';
-import { CostInputError, costExport, costView } from '../../../app/_lib/cost-block';
-import { costsSheet } from '../../../app/_lib/export/result-sheets';
+import { CostInputError, costExport, costView } from '../../../app/_lib/forecasts/cost-sheet';
+import { costsSheet } from '../../../app/_lib/exports/result-sheets';
 import type { StudyBlock } from '../../../entities/study';
 
 const THERM_J = 105_505_585.262; // 100,000 Btu_IT (NIST SP 811)

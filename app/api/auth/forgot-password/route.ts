@@ -1,6 +1,6 @@
-import { requestReset } from '@/app/_lib/accounts';
-import { json, route } from '@/app/_lib/route';
-import { forgotInput } from '@/app/_lib/schemas';
+import { requestReset } from '@/app/_lib/accounts/accounts';
+import { json, route } from '@/app/_lib/server/route';
+import { forgotInput } from '@/app/_lib/accounts/schemas';
 
 /** POST: send a reset link if the address has an account. The answer is the same either way. */
 export const POST = route({ auth: 'public' }, async (ctx) => {

@@ -1,7 +1,7 @@
-import { changePassword } from '@/app/_lib/accounts';
-import { signedIn } from '@/app/_lib/auth-responses';
-import { route } from '@/app/_lib/route';
-import { changePasswordInput } from '@/app/_lib/schemas';
+import { changePassword } from '@/app/_lib/accounts/accounts';
+import { signedIn } from '@/app/_lib/accounts/auth-responses';
+import { route } from '@/app/_lib/server/route';
+import { changePasswordInput } from '@/app/_lib/accounts/schemas';
 
 /** POST: change the password; every other session ends (and with `revokeTokens` every API token), this browser gets a new one. */
 export const POST = route({ auth: 'session' }, async (ctx) => {

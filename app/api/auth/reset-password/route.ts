@@ -1,7 +1,7 @@
-import { resetPassword } from '@/app/_lib/accounts';
-import { signedIn } from '@/app/_lib/auth-responses';
-import { route } from '@/app/_lib/route';
-import { resetInput } from '@/app/_lib/schemas';
+import { resetPassword } from '@/app/_lib/accounts/accounts';
+import { signedIn } from '@/app/_lib/accounts/auth-responses';
+import { route } from '@/app/_lib/server/route';
+import { resetInput } from '@/app/_lib/accounts/schemas';
 
 /** POST: use a reset token (single use, one hour); ends other sessions and signs in here. */
 export const POST = route({ auth: 'public' }, async (ctx) => {

@@ -1,7 +1,7 @@
-import { signIn } from '@/app/_lib/accounts';
-import { signedIn } from '@/app/_lib/auth-responses';
-import { route } from '@/app/_lib/route';
-import { signInInput } from '@/app/_lib/schemas';
+import { signIn } from '@/app/_lib/accounts/accounts';
+import { signedIn } from '@/app/_lib/accounts/auth-responses';
+import { route } from '@/app/_lib/server/route';
+import { signInInput } from '@/app/_lib/accounts/schemas';
 
 /** POST: e-mail and password → session cookie. */
 export const POST = route({ auth: 'public' }, async (ctx) => {

@@ -1,7 +1,7 @@
-import { endAllSessions } from '@/app/_lib/accounts';
-import { audit } from '@/app/_lib/audit';
-import { signedOut } from '@/app/_lib/auth-responses';
-import { route } from '@/app/_lib/route';
+import { endAllSessions } from '@/app/_lib/accounts/accounts';
+import { audit } from '@/app/_lib/labs/audit';
+import { signedOut } from '@/app/_lib/accounts/auth-responses';
+import { route } from '@/app/_lib/server/route';
 
 /** POST: end every session of the account, on every device. */
 export const POST = route({ auth: 'session' }, async (ctx) => {

@@ -1,7 +1,7 @@
 import { Session } from '@/entities';
-import { audit } from '@/app/_lib/audit';
-import { signedOut } from '@/app/_lib/auth-responses';
-import { route } from '@/app/_lib/route';
+import { audit } from '@/app/_lib/labs/audit';
+import { signedOut } from '@/app/_lib/accounts/auth-responses';
+import { route } from '@/app/_lib/server/route';
 
 /** POST: end this browser's session. */
 export const POST = route({ auth: 'session' }, async (ctx) => {

@@ -1,6 +1,6 @@
-import { SIGN_UP_SENT, signUp } from '@/app/_lib/accounts';
-import { json, route } from '@/app/_lib/route';
-import { signUpInput } from '@/app/_lib/schemas';
+import { SIGN_UP_SENT, signUp } from '@/app/_lib/accounts/accounts';
+import { json, route } from '@/app/_lib/server/route';
+import { signUpInput } from '@/app/_lib/accounts/schemas';
 
 /**
  * POST: start a sign-up. The answer is the same (202) whether or not the address has an account:

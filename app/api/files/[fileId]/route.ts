@@ -1,10 +1,10 @@
 import { Readable } from 'node:stream';
 import { SourceFile } from '@/entities';
-import { notFound } from '@/app/_lib/errors';
-import { UUID } from '@/app/_lib/rigs';
-import { audit } from '@/app/_lib/audit';
-import { route } from '@/app/_lib/route';
-import { getObjectStream } from '@/app/_lib/storage';
+import { notFound } from '@/app/_lib/server/errors';
+import { UUID } from '@/app/_lib/rigs/rigs';
+import { audit } from '@/app/_lib/labs/audit';
+import { route } from '@/app/_lib/server/route';
+import { getObjectStream } from '@/app/_lib/server/storage';
 
 /** GET: a stored file exactly as uploaded (raw trial sheets, rig photos), for members of its lab. */
 export const GET = route<{ fileId: string }>({ auth: 'user' }, async (ctx) => {

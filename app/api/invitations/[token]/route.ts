@@ -1,7 +1,7 @@
-import { labDto } from '@/app/_lib/dto';
-import { acceptInvitation } from '@/app/_lib/labs';
-import { json, route } from '@/app/_lib/route';
-import { setLabCookie } from '@/app/_lib/session';
+import { labDto } from '@/app/_lib/server/dto';
+import { acceptInvitation } from '@/app/_lib/labs/labs';
+import { json, route } from '@/app/_lib/server/route';
+import { setLabCookie } from '@/app/_lib/accounts/session';
 
 /** POST: accept an invitation as the signed-in user (the invited address only). */
 export const POST = route<{ token: string }>({ auth: 'session' }, async (ctx) => {

@@ -1,5 +1,5 @@
-import { cancelJob, importJobDto, loadJob } from '@/app/_lib/jobs';
-import { json, route } from '@/app/_lib/route';
+import { cancelJob, importJobDto, loadJob } from '@/app/_lib/jobs/jobs';
+import { json, route } from '@/app/_lib/server/route';
 
 /** GET: a background job's state, progress and result (members of its lab only). */
 export const GET = route<{ jobId: string }>({ auth: 'user' }, async (ctx) => {

@@ -1,7 +1,7 @@
-import { labDto } from '@/app/_lib/dto';
-import { json, route } from '@/app/_lib/route';
-import { switchLabInput } from '@/app/_lib/schemas';
-import { setLabCookie } from '@/app/_lib/session';
+import { labDto } from '@/app/_lib/server/dto';
+import { json, route } from '@/app/_lib/server/route';
+import { switchLabInput } from '@/app/_lib/accounts/schemas';
+import { setLabCookie } from '@/app/_lib/accounts/session';
 
 /** POST: make one of the user's labs the current one (the lab switcher). */
 export const POST = route({ auth: 'session' }, async (ctx) => {

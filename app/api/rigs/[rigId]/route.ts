@@ -1,6 +1,6 @@
-import { rigDto } from '@/app/_lib/dto';
-import { loadRig, rigPatch, updateRig } from '@/app/_lib/rigs';
-import { json, route } from '@/app/_lib/route';
+import { rigDto } from '@/app/_lib/server/dto';
+import { loadRig, rigPatch, updateRig } from '@/app/_lib/rigs/rigs';
+import { json, route } from '@/app/_lib/server/route';
 
 type P = { rigId: string };
 

@@ -1,9 +1,9 @@
 import { ShareLink } from '@/entities';
-import { notFound } from '@/app/_lib/errors';
-import { UUID } from '@/app/_lib/rigs';
-import { audit } from '@/app/_lib/audit';
-import { json, route } from '@/app/_lib/route';
-import { shareDto } from '@/app/_lib/studies';
+import { notFound } from '@/app/_lib/server/errors';
+import { UUID } from '@/app/_lib/rigs/rigs';
+import { audit } from '@/app/_lib/labs/audit';
+import { json, route } from '@/app/_lib/server/route';
+import { shareDto } from '@/app/_lib/studies/studies';
 
 /** DELETE: revoke a share link at once. */
 export const DELETE = route<{ shareId: string }>({ auth: 'session' }, async (ctx) => {

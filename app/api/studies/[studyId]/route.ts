@@ -1,6 +1,6 @@
-import { json, route } from '@/app/_lib/route';
-import { reviewTrail } from '@/app/_lib/fits';
-import { assertEditable, loadStudy, saveStudy, studyDto, studySave } from '@/app/_lib/studies';
+import { json, route } from '@/app/_lib/server/route';
+import { reviewTrail } from '@/app/_lib/fits/fits';
+import { assertEditable, loadStudy, saveStudy, studyDto, studySave } from '@/app/_lib/studies/studies';
 
 type P = { studyId: string };
 

@@ -1,7 +1,7 @@
-import { revokeToken } from '@/app/_lib/api-tokens';
-import { tokenDto } from '@/app/_lib/dto';
-import { notFound } from '@/app/_lib/errors';
-import { json, route } from '@/app/_lib/route';
+import { revokeToken } from '@/app/_lib/accounts/api-tokens';
+import { tokenDto } from '@/app/_lib/server/dto';
+import { notFound } from '@/app/_lib/server/errors';
+import { json, route } from '@/app/_lib/server/route';
 
 /** DELETE: revoke one of the user's tokens. */
 export const DELETE = route<{ tokenId: string }>({ auth: 'session' }, async (ctx) => {

@@ -1,9 +1,9 @@
 import { Trial, TrialChange } from '@/entities';
-import { notFound } from '@/app/_lib/errors';
-import { UUID } from '@/app/_lib/rigs';
-import { json, route, type RouteContext } from '@/app/_lib/route';
-import type { Action } from '@/app/_lib/permissions';
-import { trialDto, trialPatch, updateTrials } from '@/app/_lib/trials';
+import { notFound } from '@/app/_lib/server/errors';
+import { UUID } from '@/app/_lib/rigs/rigs';
+import { json, route, type RouteContext } from '@/app/_lib/server/route';
+import type { Action } from '@/app/_lib/labs/permissions';
+import { trialDto, trialPatch, updateTrials } from '@/app/_lib/rigs/trials';
 
 type P = { trialId: string };
 

@@ -2,8 +2,8 @@ import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { Rig, Trial } from '@/entities';
 import { AppPage } from '../../../_components/app-page';
-import { UUID } from '../../../_lib/rigs';
-import { requireLabAction } from '../../../_lib/viewer';
+import { UUID } from '../../../_lib/rigs/rigs';
+import { requireLabAction } from '../../../_lib/accounts/viewer';
 import { EntryForm } from './entry-form';
 
 export const metadata = { title: 'Add a trial' };

@@ -2,7 +2,7 @@
 
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { PRESETS, type PresetName, type SteadyCriteria } from '@/analysis/segment/steady-criteria';
-import type { PreviewPeriod, SegmentPreview } from '@/app/_lib/sensor-preview';
+import type { PreviewPeriod, SegmentPreview } from '@/app/_lib/imports/sensor-preview';
 import { timeSeriesSegmentsPlot, type LogSegment } from '@/app/_lib/plots/time-series';
 import { api, ApiError } from '../../../_components/api';
 import { JobProgress } from '../../../_components/job-progress';

@@ -2,9 +2,9 @@ import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { Rig } from '@/entities';
 import { AppPage } from '../../../_components/app-page';
-import { maxUploadBytes } from '../../../_lib/imports';
-import { UUID } from '../../../_lib/rigs';
-import { requireLabAction } from '../../../_lib/viewer';
+import { maxUploadBytes } from '../../../_lib/imports/trial-sheets';
+import { UUID } from '../../../_lib/rigs/rigs';
+import { requireLabAction } from '../../../_lib/accounts/viewer';
 import { ImportWizard } from './wizard';
 
 export const metadata = { title: 'Import trials' };

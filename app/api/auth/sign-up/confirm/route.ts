@@ -1,7 +1,7 @@
-import { confirmSignUp } from '@/app/_lib/accounts';
-import { signedIn } from '@/app/_lib/auth-responses';
-import { route } from '@/app/_lib/route';
-import { signUpConfirmInput } from '@/app/_lib/schemas';
+import { confirmSignUp } from '@/app/_lib/accounts/accounts';
+import { signedIn } from '@/app/_lib/accounts/auth-responses';
+import { route } from '@/app/_lib/server/route';
+import { signUpConfirmInput } from '@/app/_lib/accounts/schemas';
 
 /** POST: the token of a sign-up link → the account and its first lab, signed in (single use, 24 hours). */
 export const POST = route({ auth: 'public' }, async (ctx) => {

@@ -1,6 +1,6 @@
-import { loadFit } from '@/app/_lib/fit-access';
-import { addComment, commentInput, reviewTrail } from '@/app/_lib/fits';
-import { json, route } from '@/app/_lib/route';
+import { loadFit } from '@/app/_lib/fits/fit-access';
+import { addComment, commentInput, reviewTrail } from '@/app/_lib/fits/fits';
+import { json, route } from '@/app/_lib/server/route';
 
 type P = { fitId: string };
 

@@ -1,9 +1,9 @@
 import type { FitSuccess } from '@/analysis/fit';
 import type { PerformanceTable } from '@/analysis/performance/performance-table';
-import { exportResponse, type StoredTrial } from '@/app/_lib/study-export';
-import { loadFit } from '@/app/_lib/fit-access';
-import { modelLabel } from '@/app/_lib/fit-analysis';
-import { route } from '@/app/_lib/route';
+import { exportResponse, type StoredTrial } from '@/app/_lib/studies/study-export';
+import { loadFit } from '@/app/_lib/fits/fit-access';
+import { modelLabel } from '@/app/_lib/fits/fit-analysis';
+import { route } from '@/app/_lib/server/route';
 import { Rig } from '@/entities';
 
 

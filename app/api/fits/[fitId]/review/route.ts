@@ -1,6 +1,6 @@
-import { loadFit } from '@/app/_lib/fit-access';
-import { review, reviewInput } from '@/app/_lib/fits';
-import { json, route } from '@/app/_lib/route';
+import { loadFit } from '@/app/_lib/fits/fit-access';
+import { review, reviewInput } from '@/app/_lib/fits/fits';
+import { json, route } from '@/app/_lib/server/route';
 
 /** POST: submit for review (authors), approve or request changes (reviewers and owners, never the fit's author). */
 export const POST = route<{ fitId: string }>({ auth: 'session' }, async (ctx) => {

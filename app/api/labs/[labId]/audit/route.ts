@@ -1,6 +1,6 @@
 import { AuditEvent } from '@/entities';
-import { auditDto } from '@/app/_lib/dto';
-import { json, route } from '@/app/_lib/route';
+import { auditDto } from '@/app/_lib/server/dto';
+import { json, route } from '@/app/_lib/server/route';
 
 /** GET: the lab's security events, newest first (owners). */
 export const GET = route<{ labId: string }>({ auth: 'session', labAction: 'audit:read' }, async (ctx) => {

@@ -1,7 +1,7 @@
 import { Fit } from '@/entities';
-import { fitListDto, saveFit, saveFitInput } from '@/app/_lib/fits';
-import { loadRig } from '@/app/_lib/rigs';
-import { json, route } from '@/app/_lib/route';
+import { fitListDto, saveFit, saveFitInput } from '@/app/_lib/fits/fits';
+import { loadRig } from '@/app/_lib/rigs/rigs';
+import { json, route } from '@/app/_lib/server/route';
 import { z } from 'zod';
 
 type P = { labId: string };

@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { forecast } from '@/app/_lib/forecasts';
-import { json, route } from '@/app/_lib/route';
+import { forecast } from '@/app/_lib/forecasts/forecasts';
+import { json, route } from '@/app/_lib/server/route';
 
 /** POST: a pool or tub forecast (inputs as unit strings, as the analysis command line takes them); nothing is stored. */
 export const POST = route<{ labId: string }>({ auth: 'user', labAction: 'lab:read', maxBodyBytes: 256 * 1024 }, async (ctx) => {

@@ -1,8 +1,8 @@
 import { Invitation } from '@/entities';
-import { invitationDto } from '@/app/_lib/dto';
-import { invite } from '@/app/_lib/labs';
-import { json, route } from '@/app/_lib/route';
-import { inviteInput } from '@/app/_lib/schemas';
+import { invitationDto } from '@/app/_lib/server/dto';
+import { invite } from '@/app/_lib/labs/labs';
+import { json, route } from '@/app/_lib/server/route';
+import { inviteInput } from '@/app/_lib/accounts/schemas';
 
 type P = { labId: string };
 

@@ -1,6 +1,6 @@
 import { Membership } from '@/entities';
-import { memberDto } from '@/app/_lib/dto';
-import { json, route } from '@/app/_lib/route';
+import { memberDto } from '@/app/_lib/server/dto';
+import { json, route } from '@/app/_lib/server/route';
 
 /** GET: the lab's members and their roles (any member may see who else is in the lab). */
 export const GET = route<{ labId: string }>({ auth: 'user', labAction: 'lab:read' }, async (ctx) => {

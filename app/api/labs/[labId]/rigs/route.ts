@@ -1,7 +1,7 @@
 import { Rig } from '@/entities';
-import { rigDto } from '@/app/_lib/dto';
-import { createRig, rigInput } from '@/app/_lib/rigs';
-import { json, route } from '@/app/_lib/route';
+import { rigDto } from '@/app/_lib/server/dto';
+import { createRig, rigInput } from '@/app/_lib/rigs/rigs';
+import { json, route } from '@/app/_lib/server/route';
 
 type P = { labId: string };
 

@@ -1,6 +1,6 @@
 import { Study } from '@/entities';
-import { json, route } from '@/app/_lib/route';
-import { newStudy, studyCreate, studyListDto } from '@/app/_lib/studies';
+import { json, route } from '@/app/_lib/server/route';
+import { newStudy, studyCreate, studyListDto } from '@/app/_lib/studies/studies';
 
 type P = { labId: string };
 

@@ -1,6 +1,6 @@
-import { analyze, analyzeInput } from '@/app/_lib/fit-analysis';
-import { loadRig } from '@/app/_lib/rigs';
-import { json, route } from '@/app/_lib/route';
+import { analyze, analyzeInput } from '@/app/_lib/fits/fit-analysis';
+import { loadRig } from '@/app/_lib/rigs/rigs';
+import { json, route } from '@/app/_lib/server/route';
 
 /** POST: fit and compare models on the rig's trials; nothing is stored (any member may explore). */
 export const POST = route<{ rigId: string }>({ auth: 'user', maxBodyBytes: 256 * 1024 }, async (ctx) => {

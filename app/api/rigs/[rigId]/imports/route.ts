@@ -1,8 +1,8 @@
-import { HttpError, badRequest } from '@/app/_lib/errors';
-import { confirmImport, maxUploadBytes, previewImport, sourceFileDto, storeSpooled } from '@/app/_lib/imports';
-import { confirmedMappingSchema } from '@/app/_lib/import';
-import { loadRig } from '@/app/_lib/rigs';
-import { json, route } from '@/app/_lib/route';
+import { HttpError, badRequest } from '@/app/_lib/server/errors';
+import { confirmImport, maxUploadBytes, previewImport, sourceFileDto, storeSpooled } from '@/app/_lib/imports/trial-sheets';
+import { confirmedMappingSchema } from '@/app/_lib/imports';
+import { loadRig } from '@/app/_lib/rigs/rigs';
+import { json, route } from '@/app/_lib/server/route';
 
 /**
  * POST (multipart, for scripts): field `file`, optional `mapping` (JSON) and `sheet`. The file is

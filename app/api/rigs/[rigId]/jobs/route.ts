@@ -1,6 +1,6 @@
-import { importJobDto, listRigJobs } from '@/app/_lib/jobs';
-import { loadRig } from '@/app/_lib/rigs';
-import { json, route } from '@/app/_lib/route';
+import { importJobDto, listRigJobs } from '@/app/_lib/jobs/jobs';
+import { loadRig } from '@/app/_lib/rigs/rigs';
+import { json, route } from '@/app/_lib/server/route';
 
 /** GET: the rig's ten latest background imports with their state and progress (members of its lab). */
 export const GET = route<{ rigId: string }>({ auth: 'user' }, async (ctx) => {

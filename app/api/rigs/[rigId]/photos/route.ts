@@ -1,9 +1,9 @@
 import { SourceFile } from '@/entities';
-import { HttpError, badRequest } from '@/app/_lib/errors';
-import { sourceFileDto } from '@/app/_lib/imports';
-import { loadRig } from '@/app/_lib/rigs';
-import { json, route } from '@/app/_lib/route';
-import { putFile, spool } from '@/app/_lib/storage';
+import { HttpError, badRequest } from '@/app/_lib/server/errors';
+import { sourceFileDto } from '@/app/_lib/imports/trial-sheets';
+import { loadRig } from '@/app/_lib/rigs/rigs';
+import { json, route } from '@/app/_lib/server/route';
+import { putFile, spool } from '@/app/_lib/server/storage';
 
 const MAX_PHOTO_BYTES = 15 * 1024 * 1024;
 const IMAGE_TYPES = new Set(['image/jpeg', 'image/png', 'image/webp']);

@@ -1,7 +1,7 @@
 import { z } from 'zod';
-import { loadRig } from '@/app/_lib/rigs';
-import { json, route } from '@/app/_lib/route';
-import { createTrials, listQuery, listTrials, trialDto, trialInput } from '@/app/_lib/trials';
+import { loadRig } from '@/app/_lib/rigs/rigs';
+import { json, route } from '@/app/_lib/server/route';
+import { createTrials, listQuery, listTrials, trialDto, trialInput } from '@/app/_lib/rigs/trials';
 
 type P = { rigId: string };
 

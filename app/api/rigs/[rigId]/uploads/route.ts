@@ -1,7 +1,7 @@
-import { maxUploadBytes, sourceFileDto, storeUpload } from '@/app/_lib/imports';
-import { loadRig } from '@/app/_lib/rigs';
-import { json, route } from '@/app/_lib/route';
-import { badRequest } from '@/app/_lib/errors';
+import { maxUploadBytes, sourceFileDto, storeUpload } from '@/app/_lib/imports/trial-sheets';
+import { loadRig } from '@/app/_lib/rigs/rigs';
+import { json, route } from '@/app/_lib/server/route';
+import { badRequest } from '@/app/_lib/server/errors';
 
 /** POST: the raw file as the request body (`?filename=`); stored unchanged with its SHA-256. */
 export const POST = route<{ rigId: string }>({ auth: 'user', maxBodyBytes: maxUploadBytes() }, async (ctx) => {

@@ -1,7 +1,7 @@
-import { notFound } from '@/app/_lib/errors';
-import { route } from '@/app/_lib/route';
-import { exportResponse, studyExportData } from '@/app/_lib/study-export';
-import { sharedStudy, shareUnits } from '@/app/_lib/studies';
+import { notFound } from '@/app/_lib/server/errors';
+import { route } from '@/app/_lib/server/route';
+import { exportResponse, studyExportData } from '@/app/_lib/studies/study-export';
+import { sharedStudy, shareUnits } from '@/app/_lib/studies/studies';
 
 /** GET: the shared study as XLSX, for anyone holding a valid share link, in the units of the share view (`?units=si|us`). */
 export const GET = route<{ token: string }>({ auth: 'public' }, async (ctx) => {

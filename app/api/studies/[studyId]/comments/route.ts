@@ -1,6 +1,6 @@
-import { addComment, commentInput, reviewTrail } from '@/app/_lib/fits';
-import { json, route } from '@/app/_lib/route';
-import { loadStudy } from '@/app/_lib/studies';
+import { addComment, commentInput, reviewTrail } from '@/app/_lib/fits/fits';
+import { json, route } from '@/app/_lib/server/route';
+import { loadStudy } from '@/app/_lib/studies/studies';
 
 type P = { studyId: string };
 

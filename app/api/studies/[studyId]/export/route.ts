@@ -1,6 +1,6 @@
-import { route } from '@/app/_lib/route';
-import { exportResponse, studyExportData } from '@/app/_lib/study-export';
-import { loadStudy } from '@/app/_lib/studies';
+import { route } from '@/app/_lib/server/route';
+import { exportResponse, studyExportData } from '@/app/_lib/studies/study-export';
+import { loadStudy } from '@/app/_lib/studies/studies';
 
 /** GET: the study as XLSX in the user's units, or one table as CSV (`?format=csv&table=Fit`). */
 export const GET = route<{ studyId: string }>({ auth: 'user' }, async (ctx) => {

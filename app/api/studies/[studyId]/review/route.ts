@@ -1,6 +1,6 @@
-import { review, reviewInput } from '@/app/_lib/fits';
-import { json, route } from '@/app/_lib/route';
-import { loadStudy, studyOwners } from '@/app/_lib/studies';
+import { review, reviewInput } from '@/app/_lib/fits/fits';
+import { json, route } from '@/app/_lib/server/route';
+import { loadStudy, studyOwners } from '@/app/_lib/studies/studies';
 
 /** POST: submit the study for review (authors), approve or request changes (reviewers, owners; never its author or anyone who edited it since the last decision). */
 export const POST = route<{ studyId: string }>({ auth: 'session' }, async (ctx) => {

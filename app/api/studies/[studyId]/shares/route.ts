@@ -1,7 +1,7 @@
 import { ShareLink } from '@/entities';
-import { audit } from '@/app/_lib/audit';
-import { json, route } from '@/app/_lib/route';
-import { createShare, loadStudy, shareDto, shareInput } from '@/app/_lib/studies';
+import { audit } from '@/app/_lib/labs/audit';
+import { json, route } from '@/app/_lib/server/route';
+import { createShare, loadStudy, shareDto, shareInput } from '@/app/_lib/studies/studies';
 
 type P = { studyId: string };
 

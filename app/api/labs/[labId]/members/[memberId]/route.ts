@@ -1,7 +1,7 @@
-import { memberDto } from '@/app/_lib/dto';
-import { changeRole, removeMember } from '@/app/_lib/labs';
-import { json, route } from '@/app/_lib/route';
-import { roleInput } from '@/app/_lib/schemas';
+import { memberDto } from '@/app/_lib/server/dto';
+import { changeRole, removeMember } from '@/app/_lib/labs/labs';
+import { json, route } from '@/app/_lib/server/route';
+import { roleInput } from '@/app/_lib/accounts/schemas';
 
 type P = { labId: string; memberId: string };
 

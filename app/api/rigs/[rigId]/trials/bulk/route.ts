@@ -1,7 +1,7 @@
 import { z } from 'zod';
-import { loadRig } from '@/app/_lib/rigs';
-import { json, route } from '@/app/_lib/route';
-import { trialDto, trialPatch, trialsOfRig, updateTrials } from '@/app/_lib/trials';
+import { loadRig } from '@/app/_lib/rigs/rigs';
+import { json, route } from '@/app/_lib/server/route';
+import { trialDto, trialPatch, trialsOfRig, updateTrials } from '@/app/_lib/rigs/trials';
 
 const body = z.object({ ids: z.array(z.string()).min(1).max(5000), patch: trialPatch }).strict();
 

@@ -1,7 +1,7 @@
-import { notFound } from '@/app/_lib/errors';
-import { json, route } from '@/app/_lib/route';
-import { blockData } from '@/app/_lib/study-blocks';
-import { loadStudy } from '@/app/_lib/studies';
+import { notFound } from '@/app/_lib/server/errors';
+import { json, route } from '@/app/_lib/server/route';
+import { blockData } from '@/app/_lib/studies/study-blocks';
+import { loadStudy } from '@/app/_lib/studies/studies';
 
 type P = { studyId: string; blockId: string };
 

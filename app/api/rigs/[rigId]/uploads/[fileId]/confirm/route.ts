@@ -1,6 +1,6 @@
-import { confirmImport, confirmInput, loadFile } from '@/app/_lib/imports';
-import { loadRig } from '@/app/_lib/rigs';
-import { json, route } from '@/app/_lib/route';
+import { confirmImport, confirmInput, loadFile } from '@/app/_lib/imports/trial-sheets';
+import { loadRig } from '@/app/_lib/rigs/rigs';
+import { json, route } from '@/app/_lib/server/route';
 
 /** POST: import the checked rows as trials, all in one transaction; the mapping is saved for the next file with these headers. */
 export const POST = route<{ rigId: string; fileId: string }>({ auth: 'user', maxBodyBytes: 1024 * 1024 }, async (ctx) => {

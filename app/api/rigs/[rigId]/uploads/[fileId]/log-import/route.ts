@@ -1,8 +1,8 @@
-import { loadFile, saveLogMapping } from '@/app/_lib/imports';
-import { importJobDto, startSensorImport } from '@/app/_lib/jobs';
-import { loadRig } from '@/app/_lib/rigs';
-import { json, route } from '@/app/_lib/route';
-import { logImportInput } from '@/app/_lib/sensor-import';
+import { loadFile, saveLogMapping } from '@/app/_lib/imports/trial-sheets';
+import { importJobDto, startSensorImport } from '@/app/_lib/jobs/jobs';
+import { loadRig } from '@/app/_lib/rigs/rigs';
+import { json, route } from '@/app/_lib/server/route';
+import { logImportInput } from '@/app/_lib/imports/sensor-import';
 
 /**
  * POST: import a stored sensor log in the background (mapping, preset and criteria edits, excluded

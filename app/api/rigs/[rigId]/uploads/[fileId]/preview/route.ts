@@ -1,7 +1,7 @@
 import { z } from 'zod';
-import { loadFile, previewImport } from '@/app/_lib/imports';
-import { loadRig } from '@/app/_lib/rigs';
-import { json, route } from '@/app/_lib/route';
+import { loadFile, previewImport } from '@/app/_lib/imports/trial-sheets';
+import { loadRig } from '@/app/_lib/rigs/rigs';
+import { json, route } from '@/app/_lib/server/route';
 
 const body = z.object({ sheet: z.string().max(100).optional(), mapping: z.unknown().optional() }).strict();
 

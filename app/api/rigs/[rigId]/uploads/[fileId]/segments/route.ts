@@ -1,7 +1,7 @@
-import { loadFile } from '@/app/_lib/imports';
-import { loadRig } from '@/app/_lib/rigs';
-import { route } from '@/app/_lib/route';
-import { openLog, previewCriteria, previewStream, segmentPreviewInput } from '@/app/_lib/sensor-preview';
+import { loadFile } from '@/app/_lib/imports/trial-sheets';
+import { loadRig } from '@/app/_lib/rigs/rigs';
+import { route } from '@/app/_lib/server/route';
+import { openLog, previewCriteria, previewStream, segmentPreviewInput } from '@/app/_lib/imports/sensor-preview';
 
 /**
  * POST: read a stored sensor log whole, check its rows and find its steady periods with a preset

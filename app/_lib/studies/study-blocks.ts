@@ -1,0 +1,179 @@
+import 'server-only';
+import type { EntityManager } from '@mikro-orm/postgresql';
+import { Fit, SensorOverview, SourceFile, type FitRow, type LabRow, type StudyRow } from '@/entities';
+import type { StudyBlock } from '@/entities/study';
+import type { FitSuccess } from '@/analysis/fit';
+import { SEGMENT_ROWS, type BlockBody, type BlockData, type FitHead, type PlotView } from '../../_components/study-block-types';
+import type { ChoiceView, ComparisonView, FitView, PerformanceView } from '../../_components/fit-report';
+import type { Units } from '../../_components/units';
+import { CostInputError, costView } from '../forecasts/cost-sheet';
+import { modelLabel } from '../fits/fit-analysis';
+import { forecast } from '../forecasts/forecasts';
+import { renderMarkdown } from './markdown';
+import { STANDING_NOTICE } from '@/analysis/safety/standing-notice';
+import { plotToSvg } from '../plots/plot-svg';
+import { DISPLAY_MAX_POINTS, reduceForDisplay } from '@/analysis/reduce';
+import { fitCurveInputFromFits, fitCurvePlot, timeSeriesSegmentsPlot, type FitCurveTrial, type PlotFigure } from '../plots';
+import { UUID } from '../rigs/rigs';
+import { copyPool } from '../imports/sensor-import';
+import { ensureSensorOverview } from '../imports/sensor-overview';
+
+/**
+ * One study block as plain JSON for the page's first paint (the SWR fallback) and the block-data
+ * routes: numbers in SI, tables, and the server-rendered SVG of its plots in the reader's units.
+ * The public view (a share link) never carries links into the lab, member names or raw files.
+ */
+
+/** The standing cautions of every caution block: the standing notice (analysis/safety/standing-notice.ts). */
+export const STANDING_CAUTIONS = STANDING_NOTICE;
+
+export interface BlockContext {
+  em: EntityManager;
+  lab: LabRow;
+  study: StudyRow;
+  units: Units;
+  /** the share view: no fit links, no file names */
+  publicView: boolean;
+  /** saved fits by id, loaded once for the blocks that need them */
+  fits?: Map<string, FitRow>;
+}
+
+interface StoredFitResult {
+  fit: FitSuccess;
+  comparison: ComparisonView;
+  choice: ChoiceView;
+  performance: PerformanceView;
+  trials: { startedAt: string; flowM3PerS: number; inletC: number; outletC: number }[];
+}
+
+const FIT_KINDS = new Set(['fit', 'comparison', 'performance', 'trials']);
+const plotView = (f: PlotFigure): PlotView => ({ title: f.title, summary: f.summary, svg: plotToSvg(f.options), ...(f.cautions?.length ? { cautions: f.cautions } : {}) });
+
+/** The saved fits the given blocks point at (lab-scoped), by id. */
+export async function blockFits(em: EntityManager, lab: LabRow, blocks: readonly StudyBlock[]): Promise<Map<string, FitRow>> {
+  const ids = [...new Set(blocks.filter((b) => FIT_KINDS.has(b.kind) || b.kind === 'forecast').map((b) => b.data.fitId).filter((x): x is string => typeof x === 'string' && UUID.test(x)))];
+  const rows = ids.length ? await em.find(Fit, { id: { $in: ids }, lab }) : [];
+  return new Map(rows.map((f) => [f.id, f]));
+}
+
+/**
+ * More trials than the display limit (a fit over thousands of log segments): ordered by flow and
+ * reduced with LTTB keeping each bucket's extreme outlets (analysis/reduce), so outliers stay visible.
+ */
+function reduceTrials(trials: FitCurveTrial[]): FitCurveTrial[] {
+  const sorted = [...trials].sort((a, b) => a.flowM3PerS - b.flowM3PerS);
+  const { indices } = reduceForDisplay(sorted.map((t) => t.flowM3PerS), sorted.map((t) => t.outletC));
+  return Array.from(indices, (i) => sorted[i]);
+}
+
+/** Only what the fit tables show: no residual arrays, Jacobian or data. */
+function fitView(fit: FitSuccess, label: string): FitView {
+  const { model, params, parameterNames, correlation, n, df, rss, residualSD, r2, adjustedR2, aicc, bic, level, iterations, stoppingReason, flags, lackOfFit, warnings } = fit;
+  return { label, model, params, parameterNames, correlation, n, df, rss, residualSD, r2, adjustedR2, aicc, bic, level, iterations, stoppingReason, flags, lackOfFit: lackOfFit as FitView['lackOfFit'], warnings };
+}
+
+function fitBody(kind: string, fit: FitRow, publicView: boolean, units: Units): BlockBody {
+  const r = fit.result as unknown as StoredFitResult;
+  const label = modelLabel(fit.model);
+  const head: FitHead = { fitId: publicView ? null : fit.id, title: fit.title, version: fit.version, label, reviewState: fit.reviewState };
+  switch (kind) {
+    case 'fit': {
+      const input = fitCurveInputFromFits([{ label, fit: r.fit }], { inletC: r.choice.inletTempC });
+      const n = input.trials.length;
+      let fig = fitCurvePlot(n > DISPLAY_MAX_POINTS ? { ...input, trials: reduceTrials(input.trials) } : input, units);
+      if (n > DISPLAY_MAX_POINTS) fig = { ...fig, summary: fig.summary.replace(/^\d[\d,]* trials? fitted/, `${n.toLocaleString('en-US')} trials fitted (${DISPLAY_MAX_POINTS.toLocaleString('en-US')} or fewer drawn, reduced for display keeping the extremes)`) };
+      return { type: 'fit', head, plot: plotView(fig), fit: fitView(r.fit, label), choice: r.choice };
+    }
+    case 'comparison':
+      return { type: 'comparison', head, comparison: r.comparison };
+    case 'performance':
+      return { type: 'performance', head, table: r.performance };
+    default:
+      return { type: 'trials', head, trials: r.trials.map(({ startedAt, flowM3PerS, inletC, outletC }) => ({ startedAt, flowM3PerS, inletC, outletC })) };
+  }
+}
+
+async function sensorLogBody(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
+  const fileId = block.data.sourceFileId;
+  if (typeof fileId !== 'string' || !UUID.test(fileId)) return { type: 'note', tone: 'muted', message: 'No sensor log chosen for this block yet.' };
+  const file = await ctx.em.findOne(SourceFile, { id: fileId, lab: ctx.lab }, { populate: ['rig'] });
+  if (!file) return { type: 'note', tone: 'muted', message: 'The sensor log of this block no longer exists.' };
+  let overview = await ctx.em.findOne(SensorOverview, { sourceFile: file.id }, { populate: ['rig'] });
+  if (!overview && (await ensureSensorOverview(copyPool(), file.id))) overview = await ctx.em.findOne(SensorOverview, { sourceFile: file.id }, { populate: ['rig'] });
+  if (!overview) return { type: 'note', tone: 'muted', message: 'This file holds no logged samples (it was not imported as a sensor log).' };
+  const p = overview.points;
+  const points = p.tS.map((tS, i) => ({ tS, inletC: p.inletC[i], outletC: p.outletC[i], flowM3PerS: p.flowM3PerS[i] }));
+  const figs = timeSeriesSegmentsPlot({ points, segments: overview.segments.map((s) => ({ startS: s.startS, endS: s.endS })), origin: overview.startedAt }, ctx.units);
+  const samples = `${overview.samples.toLocaleString('en-US')} samples logged, ${points.length.toLocaleString('en-US')} shown (reduced for display, keeping every channel's extremes and the endpoints)`;
+  const note = (f: PlotFigure): PlotFigure => ({ ...f, summary: overview.samples > points.length ? f.summary.replace(/^\d[\d,]* samples/, samples) : f.summary });
+  return {
+    type: 'sensor-log',
+    rigName: overview.rig.name,
+    filename: ctx.publicView ? null : file.filename,
+    startedAt: overview.startedAt.toISOString(),
+    samples: overview.samples,
+    shownPoints: points.length,
+    durationS: overview.durationS,
+    segments: overview.segments.slice(0, SEGMENT_ROWS),
+    segmentCount: overview.segments.length,
+    plots: [plotView(note(figs.temperatures)), plotView(note(figs.flow))],
+  };
+}
+
+async function body(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
+  const d = block.data;
+  switch (block.kind) {
+    case 'text':
+      return { type: 'text', html: renderMarkdown(String(d.markdown ?? '')) };
+    case 'caution':
+      return { type: 'caution', items: [...(typeof d.text === 'string' && d.text.trim() ? [d.text.trim()] : []), ...STANDING_CAUTIONS] };
+    case 'forecast':
+      try {
+        const f = await forecast(ctx.em, ctx.lab, { ...d }, ctx.units);
+        return { type: 'forecast', finalTempC: f.finalTemp_degC, hoursToTarget: f.hoursToTarget_h, fitNote: f.fitNote, cautions: f.cautions, plot: f.plots.trajectory };
+      } catch (e) {
+        return { type: 'note', tone: 'danger', message: `This forecast cannot be computed: ${(e as Error).message}` };
+      }
+    case 'costs':
+      try {
+        return { type: 'costs', cost: costView(d, ctx.study.blocks) };
+      } catch (e) {
+        if (e instanceof CostInputError) return { type: 'note', tone: 'danger', message: `This cost sheet cannot be computed: ${e.message}` };
+        throw e;
+      }
+    case 'sensor-log':
+      return sensorLogBody(ctx, block);
+    default: {
+      if (!FIT_KINDS.has(block.kind)) return { type: 'note', tone: 'muted', message: 'This block kind is not shown yet.' };
+      const fitId = typeof d.fitId === 'string' ? d.fitId : null;
+      const fits = ctx.fits ?? (await blockFits(ctx.em, ctx.lab, [block]));
+      const fit = fitId ? fits.get(fitId) : undefined;
+      if (!fit) return { type: 'note', tone: 'muted', message: 'No saved fit chosen for this block yet.' };
+      return fitBody(block.kind, fit, ctx.publicView, ctx.units);
+    }
+  }
+}
+
+/** One block, ready to show. */
+export async function blockData(ctx: BlockContext, block: StudyBlock): Promise<BlockData> {
+  return { id: block.id, kind: block.kind, units: ctx.units, body: await body(ctx, block) };
+}
+
+/** Every block of the study, in order (the fits they use loaded once). */
+export async function studyBlocksData(ctx: Omit<BlockContext, 'fits'>): Promise<BlockData[]> {
+  const full: BlockContext = { ...ctx, fits: await blockFits(ctx.em, ctx.lab, ctx.study.blocks) };
+  const out: BlockData[] = [];
+  for (const b of ctx.study.blocks) out.push(await blockData(full, b));
+  return out;
+}
+
+/** The lab's imported sensor logs (files with logged samples), newest first, for the editor's picker. */
+export async function sensorLogsOf(em: EntityManager, lab: LabRow): Promise<{ id: string; label: string }[]> {
+  const rows = await em.getConnection().execute<{ id: string; filename: string; rows_imported: number; rig: string }[]>(
+    `SELECT f.id, f.filename, f.rows_imported, r.name AS rig FROM source_file f JOIN rig r ON r.id = f.rig_id
+      WHERE f.lab_id = ? AND f.state = 'imported' AND EXISTS (SELECT 1 FROM sensor_sample s WHERE s.source_file_id = f.id)
+      ORDER BY f.created_at DESC LIMIT 100`,
+    [lab.id],
+  );
+  return rows.map((r) => ({ id: r.id, label: `${r.rig}: ${r.filename} (${Number(r.rows_imported).toLocaleString('en-US')} samples)` }));
+}

@@ -1,0 +1,110 @@
+import 'server-only';
+import type { EntityManager } from '@mikro-orm/postgresql';
+import { Fit, Rig, type StudyRow } from '@/entities';
+import type { FitSuccess } from '@/analysis/fit';
+import type { PerformanceTable } from '@/analysis/performance/performance-table';
+import { STUDY_SHEETS, studyCsv, studyWorkbook, type FitExport, type ForecastExport, type PerformanceExport, type RunningCostExport, type StudyExport, type StudySheetName, type TrialExportRow } from '../exports';
+import { CostInputError, costExport, costView } from '../forecasts/cost-sheet';
+import { HttpError } from '../server/errors';
+import { forecastForExport } from '../forecasts/forecasts';
+import { modelLabel, SOFTWARE_VERSION } from '../fits/fit-analysis';
+
+/** A trial as a saved fit keeps it (`result.trials`). */
+export interface StoredTrial {
+  id: string;
+  startedAt: string;
+  flowM3PerS: number;
+  inletC: number;
+  outletC: number;
+  bucketVolumeM3: number | null;
+  fillTimesS: number[] | null;
+  ambientC: number | null;
+  notes?: string;
+}
+
+/** The saved fits a study's blocks point at, in block order, once each (lab-scoped). */
+export async function studyFits(em: EntityManager, study: StudyRow) {
+  const ids = [...new Set(study.blocks.map((b) => b.data.fitId).filter((x): x is string => typeof x === 'string'))];
+  const rows = ids.length ? await em.find(Fit, { id: { $in: ids }, lab: study.lab }) : [];
+  return ids.map((id) => rows.find((r) => r.id === id)).filter((r): r is NonNullable<typeof r> => !!r);
+}
+
+/** The study's tables (Summary with provenance, Trials, Fit, Residuals, Performance, Forecast series of its forecast blocks, Costs of its cost-sheet blocks) as export data. */
+export async function studyExportData(em: EntityManager, study: StudyRow, labName: string, unitSystem: 'si' | 'us'): Promise<StudyExport> {
+  const fits = await studyFits(em, study);
+  const rigs = fits.length ? await em.find(Rig, { id: { $in: fits.map((f) => f.rig.id) } }) : [];
+  const trials: TrialExportRow[] = [];
+  const fitExports: FitExport[] = [];
+  const performance: PerformanceExport[] = [];
+  for (const f of fits) {
+    const r = f.result as { fit: FitSuccess; performance: PerformanceTable; trials: StoredTrial[] };
+    const label = `${f.title} v${f.version} (${modelLabel(f.model)})`;
+    r.trials.forEach((t, i) =>
+      trials.push({ id: t.id, order: i + 1, timestamp: new Date(t.startedAt), included: true, flowM3PerS: t.flowM3PerS, inletTempC: t.inletC, outletTempC: t.outletC, ambientTempC: t.ambientC, bucketVolumeM3: t.bucketVolumeM3, fillTimesS: t.fillTimesS }),
+    );
+    fitExports.push({ label, fit: r.fit, pointIds: r.trials.map((t) => t.id) });
+    performance.push({ label, table: r.performance });
+  }
+  const running: RunningCostExport[] = [];
+  const notes = [`Study revision ${study.revision}, review state: ${study.reviewState}.`];
+  const forecasts: ForecastExport[] = [];
+  for (const [i, b] of study.blocks.entries()) {
+    if (b.kind !== 'forecast') continue;
+    const label = `Forecast (block ${i + 1})`;
+    try {
+      forecasts.push(await forecastForExport(em, study.lab, b.data, label));
+    } catch (e) {
+      if (!(e instanceof HttpError)) throw e;
+      notes.push(`${label} cannot be computed: ${e.message}`);
+    }
+  }
+  study.blocks.forEach((b, i) => {
+    if (b.kind !== 'costs') return;
+    const label = `Cost sheet (block ${i + 1})`;
+    try {
+      running.push(costExport(label, costView(b.data, study.blocks)));
+    } catch (e) {
+      if (!(e instanceof CostInputError)) throw e;
+      notes.push(`${label} cannot be computed: ${e.message}`);
+    }
+  });
+  return {
+    unitSystem,
+    provenance: {
+      lab: labName,
+      study: study.title,
+      rig: rigs.map((r) => r.name).join(', ') || null,
+      model: fits.map((f) => modelLabel(f.model)).join(', ') || null,
+      fitTime: fits[0]?.createdAt ?? null,
+      softwareVersion: SOFTWARE_VERSION,
+      dataHash: fits.map((f) => f.trialsHash.slice(0, 16)).join(' ') || null,
+    },
+    trials,
+    fits: fitExports,
+    performance,
+    forecasts,
+    ...(running.length ? { costs: { currency: running[0].currency, running } } : {}),
+    notes,
+  };
+}
+
+/**
+ * The export response: XLSX by default; `?format=csv&table=Trials` (or Fit, Residuals,
+ * Performance, Summary) gives one table as CSV, units in the header names.
+ */
+export async function exportResponse(data: StudyExport, title: string, search: URLSearchParams): Promise<Response> {
+  if (search.get('format') !== 'csv') return xlsxResponse(await studyWorkbook(data), title);
+  const table = search.get('table') ?? 'Trials';
+  if (!(STUDY_SHEETS as readonly string[]).includes(table)) throw new HttpError(422, 'invalid', `No table "${table}": choose one of ${STUDY_SHEETS.join(', ')}.`);
+  const csv = studyCsv(data, table as StudySheetName);
+  if (csv === null) throw new HttpError(404, 'not_found', `This export has no ${table} table.`);
+  const name = `${title.replace(/[^\w.-]+/g, '-').slice(0, 50) || 'export'}-${table.toLowerCase()}.csv`;
+  return new Response(csv, { headers: { 'Content-Type': 'text/csv; charset=utf-8', 'Content-Disposition': `attachment; filename="${name}"` } });
+}
+
+export function xlsxResponse(buf: Buffer, title: string) {
+  const name = `${title.replace(/[^\w.-]+/g, '-').slice(0, 60) || 'study'}.xlsx`;
+  return new Response(new Uint8Array(buf), {
+    headers: { 'Content-Type': 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet', 'Content-Disposition': `attachment; filename="${name}"` },
+  });
+}
