@@ -158,7 +158,7 @@ async function child() {
       `INSERT INTO trial (id, created_at, updated_at, lab_id, rig_id, started_at, flow_m3_per_s, inlet_c, outlet_c, source_file_id, origin)
        SELECT gen_random_uuid(), now(), now(), $1, $2, $3::timestamptz + make_interval(secs => s), q, tin, tout, $4, 'log-segment'
        FROM unnest($5::float8[], $6::float8[], $7::float8[], $8::float8[]) AS u(s, q, tin, tout)`,
-      [lab.id, rig.id, overview.startedAt.toISOString(), file.id, segs.map((s) => s.startS), segs.map((s) => s.flowM3PerS), segs.map((s) => s.inletC), segs.map((s) => s.outletC)],
+      [lab.id, rig.id, overview.startedAt.toISOString(), file.id, segs.map((s) => s.startS), segs.map((s) => s.flowM3PerS), segs.map((s) => s.inletTempC), segs.map((s) => s.outletTempC)],
     );
     const trialIds = (await pool.query<{ id: string }>('SELECT id FROM trial WHERE rig_id = $1 ORDER BY started_at LIMIT 5000', [rig.id])).rows.map((r) => r.id);
     t = performance.now();

@@ -6,8 +6,8 @@ import { SourceFile } from './source-file';
 /** Reduced channels of a log on one time base: seconds from `startedAt`, SI values, null = no reading. */
 export interface OverviewPoints {
   tS: number[];
-  inletC: (number | null)[];
-  outletC: (number | null)[];
+  inletTempC: (number | null)[];
+  outletTempC: (number | null)[];
   flowM3PerS: (number | null)[];
 }
 
@@ -15,8 +15,8 @@ export interface OverviewPoints {
 export interface OverviewSegment {
   startS: number;
   endS: number;
-  inletC: number;
-  outletC: number;
+  inletTempC: number;
+  outletTempC: number;
   flowM3PerS: number;
 }
 

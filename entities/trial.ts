@@ -24,9 +24,9 @@ export const Trial = defineEntity({
     fillTimesS: p.json<number[]>().nullable(),
     /** Volume flow in m³/s (from the bucket or a meter). */
     flowM3PerS: num().fieldName('flow_m3_per_s'),
-    inletC: num(),
-    outletC: num(),
-    ambientC: num().nullable(),
+    inletTempC: num().fieldName('inlet_c'),
+    outletTempC: num().fieldName('outlet_c'),
+    ambientTempC: num().fieldName('ambient_c').nullable(),
     /** Marks a repeated reference flow used to detect drift. */
     isReference: p.boolean().default(false),
     excluded: p.boolean().default(false),

@@ -91,7 +91,7 @@ export function CautionList({ cautions, label = 'Cautions' }: { cautions: readon
 /**
  * The caution list for the temperatures a table or plot shows: the hottest value of each place
  * (inlet, outlet, pool…) and one caution per hazard it reaches. Nothing when all are below 40 °C.
- * @example <TemperatureCautions places={[{ where: 'outlet', valuesC: rows.map((r) => r.outletC) }]} />
+ * @example <TemperatureCautions places={[{ where: 'outlet', valuesC: rows.map((r) => r.outletTempC) }]} />
  */
 export function TemperatureCautions({ places, units = 'si', label }: { places: readonly PlaceTemperatures[]; units?: Units; label?: string }) {
   return <CautionList cautions={hottestCautions(places, units)} label={label} />;

@@ -60,8 +60,8 @@ export interface CostView {
 export interface SensorSegmentView {
   startS: number;
   endS: number;
-  inletC: number;
-  outletC: number;
+  inletTempC: number;
+  outletTempC: number;
   flowM3PerS: number;
 }
 
@@ -72,7 +72,7 @@ export type BlockBody =
   | { type: 'fit'; head: FitHead; plot: PlotView; fit: FitView; choice: ChoiceView }
   | { type: 'comparison'; head: FitHead; comparison: ComparisonView }
   | { type: 'performance'; head: FitHead; table: PerformanceView }
-  | { type: 'trials'; head: FitHead; trials: { startedAt: string; flowM3PerS: number; inletC: number; outletC: number }[] }
+  | { type: 'trials'; head: FitHead; trials: { startedAt: string; flowM3PerS: number; inletTempC: number; outletTempC: number }[] }
   | { type: 'forecast'; finalTempC: number; hoursToTarget: number | null; fitNote: string | null; cautions: CautionView[]; plot: PlotView }
   | { type: 'costs'; cost: CostView }
   | {

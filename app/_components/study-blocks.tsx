@@ -141,14 +141,14 @@ export function BlockView({ block }: { block: BlockData }) {
                 <tr key={i}>
                   <td className="num">{t.startedAt.slice(0, 16).replace('T', ' ')}</td>
                   <td className="num text-right">{flowOut(t.flowM3PerS, units).toFixed(2)}</td>
-                  <td className="num text-right"><TempValue c={t.inletC} units={units} /></td>
-                  <td className="num text-right"><TempValue c={t.outletC} units={units} /></td>
+                  <td className="num text-right"><TempValue c={t.inletTempC} units={units} /></td>
+                  <td className="num text-right"><TempValue c={t.outletTempC} units={units} /></td>
                 </tr>
               ))}
             </tbody>
           </table>
           <div className="mt-3">
-            <TemperatureCautions units={units} label="Cautions for these trials" places={[{ where: 'outlet', valuesC: b.trials.map((t) => t.outletC) }, { where: 'inlet', valuesC: b.trials.map((t) => t.inletC) }]} />
+            <TemperatureCautions units={units} label="Cautions for these trials" places={[{ where: 'outlet', valuesC: b.trials.map((t) => t.outletTempC) }, { where: 'inlet', valuesC: b.trials.map((t) => t.inletTempC) }]} />
           </div>
         </div>
       );
@@ -192,15 +192,15 @@ export function BlockView({ block }: { block: BlockData }) {
                       <td className="num">{new Date(Date.parse(b.startedAt) + s.startS * 1000).toISOString().slice(11, 19)}</td>
                       <td className="num text-right">{((s.endS - s.startS) / 60).toFixed(1)}</td>
                       <td className="num text-right">{flowOut(s.flowM3PerS, units).toFixed(2)}</td>
-                      <td className="num text-right"><TempValue c={s.inletC} units={units} /></td>
-                      <td className="num text-right"><TempValue c={s.outletC} units={units} /></td>
-                      <td className="num text-right">{dtOut(s.outletC - s.inletC, units).toFixed(1)}</td>
+                      <td className="num text-right"><TempValue c={s.inletTempC} units={units} /></td>
+                      <td className="num text-right"><TempValue c={s.outletTempC} units={units} /></td>
+                      <td className="num text-right">{dtOut(s.outletTempC - s.inletTempC, units).toFixed(1)}</td>
                     </tr>
                   ))}
                 </tbody>
               </table>
               <div className="mt-3">
-                <TemperatureCautions units={units} label="Cautions for these segments" places={[{ where: 'outlet', valuesC: b.segments.map((s) => s.outletC) }, { where: 'inlet', valuesC: b.segments.map((s) => s.inletC) }]} />
+                <TemperatureCautions units={units} label="Cautions for these segments" places={[{ where: 'outlet', valuesC: b.segments.map((s) => s.outletTempC) }, { where: 'inlet', valuesC: b.segments.map((s) => s.inletTempC) }]} />
               </div>
             </div>
           ) : (

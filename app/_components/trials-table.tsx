@@ -89,8 +89,8 @@ export function TrialsTable({ rigId, units, canWrite }: { rigId: string; units: 
       <TemperatureCautions units={units}
         label="Cautions for these trials"
         places={[
-          { where: 'outlet', valuesC: [data?.hottest?.outletC, ...rows.map((r) => r.outletC)] },
-          { where: 'inlet', valuesC: [data?.hottest?.inletC, ...rows.map((r) => r.inletC)] },
+          { where: 'outlet', valuesC: [data?.hottest?.outletTempC, ...rows.map((r) => r.outletTempC)] },
+          { where: 'inlet', valuesC: [data?.hottest?.inletTempC, ...rows.map((r) => r.inletTempC)] },
         ]}
       />
       <div className="card overflow-x-auto" aria-busy={isLoading}>
@@ -109,8 +109,8 @@ export function TrialsTable({ rigId, units, canWrite }: { rigId: string; units: 
               ) : null}
               <Th s="startedAt">Started (UTC)</Th>
               <Th s="flowM3PerS" right>Flow ({flowUnit(units)})</Th>
-              <Th s="inletC" right>Inlet ({tempUnit(units)})</Th>
-              <Th s="outletC" right>Outlet ({tempUnit(units)})</Th>
+              <Th s="inletTempC" right>Inlet ({tempUnit(units)})</Th>
+              <Th s="outletTempC" right>Outlet ({tempUnit(units)})</Th>
               <Th right>ΔT ({dtUnit(units)})</Th>
               <Th>Notes</Th>
             </tr>
@@ -138,9 +138,9 @@ export function TrialsTable({ rigId, units, canWrite }: { rigId: string; units: 
                   {t.excluded ? <span className="ml-2 rounded bg-white px-1.5 py-0.5 text-xs text-ink-muted ring-1 ring-paper-line">excluded</span> : null}
                 </td>
                 <td className="num text-right">{fmt(flowOut(t.flowM3PerS, units), 2)}</td>
-                <td className="num text-right"><TempValue c={t.inletC} units={units} /></td>
-                <td className="num text-right"><TempValue c={t.outletC} units={units} /></td>
-                <td className="num text-right">{fmt(dtOut(t.outletC - t.inletC, units), 1)}</td>
+                <td className="num text-right"><TempValue c={t.inletTempC} units={units} /></td>
+                <td className="num text-right"><TempValue c={t.outletTempC} units={units} /></td>
+                <td className="num text-right">{fmt(dtOut(t.outletTempC - t.inletTempC, units), 1)}</td>
                 <td className="min-w-[14rem] text-sm">
                   {t.isReference ? <span className="mr-1 rounded bg-water-50 px-1.5 py-0.5 text-xs font-medium text-water-800">reference</span> : null}
                   {t.origin === 'log-segment' ? <span title={`A steady period of a sensor log, from line ${t.sourceLine ?? '?'}`} className="mr-1 rounded bg-paper-deep px-1.5 py-0.5 text-xs text-ink-soft">logged</span> : null}

@@ -9,9 +9,9 @@ export interface TrialRowDto {
   bucketVolumeM3: number | null;
   fillTimesS: number[] | null;
   flowM3PerS: number;
-  inletC: number;
-  outletC: number;
-  ambientC: number | null;
+  inletTempC: number;
+  outletTempC: number;
+  ambientTempC: number | null;
   isReference: boolean;
   excluded: boolean;
   notes: string;
@@ -26,13 +26,13 @@ export interface TrialPage {
   total: number;
   page: number;
   pageSize: number;
-  hottest?: { inletC: number | null; outletC: number | null };
+  hottest?: { inletTempC: number | null; outletTempC: number | null };
 }
 
 export interface TrialQuery {
   page: number;
   pageSize: number;
-  sort: 'startedAt' | 'flowM3PerS' | 'inletC' | 'outletC' | 'createdAt';
+  sort: 'startedAt' | 'flowM3PerS' | 'inletTempC' | 'outletTempC' | 'createdAt';
   dir: 'asc' | 'desc';
   excluded: 'all' | 'included' | 'excluded';
   reference: 'all' | 'only';

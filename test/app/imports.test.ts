@@ -48,7 +48,7 @@ describe('trial-sheet import', () => {
     const first = rows.find((t: { sourceLine: number }) => t.sourceLine === 2);
     // 10 L in a mean of (42.3 + 41.8)/2 s (the file's first row): V̇ = V / t̄
     expect(first.flowM3PerS).toBeCloseTo(0.01 / 42.05, 12);
-    expect(first.inletC).toBeCloseTo(14.2, 10);
+    expect(first.inletTempC).toBeCloseTo(14.2, 10);
     expect(first.notes).toBe('Holz nachgelegt');
     // the same bytes again: recognised, and not imported twice
     const again = await upload(eng, rig.id, 'copy-of-trials.csv', sameBytes);
@@ -83,8 +83,8 @@ describe('trial-sheet import', () => {
     const body = await res.json();
     expect(res.status, JSON.stringify(body)).toBe(201);
     expect(body.imported).toBe(4);
-    const t = (await eng.get(`/api/rigs/${rig.id}/trials?sort=inletC&dir=asc&pageSize=1`)).body.trials[0];
-    expect(t.inletC).toBeCloseTo(15, 10); // 59 °F = 15 °C exactly
+    const t = (await eng.get(`/api/rigs/${rig.id}/trials?sort=inletTempC&dir=asc&pageSize=1`)).body.trials[0];
+    expect(t.inletTempC).toBeCloseTo(15, 10); // 59 °F = 15 °C exactly
     expect(t.bucketVolumeM3).toBeCloseTo(5 * 3.785411784e-3, 12); // NIST SP 811: 1 gal = 3.785411784 L
   });
 

@@ -73,8 +73,8 @@ describe('sensor-log import', () => {
       expect(t.sourceFileId).toBe(file.id);
       expect(t.sourceLine).toBeGreaterThan(1);
       // on a set-point of the generator, within 0.1 K and 0.5 % (noise averages out over ≥ 300 samples)
-      const k = Math.round((t.outletC - 30) / 3);
-      expect(Math.abs(t.outletC - (30 + 3 * k))).toBeLessThan(0.1);
+      const k = Math.round((t.outletTempC - 30) / 3);
+      expect(Math.abs(t.outletTempC - (30 + 3 * k))).toBeLessThan(0.1);
       const j = Math.round((t.flowM3PerS / L_PER_MIN - 9) / 3);
       expect(Math.abs(t.flowM3PerS - (9 + 3 * j) * L_PER_MIN) / t.flowM3PerS).toBeLessThan(0.005);
     }

@@ -33,10 +33,10 @@ async function segments(c: Client, rigId: string, fileId: string, body: Record<s
   return { status: r.status, body: null, messages, result: last.result ?? null, error: last.error ?? null, type: r.headers.get('content-type') };
 }
 
-const onSetPoint = (outletC: number, flowM3PerS: number) => {
-  const k = Math.round((outletC - 30) / 3);
+const onSetPoint = (outletTempC: number, flowM3PerS: number) => {
+  const k = Math.round((outletTempC - 30) / 3);
   const j = Math.round((flowM3PerS / L_PER_MIN - 9) / 3);
-  return Math.abs(outletC - (30 + 3 * k)) < 0.05 && Math.abs(flowM3PerS / L_PER_MIN - (9 + 3 * j)) / (9 + 3 * j) < 0.005;
+  return Math.abs(outletTempC - (30 + 3 * k)) < 0.05 && Math.abs(flowM3PerS / L_PER_MIN - (9 + 3 * j)) / (9 + 3 * j) < 0.005;
 };
 
 describe('sensor-log preview', () => {
@@ -93,8 +93,8 @@ describe('sensor-log preview', () => {
     expect(res.series.tS.length).toBeLessThanOrEqual(2000);
     expect(res.series.tS[0]).toBe(0);
     expect(res.series.tS[res.series.tS.length - 1]).toBe(5999);
-    expect(Math.max(...res.series.outletC)).toBe(Math.max(...outlets));
-    expect(Math.min(...res.series.outletC)).toBe(Math.min(...outlets));
+    expect(Math.max(...res.series.outletTempC)).toBe(Math.max(...outlets));
+    expect(Math.min(...res.series.outletTempC)).toBe(Math.min(...outlets));
 
     const stored = await db.query('SELECT (SELECT count(*)::int FROM sensor_sample WHERE source_file_id = $1) AS s, (SELECT count(*)::int FROM trial WHERE source_file_id = $1) AS t, (SELECT state FROM source_file WHERE id = $1) AS state', [file.id]);
     expect(stored.rows[0]).toEqual({ s: 0, t: 0, state: 'uploaded' });

@@ -236,7 +236,7 @@ describe('the sensor-log overview', () => {
     expect(o.segments.length).toBe(trials);
     // the highest outlet logged is among the points drawn (extremes are kept)
     const max = (await db.query('SELECT max(outlet_c) AS m FROM sensor_sample WHERE source_file_id = $1', [s.fileId])).rows[0].m;
-    expect(Math.max(...o.points.outletC)).toBeCloseTo(max, 4);
+    expect(Math.max(...o.points.outletTempC)).toBeCloseTo(max, 4);
   });
 
   test('is built from the stored samples on first read when a log has none (logs imported before)', async () => {

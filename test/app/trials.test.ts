@@ -30,22 +30,22 @@ describe('trials through the API', () => {
     // Common practice: five gallons filled in 124 s is 2.42 gpm.
     expect((t.flowM3PerS * 60) / GAL_M3).toBeCloseTo(2.42, 2);
     expect(t.bucketVolumeM3).toBeCloseTo(5 * GAL_M3, 12);
-    expect(t.inletC).toBeCloseTo(20, 10); // °F → °C exact: (68 − 32)·5/9
-    expect(t.outletC).toBeCloseTo(40, 10);
+    expect(t.inletTempC).toBeCloseTo(20, 10); // °F → °C exact: (68 − 32)·5/9
+    expect(t.outletTempC).toBeCloseTo(40, 10);
     expect(t.origin).toBe('api');
   });
 
   test('a page of trials carries the hottest inlet and outlet of every matching trial, for the cautions beside the table', async () => {
     const { eng, rig } = await engineerAndRig();
-    const all = (await eng.get(`/api/rigs/${rig.id}/trials?pageSize=500`)).body.trials as { inletC: number; outletC: number; notes: string }[];
-    const page = (await eng.get(`/api/rigs/${rig.id}/trials?pageSize=2&sort=outletC&dir=asc`)).body;
+    const all = (await eng.get(`/api/rigs/${rig.id}/trials?pageSize=500`)).body.trials as { inletTempC: number; outletTempC: number; notes: string }[];
+    const page = (await eng.get(`/api/rigs/${rig.id}/trials?pageSize=2&sort=outletTempC&dir=asc`)).body;
     expect(page.trials).toHaveLength(2);
     // the coolest two on the page, the hottest of all in `hottest` (the burner loop reaches about 90 °C, fixtures/README.md)
-    expect(page.hottest.outletC).toBe(Math.max(...all.map((t) => t.outletC)));
-    expect(page.hottest.inletC).toBe(Math.max(...all.map((t) => t.inletC)));
-    expect(page.hottest.outletC).toBeGreaterThan(page.trials[1].outletC);
+    expect(page.hottest.outletTempC).toBe(Math.max(...all.map((t) => t.outletTempC)));
+    expect(page.hottest.inletTempC).toBe(Math.max(...all.map((t) => t.inletTempC)));
+    expect(page.hottest.outletTempC).toBeGreaterThan(page.trials[1].outletTempC);
     const none = (await eng.get(`/api/rigs/${rig.id}/trials?q=${encodeURIComponent('no trial has this note ' + Date.now())}`)).body;
-    expect(none.hottest).toEqual({ inletC: null, outletC: null });
+    expect(none.hottest).toEqual({ inletTempC: null, outletTempC: null });
   });
 
   test('a batch with one bad trial stores nothing and names the field', async () => {

@@ -19,8 +19,8 @@ describe('demo lab generator', () => {
     const trials = generateTrials(plan);
     expect(trials.length).toBeGreaterThanOrEqual(12);
     for (const t of trials) {
-      expect(t.outletC).toBeGreaterThan(t.inletC);
-      expect(t.outletC).toBeLessThan(plan.sourceC);
+      expect(t.outletTempC).toBeGreaterThan(t.inletTempC);
+      expect(t.outletTempC).toBeLessThan(plan.sourceC);
       expect(Math.min(...t.fillTimesS)).toBeGreaterThan(30); // fills ≥ 30 s keep timing error small (common practice)
       expect(t.flowM3PerS).toBeCloseTo(t.bucketVolumeM3 / (t.fillTimesS.reduce((a, b) => a + b) / t.fillTimesS.length), 12);
     }

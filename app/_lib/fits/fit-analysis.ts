@@ -62,7 +62,7 @@ export async function trialsForFit(em: EntityManager, rig: RigRow, ids?: string[
 /** SHA-256 of the trial values a fit used, in order: any later edit of those numbers changes it. */
 export function trialsHash(trials: TrialRow[]): string {
   const h = createHash('sha256');
-  for (const t of trials) h.update(JSON.stringify([t.id, t.flowM3PerS, t.inletC, t.outletC]) + '\n');
+  for (const t of trials) h.update(JSON.stringify([t.id, t.flowM3PerS, t.inletTempC, t.outletTempC]) + '\n');
   return h.digest('hex');
 }
 
@@ -75,11 +75,11 @@ export function fitData(trials: TrialRow[]) {
   const clamp = (t: number) => Math.min(Math.max(t, 0.01), 99.9);
   return {
     x: trials.map((t) => t.flowM3PerS),
-    y: trials.map((t) => t.outletC),
+    y: trials.map((t) => t.outletTempC),
     covariates: {
-      Tin: trials.map((t) => t.inletC),
-      rho: trials.map((t) => waterDensityKgPerM3(clamp(t.outletC))),
-      cp: trials.map((t) => waterCpJPerKgK(clamp((t.inletC + t.outletC) / 2))),
+      Tin: trials.map((t) => t.inletTempC),
+      rho: trials.map((t) => waterDensityKgPerM3(clamp(t.outletTempC))),
+      cp: trials.map((t) => waterCpJPerKgK(clamp((t.inletTempC + t.outletTempC) / 2))),
     },
   };
 }
@@ -97,7 +97,7 @@ export async function analyze(em: EntityManager, rig: RigRow, input: AnalyzeInpu
   const meanTin = data.covariates.Tin.reduce((a, b) => a + b, 0) / data.covariates.Tin.length;
   const planInletC = input.planInletC ?? Math.round(meanTin * 10) / 10;
   const labels = used.map((t) => t.startedAt.toISOString().slice(0, 16).replace('T', ' '));
-  const excludedPts = excluded.map((t) => ({ flowM3PerS: t.flowM3PerS, outletC: t.outletC, label: 'excluded' }));
+  const excludedPts = excluded.map((t) => ({ flowM3PerS: t.flowM3PerS, outletTempC: t.outletTempC, label: 'excluded' }));
   let plots: Record<string, { title: string; summary: string; svg: string; cautions?: PlotFigure['cautions'] }> = {};
   let choice = null;
   let performance = null;
@@ -107,9 +107,9 @@ export async function analyze(em: EntityManager, rig: RigRow, input: AnalyzeInpu
     const [lo, hi] = primary.xRange;
     const steps = Array.from({ length: 8 }, (_, i) => lo + ((hi * 1.25 - lo) * i) / 7);
     performance = performanceTable(primary, steps, planInletC);
-    const curve = fitCurvePlot(fitCurveInputFromFits(okFits.map((r) => ({ label: r.label, fit: r.fit })), { excluded: excludedPts, labels, inletC: planInletC }), units);
+    const curve = fitCurvePlot(fitCurveInputFromFits(okFits.map((r) => ({ label: r.label, fit: r.fit })), { excluded: excludedPts, labels, inletTempC: planInletC }), units);
     const res = residualPlots(residualInputFromFit(primary, { labels, times: used.map((t) => t.startedAt) }), units);
-    const heat = heatPlot(heatInputFromFit(primary, { inletC: planInletC, choice, excluded: excludedPts, labels }), units);
+    const heat = heatPlot(heatInputFromFit(primary, { inletTempC: planInletC, choice, excluded: excludedPts, labels }), units);
     plots = { curve: svgOf(curve), heat: svgOf(heat), resFlow: svgOf(res.vsFlow), resFitted: svgOf(res.vsFitted), resOrder: svgOf(res.vsOrder), qq: svgOf(res.qq) };
   }
   return {

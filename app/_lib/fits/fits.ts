@@ -58,7 +58,7 @@ export async function saveFit(em: EntityManager, rig: RigRow, user: UserRow, inp
         comparison: { best: comparison.best, verdict: comparison.verdict, ranking: comparison.ranking.map((r) => ({ ...r, fit: undefined })) },
         choice: chooseFlow(fit, planInletC),
         performance: performanceTable(fit, steps, planInletC),
-        trials: trials.map((t) => ({ id: t.id, startedAt: t.startedAt.toISOString(), flowM3PerS: t.flowM3PerS, inletC: t.inletC, outletC: t.outletC, bucketVolumeM3: t.bucketVolumeM3 ?? null, fillTimesS: t.fillTimesS ?? null, ambientC: t.ambientC ?? null, notes: t.notes })),
+        trials: trials.map((t) => ({ id: t.id, startedAt: t.startedAt.toISOString(), flowM3PerS: t.flowM3PerS, inletTempC: t.inletTempC, outletTempC: t.outletTempC, bucketVolumeM3: t.bucketVolumeM3 ?? null, fillTimesS: t.fillTimesS ?? null, ambientTempC: t.ambientTempC ?? null, notes: t.notes })),
       }),
     ),
     softwareVersion: SOFTWARE_VERSION,

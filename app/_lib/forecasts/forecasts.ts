@@ -47,7 +47,7 @@ export async function forecast(em: EntityManager, lab: LabRow, body: Record<stri
     {
       timeH: pick((s) => s.time_h),
       poolC: pick((s) => s.temp_degC),
-      outletC: pick((s) => s.outletTemp_degC),
+      outletTempC: pick((s) => s.outletTemp_degC),
       targetC,
       hoursToTarget: out.hoursToTarget_h,
       cautions: out.cautions.filter((c) => c.thresholdC !== null).map((c) => ({ thresholdC: c.thresholdC!, level: c.level, message: c.message })),

@@ -75,13 +75,13 @@ function overviewOf(ch: OverviewChannels, seg: OverviewSegmentation, maxPoints: 
     maxPoints,
     points: {
       tS: at((i) => ms(ch.timeS[i])),
-      inletC: at((i) => sig(ch.inletTempC[i])),
-      outletC: at((i) => sig(ch.outletTempC[i])),
+      inletTempC: at((i) => sig(ch.inletTempC[i])),
+      outletTempC: at((i) => sig(ch.outletTempC[i])),
       flowM3PerS: at((i) => sig(ch.flowM3PerS[i])),
     },
     segments: seg.segments.map((s) => ({
       startS: ms(s.startTimeS), endS: ms(s.endTimeS),
-      inletC: sig(s.mean.inletTempC) ?? NaN, outletC: sig(s.mean.outletTempC) ?? NaN, flowM3PerS: sig(s.mean.flowM3PerS) ?? NaN,
+      inletTempC: sig(s.mean.inletTempC) ?? NaN, outletTempC: sig(s.mean.outletTempC) ?? NaN, flowM3PerS: sig(s.mean.flowM3PerS) ?? NaN,
     })),
   };
 }

@@ -59,7 +59,7 @@ export interface SegmentPreview {
   /** the engineer's periods, measured (when asked) */
   periods: PreviewPeriod[] | null;
   /** the log reduced for display (LTTB keeping each bucket's extremes, per channel, merged) */
-  series: { tS: number[]; inletC: number[]; outletC: number[]; flowM3PerS: number[]; reduced: boolean };
+  series: { tS: number[]; inletTempC: number[]; outletTempC: number[]; flowM3PerS: number[]; reduced: boolean };
 }
 
 export interface PreviewProgress {
@@ -170,8 +170,8 @@ function displaySeries(log: SensorLog, from = 0, to = log.n, maxPoints = DISPLAY
   const idx = Array.from(overviewIndices(part(log.timeS), [part(log.inletTempC), part(log.outletTempC), part(log.flowM3PerS)], maxPoints), (i) => from + i);
   return {
     tS: idx.map((i) => round(log.timeS[i], 9)),
-    inletC: idx.map((i) => round(log.inletTempC[i], 6)),
-    outletC: idx.map((i) => round(log.outletTempC[i], 6)),
+    inletTempC: idx.map((i) => round(log.inletTempC[i], 6)),
+    outletTempC: idx.map((i) => round(log.outletTempC[i], 6)),
     flowM3PerS: idx.map((i) => round(log.flowM3PerS[i], 6)),
     reduced: idx.length < n,
   };

@@ -85,14 +85,14 @@ const rowsView = (r: TrialSheetResult, limit = 500) => ({
 });
 
 /** The hottest inlet and outlet of the rows that can be imported (°C, with the outlet's line), for the cautions of the check. */
-function hottestRows(r: TrialSheetResult): { inletC: number | null; outletC: number | null; outletLine: number | null } {
-  let inletC: number | null = null, outletC: number | null = null, outletLine: number | null = null;
+function hottestRows(r: TrialSheetResult): { inletTempC: number | null; outletTempC: number | null; outletLine: number | null } {
+  let inletTempC: number | null = null, outletTempC: number | null = null, outletLine: number | null = null;
   for (const x of r.rows) {
     if (!x.ok) continue;
-    if (inletC === null || x.row.inletTempC > inletC) inletC = x.row.inletTempC;
-    if (outletC === null || x.row.outletTempC > outletC) { outletC = x.row.outletTempC; outletLine = x.line; }
+    if (inletTempC === null || x.row.inletTempC > inletTempC) inletTempC = x.row.inletTempC;
+    if (outletTempC === null || x.row.outletTempC > outletTempC) { outletTempC = x.row.outletTempC; outletLine = x.line; }
   }
-  return { inletC, outletC, outletLine };
+  return { inletTempC, outletTempC, outletLine };
 }
 
 const logHeadView = (log: SensorLog) => ({
@@ -205,9 +205,9 @@ export async function confirmImport(em: EntityManager, rig: RigRow, file: Source
         bucketVolumeM3: row.bucketVolumeM3 ?? null,
         fillTimesS: row.fillTimesS ?? null,
         flowM3PerS: row.flowM3PerS,
-        inletC: row.inletTempC,
-        outletC: row.outletTempC,
-        ambientC: row.ambientTempC ?? null,
+        inletTempC: row.inletTempC,
+        outletTempC: row.outletTempC,
+        ambientTempC: row.ambientTempC ?? null,
         notes: row.notes ?? '',
       });
     }

@@ -15,7 +15,7 @@ import { displayUnits, fmt, sentences, withUnit, type UnitSystem } from './units
 /** One trial, SI: flow m³/s, outlet °C. */
 export interface FitCurveTrial {
   flowM3PerS: number;
-  outletC: number;
+  outletTempC: number;
   /** left out of the fit (drawn hollow) */
   excluded?: boolean;
   /** shown in the point's tooltip, e.g. a trial number */
@@ -47,7 +47,7 @@ export interface FitCurveInput {
   /** [min, max] flow of the fitted trials, m³/s */
   testedRange: [number, number];
   /** inlet temperature, °C (null to omit the rule) */
-  inletC: number | null;
+  inletTempC: number | null;
   /** confidence level of the bands, e.g. 0.95 */
   level: number;
 }
@@ -55,11 +55,11 @@ export interface FitCurveInput {
 /** Options of the adapter {@link fitCurveInputFromFits}. */
 export interface FitCurveFromFitsOptions {
   /** trials left out of the fit, SI (drawn hollow) */
-  excluded?: { flowM3PerS: number; outletC: number; label?: string }[];
+  excluded?: { flowM3PerS: number; outletTempC: number; label?: string }[];
   /** labels of the fitted trials, in the fit's point order */
   labels?: string[];
   /** inlet temperature for the curves and the rule, °C (default: the primary fit's mean Tin) */
-  inletC?: number;
+  inletTempC?: number;
   /** flows to draw over, m³/s (default: the tested range widened by 10 % below and 25 % above) */
   flowRange?: [number, number];
   /** grid points per curve (default 121) */
@@ -82,18 +82,18 @@ export function fitCurveInputFromFits(fits: { label: string; fit: FitSuccess }[]
   const m = Math.max(2, Math.round(options.points ?? 121));
   const grid = Array.from({ length: m }, (_, i) => range[0] + ((range[1] - range[0]) * i) / (m - 1));
   const tinMean = primary.spec.covariateMeans.Tin;
-  const inletC = options.inletC ?? (typeof tinMean === 'number' ? tinMean : null);
-  const models = fits.map(({ label, fit }) => ({ label, points: curveOf(fit, grid, inletC) }));
-  const trials: FitCurveTrial[] = primary.spec.x.map((x, i) => ({ flowM3PerS: x, outletC: primary.spec.y[i], label: options.labels?.[i] }));
+  const inletTempC = options.inletTempC ?? (typeof tinMean === 'number' ? tinMean : null);
+  const models = fits.map(({ label, fit }) => ({ label, points: curveOf(fit, grid, inletTempC) }));
+  const trials: FitCurveTrial[] = primary.spec.x.map((x, i) => ({ flowM3PerS: x, outletTempC: primary.spec.y[i], label: options.labels?.[i] }));
   for (const e of options.excluded ?? []) trials.push({ ...e, excluded: true });
   const replicates = primary.replicates.map((g) => ({ flowM3PerS: g.xMean, meanC: g.yMean, sdK: g.ySD, n: g.n }));
-  return { trials, replicates, models, testedRange: [lo, hi], inletC, level: primary.level };
+  return { trials, replicates, models, testedRange: [lo, hi], inletTempC, level: primary.level };
 }
 
 /** predictAt over the grid; where the model cannot be evaluated (e.g. x ≤ 0 for the coil), those points are left out. */
-function curveOf(fit: FitSuccess, grid: number[], inletC: number | null): BandPoint[] {
-  const needsTin = fit.spec.covariateNames.includes('Tin') && inletC !== null;
-  const at = (xs: number[]) => predictAt(fit, xs, needsTin ? { Tin: xs.map(() => inletC as number) } : {}, fit.level);
+function curveOf(fit: FitSuccess, grid: number[], inletTempC: number | null): BandPoint[] {
+  const needsTin = fit.spec.covariateNames.includes('Tin') && inletTempC !== null;
+  const at = (xs: number[]) => predictAt(fit, xs, needsTin ? { Tin: xs.map(() => inletTempC as number) } : {}, fit.level);
   try {
     return at(grid);
   } catch {
@@ -130,11 +130,11 @@ export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { wi
   const xMin = Math.min(...allX);
   const xMax = Math.max(...allX);
   const temps = [
-    ...input.trials.map((t) => t.outletC),
+    ...input.trials.map((t) => t.outletTempC),
     ...input.replicates.flatMap((r) => (r.sdK === null ? [r.meanC] : [r.meanC - r.sdK, r.meanC + r.sdK])),
     ...(primary?.points ?? []).flatMap((p) => [p.piLow, p.piHigh]),
     ...input.models.slice(1).flatMap((m) => m.points.map((p) => p.y)),
-    ...(input.inletC !== null ? [input.inletC] : []),
+    ...(input.inletTempC !== null ? [input.inletTempC] : []),
   ].filter(Number.isFinite);
   let yLo = Math.min(...temps);
   let yHi = Math.max(...temps);
@@ -145,7 +145,7 @@ export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { wi
   yHi += pad;
 
   const refs: { y: number; text: string; stroke: string; dash: string; kind: string }[] = [];
-  if (input.inletC !== null) refs.push({ y: input.inletC, text: `inlet ${withUnit(input.inletC, u.temp)}`, stroke: COLORS.water, dash: '4 4', kind: 'inlet' });
+  if (input.inletTempC !== null) refs.push({ y: input.inletTempC, text: `inlet ${withUnit(input.inletTempC, u.temp)}`, stroke: COLORS.water, dash: '4 4', kind: 'inlet' });
   const band = (code: string) => HAZARD_BANDS.find((b) => b.code === code)!;
   const safety = [
     { c: CAUTION_THRESHOLDS_C.spaLimit, text: band('spa-limit').short, stroke: COLORS.caution, kind: 'spa-limit' },
@@ -162,8 +162,8 @@ export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { wi
   ];
   const included = input.trials.filter((t) => !t.excluded);
   const excluded = input.trials.filter((t) => t.excluded);
-  const tip = (t: FitCurveTrial) => `${t.label ? `${t.label}: ` : ''}${withUnit(t.flowM3PerS, u.flow)}, ${withUnit(t.outletC, u.temp)}${t.excluded ? ' (excluded from the fit)' : ''}`;
-  const dots = (rows: FitCurveTrial[]) => rows.map((t) => ({ x: F(t.flowM3PerS), y: T(t.outletC), tip: tip(t) }));
+  const tip = (t: FitCurveTrial) => `${t.label ? `${t.label}: ` : ''}${withUnit(t.flowM3PerS, u.flow)}, ${withUnit(t.outletTempC, u.temp)}${t.excluded ? ' (excluded from the fit)' : ''}`;
+  const dots = (rows: FitCurveTrial[]) => rows.map((t) => ({ x: F(t.flowM3PerS), y: T(t.outletTempC), tip: tip(t) }));
   // A tooltip per dot helps with tens of trials; among hundreds the dots overlap and the tooltips only weigh the page.
   const dotTitle = input.trials.length <= TOOLTIP_MAX_TRIALS ? 'tip' : undefined;
   const reps = input.replicates.filter((r) => r.n >= 2 && r.sdK !== null).map((r) => ({
@@ -213,7 +213,7 @@ export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { wi
   // one caution per hazard for the outlet the plot shows: measured trials and the curve over the tested flows
   const cautions = hottestCautions([{
     where: 'outlet',
-    valuesC: [...input.trials.map((t) => t.outletC), ...(primary?.points ?? []).filter((p) => p.x >= lo && p.x <= hi).map((p) => p.y)],
+    valuesC: [...input.trials.map((t) => t.outletTempC), ...(primary?.points ?? []).filter((p) => p.x >= lo && p.x <= hi).map((p) => p.y)],
   }], units);
 
   return {

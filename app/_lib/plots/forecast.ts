@@ -15,7 +15,7 @@ export interface ForecastPlotInput {
   /** pool temperature at those times, °C */
   poolC: ArrayLike<number>;
   /** heater outlet temperature at those times, °C (null to omit) */
-  outletC: ArrayLike<number> | null;
+  outletTempC: ArrayLike<number> | null;
   targetC: number | null;
   hoursToTarget: number | null;
   /** thresholds crossed, from the forecast's cautions (°C, with their level) */
@@ -33,7 +33,7 @@ export function forecastInputFromResult(result: ForecastResult, options: { targe
   return {
     timeH: result.timeH,
     poolC: result.tempC,
-    outletC: options.showOutlet === false ? null : result.outletTempC,
+    outletTempC: options.showOutlet === false ? null : result.outletTempC,
     targetC: options.targetC ?? null,
     hoursToTarget: result.hoursToTarget,
     cautions: result.cautions.filter((c) => c.thresholdC !== null).map((c) => ({ thresholdC: c.thresholdC as number, level: c.level, message: c.message })),
@@ -53,8 +53,8 @@ export function forecastPlot(input: ForecastPlotInput, units: UnitSystem, size: 
   const T = u.temp.from;
   const n = Math.min(input.timeH.length, input.poolC.length);
   const pool = Array.from({ length: n }, (_, i) => ({ t: input.timeH[i], y: T(input.poolC[i]) }));
-  const outlet = input.outletC ? Array.from({ length: Math.min(n, input.outletC.length) }, (_, i) => ({ t: input.timeH[i], y: T((input.outletC as ArrayLike<number>)[i]) })) : [];
-  const temps = [...Array.from({ length: n }, (_, i) => input.poolC[i]), ...(input.outletC ? Array.from(input.outletC).slice(0, n) : []), ...(input.targetC !== null ? [input.targetC] : [])].filter(Number.isFinite);
+  const outlet = input.outletTempC ? Array.from({ length: Math.min(n, input.outletTempC.length) }, (_, i) => ({ t: input.timeH[i], y: T((input.outletTempC as ArrayLike<number>)[i]) })) : [];
+  const temps = [...Array.from({ length: n }, (_, i) => input.poolC[i]), ...(input.outletTempC ? Array.from(input.outletTempC).slice(0, n) : []), ...(input.targetC !== null ? [input.targetC] : [])].filter(Number.isFinite);
   const yLo = Math.min(...temps);
   const yHi = Math.max(...temps);
   const crossed = new Set(input.cautions.map((c) => c.thresholdC));
@@ -89,7 +89,7 @@ export function forecastPlot(input: ForecastPlotInput, units: UnitSystem, size: 
   const summary = sentences([
     n ? `the ${what} goes from ${withUnit(first, u.temp)} to ${withUnit(last, u.temp)} in ${fmt(hours, 3)} h` : 'no forecast samples',
     input.targetC !== null ? (hit !== null ? `it reaches the target ${withUnit(input.targetC, u.temp)} after ${fmt(hit, 3)} h` : `it does not reach the target ${withUnit(input.targetC, u.temp)} in this time`) : '',
-    outlet.length ? `the dashed line is the heater outlet (highest ${withUnit(Math.max(...Array.from(input.outletC as ArrayLike<number>).slice(0, n)), u.temp)})` : '',
+    outlet.length ? `the dashed line is the heater outlet (highest ${withUnit(Math.max(...Array.from(input.outletTempC as ArrayLike<number>).slice(0, n)), u.temp)})` : '',
     lines.length ? `caution lines: ${lines.map((l) => l.text).join('; ')}` : '',
     ...input.cautions.filter((c) => c.level === 'danger').map((c) => c.message),
   ]);

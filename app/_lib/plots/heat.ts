@@ -23,7 +23,7 @@ export interface HeatCurvePoint {
 /** Everything heatPlot draws, SI. */
 export interface HeatPlotInput {
   model: string;
-  inletC: number;
+  inletTempC: number;
   level: number;
   curve: HeatCurvePoint[];
   trials: { flowM3PerS: number; heatW: number; excluded?: boolean; label?: string }[];
@@ -44,14 +44,14 @@ export interface HeatPlotInput {
 /** Options of {@link heatInputFromFit}. */
 export interface HeatFromFitOptions {
   /** inlet temperature, °C (default the fit's mean Tin) */
-  inletC?: number;
-  /** from chooseFlow(fit, inletC): recommended flow, optimum and minimum flows */
+  inletTempC?: number;
+  /** from chooseFlow(fit, inletTempC): recommended flow, optimum and minimum flows */
   choice?: FlowChoice;
   /** density and specific heat for q (default: the fit's mean rho/cp covariates, else IF97 at the inlet) */
   rhoKgPerM3?: number;
   cpJPerKgK?: number;
   /** trials left out of the fit, SI */
-  excluded?: { flowM3PerS: number; outletC: number; label?: string }[];
+  excluded?: { flowM3PerS: number; outletTempC: number; label?: string }[];
   labels?: string[];
   /** flows to draw over, m³/s (default: the tested range widened, and the recommended flow included) */
   flowRange?: [number, number];
@@ -65,10 +65,10 @@ export interface HeatFromFitOptions {
  */
 export function heatInputFromFit(fit: FitSuccess, options: HeatFromFitOptions = {}): HeatPlotInput {
   const { spec } = fit;
-  const tin = options.inletC ?? spec.covariateMeans.Tin;
-  if (typeof tin !== 'number' || !Number.isFinite(tin)) throw new RangeError('heatInputFromFit: an inlet temperature inletC is needed (the fit has no Tin covariate)');
-  const rho = options.rhoKgPerM3 ?? spec.covariateMeans.rho ?? waterDensityKgPerM3(tin, undefined, 'inletC');
-  const cp = options.cpJPerKgK ?? spec.covariateMeans.cp ?? waterCpJPerKgK(tin, undefined, 'inletC');
+  const tin = options.inletTempC ?? spec.covariateMeans.Tin;
+  if (typeof tin !== 'number' || !Number.isFinite(tin)) throw new RangeError('heatInputFromFit: an inlet temperature inletTempC is needed (the fit has no Tin covariate)');
+  const rho = options.rhoKgPerM3 ?? spec.covariateMeans.rho ?? waterDensityKgPerM3(tin, undefined, 'inletTempC');
+  const cp = options.cpJPerKgK ?? spec.covariateMeans.cp ?? waterCpJPerKgK(tin, undefined, 'inletTempC');
   const heat = (q: number, t: number, tIn = tin) => rho * cp * q * (t - tIn);
   const choice = options.choice;
   const [lo, hi] = fit.xRange;
@@ -103,7 +103,7 @@ export function heatInputFromFit(fit: FitSuccess, options: HeatFromFitOptions = 
 
   const tinOf = spec.covariates.Tin;
   const trials: HeatPlotInput['trials'] = spec.x.map((x, i) => ({ flowM3PerS: x, heatW: heat(x, spec.y[i], tinOf ? tinOf[i] : tin), label: options.labels?.[i] }));
-  for (const e of options.excluded ?? []) trials.push({ flowM3PerS: e.flowM3PerS, heatW: heat(e.flowM3PerS, e.outletC), excluded: true, label: e.label });
+  for (const e of options.excluded ?? []) trials.push({ flowM3PerS: e.flowM3PerS, heatW: heat(e.flowM3PerS, e.outletTempC), excluded: true, label: e.label });
 
   let optimum: HeatPlotInput['optimum'] = null;
   let optimumNote: string;
@@ -117,7 +117,7 @@ export function heatInputFromFit(fit: FitSuccess, options: HeatFromFitOptions = 
   }
   const ceilingW = fit.model === 'coil' && fit.params.UA && fit.params.Ts ? fit.params.UA.value * (fit.params.Ts.value - tin) : null;
   const unsafeBelow = boilingFlow > 0 ? [{ flowM3PerS: boilingFlow, label: 'outlet may boil below this flow' }] : [];
-  return { model: fit.model, inletC: tin, level: fit.level, curve, trials, testedRange: [lo, hi], ceilingW, recommended, optimum, optimumNote, unsafeBelow };
+  return { model: fit.model, inletTempC: tin, level: fit.level, curve, trials, testedRange: [lo, hi], ceilingW, recommended, optimum, optimumNote, unsafeBelow };
 }
 
 /**
@@ -170,7 +170,7 @@ export function heatPlot(input: HeatPlotInput, units: UnitSystem, size: { width?
   const title = `Delivered heat against flow — ${input.model}`;
   const nIn = input.trials.filter((t) => !t.excluded).length;
   const summary = sentences([
-    `heat delivered to the water at an inlet of ${withUnit(input.inletC, u.temp)}, from the ${input.model} fit with its ${pct} confidence and prediction bands, and ${nIn} trial${nIn === 1 ? '' : 's'}`,
+    `heat delivered to the water at an inlet of ${withUnit(input.inletTempC, u.temp)}, from the ${input.model} fit with its ${pct} confidence and prediction bands, and ${nIn} trial${nIn === 1 ? '' : 's'}`,
     `tested flows ${withUnit(lo, u.flow)} to ${withUnit(hi, u.flow)}${extrap.length ? '; beyond them the curve is extrapolated (shaded)' : ''}`,
     input.ceilingW !== null ? `heat rises with flow toward the ceiling UA·(Ts − Tin) = ${withUnit(input.ceilingW, u.power)}; there is no optimum` : '',
     optimumShown ? `the model has a heat maximum at ${withUnit(optimumShown.flowM3PerS, u.flow)} (${withUnit(optimumShown.heatW, u.power)}) inside the tested flows` : input.ceilingW === null ? input.optimumNote : '',

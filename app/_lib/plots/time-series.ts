@@ -20,8 +20,8 @@ const LIST_MAX = 12;
 export interface LogPoint {
   /** seconds from the start of the log */
   tS: number;
-  inletC: number | null;
-  outletC: number | null;
+  inletTempC: number | null;
+  outletTempC: number | null;
   flowM3PerS: number | null;
 }
 
@@ -98,8 +98,8 @@ export function timeSeriesSegmentsPlot(input: TimeSeriesInput, units: UnitSystem
       const v = pick(p);
       return { x: at(p.tS), y: v === null || !Number.isFinite(v) ? null : conv(v) };
     });
-  const inlet = series((p) => p.inletC, u.temp.from);
-  const outlet = series((p) => p.outletC, u.temp.from);
+  const inlet = series((p) => p.inletTempC, u.temp.from);
+  const outlet = series((p) => p.outletTempC, u.temp.from);
   const flow = series((p) => p.flowM3PerS, u.flow.from);
   const n = input.points.length;
   const kept = visible.filter((s) => !s.muted); // the summary gives each period's own length, also when the plot cuts it
@@ -122,8 +122,8 @@ export function timeSeriesSegmentsPlot(input: TimeSeriesInput, units: UnitSystem
 
   // a line at each caution threshold the logged temperatures reach, and one caution per hazard beside the plot
   const cautions = hottestCautions([
-    { where: 'logged outlet', valuesC: input.points.map((p) => p.outletC) },
-    { where: 'logged inlet', valuesC: input.points.map((p) => p.inletC) },
+    { where: 'logged outlet', valuesC: input.points.map((p) => p.outletTempC) },
+    { where: 'logged inlet', valuesC: input.points.map((p) => p.inletTempC) },
   ], units);
   const reached = new Set(cautions.map((c) => c.thresholdC));
   const hazardLines = HAZARD_BANDS.filter((b) => reached.has(b.thresholdC))

@@ -48,10 +48,10 @@ export const trialInput = z
 export type TrialInput = z.infer<typeof trialInput>;
 
 /** Plausibility warnings that do not block saving. */
-export function trialWarnings(t: { inletC: number; outletC: number; fillTimesS?: number[] | null }): string[] {
+export function trialWarnings(t: { inletTempC: number; outletTempC: number; fillTimesS?: number[] | null }): string[] {
   const w: string[] = [];
-  if (t.outletC < t.inletC) w.push('The outlet is colder than the inlet: check the sensors are not swapped.');
-  if (t.outletC >= 100) w.push('The outlet is at or above 100 °C: water that hot flashes to steam when released.');
+  if (t.outletTempC < t.inletTempC) w.push('The outlet is colder than the inlet: check the sensors are not swapped.');
+  if (t.outletTempC >= 100) w.push('The outlet is at or above 100 °C: water that hot flashes to steam when released.');
   if (t.fillTimesS?.some((s) => s < 3)) w.push('A fill took under 3 s: timing error dominates; use a bigger bucket.');
   return w;
 }
@@ -64,9 +64,9 @@ export function toTrialFields(t: TrialInput) {
     bucketVolumeM3: t.bucketVolume ?? null,
     fillTimesS: t.fillTimesS ?? null,
     flowM3PerS,
-    inletC: t.inlet,
-    outletC: t.outlet,
-    ambientC: t.ambient ?? null,
+    inletTempC: t.inlet,
+    outletTempC: t.outlet,
+    ambientTempC: t.ambient ?? null,
     isReference: t.isReference ?? false,
     notes: t.notes,
   };
@@ -86,7 +86,7 @@ export async function createTrials(em: EntityManager, rig: RigRow, inputs: Trial
   return { rows, warnings };
 }
 
-export const SORTABLE = ['startedAt', 'flowM3PerS', 'inletC', 'outletC', 'createdAt'] as const;
+export const SORTABLE = ['startedAt', 'flowM3PerS', 'inletTempC', 'outletTempC', 'createdAt'] as const;
 export const listQuery = z.object({
   page: z.coerce.number().int().min(1).default(1),
   pageSize: z.coerce.number().int().min(1).max(500).default(50),
@@ -110,7 +110,7 @@ export async function listTrials(em: EntityManager, rig: RigRow, q: z.infer<type
   // the hottest inlet and outlet of every matching trial, not only of this page, for the cautions beside the table
   const agg = await em.createQueryBuilder(Trial).select([raw('max(inlet_c) as inlet_c'), raw('max(outlet_c) as outlet_c')]).where(where).execute<{ inlet_c: number | string | null; outlet_c: number | string | null }>('get', false);
   const asNum = (v: number | string | null | undefined) => (v === null || v === undefined ? null : Number(v));
-  const hottest = { inletC: asNum(agg?.inlet_c), outletC: asNum(agg?.outlet_c) };
+  const hottest = { inletTempC: asNum(agg?.inlet_c), outletTempC: asNum(agg?.outlet_c) };
   return { rows, total, page: q.page, pageSize: q.pageSize, hottest };
 }
 
@@ -143,9 +143,9 @@ export const trialDto = (t: TrialRow) => ({
   bucketVolumeM3: t.bucketVolumeM3 ?? null,
   fillTimesS: t.fillTimesS ?? null,
   flowM3PerS: t.flowM3PerS,
-  inletC: t.inletC,
-  outletC: t.outletC,
-  ambientC: t.ambientC ?? null,
+  inletTempC: t.inletTempC,
+  outletTempC: t.outletTempC,
+  ambientTempC: t.ambientTempC ?? null,
   isReference: t.isReference,
   excluded: t.excluded,
   notes: t.notes,

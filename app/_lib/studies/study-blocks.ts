@@ -43,7 +43,7 @@ interface StoredFitResult {
   comparison: ComparisonView;
   choice: ChoiceView;
   performance: PerformanceView;
-  trials: { startedAt: string; flowM3PerS: number; inletC: number; outletC: number }[];
+  trials: { startedAt: string; flowM3PerS: number; inletTempC: number; outletTempC: number }[];
 }
 
 const FIT_KINDS = new Set(['fit', 'comparison', 'performance', 'trials']);
@@ -62,7 +62,7 @@ export async function blockFits(em: EntityManager, lab: LabRow, blocks: readonly
  */
 function reduceTrials(trials: FitCurveTrial[]): FitCurveTrial[] {
   const sorted = [...trials].sort((a, b) => a.flowM3PerS - b.flowM3PerS);
-  const { indices } = reduceForDisplay(sorted.map((t) => t.flowM3PerS), sorted.map((t) => t.outletC));
+  const { indices } = reduceForDisplay(sorted.map((t) => t.flowM3PerS), sorted.map((t) => t.outletTempC));
   return Array.from(indices, (i) => sorted[i]);
 }
 
@@ -78,7 +78,7 @@ function fitBody(kind: string, fit: FitRow, publicView: boolean, units: Units): 
   const head: FitHead = { fitId: publicView ? null : fit.id, title: fit.title, version: fit.version, label, reviewState: fit.reviewState };
   switch (kind) {
     case 'fit': {
-      const input = fitCurveInputFromFits([{ label, fit: r.fit }], { inletC: r.choice.inletTempC });
+      const input = fitCurveInputFromFits([{ label, fit: r.fit }], { inletTempC: r.choice.inletTempC });
       const n = input.trials.length;
       let fig = fitCurvePlot(n > DISPLAY_MAX_POINTS ? { ...input, trials: reduceTrials(input.trials) } : input, units);
       if (n > DISPLAY_MAX_POINTS) fig = { ...fig, summary: fig.summary.replace(/^\d[\d,]* trials? fitted/, `${n.toLocaleString('en-US')} trials fitted (${DISPLAY_MAX_POINTS.toLocaleString('en-US')} or fewer drawn, reduced for display keeping the extremes)`) };
@@ -89,7 +89,7 @@ function fitBody(kind: string, fit: FitRow, publicView: boolean, units: Units): 
     case 'performance':
       return { type: 'performance', head, table: r.performance };
     default:
-      return { type: 'trials', head, trials: r.trials.map(({ startedAt, flowM3PerS, inletC, outletC }) => ({ startedAt, flowM3PerS, inletC, outletC })) };
+      return { type: 'trials', head, trials: r.trials.map(({ startedAt, flowM3PerS, inletTempC, outletTempC }) => ({ startedAt, flowM3PerS, inletTempC, outletTempC })) };
   }
 }
 
@@ -102,7 +102,7 @@ async function sensorLogBody(ctx: BlockContext, block: StudyBlock): Promise<Bloc
   if (!overview && (await ensureSensorOverview(copyPool(), file.id))) overview = await ctx.em.findOne(SensorOverview, { sourceFile: file.id }, { populate: ['rig'] });
   if (!overview) return { type: 'note', tone: 'muted', message: 'This file holds no logged samples (it was not imported as a sensor log).' };
   const p = overview.points;
-  const points = p.tS.map((tS, i) => ({ tS, inletC: p.inletC[i], outletC: p.outletC[i], flowM3PerS: p.flowM3PerS[i] }));
+  const points = p.tS.map((tS, i) => ({ tS, inletTempC: p.inletTempC[i], outletTempC: p.outletTempC[i], flowM3PerS: p.flowM3PerS[i] }));
   const figs = timeSeriesSegmentsPlot({ points, segments: overview.segments.map((s) => ({ startS: s.startS, endS: s.endS })), origin: overview.startedAt }, ctx.units);
   const samples = `${overview.samples.toLocaleString('en-US')} samples logged, ${points.length.toLocaleString('en-US')} shown (reduced for display, keeping every channel's extremes and the endpoints)`;
   const note = (f: PlotFigure): PlotFigure => ({ ...f, summary: overview.samples > points.length ? f.summary.replace(/^\d[\d,]* samples/, samples) : f.summary });

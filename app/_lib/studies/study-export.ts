@@ -14,11 +14,11 @@ export interface StoredTrial {
   id: string;
   startedAt: string;
   flowM3PerS: number;
-  inletC: number;
-  outletC: number;
+  inletTempC: number;
+  outletTempC: number;
   bucketVolumeM3: number | null;
   fillTimesS: number[] | null;
-  ambientC: number | null;
+  ambientTempC: number | null;
   notes?: string;
 }
 
@@ -40,7 +40,7 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
     const r = f.result as { fit: FitSuccess; performance: PerformanceTable; trials: StoredTrial[] };
     const label = `${f.title} v${f.version} (${modelLabel(f.model)})`;
     r.trials.forEach((t, i) =>
-      trials.push({ id: t.id, order: i + 1, timestamp: new Date(t.startedAt), included: true, flowM3PerS: t.flowM3PerS, inletTempC: t.inletC, outletTempC: t.outletC, ambientTempC: t.ambientC, bucketVolumeM3: t.bucketVolumeM3, fillTimesS: t.fillTimesS }),
+      trials.push({ id: t.id, order: i + 1, timestamp: new Date(t.startedAt), included: true, flowM3PerS: t.flowM3PerS, inletTempC: t.inletTempC, outletTempC: t.outletTempC, ambientTempC: t.ambientTempC, bucketVolumeM3: t.bucketVolumeM3, fillTimesS: t.fillTimesS }),
     );
     fitExports.push({ label, fit: r.fit, pointIds: r.trials.map((t) => t.id) });
     performance.push({ label, table: r.performance });

@@ -30,9 +30,9 @@ export default async function SavedFitPage({ params }: { params: Promise<{ fitId
   const u = v.user.unitSystem;
   const label = modelLabel(row.model);
   const labels = r.trials.map((t) => t.startedAt.slice(0, 16).replace('T', ' '));
-  const inletC = r.choice.inletTempC;
-  const curve = svg(fitCurvePlot(fitCurveInputFromFits([{ label, fit: r.fit }], { labels, inletC }), u));
-  const heat = svg(heatPlot(heatInputFromFit(r.fit, { inletC, choice: r.choice, labels }), u));
+  const inletTempC = r.choice.inletTempC;
+  const curve = svg(fitCurvePlot(fitCurveInputFromFits([{ label, fit: r.fit }], { labels, inletTempC }), u));
+  const heat = svg(heatPlot(heatInputFromFit(r.fit, { inletTempC, choice: r.choice, labels }), u));
   const res = residualPlots(residualInputFromFit(r.fit, { labels, times: r.trials.map((t) => new Date(t.startedAt)) }), u);
   const trail = await reviewTrail(v.em, 'fit', row.id);
   return (

@@ -16,7 +16,7 @@ import { importTrialSheet } from '../../../app/_lib/imports/import-trial-sheet';
 import { recirculatingForecast } from '../../../analysis/forecast/recirculating-forecast';
 import { coilHeater } from '../../../analysis/performance/heater-model';
 import { CAUTION_DEFER } from '../../../analysis/safety/cautions';
-import { LPM, outletC, study } from './support';
+import { LPM, outletTempC, study } from './support';
 
 describe('caution cells and notice rows', () => {
   test.each([
@@ -96,10 +96,10 @@ describe('our trial-sheet import reads an exported Trials CSV back', () => {
     };
     const r = importTrialSheet(t, mapping, { file: 'trials.csv' });
     expect(r.errorCount).toBe(0);
-    expect(r.okCount).toBe(outletC.length);
+    expect(r.okCount).toBe(outletTempC.length);
     r.rows.forEach((row, i) => {
       if (!row.ok) throw new Error(`line ${row.line}`);
-      expect(row.row.outletTempC).toBeCloseTo(outletC[i], 9);
+      expect(row.row.outletTempC).toBeCloseTo(outletTempC[i], 9);
       expect(row.row.inletTempC).toBe(20);
     });
   });

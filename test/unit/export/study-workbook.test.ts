@@ -2,7 +2,7 @@ import ExcelJS from 'exceljs';
 import Papa from 'papaparse';
 import { describe, expect, test } from 'vitest';
 import { fitWorkbook, studyCsv, studyWorkbook, ANALYSIS_AID_NOTICE } from '../../../app/_lib/exports/study-workbook';
-import { coil, expInlet, flowsLpm, forecast, LPM, outletC, perf, study, trials } from './support';
+import { coil, expInlet, flowsLpm, forecast, LPM, outletTempC, perf, study, trials } from './support';
 
 async function readBack(buf: Buffer): Promise<ExcelJS.Workbook> {
   const wb = new ExcelJS.Workbook();
@@ -74,7 +74,7 @@ describe('studyWorkbook, SI', async () => {
   test('each row says in words which limit its temperature reaches (Caution column)', () => {
     const rows = table(wb.getWorksheet('Trials')!);
     rows.forEach((r, i) => {
-      const t = outletC[i];
+      const t = outletTempC[i];
       const want = t >= 95 ? /steam/ : t >= 60 ? /^outlet at or above 60 °C: burns in seconds$/ : t >= 49 ? /^outlet at or above 49 °C: can scald$/ : t >= 40 ? /^outlet at or above the 40 °C spa limit$/ : null;
       if (want) expect(r.Caution, `${t} °C`).toMatch(want);
       else expect(r.Caution, `${t} °C`).toBeNull();
@@ -114,7 +114,7 @@ describe('studyWorkbook, SI', async () => {
     expect(Object.keys(rows[0])).toEqual(expect.arrayContaining(['Flow (L/min)', 'Outlet temperature (°C)', 'Heat rate (kW)', 'UA (W/K)', 'Fill 1 (s)', 'Fill 2 (s)']));
     rows.forEach((r, i) => {
       expect(r['Flow (L/min)']).toBeCloseTo(flowsLpm[i], 10);
-      expect(r['Outlet temperature (°C)']).toBeCloseTo(outletC[i], 12);
+      expect(r['Outlet temperature (°C)']).toBeCloseTo(outletTempC[i], 12);
       expect(r['Heat rate (kW)']).toBeCloseTo((trials[i].heatW as number) / 1000, 12);
       expect(r['Ambient temperature (°C)']).toBe(-2.5);
     });
@@ -204,8 +204,8 @@ describe('studyWorkbook, US customary', async () => {
     const rows = table(wb.getWorksheet('Trials')!);
     rows.forEach((r, i) => {
       expect(r['Flow (gpm)']).toBeCloseTo(flowsLpm[i] * GPM_PER_LPM, 10);
-      expect(r['Outlet temperature (°F)']).toBeCloseTo(F(outletC[i]), 10);
-      expect(r['Temperature rise (°F)']).toBeCloseTo(1.8 * (outletC[i] - 20), 10);
+      expect(r['Outlet temperature (°F)']).toBeCloseTo(F(outletTempC[i]), 10);
+      expect(r['Temperature rise (°F)']).toBeCloseTo(1.8 * (outletTempC[i] - 20), 10);
       expect(r['Heat rate (Btu/h)']).toBeCloseTo((trials[i].heatW as number) * BTUH_PER_W, 6);
     });
   });

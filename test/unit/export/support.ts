@@ -19,12 +19,12 @@ export const LPM = 1 / 60000; // m³/s per L/min (NIST SP 811: 1 L = 10⁻³ m³
 const DEVIATIONS_K = [0.21, -0.34, 0.12, 0.05, -0.27, 0.31, -0.08, -0.18, 0.16];
 
 export const flowsLpm = [2, 4, 6, 8, 10, 12, 14, 16, 18];
-export const outletC = flowsLpm.map((q, i) => 90 - 70 * Math.exp(-500 / (1000 * q * LPM * 4186)) + DEVIATIONS_K[i]);
+export const outletTempC = flowsLpm.map((q, i) => 90 - 70 * Math.exp(-500 / (1000 * q * LPM * 4186)) + DEVIATIONS_K[i]);
 
 function fit(model: string): FitSuccess {
   const n = flowsLpm.length;
   const r = fitModel({
-    x: flowsLpm.map((q) => q * LPM), y: outletC, model,
+    x: flowsLpm.map((q) => q * LPM), y: outletTempC, model,
     covariates: { Tin: Array(n).fill(20), rho: Array(n).fill(1000), cp: Array(n).fill(4186) },
   });
   if (!r.ok) throw new Error(`${model}: ${r.reason}`);
@@ -35,7 +35,7 @@ export const coil = fit('coil');
 export const expInlet = fit('exp-inlet');
 
 export const trials: TrialExportRow[] = flowsLpm.map((q, i) => {
-  const input = { flowM3PerS: q * LPM, inletTempC: 20, outletTempC: outletC[i], sourceTempC: 95 };
+  const input = { flowM3PerS: q * LPM, inletTempC: 20, outletTempC: outletTempC[i], sourceTempC: 95 };
   return trialExportRow({
     id: `T${i + 1}`, order: i + 1, timestamp: new Date(Date.UTC(2026, 5, 1, 9, 15 * i)), steady: true, included: true,
     bucketVolumeM3: 0.01, fillTimesS: [600 / q, 600 / q + 0.4], ambientTempC: -2.5,

@@ -4,7 +4,7 @@ import { coilTrials, fitOrThrow, group, LPM, num, renderPlot } from './support';
 
 const coil = fitOrThrow('coil');
 const expInlet = fitOrThrow('exp-inlet');
-const excluded = [{ flowM3PerS: 11 * LPM, outletC: 60, label: 'trial 15' }];
+const excluded = [{ flowM3PerS: 11 * LPM, outletTempC: 60, label: 'trial 15' }];
 const input = fitCurveInputFromFits([{ label: 'coil', fit: coil }, { label: 'exp-inlet', fit: expInlet }], { excluded });
 const GPM_IN_LPM = 3.785411784; // NIST SP 811 App. B.8: 1 US gal = 231 in³ = 3.785411784 L exactly
 

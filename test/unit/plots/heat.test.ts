@@ -8,7 +8,7 @@ const expInlet = fitOrThrow('exp-inlet');
 
 describe('heat plot of the coil fit', () => {
   const choice = chooseFlow(coil, 20);
-  const input = heatInputFromFit(coil, { choice, excluded: [{ flowM3PerS: 11 * LPM, outletC: 60 }] });
+  const input = heatInputFromFit(coil, { choice, excluded: [{ flowM3PerS: 11 * LPM, outletTempC: 60 }] });
   const fig = heatPlot(input, 'si');
   const { svg, doc, x, y } = renderPlot(fig.options);
 

@@ -5,8 +5,8 @@ import { group, num, renderPlot } from './support';
 // An invented 1 h log at one sample per 6 s: three flow steps, one missing outlet reading.
 const points = Array.from({ length: 600 }, (_, i) => ({
   tS: i * 6,
-  inletC: 20 + 0.01 * i,
-  outletC: i === 100 ? null : i < 200 ? 60 : i < 400 ? 45 : 38,
+  inletTempC: 20 + 0.01 * i,
+  outletTempC: i === 100 ? null : i < 200 ? 60 : i < 400 ? 45 : 38,
   flowM3PerS: (i < 200 ? 4 : i < 400 ? 8 : 12) / 60000,
 }));
 const segments = [{ startS: 300, endS: 1150 }, { startS: 1500, endS: 2350 }, { startS: 2700, endS: 3500 }];
@@ -29,7 +29,7 @@ describe('timeSeriesSegmentsPlot', () => {
     const { doc } = renderPlot(figs.temperatures.options);
     expect([...group(doc, 'caution label')].map((g) => g.textContent)).toEqual(['burns in seconds 60.0 °C', 'scald risk 49.0 °C', 'spa limit 40.0 °C']);
     expect(figs.temperatures.summary).toMatch(/Caution lines: burns in seconds 60.0 °C; scald risk 49.0 °C; spa limit 40.0 °C\./);
-    const cool = timeSeriesSegmentsPlot({ points: points.map((p) => ({ ...p, outletC: 30 })), segments }, 'si');
+    const cool = timeSeriesSegmentsPlot({ points: points.map((p) => ({ ...p, outletTempC: 30 })), segments }, 'si');
     expect(cool.temperatures.cautions).toEqual([]);
   });
 
@@ -56,7 +56,7 @@ describe('timeSeriesSegmentsPlot', () => {
 
 describe('timeSeriesSegmentsPlot with the hundreds of segments of a long log', () => {
   // An invented 12-day log drawn from 2,000 points: 800 segments of 1,000 s with 250-s transitions.
-  const long = Array.from({ length: 2000 }, (_, i) => ({ tS: i * 500, inletC: 15, outletC: 40 + (i % 7), flowM3PerS: 2e-4 }));
+  const long = Array.from({ length: 2000 }, (_, i) => ({ tS: i * 500, inletTempC: 15, outletTempC: 40 + (i % 7), flowM3PerS: 2e-4 }));
   const many = Array.from({ length: 800 }, (_, i) => ({ startS: 250 + i * 1250, endS: 1250 + i * 1250 }));
   const figs = timeSeriesSegmentsPlot({ points: long, segments: many }, 'si');
 

@@ -7,8 +7,8 @@ import { flowOut, flowUnit, tempOut, tempUnit, volOut, volUnit, type Units } fro
 
 interface Previous {
   bucketVolumeM3: number | null;
-  inletC: number;
-  ambientC: number | null;
+  inletTempC: number;
+  ambientTempC: number | null;
 }
 
 const unitText = (u: Units) => ({ vol: u === 'us' ? 'gal' : 'L', temp: u === 'us' ? 'degF' : 'degC', flow: u === 'us' ? 'gpm' : 'L/min' });
@@ -24,7 +24,7 @@ export function EntryForm({ rigId, units, previous }: { rigId: string; units: Un
   const [runningSince, setRunningSince] = useState<number | null>(null);
   const [now, setNow] = useState(0);
   const [message, setMessage] = useState<string | null>(null);
-  const [saved, setSaved] = useState<{ inletC: number; outletC: number } | null>(null);
+  const [saved, setSaved] = useState<{ inletTempC: number; outletTempC: number } | null>(null);
   const [warnings, setWarnings] = useState<string[]>([]);
   const [error, setError] = useState<string | null>(null);
   const [fieldErrors, setFieldErrors] = useState<Record<string, string>>({});
@@ -72,10 +72,10 @@ export function EntryForm({ rigId, units, previous }: { rigId: string; units: Un
     setSaved(null);
     setWarnings([]);
     try {
-      const r = await api<{ trials: { flowM3PerS: number; outletC: number; inletC: number }[]; warnings: { messages: string[] }[] }>(`/api/rigs/${rigId}/trials`, { body });
+      const r = await api<{ trials: { flowM3PerS: number; outletTempC: number; inletTempC: number }[]; warnings: { messages: string[] }[] }>(`/api/rigs/${rigId}/trials`, { body });
       const saved = r.trials[0];
-      setMessage(`Saved: ${flowOut(saved.flowM3PerS, units).toFixed(2)} ${flowUnit(units)}, rise ${(tempOut(saved.outletC, units) - tempOut(saved.inletC, units)).toFixed(1)} ${units === 'us' ? '°F' : 'K'}.`);
-      setSaved({ inletC: saved.inletC, outletC: saved.outletC });
+      setMessage(`Saved: ${flowOut(saved.flowM3PerS, units).toFixed(2)} ${flowUnit(units)}, rise ${(tempOut(saved.outletTempC, units) - tempOut(saved.inletTempC, units)).toFixed(1)} ${units === 'us' ? '°F' : 'K'}.`);
+      setSaved({ inletTempC: saved.inletTempC, outletTempC: saved.outletTempC });
       setWarnings(r.warnings.flatMap((w) => w.messages));
       setFills([]);
       const outlet = formRef.current?.elements.namedItem('outlet') as HTMLInputElement | null;
@@ -134,7 +134,7 @@ export function EntryForm({ rigId, units, previous }: { rigId: string; units: Un
         <legend className="px-1 text-lg font-semibold">Temperatures ({tempUnit(units)})</legend>
         <label>
           <span className="field-label">Inlet</span>
-          <input name="inlet" inputMode="decimal" required className="field-input num text-lg" defaultValue={previous ? +tempOut(previous.inletC, units).toFixed(1) : ''} />
+          <input name="inlet" inputMode="decimal" required className="field-input num text-lg" defaultValue={previous ? +tempOut(previous.inletTempC, units).toFixed(1) : ''} />
           {fe('inlet')}
         </label>
         <label>
@@ -144,7 +144,7 @@ export function EntryForm({ rigId, units, previous }: { rigId: string; units: Un
         </label>
         <label>
           <span className="field-label">Ambient</span>
-          <input name="ambient" inputMode="decimal" className="field-input num" defaultValue={previous?.ambientC != null ? +tempOut(previous.ambientC, units).toFixed(1) : ''} />
+          <input name="ambient" inputMode="decimal" className="field-input num" defaultValue={previous?.ambientTempC != null ? +tempOut(previous.ambientTempC, units).toFixed(1) : ''} />
         </label>
         <label className="flex items-end gap-2 pb-2 text-sm">
           <input type="checkbox" name="isReference" /> reference flow
@@ -158,10 +158,10 @@ export function EntryForm({ rigId, units, previous }: { rigId: string; units: Un
       {message ? (
         <p role="status" className="rounded-lg bg-ok-bg px-3 py-2 text-sm text-ok-text">
           {message}
-          {saved ? <> Outlet <span className="num"><TempValue c={saved.outletC} units={units} withUnit /></span>.</> : null}
+          {saved ? <> Outlet <span className="num"><TempValue c={saved.outletTempC} units={units} withUnit /></span>.</> : null}
         </p>
       ) : null}
-      {saved ? <TemperatureCautions units={units} label="Cautions for this trial" places={[{ where: 'outlet', valuesC: [saved.outletC] }, { where: 'inlet', valuesC: [saved.inletC] }]} /> : null}
+      {saved ? <TemperatureCautions units={units} label="Cautions for this trial" places={[{ where: 'outlet', valuesC: [saved.outletTempC] }, { where: 'inlet', valuesC: [saved.inletTempC] }]} /> : null}
       {warnings.map((w) => (
         <p key={w} className="rounded-lg border border-caution-line bg-caution-bg px-3 py-2 text-sm text-caution-text">{w}</p>
       ))}

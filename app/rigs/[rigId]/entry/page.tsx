@@ -21,7 +21,7 @@ export default async function EntryPage({ params }: { params: Promise<{ rigId: s
         <p className="mb-4 rounded-lg border border-caution-line bg-caution-bg px-3 py-2 text-sm text-caution-text">
           Keep water flowing through a heated coil at all times and stay clear of the outlet: it can be scalding.
         </p>
-        <EntryForm rigId={rig.id} units={v.user.unitSystem} previous={last ? { bucketVolumeM3: last.bucketVolumeM3 ?? null, inletC: last.inletC, ambientC: last.ambientC ?? null } : null} />
+        <EntryForm rigId={rig.id} units={v.user.unitSystem} previous={last ? { bucketVolumeM3: last.bucketVolumeM3 ?? null, inletTempC: last.inletTempC, ambientTempC: last.ambientTempC ?? null } : null} />
       </div>
     </AppPage>
   );

@@ -211,7 +211,7 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
   const figures = useMemo(() => {
     if (!preview) return null;
     const s = viewSeries ?? preview.series;
-    const points = s.tS.map((t, i) => ({ tS: t, inletC: s.inletC[i], outletC: s.outletC[i], flowM3PerS: s.flowM3PerS[i] }));
+    const points = s.tS.map((t, i) => ({ tS: t, inletTempC: s.inletTempC[i], outletTempC: s.outletTempC[i], flowM3PerS: s.flowM3PerS[i] }));
     const segments: LogSegment[] = [
       ...choices.map((c) => ({ startS: c.startS, endS: c.endS, label: c.from === 'rejected' ? `${c.label}*` : c.label, muted: !c.use })),
       ...preview.rejected.filter((r) => !choices.some((c) => c.id === `r${r.startLine}`)).map((r) => ({ startS: r.startS, endS: r.endS, label: '×', muted: true })),

@@ -44,7 +44,7 @@ interface Preview {
   savedMapping: boolean;
   mapping: Mapping;
   mappingError: string | null;
-  check: { okCount: number; errorCount: number; warningCount: number; notices: string[]; issues: Issue[]; preview: { line: number; ok: boolean; row?: { flowM3PerS: number; inletTempC: number; outletTempC: number } }[]; hottest?: { inletC: number | null; outletC: number | null; outletLine: number | null } } | null;
+  check: { okCount: number; errorCount: number; warningCount: number; notices: string[]; issues: Issue[]; preview: { line: number; ok: boolean; row?: { flowM3PerS: number; inletTempC: number; outletTempC: number } }[]; hottest?: { inletTempC: number | null; outletTempC: number | null; outletLine: number | null } } | null;
 }
 
 const FIELDS: { id: Field | ''; label: string; units: string[] }[] = [
@@ -416,17 +416,17 @@ export function ImportWizard({ rigId, units, maxMb }: { rigId: string; units: Un
                   tempDigits={1}
                 />
               ) : null}
-              {preview.check.hottest?.outletC != null ? (
+              {preview.check.hottest?.outletTempC != null ? (
                 <p className="text-sm">
-                  Hottest outlet in the file: <span className="num"><TempValue c={preview.check.hottest.outletC} units={units} withUnit /></span>
+                  Hottest outlet in the file: <span className="num"><TempValue c={preview.check.hottest.outletTempC} units={units} withUnit /></span>
                   {preview.check.hottest.outletLine != null ? <> (line <span className="num">{preview.check.hottest.outletLine}</span>)</> : null}.
                 </p>
               ) : null}
               <TemperatureCautions units={units}
                 label="Cautions for this file"
                 places={[
-                  { where: 'outlet', valuesC: [preview.check.hottest?.outletC, ...preview.check.preview.map((r) => r.row?.outletTempC)] },
-                  { where: 'inlet', valuesC: [preview.check.hottest?.inletC, ...preview.check.preview.map((r) => r.row?.inletTempC)] },
+                  { where: 'outlet', valuesC: [preview.check.hottest?.outletTempC, ...preview.check.preview.map((r) => r.row?.outletTempC)] },
+                  { where: 'inlet', valuesC: [preview.check.hottest?.inletTempC, ...preview.check.preview.map((r) => r.row?.inletTempC)] },
                 ]}
               />
               {preview.check.issues.length ? (
