@@ -29,6 +29,7 @@ export type ImportErrorCode =
   | 'duplicate_column'
   | 'missing_column'
   | 'bad_mapping'
+  | 'bad_period'
   | 'unreadable';
 
 /** Renders a location as "file.csv, sheet "Log", line 12, column "Outlet (°F)"". */

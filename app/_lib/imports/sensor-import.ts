@@ -10,6 +10,7 @@ import { PRESETS, resolveCriteria, segmentLog, segmentLogSteps, segmentStats, ty
 import { ImportError, confirmedMappingSchema, createSensorLogBuilder, openDelimited, type RowIssue, type SensorLog } from '.';
 import { getObjectStream } from '../server/storage';
 import { buildOverviewAsync, insertOverview, type OverviewData } from './sensor-overview';
+import { checkTrialRow } from '../rigs/trial-rule';
 
 /**
  * Sensor-log import: the stored file is streamed from object storage, read in blocks of rows,
@@ -382,21 +383,34 @@ export async function importSensorLog(target: SensorImportTarget, input: LogImpo
 
 interface Piece { a: number; b: number; st: SegmentStats; extra: Record<string, unknown> }
 
-/** The periods that become trials: the engineer's (source lines, inclusive), or every steady segment found. */
+/**
+ * The periods that become trials: the engineer's (source lines, inclusive), or every steady
+ * segment found. Each period's means go through the one trial rule (`rigs/trial-rule.ts`), as a
+ * typed or imported trial would: a period the engineer chose that the rule refuses stops the
+ * import with the reason; a found segment it refuses is left out with a notice.
+ */
 function trialPieces(log: SensorLog, channels: ReturnType<typeof channelsOf>, seg: SegmentationResult, criteria: SteadyCriteria, chosen: LogImportInput['segments'], file: string): Piece[] {
   const ln = log.lines;
   const pieces: Piece[] = [];
+  const ruled = (p: Piece, explicit: boolean) => {
+    const m = p.st.mean;
+    const r = checkTrialRow({ flowM3PerS: m.flowM3PerS, inletTempC: m.inletTempC, outletTempC: m.outletTempC, ambientTempC: m.ambientTempC ?? undefined }, ln[p.a]);
+    if (r.ok) return pieces.push(p);
+    const why = `the period from line ${ln[p.a]} to ${ln[p.b]} cannot be a trial: ${r.issues.map((i) => i.message).join('; ')}`;
+    if (explicit) throw new ImportError('bad_period', why, { file, line: ln[p.a] });
+    log.notices.push(why);
+  };
   if (chosen) {
     for (const s of chosen) {
       const a = lowerBound(ln, s.startLine), b = lowerBound(ln, s.endLine + 1) - 1;
       if (b - a < 1) throw new ImportError('bad_mapping', `the period from line ${s.startLine} to ${s.endLine} holds fewer than two samples`, { file });
-      pieces.push({ a, b, st: segmentStats(channels, a, b, criteria.blockS), extra: { chosen: true } });
+      ruled({ a, b, st: segmentStats(channels, a, b, criteria.blockS), extra: { chosen: true } }, true);
     }
   } else {
     for (const s of seg.segments) {
       const { criteria: _c, startIndex, endIndex, ...rest } = s;
       void _c;
-      pieces.push({ a: startIndex, b: endIndex, st: s, extra: { maxDeviation: rest.maxDeviation } });
+      ruled({ a: startIndex, b: endIndex, st: s, extra: { maxDeviation: rest.maxDeviation } }, false);
     }
   }
   return pieces;

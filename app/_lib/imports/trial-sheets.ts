@@ -2,6 +2,7 @@ import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
 import { ColumnMapping, SourceFile, Trial, type LabRow, type RigRow, type SourceFileRow, type UserRow } from '@/entities';
+import { trialFields } from '../rigs/trial-rule';
 import { HttpError } from '../server/errors';
 import {
   ImportError, confirmedMappingSchema, headerSignature, importTrialSheet, listSheets, readDelimited, readXlsxSheet, suggestMapping,
@@ -195,21 +196,7 @@ export async function confirmImport(em: EntityManager, rig: RigRow, file: Source
       if (!r.ok) continue;
       const row = r.row;
       const startedAt = row.time?.kind === 'datetime' ? new Date(row.time.iso) : row.time?.kind === 'elapsed' ? new Date(fallback + row.time.seconds * 1000) : new Date(fallback + r.line * 1000);
-      tx.create(Trial, {
-        lab: rig.lab,
-        rig,
-        origin: 'sheet',
-        sourceFile: file,
-        sourceLine: r.line,
-        startedAt,
-        bucketVolumeM3: row.bucketVolumeM3 ?? null,
-        fillTimesS: row.fillTimesS ?? null,
-        flowM3PerS: row.flowM3PerS,
-        inletTempC: row.inletTempC,
-        outletTempC: row.outletTempC,
-        ambientTempC: row.ambientTempC ?? null,
-        notes: row.notes ?? '',
-      });
+      tx.create(Trial, { lab: rig.lab, rig, origin: 'sheet', sourceFile: file, sourceLine: r.line, ...trialFields(row, startedAt) });
     }
     await keepMapping(tx, rig.lab, t.header, input.mapping);
     tx.assign(file, { state: 'imported', rowsImported: kept.length, rig });

@@ -4,11 +4,12 @@ import { z } from 'zod';
 import { Trial, TrialChange, type RigRow, type TrialRow, type UserRow } from '@/entities';
 import { parseQuantity, type QuantityKind } from '@/analysis/units/parse-quantity';
 import { HttpError, notFound } from '../server/errors';
+import { checkTrialRow, plausibilityWarnings, trialFields, TRIAL_LIMITS, type CheckedTrialRow } from './trial-rule';
 import { UUID } from './rigs';
 
 /** A quantity given as a number in the SI unit named by the key, or as a string with its unit ("4.5 gpm"). */
 const quantity = (kind: QuantityKind, field: string) =>
-  z.union([z.number().finite(), z.string().trim().min(1)]).transform((v, ctx) => {
+  z.union([z.number(), z.string().trim().min(1)]).transform((v, ctx) => {
     if (typeof v === 'number') return v;
     try {
       return parseQuantity(v, kind, field);
@@ -19,70 +20,63 @@ const quantity = (kind: QuantityKind, field: string) =>
   });
 
 /**
- * One trial as scripts and the entry form send it. Numbers are SI (m³, s, m³/s, °C); strings
- * carry their unit. Either a flow or a bucket volume with fill times is required.
+ * One trial as scripts and the entry form send it: numbers in SI (m³, s, m³/s, °C), or strings
+ * with their unit. Only the shape is checked here; what a trial must hold is the one trial rule
+ * (`trial-rule.ts`), which {@link apiTrialsToRows} applies.
  */
 export const trialInput = z
   .object({
     startedAt: z.coerce.date().optional(),
     bucketVolume: quantity('volume', 'bucketVolume').optional(),
-    fillTimesS: z.array(z.number().finite().positive('Fill times must be positive.')).min(1).max(20).optional(),
+    fillTimesS: z.array(z.number()).max(TRIAL_LIMITS.maxFillTimes).optional(),
     flow: quantity('volumeFlow', 'flow').optional(),
-    inlet: quantity('temperature', 'inlet'),
-    outlet: quantity('temperature', 'outlet'),
+    inlet: quantity('temperature', 'inlet').optional(),
+    outlet: quantity('temperature', 'outlet').optional(),
     ambient: quantity('temperature', 'ambient').optional(),
     isReference: z.boolean().optional(),
-    notes: z.string().max(2000).default(''),
+    notes: z.string().max(TRIAL_LIMITS.maxNotes).optional(),
   })
-  .strict()
-  .superRefine((t, ctx) => {
-    if (t.flow === undefined && (t.bucketVolume === undefined || !t.fillTimesS)) {
-      ctx.addIssue({ code: 'custom', path: ['flow'], message: 'Give a flow, or a bucket volume with one or more fill times.' });
-    }
-    if (t.bucketVolume !== undefined && t.bucketVolume <= 0) ctx.addIssue({ code: 'custom', path: ['bucketVolume'], message: 'The bucket volume must be positive.' });
-    if (t.flow !== undefined && t.flow <= 0) ctx.addIssue({ code: 'custom', path: ['flow'], message: 'The flow must be positive (zero flow through a heated coil is a dead-headed coil: steam risk).' });
-    for (const [k, v] of [['inlet', t.inlet], ['outlet', t.outlet], ['ambient', t.ambient]] as const) {
-      if (v !== undefined && (v < -40 || v > 150)) ctx.addIssue({ code: 'custom', path: [k], message: `${k} ${v} °C is outside −40…150 °C.` });
-    }
-  });
+  .strict();
 export type TrialInput = z.infer<typeof trialInput>;
 
-/** Plausibility warnings that do not block saving. */
-export function trialWarnings(t: { inletTempC: number; outletTempC: number; fillTimesS?: number[] | null }): string[] {
-  const w: string[] = [];
-  if (t.outletTempC < t.inletTempC) w.push('The outlet is colder than the inlet: check the sensors are not swapped.');
-  if (t.outletTempC >= 100) w.push('The outlet is at or above 100 °C: water that hot flashes to steam when released.');
-  if (t.fillTimesS?.some((s) => s < 3)) w.push('A fill took under 3 s: timing error dominates; use a bigger bucket.');
-  return w;
+/** The API's field for each field of the trial rule (its messages name what the caller sent). */
+const API_FIELD: Record<string, string> = {
+  bucketVolumeM3: 'bucketVolume', fillTimesS: 'fillTimesS', flowM3PerS: 'flow', inletTempC: 'inlet', outletTempC: 'outlet',
+  ambientTempC: 'ambient', isReference: 'isReference', notes: 'notes',
+};
+
+/**
+ * The API's trials through the one trial rule: each is mapped onto the rule's SI fields and
+ * checked. All or nothing: any refused trial throws 422 naming `field` (one trial) or
+ * `trials.N.field` (a batch), with the rule's message.
+ */
+export function apiTrialsToRows(inputs: TrialInput[], batch: boolean): { row: CheckedTrialRow; startedAt: Date; warnings: string[] }[] {
+  const fields: Record<string, string> = {};
+  const out = inputs.map((t, i) => {
+    const r = checkTrialRow({
+      bucketVolumeM3: t.bucketVolume, fillTimesS: t.fillTimesS, flowM3PerS: t.flow, inletTempC: t.inlet, outletTempC: t.outlet,
+      ambientTempC: t.ambient, isReference: t.isReference, notes: t.notes,
+    }, i, API_FIELD);
+    if (!r.ok) {
+      for (const issue of r.issues) fields[`${batch ? `trials.${i}.` : ''}${API_FIELD[issue.field ?? ''] ?? issue.field ?? '_'}`] ??= issue.message;
+      return null;
+    }
+    return { row: r.row, startedAt: t.startedAt ?? new Date(), warnings: r.issues.map((x) => x.message) };
+  });
+  if (Object.keys(fields).length) throw new HttpError(422, 'invalid', 'Some fields are not valid.', { fields });
+  return out as { row: CheckedTrialRow; startedAt: Date; warnings: string[] }[];
 }
 
-export function toTrialFields(t: TrialInput) {
-  const meanFill = t.fillTimesS ? t.fillTimesS.reduce((a, b) => a + b, 0) / t.fillTimesS.length : undefined;
-  const flowM3PerS = t.flow ?? t.bucketVolume! / meanFill!;
-  return {
-    startedAt: t.startedAt ?? new Date(),
-    bucketVolumeM3: t.bucketVolume ?? null,
-    fillTimesS: t.fillTimesS ?? null,
-    flowM3PerS,
-    inletTempC: t.inlet,
-    outletTempC: t.outlet,
-    ambientTempC: t.ambient ?? null,
-    isReference: t.isReference ?? false,
-    notes: t.notes,
-  };
+/** The warnings shown with a stored trial (the trial rule's plausibility warnings). */
+export function trialWarnings(t: { inletTempC: number; outletTempC: number; flowM3PerS: number; fillTimesS?: number[] | null }): string[] {
+  return plausibilityWarnings(t).map((w) => w.message);
 }
 
 /** Writes trials of one rig in one transaction: all of them or none. */
-export async function createTrials(em: EntityManager, rig: RigRow, inputs: TrialInput[], origin: 'manual' | 'api'): Promise<{ rows: TrialRow[]; warnings: { index: number; messages: string[] }[] }> {
-  const warnings: { index: number; messages: string[] }[] = [];
-  const rows = await em.transactional(async (tx) =>
-    inputs.map((input, index) => {
-      const fields = toTrialFields(input);
-      const w = trialWarnings(fields);
-      if (w.length) warnings.push({ index, messages: w });
-      return tx.create(Trial, { lab: rig.lab, rig, origin, ...fields });
-    }),
-  );
+export async function createTrials(em: EntityManager, rig: RigRow, inputs: TrialInput[], origin: 'manual' | 'api', batch = false): Promise<{ rows: TrialRow[]; warnings: { index: number; messages: string[] }[] }> {
+  const checked = apiTrialsToRows(inputs, batch);
+  const warnings = checked.flatMap((c, index) => (c.warnings.length ? [{ index, messages: c.warnings }] : []));
+  const rows = await em.transactional(async (tx) => checked.map((c) => tx.create(Trial, { lab: rig.lab, rig, origin, ...trialFields(c.row, c.startedAt) })));
   return { rows, warnings };
 }
 
@@ -114,7 +108,7 @@ export async function listTrials(em: EntityManager, rig: RigRow, q: z.infer<type
   return { rows, total, page: q.page, pageSize: q.pageSize, hottest };
 }
 
-export const trialPatch = z.object({ notes: z.string().max(2000).optional(), excluded: z.boolean().optional() }).strict();
+export const trialPatch = z.object({ notes: z.string().max(TRIAL_LIMITS.maxNotes).optional(), excluded: z.boolean().optional() }).strict();
 
 /** Edits notes or the exclusion flag and records who changed what. */
 export async function updateTrials(em: EntityManager, trials: TrialRow[], patch: z.infer<typeof trialPatch>, user: UserRow) {

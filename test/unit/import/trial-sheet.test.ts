@@ -92,21 +92,23 @@ describe('trial sheets saved by LibreOffice, mapped and converted to SI', () => 
     expect(issues(4)).toEqual([['error', 'invalid', 'outlet (°C)', 'outlet temperature is missing']]);
     expect(issues(5)).toEqual([['error', 'invalid', 'fill 1 (s)', 'a fill time must be more than 0 s']]);
     expect(byLine.get(6)!.ok).toBe(true);
-    expect(issues(6)).toEqual([['warning', 'outlet_below_inlet', 'outlet (°C)', 'outlet 14.1 °C is below inlet 15.2 °C']]);
+    expect(issues(6)).toEqual([['warning', 'outlet_below_inlet', 'outlet (°C)', 'outlet 14.1 °C is below inlet 15.2 °C: check the sensors are not swapped']]);
     expect(issues(7)).toEqual([
       ['warning', 'short_fill', 'fill 1 (s)', 'fill 1 took 2.4 s, under 3 s: use a bigger bucket'],
       ['warning', 'short_fill', 'fill 1 (s)', 'fill 2 took 2.5 s, under 3 s: use a bigger bucket'],
     ]);
-    expect(issues(8)).toEqual([['warning', 'above_boiling', 'outlet (°C)', 'outlet 104 °C is above 100 °C']]);
+    expect(issues(8)).toEqual([['warning', 'above_boiling', 'outlet (°C)', 'outlet 104 °C is at or above 100 °C: water that hot flashes to steam when released']]);
     const nine = byLine.get(9)!;
     expect(nine.ok && nine.row.outletTempC).toBeCloseTo(35, 12); // 95 °F = 35 °C (SP 811 B.9)
     expect(issues(10)).toEqual([['error', 'incomplete', 'bucket (L)', 'fill times without a bucket volume']]);
-    expect(issues(11)).toEqual([['error', 'invalid', 'inlet (°C)', 'inlet temperature is below absolute zero (−273.15 °C)']]);
+    // the one trial rule: a temperature outside −40…150 °C is a sensor or unit mistake (app/_lib/rigs/trial-rule.ts)
+    expect(issues(11)).toEqual([['error', 'invalid', 'inlet (°C)', 'inlet temperature -300 °C is outside −40…150 °C']]);
     expect(issues(12)).toEqual([['error', 'unreadable_cell', 'time', 'day 31 does not exist in 2026-02']]);
-    expect(byLine.get(13)!.ok).toBe(true);
-    expect(issues(13)).toEqual([['warning', 'no_flow', 'flow (L/min)', 'flow is zero']]);
+    // the one trial rule: zero flow is refused on every path, as the API always did (a dead-headed coil)
+    expect(byLine.get(13)!.ok).toBe(false);
+    expect(issues(13)).toEqual([['error', 'invalid', 'flow (L/min)', 'flow must be more than 0 (zero flow through a heated coil is a dead-headed coil: steam risk)']]);
     expect(issues(14)).toEqual([['error', 'extra_cell', 'J', 'a value ("x") in column J, which has no header']]);
-    expect(r).toMatchObject({ okCount: 6, errorCount: 7, warningCount: 4 });
+    expect(r).toMatchObject({ okCount: 5, errorCount: 8, warningCount: 3 });
     expect(r.notices).toEqual([
       'column "outlet (°C)" mixes units: 10 cells in °C (lines 2, 5, 6, 7, 8, …), 1 cell in °F (line 9); each cell was converted by its own unit — check that the column is one quantity',
     ]);
@@ -138,9 +140,11 @@ describe('the row schema on its own (the same schema serves JSON and the hand-en
     expect(r.issues).toEqual([{ line: 3, severity: 'warning', code: 'flow_disagrees', field: 'flowM3PerS', column: 'flow', message: 'the flow reading differs from the bucket flow by 25 %; the bucket flow is used' }]);
   });
 
-  test('negative flow is a warning, not an error', () => {
-    const r = checkTrialRow({ inletTempC: 15, outletTempC: 35, flowM3PerS: -1e-4 }, 4);
-    expect(r.ok).toBe(true);
-    expect(r.issues.map((i) => i.message)).toEqual(['flow is negative']);
+  test('a negative or zero flow is refused, as on every path (a dead-headed coil: DOMAIN.md §5)', () => {
+    for (const flowM3PerS of [-1e-4, 0]) {
+      const r = checkTrialRow({ inletTempC: 15, outletTempC: 35, flowM3PerS }, 4);
+      expect(r.ok).toBe(false);
+      expect(r.issues.map((i) => [i.field, i.message])).toEqual([['flowM3PerS', 'flow must be more than 0 (zero flow through a heated coil is a dead-headed coil: steam risk)']]);
+    }
   });
 });

@@ -15,11 +15,12 @@ export const GET = route<P>({ auth: 'user' }, async (ctx) => {
 
 const batch = z.object({ trials: z.array(trialInput).min(1, 'Send at least one trial.').max(1000, 'Send at most 1,000 trials at once.') }).strict();
 
-/** POST: add one trial or `{ trials: [...] }` (up to 1,000) in one transaction — all or none. */
+/** POST: add one trial or `{ trials: [...] }` (up to 1,000) in one transaction — all or none — checked by the one trial rule. */
 export const POST = route<P>({ auth: 'user', maxBodyBytes: 1024 * 1024 }, async (ctx) => {
   const { rig } = await loadRig(ctx, ctx.params.rigId, 'trial:write');
   const raw = await ctx.json(z.unknown());
-  const trials = raw && typeof raw === 'object' && 'trials' in raw ? batch.parse(raw).trials : [trialInput.parse(raw)];
-  const { rows, warnings } = await createTrials(ctx.em, rig, trials, ctx.actor?.via === 'token' ? 'api' : 'manual');
+  const many = !!raw && typeof raw === 'object' && 'trials' in raw;
+  const trials = many ? batch.parse(raw).trials : [trialInput.parse(raw)];
+  const { rows, warnings } = await createTrials(ctx.em, rig, trials, ctx.actor?.via === 'token' ? 'api' : 'manual', many);
   return json({ trials: rows.map(trialDto), warnings }, { status: 201 });
 });
