@@ -1,16 +1,16 @@
 import Link from 'next/link';
-import { Fit } from '@/entities';
 import { AppPage } from '../_components/app-page';
 import { StateBadge } from '../_components/review-panel';
 import { modelLabel } from '../_lib/fits/fit-analysis';
 import { requireLabAction } from '../_lib/accounts/viewer';
+import { fitsOfLab } from '../_lib/fits/fits';
 
 export const metadata = { title: 'Fits' };
 export const dynamic = 'force-dynamic';
 
 export default async function FitsPage() {
   const v = await requireLabAction('/fits', 'lab:read');
-  const fits = await v.em.find(Fit, { lab: v.current.lab }, { populate: ['rig', 'createdBy'], orderBy: { createdAt: 'desc' }, limit: 200 });
+  const fits = await fitsOfLab(v.em, v.current.lab);
   return (
     <AppPage viewer={v} title="Fits" lead="Saved fits of this lab: each records its trials, model, settings and results, and goes through review.">
       {fits.length ? (

@@ -1,6 +1,6 @@
-import { Fit } from '@/entities';
 import { AppPage } from '../_components/app-page';
 import { requireLabAction } from '../_lib/accounts/viewer';
+import { fitsOfLab } from '../_lib/fits/fits';
 import { ForecastForm } from './forecast-form';
 
 export const metadata = { title: 'Forecasts' };
@@ -8,7 +8,7 @@ export const dynamic = 'force-dynamic';
 
 export default async function ForecastsPage() {
   const v = await requireLabAction('/forecasts', 'lab:read');
-  const fits = await v.em.find(Fit, { lab: v.current.lab, model: 'coil' }, { populate: ['rig'], orderBy: { createdAt: 'desc' }, limit: 50 });
+  const fits = await fitsOfLab(v.em, v.current.lab, { model: 'coil', limit: 50 });
   return (
     <AppPage
       viewer={v}

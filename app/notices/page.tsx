@@ -1,7 +1,7 @@
 import Link from 'next/link';
-import { Notice } from '@/entities';
 import { AppPage } from '../_components/app-page';
 import { requireViewer } from '../_lib/accounts/viewer';
+import { takeNotices } from '../_lib/review/review';
 
 export const metadata = { title: 'Notices' };
 export const dynamic = 'force-dynamic';
@@ -9,9 +9,8 @@ export const dynamic = 'force-dynamic';
 /** In-app notices (review requests and decisions); opening the page marks them read. */
 export default async function NoticesPage() {
   const v = await requireViewer('/notices');
-  const notices = await v.em.find(Notice, { user: v.user }, { populate: ['lab'], orderBy: { createdAt: 'desc' }, limit: 100 });
+  const notices = await takeNotices(v.em, v.user);
   const unread = new Set(notices.filter((n) => !n.readAt).map((n) => n.id));
-  await v.em.nativeUpdate(Notice, { user: v.user, readAt: null }, { readAt: new Date() });
   return (
     <AppPage viewer={{ ...v, unreadNotices: 0 }} title="Notices" lead="Review requests and decisions about your work.">
       <ul className="space-y-2">

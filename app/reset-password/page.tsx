@@ -1,9 +1,8 @@
 import Link from 'next/link';
-import { PasswordReset } from '@/entities';
 import { AuthCard } from '../_components/app-page';
 import { JsonForm } from '../_components/json-form';
 import { getEm } from '../_lib/server/db';
-import { sha256 } from '../_lib/server/secrets';
+import { resetLinkProblem } from '../_lib/accounts/accounts';
 
 export const metadata = { title: 'Choose a new password' };
 export const dynamic = 'force-dynamic';
@@ -11,14 +10,7 @@ export const dynamic = 'force-dynamic';
 export default async function ResetPasswordPage({ searchParams }: { searchParams: Promise<{ token?: string }> }) {
   const { token } = await searchParams;
   const em = await getEm();
-  const reset = token ? await em.findOne(PasswordReset, { tokenHash: sha256(token) }) : null;
-  const problem = !reset
-    ? 'This reset link is not valid.'
-    : reset.usedAt
-      ? 'This reset link has already been used.'
-      : reset.expiresAt <= new Date()
-        ? 'This reset link has expired (links work for one hour).'
-        : null;
+  const problem = await resetLinkProblem(em, token);
   if (problem || !token) {
     return (
       <AuthCard title="This link cannot be used">

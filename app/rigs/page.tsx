@@ -1,8 +1,8 @@
 import Link from 'next/link';
-import { Rig, Trial } from '@/entities';
 import { AppPage } from '../_components/app-page';
 import { HEAT_SOURCE_LABELS } from '../_lib/rigs/labels';
 import { requireLabAction } from '../_lib/accounts/viewer';
+import { rigsOfLab } from '../_lib/rigs/rigs';
 
 export const metadata = { title: 'Rigs' };
 export const dynamic = 'force-dynamic';
@@ -10,9 +10,7 @@ export const dynamic = 'force-dynamic';
 
 export default async function RigsPage() {
   const v = await requireLabAction('/rigs', 'lab:read');
-  const rigs = await v.em.find(Rig, { lab: v.current.lab }, { orderBy: { name: 'asc' } });
-  const counts = new Map<string, number>();
-  for (const r of rigs) counts.set(r.id, await v.em.count(Trial, { rig: r, excluded: false }));
+  const { rigs, counts } = await rigsOfLab(v.em, v.current.lab);
   return (
     <AppPage
       viewer={v}

@@ -1,16 +1,16 @@
 import Link from 'next/link';
-import { Study } from '@/entities';
 import { AppPage } from '../_components/app-page';
 import { JsonForm } from '../_components/json-form';
 import { StateBadge } from '../_components/review-panel';
 import { requireLabAction } from '../_lib/accounts/viewer';
+import { studiesOfLab } from '../_lib/studies/studies';
 
 export const metadata = { title: 'Studies' };
 export const dynamic = 'force-dynamic';
 
 export default async function StudiesPage() {
   const v = await requireLabAction('/studies', 'lab:read');
-  const studies = await v.em.find(Study, { lab: v.current.lab }, { orderBy: { updatedAt: 'desc' }, limit: 200 });
+  const studies = await studiesOfLab(v.em, v.current.lab);
   return (
     <AppPage viewer={v} title="Studies" lead="Notebook pages that bring trials, fits and forecasts together for review and sharing.">
       <div className="grid gap-6 lg:grid-cols-[1fr_20rem]">

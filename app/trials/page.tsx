@@ -1,8 +1,8 @@
 import Link from 'next/link';
-import { Rig } from '@/entities';
 import { AppPage } from '../_components/app-page';
 import { TrialsTable } from '../_components/trials-table';
 import { requireLabAction } from '../_lib/accounts/viewer';
+import { rigsOfLab } from '../_lib/rigs/rigs';
 
 export const metadata = { title: 'Trials' };
 export const dynamic = 'force-dynamic';
@@ -10,7 +10,7 @@ export const dynamic = 'force-dynamic';
 export default async function TrialsPage({ searchParams }: { searchParams: Promise<{ rig?: string }> }) {
   const v = await requireLabAction('/trials', 'lab:read');
   const { rig: rigId } = await searchParams;
-  const rigs = await v.em.find(Rig, { lab: v.current.lab }, { orderBy: { name: 'asc' } });
+  const { rigs } = await rigsOfLab(v.em, v.current.lab);
   const rig = rigs.find((r) => r.id === rigId) ?? rigs[0];
   return (
     <AppPage viewer={v} title="Trials" lead={rig ? <>Steady trials of <Link href={`/rigs/${rig.id}`}>{rig.name}</Link>.</> : 'No rigs yet.'}>

@@ -5,7 +5,7 @@ import { ApiToken, Lab, Membership, PasswordReset, PendingSignUp, Session, User,
 import { safeNextPath } from '@/app/_components/safe-next';
 import { audit } from '../labs/audit';
 import { appOrigin } from '../server/config';
-import { HttpError } from '../server/errors';
+import { DomainError } from '../server/errors';
 import { runLater } from '../server/later';
 import { appLink, sendMailLater } from '../mail/mail';
 import { dummyHash, hashPassword, passwordProblem, verifyPassword } from './passwords';
@@ -14,7 +14,7 @@ import type { signUpInput } from './schemas';
 import { newSecret, sha256 } from '../server/secrets';
 
 const WRONG = 'That e-mail address and password do not match an account.';
-const weak = (problem: string, field = 'password') => new HttpError(422, 'invalid', problem, { fields: { [field]: problem } });
+const weak = (problem: string, field = 'password') => new DomainError('invalid', 'invalid', problem, { fields: { [field]: problem } });
 const SIGN_UP_HOURS = 24;
 
 export function slugify(name: string): string {
@@ -81,10 +81,10 @@ export async function confirmSignUp(em: EntityManager, token: string, ip: string
     `update pending_sign_up set used_at = now() where token_hash = ? and used_at is null and expires_at > now() returning id`,
     [sha256(token)],
   );
-  if (!rows[0]) throw new HttpError(410, 'link_invalid', 'This sign-up link has expired or has already been used. Sign up again to get a new one.');
+  if (!rows[0]) throw new DomainError('gone', 'link_invalid', 'This sign-up link has expired or has already been used. Sign up again to get a new one.');
   const pending = await em.findOneOrFail(PendingSignUp, { id: rows[0].id });
   if (await em.findOne(User, { email: pending.email })) {
-    throw new HttpError(409, 'email_taken', 'This address already has an account: sign in, or reset its password.');
+    throw new DomainError('conflict', 'email_taken', 'This address already has an account: sign in, or reset its password.');
   }
   const user = await em.transactional(async (tx) => {
     const user = tx.create(User, { email: pending.email, name: pending.name, passwordHash: pending.passwordHash });
@@ -145,7 +145,7 @@ export async function signIn(em: EntityManager, emailAddr: string, password: str
     await audit(em, { kind: 'sign-in-failed', actor: user ?? null, subject: emailAddr, ip });
     await countAttempt(em, { key: pairKey, max: P.freePerPair, windowS: P.windowS });
     await countAttempt(em, { key: accountKey, max: P.freePerAccount, windowS: P.windowS });
-    throw new HttpError(401, 'bad_credentials', WRONG);
+    throw new DomainError('unauthorized', 'bad_credentials', WRONG);
   }
   await clearLimit(em, pairKey);
   await audit(em, { kind: 'sign-in', actor: user, subject: emailAddr, ip });
@@ -176,7 +176,7 @@ async function afterNewPassword(em: EntityManager, user: UserRow) {
 export async function changePassword(em: EntityManager, user: UserRow, current: string, next: string, ip: string, revokeTokens = false): Promise<{ tokensRevoked: number }> {
   await enforceLimits(em, [{ key: `password-change:account:${user.id}`, max: 10, windowS: 900 }]);
   if (!(await verifyPassword(user.passwordHash, current))) {
-    throw new HttpError(422, 'invalid', 'The current password is not right.', { fields: { currentPassword: 'The current password is not right.' } });
+    throw new DomainError('invalid', 'invalid', 'The current password is not right.', { fields: { currentPassword: 'The current password is not right.' } });
   }
   const problem = passwordProblem(next, { email: user.email });
   if (problem) throw weak(problem, 'newPassword');
@@ -211,13 +211,22 @@ export async function requestReset(em: EntityManager, emailAddr: string, ip: str
   });
 }
 
+/** Why a reset link cannot be used (unknown, used, expired), or null when it can: for the page it opens. */
+export async function resetLinkProblem(em: EntityManager, token: string | undefined): Promise<string | null> {
+  const reset = token && token.length <= 200 ? await em.findOne(PasswordReset, { tokenHash: sha256(token) }) : null;
+  if (!reset) return 'This reset link is not valid.';
+  if (reset.usedAt) return 'This reset link has already been used.';
+  if (reset.expiresAt <= new Date()) return 'This reset link has expired (links work for one hour).';
+  return null;
+}
+
 /**
  * Uses a reset token: single use (a conditional update, so two requests cannot both succeed),
  * one hour; then the account's other reset links, sessions and API tokens all end.
  */
 export async function resetPassword(em: EntityManager, token: string, password: string, ip: string): Promise<UserRow> {
   await enforceLimits(em, [{ key: `reset-use:ip:${ip}`, max: 20, windowS: 3600 }]);
-  const gone = () => new HttpError(410, 'link_invalid', 'This reset link has expired or has already been used. Ask for a new one.');
+  const gone = () => new DomainError('gone', 'link_invalid', 'This reset link has expired or has already been used. Ask for a new one.');
   const reset = await em.findOne(PasswordReset, { tokenHash: sha256(token) }, { populate: ['user'] });
   if (!reset || reset.usedAt || reset.expiresAt <= new Date()) throw gone();
   const user = reset.user;

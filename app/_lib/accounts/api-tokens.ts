@@ -2,7 +2,7 @@ import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { ApiToken, type LabRow, type UserRow } from '@/entities';
 import { audit } from '../labs/audit';
-import { HttpError, notFound } from '../server/errors';
+import { DomainError, notFound } from '../server/errors';
 import { verifyPassword } from './passwords';
 import { enforceLimits } from '../server/rate-limit';
 import { newSecret } from '../server/secrets';
@@ -18,7 +18,7 @@ export const TOKEN_DAYS = { default: 90, min: 1, max: 365 } as const;
 export async function createToken(em: EntityManager, user: UserRow, lab: LabRow, input: { name: string; password: string; expiresInDays: number }, ip: string) {
   await enforceLimits(em, [{ key: `token-create:account:${user.id}`, max: 10, windowS: 900 }]);
   if (!(await verifyPassword(user.passwordHash, input.password))) {
-    throw new HttpError(422, 'invalid', 'The password is not right.', { fields: { password: 'Enter your current password to create a token.' } });
+    throw new DomainError('invalid', 'invalid', 'The password is not right.', { fields: { password: 'Enter your current password to create a token.' } });
   }
   const { token, hash } = newSecret('emb_');
   const expiresAt = new Date(Date.now() + input.expiresInDays * 86_400_000);

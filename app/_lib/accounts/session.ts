@@ -60,6 +60,11 @@ export async function readSession(em: EntityManager, jwt: string | undefined): P
   return { user, session };
 }
 
+/** Ends one session (this browser's sign-out). */
+export async function endSession(em: EntityManager, sessionId: string | undefined): Promise<void> {
+  if (sessionId) await em.nativeUpdate(Session, { id: sessionId }, { revokedAt: new Date() });
+}
+
 /** Cookie attributes from configuration (`Secure` for an https APP_URL or production), never from a request header. */
 export function cookieOptions(expires?: Date) {
   return { httpOnly: true, sameSite: 'lax' as const, secure: config.secureCookies, path: '/', ...(expires ? { expires } : { maxAge: 0 }) };

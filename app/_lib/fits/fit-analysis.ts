@@ -9,7 +9,7 @@ import { performanceTable } from '@/analysis/performance/performance-table';
 import { waterCpJPerKgK, waterDensityKgPerM3 } from '@/analysis/water/water-properties';
 import { plotToSvg } from '../plots/plot-svg';
 import { fitCurveInputFromFits, fitCurvePlot, heatInputFromFit, heatPlot, residualInputFromFit, residualPlots, type PlotFigure, type UnitSystem } from '../plots';
-import { HttpError } from '../server/errors';
+import { DomainError } from '../server/errors';
 import pkg from '@/package.json';
 
 export const SOFTWARE_VERSION = `emberline ${pkg.version}`;
@@ -49,13 +49,13 @@ export async function trialsForFit(em: EntityManager, rig: RigRow, ids?: string[
   if (!ids) {
     const n = await em.count(Trial, { rig, excluded: false });
     if (n > MAX_FIT_TRIALS) {
-      throw new HttpError(422, 'too_many', `This rig has ${n} included trials; a fit takes at most ${MAX_FIT_TRIALS}. Pick the trials to fit, or exclude some.`, { fields: { trialIds: `at most ${MAX_FIT_TRIALS} trials` } });
+      throw new DomainError('invalid', 'too_many', `This rig has ${n} included trials; a fit takes at most ${MAX_FIT_TRIALS}. Pick the trials to fit, or exclude some.`, { fields: { trialIds: `at most ${MAX_FIT_TRIALS} trials` } });
     }
   }
   const rows = ids
     ? await em.find(Trial, { rig, id: { $in: ids } }, { orderBy: { startedAt: 'asc', id: 'asc' } })
     : await em.find(Trial, { rig, excluded: false }, { orderBy: { startedAt: 'asc', id: 'asc' } });
-  if (ids && rows.length !== new Set(ids).size) throw new HttpError(404, 'not_found', 'Some of those trials are not in this rig.');
+  if (ids && rows.length !== new Set(ids).size) throw new DomainError('not_found', 'not_found', 'Some of those trials are not in this rig.');
   return rows;
 }
 
@@ -89,7 +89,7 @@ const svgOf = (f: PlotFigure) => ({ title: f.title, summary: f.summary, svg: plo
 /** Everything the fit page shows, computed on the server from the stored trials. */
 export async function analyze(em: EntityManager, rig: RigRow, input: AnalyzeInput, units: UnitSystem) {
   const used = await trialsForFit(em, rig, input.trialIds);
-  if (used.length < 2) throw new HttpError(422, 'too_few', 'Pick at least two included trials to fit.');
+  if (used.length < 2) throw new DomainError('invalid', 'too_few', 'Pick at least two included trials to fit.');
   const excluded = input.trialIds ? [] : await em.find(Trial, { rig, excluded: true });
   const data = fitData(used);
   const comparison = compareModels({ ...data, measurementSD: input.measurementSdK }, input.models.map((m) => ({ label: modelLabel(m), model: m })));

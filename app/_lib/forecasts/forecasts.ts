@@ -12,10 +12,10 @@ import { parseQuantity } from '@/analysis/units/parse-quantity';
 import { reduceForDisplay } from '@/analysis/reduce';
 import { checkForecastWork, FORECAST_LIMITS } from '@/analysis/forecast/forecast-limits';
 import { z } from 'zod';
-import { HttpError } from '../server/errors';
+import { DomainError } from '../server/errors';
 import { plotToSvg } from '../plots/plot-svg';
 import { energyBudgetInput, energyBudgetPlot, forecastPlot, type UnitSystem } from '../plots';
-import { UUID } from '../rigs/rigs';
+import { isUuid } from '../labs/load-in-lab';
 import type { ForecastExport } from '../exports';
 
 interface ForecastOutput {
@@ -105,9 +105,9 @@ async function runForecastBody(em: EntityManager, lab: LabRow, body: Record<stri
   const input = { ...body };
   let fitNote: string | null = null;
   if (typeof input.fitId === 'string') {
-    const fit = UUID.test(input.fitId) ? await em.findOne(Fit, { id: input.fitId, lab }) : null;
-    if (!fit) throw new HttpError(404, 'not_found', 'No such saved fit in this lab.');
-    if (fit.model !== 'coil') throw new HttpError(422, 'invalid', 'Forecasts take a saved coil fit (its Ts and UA carry over to any inlet temperature).', { fields: { fitId: 'Pick a coil fit.' } });
+    const fit = isUuid(input.fitId) ? await em.findOne(Fit, { id: input.fitId, lab }) : null;
+    if (!fit) throw new DomainError('not_found', 'not_found', 'No such saved fit in this lab.');
+    if (fit.model !== 'coil') throw new DomainError('invalid', 'invalid', 'Forecasts take a saved coil fit (its Ts and UA carry over to any inlet temperature).', { fields: { fitId: 'Pick a coil fit.' } });
     const p = (fit.result as { fit: FitSuccess }).fit.params;
     input.heater = { model: 'coil', sourceTemp: `${p.Ts.value} degC`, UA: `${p.UA.value} W/K` };
     fitNote = `Heater: saved fit "${fit.title}" v${fit.version} (Ts ${p.Ts.value.toFixed(1)} °C, UA ${p.UA.value.toFixed(0)} W/K).`;
@@ -128,7 +128,7 @@ async function runForecastBody(em: EntityManager, lab: LabRow, body: Record<stri
   } catch (e) {
     if (e instanceof Error && (e.name === 'InputError' || e instanceof RangeError || e instanceof TypeError)) {
       const field = /^([\w.[\]]+):/.exec(e.message)?.[1] ?? '_';
-      throw new HttpError(422, 'invalid', e.message, { fields: { [field]: e.message } });
+      throw new DomainError('invalid', 'invalid', e.message, { fields: { [field]: e.message } });
     }
     throw e;
   }
@@ -137,7 +137,7 @@ async function runForecastBody(em: EntityManager, lab: LabRow, body: Record<stri
 
 /**
  * A forecast block's results for the spreadsheet export (Forecast sheet and Summary items).
- * @throws HttpError 404 / 422 as {@link forecast}
+ * @throws DomainError 404 / 422 as {@link forecast}
  */
 export async function forecastForExport(em: EntityManager, lab: LabRow, body: Record<string, unknown>, label: string): Promise<ForecastExport> {
   const { out } = await runForecastBody(em, lab, body);
@@ -196,7 +196,7 @@ async function forecastExtras(input: Record<string, unknown>, pool: { volume_m3:
   let cost: { perUsefulTherm: number; perDegF: number; perK: number; forecastHeatCost: number; basis: string } | null = null;
   if (costInput !== undefined) {
     const c = costSchema.safeParse(costInput);
-    if (!c.success) throw new HttpError(422, 'invalid', 'cost: give a fuel, a price per unit and optionally an efficiency (COP for a heat pump).', { fields: { cost: c.error.issues[0]?.message ?? 'invalid' } });
+    if (!c.success) throw new DomainError('invalid', 'invalid', 'cost: give a fuel, a price per unit and optionally an efficiency (COP for a heat pump).', { fields: { cost: c.error.issues[0]?.message ?? 'invalid' } });
     const u = usefulHeatCost({ fuel: c.data.fuel as FuelKind, pricePerUnit: c.data.pricePerUnit, efficiency: c.data.efficiency });
     const d = volumeM3 ? costPerDegree(volumeM3, u.perUsefulTherm) : { perDegF: NaN, perK: NaN };
     cost = { perUsefulTherm: u.perUsefulTherm, perDegF: d.perDegF, perK: d.perK, forecastHeatCost: ((out.energy_J.heater_J ?? 0) / USEFUL_THERM_J) * u.perUsefulTherm, basis: 'HHV' };

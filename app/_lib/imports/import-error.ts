@@ -4,6 +4,7 @@
  * file, sheet, line and column as far as they are known. Route handlers map it to a 422 (or 413
  * for `too_large`); nothing here knows about HTTP.
  */
+import { DomainError } from '../server/errors';
 
 /** Where in the source a problem was found; 1-based line and column numbers. */
 export interface SourceLocation {
@@ -43,18 +44,17 @@ export function describeLocation(where: SourceLocation): string {
   return parts.join(', ');
 }
 
-/** A refusal of the whole file (or the whole mapping), with what and where. */
-export class ImportError extends Error {
-  readonly code: ImportErrorCode;
+/** A refusal of the whole file (or the whole mapping), with what and where: invalid input of the one error model (422). */
+export class ImportError extends DomainError {
+  declare readonly code: ImportErrorCode;
   readonly where: SourceLocation;
   /** the message without the location prefix, for UIs that show the location separately */
   readonly reason: string;
 
   constructor(code: ImportErrorCode, reason: string, where: SourceLocation = {}) {
     const at = describeLocation(where);
-    super(at ? `${at}: ${reason}` : reason);
+    super('invalid', code, at ? `${at}: ${reason}` : reason);
     this.name = 'ImportError';
-    this.code = code;
     this.where = where;
     this.reason = reason;
   }

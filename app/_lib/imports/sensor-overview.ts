@@ -1,4 +1,5 @@
 import 'server-only';
+import { isUuid } from '../labs/load-in-lab';
 import { randomUUID } from 'node:crypto';
 import type pg from 'pg';
 import { to as copyTo } from 'pg-copy-streams';
@@ -101,7 +102,6 @@ export async function insertOverview(client: pg.ClientBase, ids: { fileId: strin
 
 // ---- backfill for logs imported before the overview existed ----
 
-const UUID_RE = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 class Column {
   a: Float64Array;
@@ -120,7 +120,7 @@ class Column {
  * big-endian float8. NULL readings become NaN. Returns epoch seconds and the four channels.
  */
 async function readSamples(client: pg.ClientBase, fileId: string, expected: number) {
-  if (!UUID_RE.test(fileId)) throw new TypeError(`not a uuid: ${fileId}`);
+  if (!isUuid(fileId)) throw new TypeError(`not a uuid: ${fileId}`);
   const cols = Array.from({ length: 5 }, () => new Column(expected));
   const stream = client.query(copyTo(
     `COPY (SELECT extract(epoch FROM taken_at)::float8, inlet_c, outlet_c, flow_m3_per_s, ambient_c FROM sensor_sample WHERE source_file_id = '${fileId}' ORDER BY line) TO STDOUT (FORMAT binary)`,
@@ -181,7 +181,7 @@ async function importCriteria(client: pg.ClientBase, fileId: string): Promise<St
  * @returns false when the file has no samples (it is not an imported sensor log)
  */
 export async function ensureSensorOverview(pool: pg.Pool, fileId: string): Promise<boolean> {
-  if (!UUID_RE.test(fileId)) return false;
+  if (!isUuid(fileId)) return false;
   const client = await pool.connect();
   let broken = false;
   try {

@@ -5,7 +5,7 @@ import { z } from 'zod';
 import { DISPLAY_MAX_POINTS, overviewIndices } from '@/analysis/reduce';
 import { resolveCriteria, segmentLog, segmentStats, type PresetName, type SegmentStats, type SteadyCriteria } from '@/analysis/segment';
 import type { SourceFileRow } from '@/entities';
-import { HttpError } from '../server/errors';
+import { DomainError, HTTP_STATUS } from '../server/errors';
 import { ImportError, createSensorLogBuilder, openDelimited, type RowIssue, type SensorLog } from '.';
 import { logImportInput } from './sensor-import';
 import { getObjectStream } from '../server/storage';
@@ -116,7 +116,7 @@ export async function openLog(file: SourceFileRow, input: SegmentPreviewInput): 
   try {
     raw = await getObjectStream(file.storageKey);
   } catch {
-    throw new HttpError(404, 'not_found', 'The stored file could not be read; upload it again.');
+    throw new DomainError('not_found', 'not_found', 'The stored file could not be read; upload it again.');
   }
   let bytesDone = 0;
   async function* counted() {
@@ -131,7 +131,6 @@ export async function openLog(file: SourceFileRow, input: SegmentPreviewInput): 
     builder = createSensorLogBuilder(input.mapping, src.header, where, { maxIssues: 200, excludedLines: new Set(input.excludedLines), text: src.dialect, sizeHintBytes: file.sizeBytes });
   } catch (e) {
     raw.destroy();
-    if (e instanceof ImportError) throw new HttpError(422, e.code, e.message);
     throw e;
   }
   return {
@@ -140,14 +139,13 @@ export async function openLog(file: SourceFileRow, input: SegmentPreviewInput): 
       let last = 0;
       try {
         for await (const block of src.blocks()) {
-          if (signal?.aborted) throw new HttpError(499, 'cancelled', 'The preview was cancelled.');
+          if (signal?.aborted) throw new DomainError('cancelled', 'cancelled', 'The preview was cancelled.');
           builder.add(block);
           const now = Date.now();
           if (onProgress && now - last > 200) { last = now; onProgress({ bytesDone, bytesTotal: file.sizeBytes }); }
         }
       } catch (e) {
         raw.destroy();
-        if (e instanceof ImportError) throw new HttpError(422, e.code, e.message);
         throw e;
       }
       const log = builder.finish();
@@ -194,13 +192,13 @@ const fmt = (x: number, d = 2) => String(Math.round(x * 10 ** d) / 10 ** d);
 
 /**
  * The preset with the engineer's edits, checked.
- * @throws HttpError 422 naming the threshold out of range
+ * @throws DomainError 422 naming the threshold out of range
  */
 export function previewCriteria(input: Pick<SegmentPreviewInput, 'preset' | 'criteria'>): SteadyCriteria {
   try {
     return resolveCriteria(input.preset as PresetName, (input.criteria ?? {}) as Partial<SteadyCriteria>);
   } catch (e) {
-    if (e instanceof RangeError) throw new HttpError(422, 'bad_criteria', `Steady-state criteria: ${e.message}.`);
+    if (e instanceof RangeError) throw new DomainError('invalid', 'bad_criteria', `Steady-state criteria: ${e.message}.`);
     throw e;
   }
 }
@@ -208,11 +206,11 @@ export function previewCriteria(input: Pick<SegmentPreviewInput, 'preset' | 'cri
 /**
  * Segments a read log with the preset and edits, measures the engineer's periods, and reduces the
  * series for the plot.
- * @throws HttpError 422 for criteria out of range or a period with fewer than two samples
+ * @throws DomainError 422 for criteria out of range or a period with fewer than two samples
  */
 export function previewSegments(log: SensorLog, input: SegmentPreviewInput): SegmentPreview {
   const criteria = previewCriteria(input);
-  if (log.n === 0) throw new HttpError(422, 'empty_file', log.rejectedCount ? `No row of the log could be read: ${log.issues[0]?.message ?? 'every row fails'} (line ${log.issues[0]?.line}).` : 'The log holds no samples.');
+  if (log.n === 0) throw new DomainError('invalid', 'empty_file', log.rejectedCount ? `No row of the log could be read: ${log.issues[0]?.message ?? 'every row fails'} (line ${log.issues[0]?.line}).` : 'The log holds no samples.');
   const channels = { timeS: log.timeS, inletTempC: log.inletTempC, outletTempC: log.outletTempC, flowM3PerS: log.flowM3PerS, ambientTempC: log.ambientTempC };
   const seg = segmentLog(channels, criteria);
   const segments = seg.segments.map((s) => period(log, s.startIndex, s.endIndex, criteria.blockS, []));
@@ -221,10 +219,10 @@ export function previewSegments(log: SensorLog, input: SegmentPreviewInput): Seg
     const transit = criteria.transitTimeS ?? 0;
     const minDur = Math.max(criteria.minDurationS, criteria.minDurationTransits * transit);
     periods = input.periods.map((p, k) => {
-      if (!(p.endS > p.startS)) throw new HttpError(422, 'bad_period', `Period ${k + 1} ends (${fmt(p.endS / 60)} min) before it starts (${fmt(p.startS / 60)} min).`);
+      if (!(p.endS > p.startS)) throw new DomainError('invalid', 'bad_period', `Period ${k + 1} ends (${fmt(p.endS / 60)} min) before it starts (${fmt(p.startS / 60)} min).`);
       const a = lowerBound(log.timeS, p.startS);
       const b = lowerBound(log.timeS, p.endS + 1e-9) - 1;
-      if (b - a < 1) throw new HttpError(422, 'bad_period', `Period ${k + 1} (${fmt(p.startS / 60)}–${fmt(p.endS / 60)} min) holds fewer than two samples.`);
+      if (b - a < 1) throw new DomainError('invalid', 'bad_period', `Period ${k + 1} (${fmt(p.startS / 60)}–${fmt(p.endS / 60)} min) holds fewer than two samples.`);
       const notes: string[] = [];
       const inside = seg.segments.some((s) => s.startIndex <= a && b <= s.endIndex);
       if (!inside) notes.push('not wholly inside a steady period found with these criteria');
@@ -262,13 +260,13 @@ function viewSeries(log: SensorLog, view: SegmentPreviewInput['view']): SegmentP
   if (!view) return displaySeries(log);
   const a = Math.max(0, lowerBound(log.timeS, view.startS) - 1);
   const b = Math.min(log.n, lowerBound(log.timeS, view.endS) + 1);
-  if (b - a < 2) throw new HttpError(422, 'bad_view', `The log holds no samples between ${fmt(view.startS / 3600)} h and ${fmt(view.endS / 3600)} h.`);
+  if (b - a < 2) throw new DomainError('invalid', 'bad_view', `The log holds no samples between ${fmt(view.startS / 3600)} h and ${fmt(view.endS / 3600)} h.`);
   return displaySeries(log, a, b);
 }
 
 /** Only the plot series of `input.view`, for zooming: the cached log is not segmented again. */
 export function previewSeries(log: SensorLog, input: SegmentPreviewInput): Pick<SegmentPreview, 'series' | 'samples'> {
-  if (log.n === 0) throw new HttpError(422, 'empty_file', 'The log holds no samples.');
+  if (log.n === 0) throw new DomainError('invalid', 'empty_file', 'The log holds no samples.');
   return { samples: log.n, series: viewSeries(log, input.view) };
 }
 
@@ -289,7 +287,7 @@ export function previewStream(opened: OpenedLog, input: SegmentPreviewInput, sig
         const log = await opened.read((p) => send({ progress: p }), abort.signal);
         send({ result: input.seriesOnly ? previewSeries(log, input) : previewSegments(log, input) });
       } catch (e) {
-        if (e instanceof HttpError) send({ error: { status: e.status, code: e.code, message: e.message } });
+        if (e instanceof DomainError) send({ error: { status: HTTP_STATUS[e.kind], code: e.code, message: e.message } });
         else {
           console.error('sensor-log preview failed:', e);
           send({ error: { status: 500, code: 'internal', message: 'The log could not be read on the server.' } });

@@ -2,8 +2,9 @@ import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
 import { ColumnMapping, SourceFile, Trial, type LabRow, type RigRow, type SourceFileRow, type UserRow } from '@/entities';
+import { isUuid } from '../labs/load-in-lab';
 import { trialFields } from '../rigs/trial-rule';
-import { HttpError } from '../server/errors';
+import { DomainError } from '../server/errors';
 import {
   ImportError, confirmedMappingSchema, headerSignature, importTrialSheet, listSheets, readDelimited, readXlsxSheet, suggestMapping,
   type CellTable, type SensorLog, type TrialSheetResult,
@@ -38,7 +39,7 @@ export async function storeUpload(em: EntityManager, rig: RigRow, user: UserRow,
 
 /** Stores a spooled upload (a raw body or a multipart file part) unchanged; the caller removes the spooled file. */
 export async function storeSpooled(em: EntityManager, rig: RigRow, user: UserRow, spooled: Spooled, filename: string, contentType: string) {
-  if (spooled.sizeBytes === 0) throw new HttpError(422, 'empty', `"${filename}" is empty: there is nothing to import.`);
+  if (spooled.sizeBytes === 0) throw new DomainError('invalid', 'empty', `"${filename}" is empty: there is nothing to import.`);
   const existing = await em.findOne(SourceFile, { lab: rig.lab, sha256: spooled.sha256, purpose: 'trials' });
   if (existing) return { file: existing, duplicate: true };
   const storageKey = await putFile(spooled, rig.lab.id, contentType);
@@ -55,12 +56,12 @@ const HEAD_BYTES = 512 * 1024;
 async function readTable(file: SourceFileRow, sheet?: string, opts: { headOnly?: boolean } = {}) {
   const large = file.sizeBytes > INLINE_MAX_BYTES;
   if (large && !opts.headOnly) {
-    throw new HttpError(413, 'too_large_inline', `"${file.filename}" is over ${INLINE_MAX_BYTES / 1024 / 1024} MB: import it as a sensor log (it runs in the background), or split the trial sheet into smaller files.`);
+    throw new DomainError('too_large', 'too_large_inline', `"${file.filename}" is over ${INLINE_MAX_BYTES / 1024 / 1024} MB: import it as a sensor log (it runs in the background), or split the trial sheet into smaller files.`);
   }
   let buf = await getObjectBuffer(file.storageKey, large ? HEAD_BYTES : undefined);
   try {
     if (isZip(buf)) {
-      if (large) throw new HttpError(413, 'too_large_inline', `"${file.filename}" is a workbook over ${INLINE_MAX_BYTES / 1024 / 1024} MB: save the sheet as CSV to import it as a sensor log, or split it.`);
+      if (large) throw new DomainError('too_large', 'too_large_inline', `"${file.filename}" is a workbook over ${INLINE_MAX_BYTES / 1024 / 1024} MB: save the sheet as CSV to import it as a sensor log, or split it.`);
       const sheets = await listSheets(buf, { fileName: file.filename });
       const t = await readXlsxSheet(buf, sheet ?? sheets[0]?.name, { fileName: file.filename });
       return { kind: 'xlsx' as const, partial: false, sheets, table: t as CellTable, header: t.header, metadata: t.metadata, warnings: t.cellWarnings.map((w) => w.message), decimal: '.' as const, dialect: null };
@@ -70,7 +71,7 @@ async function readTable(file: SourceFileRow, sheet?: string, opts: { headOnly?:
     const t = await readDelimited(buf, { fileName: file.filename });
     return { kind: 'text' as const, partial: large, sheets: [], table: t as CellTable, header: t.header, metadata: t.metadata, warnings: t.warnings, decimal: t.dialect.decimal, dialect: t.dialect };
   } catch (e) {
-    if (e instanceof ImportError) throw new HttpError(422, 'unreadable', e.message);
+    if (e instanceof ImportError) throw new DomainError('invalid', 'unreadable', e.message);
     throw e;
   }
 }
@@ -171,25 +172,25 @@ export const confirmInput = z.object({ sheet: z.string().max(100).optional(), ma
  * error in a row that is not excluded refuses the whole import and nothing is written.
  */
 export async function confirmImport(em: EntityManager, rig: RigRow, file: SourceFileRow, input: z.infer<typeof confirmInput>) {
-  if (file.state === 'imported') throw new HttpError(409, 'already_imported', `"${file.filename}" has already been imported into this lab (${file.rowsImported} trials).`);
-  if (input.mapping.shape !== 'trialSheet') throw new HttpError(422, 'wrong_shape', 'This mapping is for a sensor log: find its steady periods and import it as a log.');
+  if (file.state === 'imported') throw new DomainError('conflict', 'already_imported', `"${file.filename}" has already been imported into this lab (${file.rowsImported} trials).`);
+  if (input.mapping.shape !== 'trialSheet') throw new DomainError('invalid', 'wrong_shape', 'This mapping is for a sensor log: find its steady periods and import it as a log.');
   const t = await readTable(file, input.sheet);
   let result: TrialSheetResult;
   try {
     result = importTrialSheet(t.table, input.mapping, { file: file.filename, sheet: input.sheet });
   } catch (e) {
-    if (e instanceof ImportError) throw new HttpError(422, 'bad_mapping', e.message);
+    if (e instanceof ImportError) throw new DomainError('invalid', 'bad_mapping', e.message);
     throw e;
   }
   const skip = new Set(input.excludedLines);
   const kept = result.rows.filter((r) => !skip.has(r.line));
   const bad = kept.filter((r) => !r.ok);
   if (bad.length) {
-    throw new HttpError(422, 'row_errors', `${bad.length} row(s) still have errors; fix them in the file or exclude them. Nothing was imported.`, {
+    throw new DomainError('invalid', 'row_errors', `${bad.length} row(s) still have errors; fix them in the file or exclude them. Nothing was imported.`, {
       issues: bad.flatMap((r) => r.issues).slice(0, 200),
     });
   }
-  if (!kept.length) throw new HttpError(422, 'nothing', 'Every row is excluded: there is nothing to import.');
+  if (!kept.length) throw new DomainError('invalid', 'nothing', 'Every row is excluded: there is nothing to import.');
   const fallback = file.createdAt.getTime();
   const n = await em.transactional(async (tx) => {
     for (const r of kept) {
@@ -220,7 +221,7 @@ export async function saveLogMapping(em: EntityManager, lab: LabRow, file: Sourc
 }
 
 export async function loadFile(em: EntityManager, rig: RigRow, fileId: string) {
-  const file = /^[0-9a-f-]{36}$/i.test(fileId) ? await em.findOne(SourceFile, { id: fileId, lab: rig.lab }) : null;
-  if (!file) throw new HttpError(404, 'not_found', 'No such upload in this lab.');
+  const file = isUuid(fileId) ? await em.findOne(SourceFile, { id: fileId, lab: rig.lab }) : null;
+  if (!file) throw new DomainError('not_found', 'not_found', 'No such upload in this lab.');
   return file;
 }

@@ -4,7 +4,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import PgBoss from 'pg-boss';
 import { ImportJob, type ImportJobRow, type RigRow, type SourceFileRow, type UserRow } from '@/entities';
 import { getEm } from '../server/db';
-import { HttpError } from '../server/errors';
+import { DomainError } from '../server/errors';
 import { ImportError } from '../imports';
 import type { RouteContext } from '../server/route';
 import { AlreadyImported, ImportCancelled, copyPool, importSensorLog, type LogImportInput } from '../imports/sensor-import';
@@ -128,10 +128,10 @@ export async function startJobWorkers(): Promise<void> {
 
 /** Records an import job for a stored log (state `queued`); the caller enqueues it. */
 export async function createImportJobRow(em: EntityManager, rig: RigRow, file: SourceFileRow, user: UserRow | null, input: LogImportInput): Promise<ImportJobRow> {
-  if (file.purpose !== 'trials') throw new HttpError(422, 'not_a_log', 'That upload is not a data file.');
-  if (file.state === 'imported') throw new HttpError(409, 'already_imported', `"${file.filename}" has already been imported into this lab (${file.rowsImported} rows).`);
+  if (file.purpose !== 'trials') throw new DomainError('invalid', 'not_a_log', 'That upload is not a data file.');
+  if (file.state === 'imported') throw new DomainError('conflict', 'already_imported', `"${file.filename}" has already been imported into this lab (${file.rowsImported} rows).`);
   const open = await em.findOne(ImportJob, { sourceFile: file, state: { $in: ['queued', 'running'] } });
-  if (open) throw new HttpError(409, 'import_running', `"${file.filename}" is already being imported.`, { jobId: open.id });
+  if (open) throw new DomainError('conflict', 'import_running', `"${file.filename}" is already being imported.`, { jobId: open.id });
   const job = em.create(ImportJob, { lab: rig.lab, rig, sourceFile: file, createdBy: user, input: input as unknown as Record<string, unknown>, bytesTotal: file.sizeBytes });
   await em.flush();
   return job;
@@ -220,22 +220,13 @@ export const importJobDto = (j: ImportJobRow) => ({
   finishedAt: j.finishedAt?.toISOString() ?? null,
 });
 
-/** A job of the caller's lab (404 outside it, 403 when the role lacks the action). */
-export async function loadJob<P>(ctx: RouteContext<P>, jobId: string, action: Action): Promise<ImportJobRow> {
-  ctx.requireActor();
-  const job = /^[0-9a-f-]{36}$/i.test(jobId) ? await ctx.em.findOne(ImportJob, { id: jobId }) : null;
-  if (!job) throw new HttpError(404, 'not_found', 'No such job.');
-  await ctx.requireMember(job.lab.id, action);
-  return job;
-}
-
 /**
  * Cancels a job: a queued one at once, a running one between two batches (the worker rolls the
  * import back). A finished job cannot be cancelled (409).
  */
 export async function cancelJob(em: EntityManager, job: ImportJobRow): Promise<ImportJobRow> {
   if (job.state === 'completed' || job.state === 'failed' || job.state === 'cancelled') {
-    throw new HttpError(409, 'finished', `The job has already ${job.state === 'completed' ? 'completed' : job.state === 'failed' ? 'failed' : 'been cancelled'}.`);
+    throw new DomainError('conflict', 'finished', `The job has already ${job.state === 'completed' ? 'completed' : job.state === 'failed' ? 'failed' : 'been cancelled'}.`);
   }
   const r = await copyPool().query<{ state: ImportJobRow['state'] }>(
     `UPDATE import_job SET cancel_requested = true, state = CASE WHEN state = 'queued' THEN 'cancelled' ELSE state END,

@@ -1,10 +1,10 @@
 import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { Invitation, Lab, Membership, type LabRow, type UserRow } from '@/entities';
+import { AuditEvent, Invitation, Lab, Membership, type LabRow, type UserRow } from '@/entities';
 import type { Role } from '@/entities/membership';
 import { slugify } from '../accounts/accounts';
 import { audit } from './audit';
-import { HttpError, conflict, notFound } from '../server/errors';
+import { DomainError, conflict, notFound } from '../server/errors';
 import { appLink, sendMail } from '../mail/mail';
 import { enforceLimits } from '../server/rate-limit';
 import { newSecret, sha256 } from '../server/secrets';
@@ -81,7 +81,7 @@ export function invitationProblem(inv: Awaited<ReturnType<typeof findInvitation>
 export async function acceptInvitation(em: EntityManager, token: string, user: UserRow, ip: string) {
   const inv = await findInvitation(em, token);
   const problem = invitationProblem(inv, user);
-  if (problem || !inv) throw new HttpError(410, 'invitation_invalid', problem ?? 'Invalid invitation.');
+  if (problem || !inv) throw new DomainError('gone', 'invitation_invalid', problem ?? 'Invalid invitation.');
   return em.transactional(async (tx) => {
     const already = await tx.findOne(Membership, { lab: inv.lab, user });
     const membership = already ?? tx.create(Membership, { lab: inv.lab, user, role: inv.role });
@@ -119,3 +119,13 @@ export async function removeMember(em: EntityManager, labId: string, memberId: s
   await audit(em, { kind: 'member-removed', actor: by, lab: labId, subject: m.user.email, ip });
 }
 
+
+/** A lab's members with their accounts, longest-standing first. */
+export const membersOf = (em: EntityManager, lab: LabRow | string) => em.find(Membership, { lab }, { populate: ['user'], orderBy: { createdAt: 'asc' } });
+
+/** A lab's invitations, newest first: all of the latest 100, or only those still open. */
+export const invitationsOf = (em: EntityManager, lab: LabRow | string, opts: { open?: boolean } = {}) =>
+  em.find(Invitation, { lab, ...(opts.open ? { acceptedAt: null, revokedAt: null, expiresAt: { $gt: new Date() } } : {}) }, { orderBy: { createdAt: 'desc' }, limit: 100 });
+
+/** A lab's latest 200 security events, newest first. */
+export const auditOf = (em: EntityManager, lab: LabRow | string) => em.find(AuditEvent, { lab }, { populate: ['actor'], orderBy: { createdAt: 'desc' }, limit: 200 });

@@ -3,6 +3,7 @@
  * app/_lib/server/route.ts; the help page renders it. Owners may do everything.
  */
 import type { Role } from '@/entities/membership';
+export { ROLES, type Role } from '@/entities/membership';
 
 export const ACTIONS = {
   'lab:read': { label: 'Read rigs, trials, fits, forecasts and studies', roles: ['owner', 'engineer', 'reviewer', 'viewer'] },

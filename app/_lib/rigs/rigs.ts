@@ -1,12 +1,11 @@
 import 'server-only';
+import type { EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
-import { Rig, type RigRow } from '@/entities';
+import { Rig, SourceFile, Trial, type LabRow, type RigRow } from '@/entities';
 import { HEAT_SOURCES } from '@/entities/rig';
 import { conflict, notFound } from '../server/errors';
 import type { Action } from '../labs/permissions';
 import type { Member, RouteContext } from '../server/route';
-
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 /** The fields of a rig as the API takes them, without defaults (so that a patch leaves out what it does not name). */
 const rigFields = z.object({
@@ -36,16 +35,6 @@ export const rigInput = rigFields.extend({
  */
 export const rigPatch = rigFields.partial();
 
-/** Loads a rig and checks the caller's role in its lab: 404 for non-members and unknown ids alike. */
-export async function loadRig<P>(ctx: RouteContext<P>, rigId: string, action: Action): Promise<{ rig: RigRow; member: Member }> {
-  ctx.requireActor();
-  if (!UUID.test(rigId)) throw notFound();
-  const rig = await ctx.em.findOne(Rig, { id: rigId });
-  if (!rig) throw notFound();
-  const member = await ctx.requireMember(rig.lab.id, action);
-  return { rig, member };
-}
-
 export async function createRig(ctx: RouteContext<{ labId: string }>, input: z.infer<typeof rigInput>): Promise<RigRow> {
   const lab = ctx.member!.lab;
   if (await ctx.em.findOne(Rig, { lab, name: input.name })) throw conflict(`This lab already has a rig called "${input.name}".`);
@@ -63,4 +52,20 @@ export async function updateRig(ctx: RouteContext<unknown>, rig: RigRow, patch: 
   return rig;
 }
 
-export { UUID };
+
+/** A lab's rigs by name, with the number of included trials of each (one grouped count). */
+export async function rigsOfLab(em: EntityManager, lab: LabRow): Promise<{ rigs: RigRow[]; counts: Map<string, number> }> {
+  const rigs = await em.find(Rig, { lab }, { orderBy: { name: 'asc' } });
+  const rows = await em.getConnection().execute<{ rig_id: string; n: number }[]>(
+    'select rig_id, count(*)::int as n from trial where lab_id = ? and excluded = false group by rig_id',
+    [lab.id],
+  );
+  return { rigs, counts: new Map(rigs.map((r) => [r.id, rows.find((x) => x.rig_id === r.id)?.n ?? 0])) };
+}
+
+/** The rig page's files: the latest trial sheets and the photos. */
+export async function rigFiles(em: EntityManager, rig: RigRow) {
+  const files = await em.find(SourceFile, { rig, purpose: 'trials' }, { orderBy: { createdAt: 'desc' }, limit: 10 });
+  const photos = await em.find(SourceFile, { rig, purpose: 'photo' }, { orderBy: { createdAt: 'desc' }, limit: 24 });
+  return { files, photos };
+}

@@ -3,9 +3,9 @@ import { raw, type EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
 import { Trial, TrialChange, type RigRow, type TrialRow, type UserRow } from '@/entities';
 import { parseQuantity, type QuantityKind } from '@/analysis/units/parse-quantity';
-import { HttpError, notFound } from '../server/errors';
+import { DomainError, notFound } from '../server/errors';
 import { checkTrialRow, plausibilityWarnings, trialFields, TRIAL_LIMITS, type CheckedTrialRow } from './trial-rule';
-import { UUID } from './rigs';
+import { isUuid } from '../labs/load-in-lab';
 
 /** A quantity given as a number in the SI unit named by the key, or as a string with its unit ("4.5 gpm"). */
 const quantity = (kind: QuantityKind, field: string) =>
@@ -63,7 +63,7 @@ export function apiTrialsToRows(inputs: TrialInput[], batch: boolean): { row: Ch
     }
     return { row: r.row, startedAt: t.startedAt ?? new Date(), warnings: r.issues.map((x) => x.message) };
   });
-  if (Object.keys(fields).length) throw new HttpError(422, 'invalid', 'Some fields are not valid.', { fields });
+  if (Object.keys(fields).length) throw new DomainError('invalid', 'invalid', 'Some fields are not valid.', { fields });
   return out as { row: CheckedTrialRow; startedAt: Date; warnings: string[] }[];
 }
 
@@ -123,8 +123,17 @@ export async function updateTrials(em: EntityManager, trials: TrialRow[], patch:
   await em.flush();
 }
 
+/** The rig's latest trial (the entry form offers its values again). */
+export const lastTrial = (em: EntityManager, rig: RigRow) => em.findOne(Trial, { rig }, { orderBy: { startedAt: 'desc' } });
+
+/** Who changed what of a trial, oldest first. */
+export async function trialHistory(em: EntityManager, trial: TrialRow) {
+  const history = await em.find(TrialChange, { trial }, { populate: ['user'], orderBy: { createdAt: 'asc' } });
+  return history.map((h) => ({ at: h.createdAt.toISOString(), by: h.user?.name ?? null, field: h.field, before: h.before, after: h.after }));
+}
+
 export async function trialsOfRig(em: EntityManager, rig: RigRow, ids: string[]): Promise<TrialRow[]> {
-  if (ids.some((id) => !UUID.test(id))) throw new HttpError(422, 'invalid', 'Some trial ids are not valid.');
+  if (ids.some((id) => !isUuid(id))) throw new DomainError('invalid', 'invalid', 'Some trial ids are not valid.');
   const rows = await em.find(Trial, { id: { $in: ids }, rig });
   if (rows.length !== new Set(ids).size) throw notFound('Some of those trials are not in this rig.');
   return rows;

@@ -3,7 +3,7 @@ import { Readable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
 import busboy from 'busboy';
 import type { NextRequest } from 'next/server';
-import { HttpError, badRequest } from './errors';
+import { DomainError, badRequest } from './errors';
 import { spool, type Spooled } from './storage';
 
 /**
@@ -15,7 +15,7 @@ export type BodylessRequest = Omit<NextRequest, 'body' | 'bodyUsed' | 'arrayBuff
 
 const size = (bytes: number) => (bytes < 1024 * 1024 ? `${Math.round(bytes / 1024)} KiB` : `${Math.round(bytes / 1024 / 1024)} MB`);
 
-export const tooLarge = (max: number) => new HttpError(413, 'too_large', `The request body is larger than ${size(max)}; nothing was stored.`);
+export const tooLarge = (max: number) => new DomainError('too_large', 'too_large', `The request body is larger than ${size(max)}; nothing was stored.`);
 
 /** A file part of a multipart body, spooled to a temporary file (size and SHA-256 known). */
 export interface FormFile extends Spooled {
@@ -137,7 +137,7 @@ export class RequestBody {
     };
     this.#cleanups.push(() => Promise.all(files.map((f) => f.cleanup())).then(() => {}));
     bb.on('field', (name, value, info) => {
-      if (info.valueTruncated) return fail(new HttpError(413, 'too_large', `The form field "${name.slice(0, 100)}" is larger than ${size(maxFieldBytes)}.`));
+      if (info.valueTruncated) return fail(new DomainError('too_large', 'too_large', `The form field "${name.slice(0, 100)}" is larger than ${size(maxFieldBytes)}.`));
       fields.set(name, value);
     });
     bb.on('file', (name, file, info) => {
@@ -161,7 +161,7 @@ export class RequestBody {
     bb.on('fieldsLimit', tooMany('fields'));
     bb.on('partsLimit', tooMany('parts'));
     // busboy's own errors are malformed bodies; errors passed on from the stream (413) stay as they are
-    bb.on('error', (e: Error) => fail(e instanceof HttpError || failure ? e : badRequest(`The multipart body could not be read: ${e.message}.`)));
+    bb.on('error', (e: Error) => fail(e instanceof DomainError || failure ? e : badRequest(`The multipart body could not be read: ${e.message}.`)));
     try {
       await pipeline(Readable.fromWeb(stream as import('node:stream/web').ReadableStream<Uint8Array>), bb);
       await Promise.all(spools);

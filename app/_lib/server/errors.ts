@@ -1,35 +1,51 @@
-import 'server-only';
-import { NextResponse } from 'next/server';
-import { ZodError } from 'zod';
+/**
+ * The one error model. Everything in `app/_lib` (and the import and cost code below it) reports an
+ * expected failure by throwing a `DomainError`: what kind of failure it is, a stable code for
+ * programs, a message in words for the person, and details (`fields` by field name, `retryAfter`
+ * in seconds, …). It is mapped to HTTP once, in the route wrapper (`errorResponse` in
+ * `error-response.ts`), and to `{ ok: false }` once for server actions (`actionResult`). Nothing here
+ * knows about HTTP or Next.js, so any module may throw these.
+ */
+export type ErrorKind =
+  | 'bad_request' | 'unauthorized' | 'forbidden' | 'not_found' | 'conflict' | 'gone' | 'too_large' | 'invalid' | 'rate_limited' | 'cancelled';
 
-/** An expected failure with an HTTP status and a public message. */
-export class HttpError extends Error {
+export class DomainError extends Error {
   constructor(
-    readonly status: number,
+    readonly kind: ErrorKind,
     readonly code: string,
     message: string,
-    readonly extra: Record<string, unknown> = {},
-    readonly headers: Record<string, string> = {},
+    /** extra public data: `fields` (field → message), `retryAfter` (s), `issues`, `current`… */
+    readonly details: Record<string, unknown> = {},
   ) {
     super(message);
   }
 }
-export const unauthorized = (message = 'Sign in to continue.') => new HttpError(401, 'unauthorized', message);
-export const forbidden = (message = 'Your role in this lab does not allow this.') => new HttpError(403, 'forbidden', message);
-export const notFound = (message = 'Not found.') => new HttpError(404, 'not_found', message);
-export const badRequest = (message: string, extra?: Record<string, unknown>) => new HttpError(400, 'bad_request', message, extra);
-export const conflict = (message: string) => new HttpError(409, 'conflict', message);
 
-/** Maps any thrown value to a JSON response; unknown errors are logged and become a generic 500. */
-export function errorResponse(e: unknown): NextResponse {
-  if (e instanceof HttpError) {
-    return NextResponse.json({ error: e.code, message: e.message, ...e.extra }, { status: e.status, headers: e.headers });
+export const badRequest = (message: string, code = 'bad_request', details?: Record<string, unknown>) => new DomainError('bad_request', code, message, details);
+export const unauthorized = (message = 'Sign in to continue.', code = 'unauthorized') => new DomainError('unauthorized', code, message);
+export const forbidden = (message = 'Your role in this lab does not allow this.', code = 'forbidden') => new DomainError('forbidden', code, message);
+export const notFound = (message = 'Not found.') => new DomainError('not_found', 'not_found', message);
+export const conflict = (message: string, code = 'conflict', details?: Record<string, unknown>) => new DomainError('conflict', code, message, details);
+/** A link or token that no longer works (used, expired, withdrawn). */
+export const gone = (code: string, message: string) => new DomainError('gone', code, message);
+export const tooLarge = (message: string, code = 'too_large') => new DomainError('too_large', code, message);
+/** Input that is well-formed but not acceptable; `fields` names each field the person can fix. */
+export const invalid = (message: string, fields?: Record<string, string>, code = 'invalid', details?: Record<string, unknown>) =>
+  new DomainError('invalid', code, message, { ...(fields ? { fields } : {}), ...details });
+export const rateLimited = (retryAfterS: number, message: string) => new DomainError('rate_limited', 'rate_limited', message, { retryAfter: retryAfterS });
+export const cancelled = (message: string) => new DomainError('cancelled', 'cancelled', message);
+
+/** The HTTP status of each kind (the only place that knows it). */
+export const HTTP_STATUS: Record<ErrorKind, number> = {
+  bad_request: 400, unauthorized: 401, forbidden: 403, not_found: 404, conflict: 409, gone: 410, too_large: 413, invalid: 422,
+  rate_limited: 429, cancelled: 499,
+};
+
+/** What a server action returns for a failure: `{ ok: false, error, message, fields? }` (unknown errors are rethrown). */
+export function actionResult(e: unknown): { ok: false; error: string; message: string; fields?: Record<string, string> } {
+  if (e instanceof DomainError) {
+    const fields = e.details.fields as Record<string, string> | undefined;
+    return { ok: false, error: e.code, message: e.message, ...(fields ? { fields } : {}) };
   }
-  if (e instanceof ZodError) {
-    const fields: Record<string, string> = {};
-    for (const issue of e.issues) fields[issue.path.join('.') || '_'] ??= issue.message;
-    return NextResponse.json({ error: 'invalid', message: 'Some fields are not valid.', fields }, { status: 422 });
-  }
-  console.error(e);
-  return NextResponse.json({ error: 'internal', message: 'Something went wrong on our side. Nothing was changed.' }, { status: 500 });
+  throw e;
 }

@@ -1,6 +1,6 @@
 import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { HttpError } from './errors';
+import { rateLimited, type DomainError } from './errors';
 
 export interface Limit {
   /** e.g. "sign-in:ip:203.0.113.9" */
@@ -17,10 +17,10 @@ export async function enforceLimits(em: EntityManager, limits: Limit[]): Promise
   for (const l of limits) await hitLimit(em, l);
 }
 
-export function tooMany(resetAt: Date, message?: string): HttpError {
+export function tooMany(resetAt: Date, message?: string): DomainError {
   const retryAfter = Math.max(1, Math.ceil((new Date(resetAt).getTime() - Date.now()) / 1000));
   const wait = retryAfter < 90 ? `${retryAfter} second${retryAfter === 1 ? '' : 's'}` : `${Math.ceil(retryAfter / 60)} minutes`;
-  return new HttpError(429, 'rate_limited', message ?? `Too many attempts. Wait ${wait} and try again.`, { retryAfter }, { 'Retry-After': String(retryAfter) });
+  return rateLimited(retryAfter, message ?? `Too many attempts. Wait ${wait} and try again.`);
 }
 
 /** The attempts counted against the key in its current window (0 when none), without counting this one. */

@@ -9,7 +9,9 @@ import { RequestBody, tooLarge, type BodylessRequest, type FormLimits, type Stre
 import { clientAddress, peerHeaderTrusted } from './client-address';
 import { appOrigin, config, ownOrigins } from './config';
 import { getEm } from './db';
-import { HttpError, errorResponse, forbidden, notFound, unauthorized } from './errors';
+import { errorResponse } from './error-response';
+import { DomainError, forbidden, notFound, unauthorized } from './errors';
+import { isUuid } from '../labs/load-in-lab';
 import { can, type Action } from '../labs/permissions';
 import { setSecurityHeaders } from './security-headers';
 import { readSession, type UserRow } from '../accounts/session';
@@ -69,7 +71,7 @@ export function clientIp(req: NextRequest): string {
   return clientAddress(req.headers, config.trustProxyHops, peerHeaderTrusted());
 }
 
-const crossOrigin = () => new HttpError(403, 'cross_origin', 'Requests from another site are refused.');
+const crossOrigin = () => new DomainError('forbidden', 'cross_origin', 'Requests from another site are refused.');
 
 /**
  * Cookie-authenticated state changes must come from our own origin (CSRF): the Origin header
@@ -136,7 +138,7 @@ export function route<P extends Record<string, string> = Record<string, never>>(
           try {
             body = text ? JSON.parse(text) : {};
           } catch {
-            throw new HttpError(400, 'bad_json', 'The request body is not valid JSON.');
+            throw new DomainError('bad_request', 'bad_json', 'The request body is not valid JSON.');
           }
           return schema.parse(body);
         },
@@ -148,7 +150,7 @@ export function route<P extends Record<string, string> = Record<string, never>>(
         },
         async requireMember(labId, action) {
           const a = ctx.requireActor();
-          if (!/^[0-9a-f-]{36}$/i.test(labId)) throw notFound();
+          if (!isUuid(labId)) throw notFound();
           if (a.via === 'token' && a.tokenLabId !== labId) throw notFound();
           const m = await em!.findOne(Membership, { user: a.user.id, lab: labId }, { populate: ['lab'] });
           if (!m) throw notFound();

@@ -7,7 +7,7 @@ import path from 'node:path';
 import { Readable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
 import { GetObjectCommand, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
-import { HttpError } from './errors';
+import { DomainError } from './errors';
 
 let client: S3Client | undefined;
 const bucket = () => process.env.S3_BUCKET ?? 'emberline';
@@ -41,7 +41,7 @@ export interface Spooled {
  * cleanup().
  */
 export async function spool(body: ReadableStream<Uint8Array> | Readable | null, maxBytes: number): Promise<Spooled> {
-  if (!body) throw new HttpError(400, 'empty', 'The upload is empty.');
+  if (!body) throw new DomainError('bad_request', 'empty', 'The upload is empty.');
   const dir = await mkdtemp(path.join(os.tmpdir(), 'emberline-upload-'));
   const file = path.join(dir, 'upload');
   const cleanup = () => rm(dir, { recursive: true, force: true });
@@ -55,7 +55,7 @@ export async function spool(body: ReadableStream<Uint8Array> | Readable | null, 
         for await (const chunk of chunks) {
           size += chunk.length;
           if (size > maxBytes) {
-            throw new HttpError(413, 'too_large', `The file is larger than the limit of ${Math.round(maxBytes / 1024 / 1024)} MB; nothing was stored.`);
+            throw new DomainError('too_large', 'too_large', `The file is larger than the limit of ${Math.round(maxBytes / 1024 / 1024)} MB; nothing was stored.`);
           }
           hash.update(chunk);
           yield chunk;

@@ -6,10 +6,10 @@ import { ShareLink, Study, type LabRow, type ShareLinkRow, type StudyRow, type U
 import { BLOCK_KINDS, type StudyBlock } from '@/entities/study';
 import { costBlockData } from '../forecasts/cost-sheet';
 import { forecastWorkProblem } from '../forecasts/forecasts';
-import { conflict, HttpError, notFound } from '../server/errors';
+import { conflict, DomainError, notFound } from '../server/errors';
 import type { Action } from '../labs/permissions';
 import type { Member, RouteContext } from '../server/route';
-import { UUID } from '../rigs/rigs';
+import { isUuid } from '../labs/load-in-lab';
 import { newSecret, sha256 } from '../server/secrets';
 
 export const blockSchema = z
@@ -21,10 +21,10 @@ export const blockSchema = z
   .strict()
   .superRefine((b, ctx) => {
     if (b.kind === 'text' && typeof b.data.markdown === 'string' && b.data.markdown.length > 50_000) ctx.addIssue({ code: 'custom', message: 'A text block holds at most 50,000 characters.' });
-    if (['fit', 'comparison', 'performance', 'trials'].includes(b.kind) && b.data.fitId !== undefined && (typeof b.data.fitId !== 'string' || !UUID.test(b.data.fitId))) {
+    if (['fit', 'comparison', 'performance', 'trials'].includes(b.kind) && b.data.fitId !== undefined && (!isUuid(b.data.fitId))) {
       ctx.addIssue({ code: 'custom', path: ['data', 'fitId'], message: 'Pick a saved fit.' });
     }
-    if (b.kind === 'sensor-log' && b.data.sourceFileId !== undefined && (typeof b.data.sourceFileId !== 'string' || !UUID.test(b.data.sourceFileId))) {
+    if (b.kind === 'sensor-log' && b.data.sourceFileId !== undefined && (!isUuid(b.data.sourceFileId))) {
       ctx.addIssue({ code: 'custom', path: ['data', 'sourceFileId'], message: 'Pick an imported sensor log.' });
     }
     if (b.kind === 'forecast') {
@@ -68,7 +68,7 @@ export function newStudy(em: EntityManager, lab: LabRow, user: UserRow, title: s
 export async function saveStudy(em: EntityManager, study: StudyRow, user: UserRow, input: z.infer<typeof studySave>) {
   const ids = new Set<string>();
   for (const b of input.blocks) {
-    if (ids.has(b.id)) throw new HttpError(422, 'invalid', `Two blocks share the id ${b.id}.`);
+    if (ids.has(b.id)) throw new DomainError('invalid', 'invalid', `Two blocks share the id ${b.id}.`);
     ids.add(b.id);
   }
   // Conditional update: only if the row is still at the revision the editor saw (atomic across instances).
@@ -88,7 +88,7 @@ export async function saveStudy(em: EntityManager, study: StudyRow, user: UserRo
   );
   if (!updated) {
     await em.refresh(study);
-    throw new HttpError(409, 'edit_conflict', `Someone else saved this study (${study.updatedBy?.name ?? 'another editor'}); your edit was not saved. Compare and choose.`, {
+    throw new DomainError('conflict', 'edit_conflict', `Someone else saved this study (${study.updatedBy?.name ?? 'another editor'}); your edit was not saved. Compare and choose.`, {
       current: studyDto(study),
     });
   }
@@ -99,14 +99,6 @@ export async function saveStudy(em: EntityManager, study: StudyRow, user: UserRo
 export const studyListDto = (s: StudyRow) => ({ id: s.id, title: s.title, reviewState: s.reviewState, revision: s.revision, updatedAt: s.updatedAt.toISOString(), blocks: s.blocks.length });
 export const studyDto = (s: StudyRow) => ({ ...studyListDto(s), blocks: s.blocks, createdBy: s.createdBy?.id ?? null, updatedBy: s.updatedBy?.name ?? null });
 
-export async function loadStudy(ctx: RouteContext<{ studyId: string }>, action: Action): Promise<{ study: StudyRow; member: Member }> {
-  ctx.requireActor();
-  if (!UUID.test(ctx.params.studyId)) throw notFound();
-  const study = await ctx.em.findOne(Study, { id: ctx.params.studyId }, { populate: ['updatedBy', 'createdBy'] });
-  if (!study) throw notFound();
-  return { study, member: await ctx.requireMember(study.lab.id, action) };
-}
-
 export const shareInput = z.object({ days: z.number().int().min(1).max(365).default(30) }).strict();
 
 export async function createShare(em: EntityManager, study: StudyRow, user: UserRow, days: number) {
@@ -115,6 +107,12 @@ export async function createShare(em: EntityManager, study: StudyRow, user: User
   await em.flush();
   return { link, token };
 }
+
+/** A lab's studies, latest edited first (at most 200). */
+export const studiesOfLab = (em: EntityManager, lab: LabRow | string) => em.find(Study, { lab }, { orderBy: { updatedAt: 'desc' }, limit: 200 });
+
+/** A study's share links, newest first. */
+export const sharesOfStudy = (em: EntityManager, study: StudyRow) => em.find(ShareLink, { study }, { orderBy: { createdAt: 'desc' } });
 
 export const shareDto = (l: ShareLinkRow) => ({
   id: l.id,

@@ -14,7 +14,7 @@ import { STANDING_NOTICE } from '@/analysis/safety/standing-notice';
 import { plotToSvg } from '../plots/plot-svg';
 import { DISPLAY_MAX_POINTS, reduceForDisplay } from '@/analysis/reduce';
 import { fitCurveInputFromFits, fitCurvePlot, timeSeriesSegmentsPlot, type FitCurveTrial, type PlotFigure } from '../plots';
-import { UUID } from '../rigs/rigs';
+import { isUuid } from '../labs/load-in-lab';
 import { copyPool } from '../imports/sensor-import';
 import { ensureSensorOverview } from '../imports/sensor-overview';
 
@@ -51,7 +51,7 @@ const plotView = (f: PlotFigure): PlotView => ({ title: f.title, summary: f.summ
 
 /** The saved fits the given blocks point at (lab-scoped), by id. */
 export async function blockFits(em: EntityManager, lab: LabRow, blocks: readonly StudyBlock[]): Promise<Map<string, FitRow>> {
-  const ids = [...new Set(blocks.filter((b) => FIT_KINDS.has(b.kind) || b.kind === 'forecast').map((b) => b.data.fitId).filter((x): x is string => typeof x === 'string' && UUID.test(x)))];
+  const ids = [...new Set(blocks.filter((b) => FIT_KINDS.has(b.kind) || b.kind === 'forecast').map((b) => b.data.fitId).filter((x): x is string => isUuid(x)))];
   const rows = ids.length ? await em.find(Fit, { id: { $in: ids }, lab }) : [];
   return new Map(rows.map((f) => [f.id, f]));
 }
@@ -95,7 +95,7 @@ function fitBody(kind: string, fit: FitRow, publicView: boolean, units: Units): 
 
 async function sensorLogBody(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
   const fileId = block.data.sourceFileId;
-  if (typeof fileId !== 'string' || !UUID.test(fileId)) return { type: 'note', tone: 'muted', message: 'No sensor log chosen for this block yet.' };
+  if (!isUuid(fileId)) return { type: 'note', tone: 'muted', message: 'No sensor log chosen for this block yet.' };
   const file = await ctx.em.findOne(SourceFile, { id: fileId, lab: ctx.lab }, { populate: ['rig'] });
   if (!file) return { type: 'note', tone: 'muted', message: 'The sensor log of this block no longer exists.' };
   let overview = await ctx.em.findOne(SensorOverview, { sourceFile: file.id }, { populate: ['rig'] });

@@ -5,7 +5,7 @@ import type { FitSuccess } from '@/analysis/fit';
 import type { PerformanceTable } from '@/analysis/performance/performance-table';
 import { STUDY_SHEETS, studyCsv, studyWorkbook, type FitExport, type ForecastExport, type PerformanceExport, type RunningCostExport, type StudyExport, type StudySheetName, type TrialExportRow } from '../exports';
 import { CostInputError, costExport, costView } from '../forecasts/cost-sheet';
-import { HttpError } from '../server/errors';
+import { DomainError } from '../server/errors';
 import { forecastForExport } from '../forecasts/forecasts';
 import { modelLabel, SOFTWARE_VERSION } from '../fits/fit-analysis';
 
@@ -54,7 +54,7 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
     try {
       forecasts.push(await forecastForExport(em, study.lab, b.data, label));
     } catch (e) {
-      if (!(e instanceof HttpError)) throw e;
+      if (!(e instanceof DomainError)) throw e;
       notes.push(`${label} cannot be computed: ${e.message}`);
     }
   }
@@ -95,9 +95,9 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
 export async function exportResponse(data: StudyExport, title: string, search: URLSearchParams): Promise<Response> {
   if (search.get('format') !== 'csv') return xlsxResponse(await studyWorkbook(data), title);
   const table = search.get('table') ?? 'Trials';
-  if (!(STUDY_SHEETS as readonly string[]).includes(table)) throw new HttpError(422, 'invalid', `No table "${table}": choose one of ${STUDY_SHEETS.join(', ')}.`);
+  if (!(STUDY_SHEETS as readonly string[]).includes(table)) throw new DomainError('invalid', 'invalid', `No table "${table}": choose one of ${STUDY_SHEETS.join(', ')}.`);
   const csv = studyCsv(data, table as StudySheetName);
-  if (csv === null) throw new HttpError(404, 'not_found', `This export has no ${table} table.`);
+  if (csv === null) throw new DomainError('not_found', 'not_found', `This export has no ${table} table.`);
   const name = `${title.replace(/[^\w.-]+/g, '-').slice(0, 50) || 'export'}-${table.toLowerCase()}.csv`;
   return new Response(csv, { headers: { 'Content-Type': 'text/csv; charset=utf-8', 'Content-Disposition': `attachment; filename="${name}"` } });
 }

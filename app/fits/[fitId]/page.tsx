@@ -1,6 +1,4 @@
 import Link from 'next/link';
-import { notFound } from 'next/navigation';
-import { Fit, Rig } from '@/entities';
 import type { FitSuccess } from '@/analysis/fit';
 import type { FlowChoice as Choice } from '@/analysis/performance/choose-flow';
 import { AppPage } from '../../_components/app-page';
@@ -9,10 +7,10 @@ import { PlotFigure } from '../../_components/plot-figure';
 import { CautionList } from '../../_components/safety-notice';
 import { ReviewPanel } from '../../_components/review-panel';
 import { modelLabel } from '../../_lib/fits/fit-analysis';
-import { reviewTrail } from '../../_lib/fits/fits';
+import { reviewTrail } from '../../_lib/review/review';
 import { plotToSvg } from '../../_lib/plots/plot-svg';
 import { fitCurveInputFromFits, fitCurvePlot, heatInputFromFit, heatPlot, residualInputFromFit, residualPlots, type PlotFigure as Figure } from '../../_lib/plots';
-import { UUID } from '../../_lib/rigs/rigs';
+import { loadInLab } from '../../_lib/labs/load-in-lab';
 import { requireLabAction } from '../../_lib/accounts/viewer';
 
 export const metadata = { title: 'Saved fit' };
@@ -23,9 +21,8 @@ const svg = (f: Figure) => ({ title: f.title, summary: f.summary, svg: plotToSvg
 export default async function SavedFitPage({ params }: { params: Promise<{ fitId: string }> }) {
   const { fitId } = await params;
   const v = await requireLabAction(`/fits/${fitId}`, 'lab:read');
-  const row = UUID.test(fitId) ? await v.em.findOne(Fit, { id: fitId, lab: v.current.lab }, { populate: ['createdBy'] }) : null;
-  if (!row) notFound();
-  const rig = await v.em.findOneOrFail(Rig, { id: row.rig.id });
+  const { row } = await loadInLab(v, 'fit', fitId, 'lab:read');
+  const rig = row.rig;
   const r = row.result as { fit: FitSuccess; comparison: ComparisonView; choice: Choice; performance: PerformanceView; trials: { startedAt: string }[] };
   const u = v.user.unitSystem;
   const label = modelLabel(row.model);

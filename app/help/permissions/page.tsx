@@ -1,6 +1,5 @@
-import { ROLES } from '@/entities/membership';
 import { SiteHeader } from '../../_components/site-header';
-import { ACTIONS, ROLE_SUMMARIES, can, type Action } from '../../_lib/labs/permissions';
+import { ACTIONS, ROLE_SUMMARIES, can, type Action, ROLES } from '../../_lib/labs/permissions';
 
 export const metadata = { title: 'Roles and permissions' };
 

@@ -1,14 +1,14 @@
-import { AuditEvent } from '@/entities';
 import { AppPage } from '../../_components/app-page';
 import { auditDto } from '../../_lib/server/dto';
 import { requireLabAction } from '../../_lib/accounts/viewer';
+import { auditOf } from '../../_lib/labs/labs';
 
 export const metadata = { title: 'Audit log' };
 export const dynamic = 'force-dynamic';
 
 export default async function AuditPage() {
   const v = await requireLabAction('/lab/audit', 'audit:read');
-  const events = (await v.em.find(AuditEvent, { lab: v.current.lab }, { populate: ['actor'], orderBy: { createdAt: 'desc' }, limit: 200 })).map(auditDto);
+  const events = (await auditOf(v.em, v.current.lab)).map(auditDto);
   return (
     <AppPage viewer={v} title="Audit log" lead="Security events of this lab: invitations, role changes, tokens. Newest first.">
       <div className="card overflow-x-auto">

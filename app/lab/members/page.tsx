@@ -1,9 +1,8 @@
-import { Invitation, Membership } from '@/entities';
-import { ROLES } from '@/entities/membership';
 import { AppPage } from '../../_components/app-page';
 import { JsonForm } from '../../_components/json-form';
 import { invitationDto, memberDto } from '../../_lib/server/dto';
-import { ROLE_SUMMARIES } from '../../_lib/labs/permissions';
+import { ROLE_SUMMARIES, ROLES } from '../../_lib/labs/permissions';
+import { invitationsOf, membersOf } from '../../_lib/labs/labs';
 import { requireLabAction } from '../../_lib/accounts/viewer';
 import { MemberRow } from './member-row';
 
@@ -16,9 +15,9 @@ export default async function MembersPage() {
   const v = await requireLabAction('/lab/members', 'lab:read');
   const lab = v.current.lab;
   const manage = v.can('member:manage');
-  const members = (await v.em.find(Membership, { lab }, { populate: ['user'], orderBy: { createdAt: 'asc' } })).map(memberDto);
+  const members = (await membersOf(v.em, lab)).map(memberDto);
   const invitations = manage
-    ? (await v.em.find(Invitation, { lab, acceptedAt: null, revokedAt: null, expiresAt: { $gt: new Date() } }, { orderBy: { createdAt: 'desc' } })).map(invitationDto)
+    ? (await invitationsOf(v.em, lab, { open: true })).map(invitationDto)
     : [];
   const roleOptions = ROLES.map((r) => ({ value: r, label: `${r} — ${ROLE_SUMMARIES[r]}` }));
   return (

@@ -1,6 +1,4 @@
 import Link from 'next/link';
-import { notFound } from 'next/navigation';
-import { Rig, SourceFile } from '@/entities';
 import { AppPage } from '../../_components/app-page';
 import { RigForm } from '../../_components/rig-form';
 import { RigPhotos } from '../../_components/rig-photos';
@@ -9,7 +7,8 @@ import { TrialsTable } from '../../_components/trials-table';
 import { RigJobs } from '../../_components/job-progress';
 import { importJobDto, listRigJobs } from '../../_lib/jobs/jobs';
 import { rigDto } from '../../_lib/server/dto';
-import { UUID } from '../../_lib/rigs/rigs';
+import { rigFiles } from '../../_lib/rigs/rigs';
+import { loadInLab } from '../../_lib/labs/load-in-lab';
 import { requireLabAction } from '../../_lib/accounts/viewer';
 
 export const dynamic = 'force-dynamic';
@@ -18,11 +17,9 @@ export default async function RigPage({ params, searchParams }: { params: Promis
   const { rigId } = await params;
   const { edit } = await searchParams;
   const v = await requireLabAction(`/rigs/${rigId}`, 'lab:read');
-  const rig = UUID.test(rigId) ? await v.em.findOne(Rig, { id: rigId, lab: v.current.lab }) : null;
-  if (!rig) notFound();
-  const files = await v.em.find(SourceFile, { rig, purpose: 'trials' }, { orderBy: { createdAt: 'desc' }, limit: 10 });
+  const { row: rig } = await loadInLab(v, 'rig', rigId, 'lab:read');
+  const { files, photos } = await rigFiles(v.em, rig);
   const jobs = (await listRigJobs(v.em, rig)).map(importJobDto);
-  const photos = await v.em.find(SourceFile, { rig, purpose: 'photo' }, { orderBy: { createdAt: 'desc' }, limit: 24 });
   const write = v.can('trial:write');
   const d = rig.details ?? {};
   const facts = [

@@ -1,15 +1,14 @@
-import { notFound } from 'next/navigation';
 import { SWRConfig } from 'swr';
-import { Fit, ShareLink, Study } from '@/entities';
 import { AppPage } from '../../_components/app-page';
 import { ReviewPanel } from '../../_components/review-panel';
 import { StudyBlocks } from '../../_components/study-blocks';
 import { studyBlockKey, studyKey, type StudyRecord } from '../../_components/study-block-types';
-import { reviewTrail } from '../../_lib/fits/fits';
+import { fitsOfLab } from '../../_lib/fits/fits';
+import { reviewTrail } from '../../_lib/review/review';
 import { modelLabel } from '../../_lib/fits/fit-analysis';
-import { UUID } from '../../_lib/rigs/rigs';
+import { loadInLab } from '../../_lib/labs/load-in-lab';
 import { sensorLogsOf, studyBlocksData } from '../../_lib/studies/study-blocks';
-import { shareDto, studyDto, studyOwners } from '../../_lib/studies/studies';
+import { shareDto, sharesOfStudy, studyDto, studyOwners } from '../../_lib/studies/studies';
 import { requireLabAction } from '../../_lib/accounts/viewer';
 import { StudyEditor } from './editor';
 import { StudyLead } from './lead';
@@ -22,14 +21,13 @@ export default async function StudyPage({ params, searchParams }: { params: Prom
   const { studyId } = await params;
   const { edit } = await searchParams;
   const v = await requireLabAction(`/studies/${studyId}`, 'lab:read');
-  const study = UUID.test(studyId) ? await v.em.findOne(Study, { id: studyId, lab: v.current.lab }, { populate: ['updatedBy', 'createdBy'] }) : null;
-  if (!study) notFound();
+  const { row: study } = await loadInLab(v, 'study', studyId, 'lab:read');
   const canEdit = v.can('study:write') && study.reviewState !== 'in-review';
   const editing = !!edit && canEdit;
-  const fits = editing ? await v.em.find(Fit, { lab: v.current.lab }, { populate: ['rig'], orderBy: { createdAt: 'desc' }, limit: 100 }) : [];
+  const fits = editing ? await fitsOfLab(v.em, v.current.lab) : [];
   const logs = editing ? await sensorLogsOf(v.em, v.current.lab) : [];
   const trail = await reviewTrail(v.em, 'study', study.id);
-  const shares = v.can('share:manage') ? await v.em.find(ShareLink, { study }, { orderBy: { createdAt: 'desc' } }) : [];
+  const shares = v.can('share:manage') ? await sharesOfStudy(v.em, study) : [];
   // The first paint is complete: the study and every block's data go to the client as the SWR
   // fallback under the same keys the hooks use, so nothing is fetched until the editor changes a block.
   const blocks = await studyBlocksData({ em: v.em, lab: v.current.lab, study, units: v.user.unitSystem, publicView: false });

@@ -1,18 +1,12 @@
 import { Readable } from 'node:stream';
-import { SourceFile } from '@/entities';
-import { notFound } from '@/app/_lib/server/errors';
-import { UUID } from '@/app/_lib/rigs/rigs';
+import { loadInLab } from '@/app/_lib/labs/load-in-lab';
 import { audit } from '@/app/_lib/labs/audit';
 import { route } from '@/app/_lib/server/route';
 import { getObjectStream } from '@/app/_lib/server/storage';
 
 /** GET: a stored file exactly as uploaded (raw trial sheets, rig photos), for members of its lab. */
 export const GET = route<{ fileId: string }>({ auth: 'user' }, async (ctx) => {
-  ctx.requireActor();
-  if (!UUID.test(ctx.params.fileId)) throw notFound();
-  const file = await ctx.em.findOne(SourceFile, { id: ctx.params.fileId });
-  if (!file) throw notFound();
-  await ctx.requireMember(file.lab.id, 'lab:read');
+  const { row: file } = await loadInLab(ctx, 'file', ctx.params.fileId, 'lab:read');
   const body = Readable.toWeb(await getObjectStream(file.storageKey)) as ReadableStream<Uint8Array>;
   const inline = file.purpose === 'photo';
   // raw files leaving the app are recorded; rig photos shown on pages are not

@@ -1,14 +1,15 @@
-import { cancelJob, importJobDto, loadJob } from '@/app/_lib/jobs/jobs';
+import { loadInLab } from '@/app/_lib/labs/load-in-lab';
+import { cancelJob, importJobDto } from '@/app/_lib/jobs/jobs';
 import { json, route } from '@/app/_lib/server/route';
 
 /** GET: a background job's state, progress and result (members of its lab only). */
 export const GET = route<{ jobId: string }>({ auth: 'user' }, async (ctx) => {
-  const job = await loadJob(ctx, ctx.params.jobId, 'lab:read');
+  const { row: job } = await loadInLab(ctx, 'job', ctx.params.jobId, 'lab:read');
   return json({ job: importJobDto(job) });
 });
 
 /** DELETE: cancel the job; a running import stops between two batches and is rolled back. */
 export const DELETE = route<{ jobId: string }>({ auth: 'user' }, async (ctx) => {
-  const job = await loadJob(ctx, ctx.params.jobId, 'trial:write');
+  const { row: job } = await loadInLab(ctx, 'job', ctx.params.jobId, 'trial:write');
   return json({ job: importJobDto(await cancelJob(ctx.em, job)) });
 });

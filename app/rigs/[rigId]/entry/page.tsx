@@ -1,8 +1,7 @@
 import Link from 'next/link';
-import { notFound } from 'next/navigation';
-import { Rig, Trial } from '@/entities';
 import { AppPage } from '../../../_components/app-page';
-import { UUID } from '../../../_lib/rigs/rigs';
+import { loadInLab } from '../../../_lib/labs/load-in-lab';
+import { lastTrial } from '../../../_lib/rigs/trials';
 import { requireLabAction } from '../../../_lib/accounts/viewer';
 import { EntryForm } from './entry-form';
 
@@ -12,9 +11,8 @@ export const dynamic = 'force-dynamic';
 export default async function EntryPage({ params }: { params: Promise<{ rigId: string }> }) {
   const { rigId } = await params;
   const v = await requireLabAction(`/rigs/${rigId}/entry`, 'trial:write');
-  const rig = UUID.test(rigId) ? await v.em.findOne(Rig, { id: rigId, lab: v.current.lab }) : null;
-  if (!rig) notFound();
-  const last = await v.em.findOne(Trial, { rig }, { orderBy: { startedAt: 'desc' } });
+  const { row: rig } = await loadInLab(v, 'rig', rigId, 'trial:write');
+  const last = await lastTrial(v.em, rig);
   return (
     <AppPage viewer={v} title="Add a trial" lead={<Link href={`/rigs/${rig.id}`}>{rig.name}</Link>}>
       <div className="mx-auto max-w-lg">

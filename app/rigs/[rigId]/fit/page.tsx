@@ -1,8 +1,6 @@
 import Link from 'next/link';
-import { notFound } from 'next/navigation';
-import { Rig } from '@/entities';
 import { AppPage } from '../../../_components/app-page';
-import { UUID } from '../../../_lib/rigs/rigs';
+import { loadInLab } from '../../../_lib/labs/load-in-lab';
 import { requireLabAction } from '../../../_lib/accounts/viewer';
 import { FitWorkbench } from './workbench';
 
@@ -12,8 +10,7 @@ export const dynamic = 'force-dynamic';
 export default async function FitPage({ params }: { params: Promise<{ rigId: string }> }) {
   const { rigId } = await params;
   const v = await requireLabAction(`/rigs/${rigId}/fit`, 'lab:read');
-  const rig = UUID.test(rigId) ? await v.em.findOne(Rig, { id: rigId, lab: v.current.lab }) : null;
-  if (!rig) notFound();
+  const { row: rig } = await loadInLab(v, 'rig', rigId, 'lab:read');
   return (
     <AppPage
       viewer={v}

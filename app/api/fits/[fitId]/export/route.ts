@@ -1,16 +1,15 @@
+import { loadInLab } from '@/app/_lib/labs/load-in-lab';
 import type { FitSuccess } from '@/analysis/fit';
 import type { PerformanceTable } from '@/analysis/performance/performance-table';
 import { exportResponse, type StoredTrial } from '@/app/_lib/studies/study-export';
-import { loadFit } from '@/app/_lib/fits/fit-access';
 import { modelLabel } from '@/app/_lib/fits/fit-analysis';
 import { route } from '@/app/_lib/server/route';
-import { Rig } from '@/entities';
 
 
 /** GET: the saved fit as XLSX (Summary, Trials, Fit, Residuals, Performance) in the user's units, or one table as CSV (`?format=csv&table=Fit`). */
 export const GET = route<{ fitId: string }>({ auth: 'user' }, async (ctx) => {
-  const { fit, member } = await loadFit(ctx, 'lab:export');
-  const rig = await ctx.em.findOneOrFail(Rig, { id: fit.rig.id });
+  const { row: fit, member } = await loadInLab(ctx, 'fit', ctx.params.fitId, 'lab:export');
+  const rig = fit.rig;
   const r = fit.result as { fit: FitSuccess; performance: PerformanceTable; trials: StoredTrial[] };
   const label = modelLabel(fit.model);
   const data = {

@@ -1,10 +1,10 @@
-import { loadFit } from '@/app/_lib/fits/fit-access';
-import { review, reviewInput } from '@/app/_lib/fits/fits';
+import { loadInLab } from '@/app/_lib/labs/load-in-lab';
+import { review, reviewInput } from '@/app/_lib/review/review';
 import { json, route } from '@/app/_lib/server/route';
 
 /** POST: submit for review (authors), approve or request changes (reviewers and owners, never the fit's author). */
 export const POST = route<{ fitId: string }>({ auth: 'session' }, async (ctx) => {
-  const { fit, member } = await loadFit(ctx, 'lab:read');
+  const { row: fit, member } = await loadInLab(ctx, 'fit', ctx.params.fitId, 'lab:read');
   const input = await ctx.json(reviewInput);
   const state = await review(
     ctx.em,

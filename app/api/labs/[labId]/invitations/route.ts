@@ -1,6 +1,5 @@
-import { Invitation } from '@/entities';
 import { invitationDto } from '@/app/_lib/server/dto';
-import { invite } from '@/app/_lib/labs/labs';
+import { invitationsOf, invite } from '@/app/_lib/labs/labs';
 import { json, route } from '@/app/_lib/server/route';
 import { inviteInput } from '@/app/_lib/accounts/schemas';
 
@@ -8,7 +7,7 @@ type P = { labId: string };
 
 /** GET: invitations of the lab, newest first (owners). */
 export const GET = route<P>({ auth: 'session', labAction: 'member:manage' }, async (ctx) => {
-  const rows = await ctx.em.find(Invitation, { lab: ctx.params.labId }, { orderBy: { createdAt: 'desc' }, limit: 100 });
+  const rows = await invitationsOf(ctx.em, ctx.params.labId);
   return json({ invitations: rows.map(invitationDto) });
 });
 

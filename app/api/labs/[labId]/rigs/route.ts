@@ -1,13 +1,12 @@
-import { Rig } from '@/entities';
 import { rigDto } from '@/app/_lib/server/dto';
-import { createRig, rigInput } from '@/app/_lib/rigs/rigs';
+import { createRig, rigInput, rigsOfLab } from '@/app/_lib/rigs/rigs';
 import { json, route } from '@/app/_lib/server/route';
 
 type P = { labId: string };
 
 /** GET: the lab's rigs. */
 export const GET = route<P>({ auth: 'user', labAction: 'lab:read' }, async (ctx) => {
-  const rigs = await ctx.em.find(Rig, { lab: ctx.params.labId }, { orderBy: { name: 'asc' } });
+  const { rigs } = await rigsOfLab(ctx.em, ctx.member!.lab);
   return json({ rigs: rigs.map(rigDto) });
 });
 

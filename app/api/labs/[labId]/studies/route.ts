@@ -1,12 +1,11 @@
-import { Study } from '@/entities';
 import { json, route } from '@/app/_lib/server/route';
-import { newStudy, studyCreate, studyListDto } from '@/app/_lib/studies/studies';
+import { newStudy, studiesOfLab, studyCreate, studyListDto } from '@/app/_lib/studies/studies';
 
 type P = { labId: string };
 
 /** GET: the lab's studies with their review state. */
 export const GET = route<P>({ auth: 'user', labAction: 'lab:read' }, async (ctx) => {
-  const rows = await ctx.em.find(Study, { lab: ctx.params.labId }, { orderBy: { updatedAt: 'desc' }, limit: 200 });
+  const rows = await studiesOfLab(ctx.em, ctx.params.labId);
   return json({ studies: rows.map(studyListDto) });
 });
 

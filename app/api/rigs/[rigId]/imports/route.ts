@@ -1,7 +1,7 @@
-import { HttpError, badRequest } from '@/app/_lib/server/errors';
+import { loadInLab } from '@/app/_lib/labs/load-in-lab';
+import { DomainError, badRequest } from '@/app/_lib/server/errors';
 import { confirmImport, maxUploadBytes, previewImport, sourceFileDto, storeSpooled } from '@/app/_lib/imports/trial-sheets';
 import { confirmedMappingSchema } from '@/app/_lib/imports';
-import { loadRig } from '@/app/_lib/rigs/rigs';
 import { json, route } from '@/app/_lib/server/route';
 
 /**
@@ -10,7 +10,7 @@ import { json, route } from '@/app/_lib/server/route';
  * and imported in one go; rows with errors refuse the whole import.
  */
 export const POST = route<{ rigId: string }>({ auth: 'user', maxBodyBytes: maxUploadBytes() }, async (ctx) => {
-  const { rig, member } = await loadRig(ctx, ctx.params.rigId, 'trial:write');
+  const { row: rig, member } = await loadInLab(ctx, 'rig', ctx.params.rigId, 'trial:write');
   // streamed: the file part goes to a temporary file as it arrives (removed after the handler)
   const form = await ctx.formData({ fileFields: ['file'] });
   const part = form.files[0];
@@ -30,7 +30,7 @@ export const POST = route<{ rigId: string }>({ auth: 'user', maxBodyBytes: maxUp
     }
   } else {
     const p = await previewImport(ctx.em, member.lab, file, { sheet });
-    if (p.mappingError) throw new HttpError(422, 'bad_mapping', `${p.mappingError} Send a "mapping" field.`, { suggestion: p.suggestion });
+    if (p.mappingError) throw new DomainError('invalid', 'bad_mapping', `${p.mappingError} Send a "mapping" field.`, { suggestion: p.suggestion });
     mapping = p.mapping;
   }
   const result = await confirmImport(ctx.em, rig, file, { sheet, mapping: confirmedMappingSchema.parse(mapping), excludedLines: [] });

@@ -1,20 +1,20 @@
-import { ShareLink } from '@/entities';
+import { loadInLab } from '@/app/_lib/labs/load-in-lab';
 import { audit } from '@/app/_lib/labs/audit';
 import { json, route } from '@/app/_lib/server/route';
-import { createShare, loadStudy, shareDto, shareInput } from '@/app/_lib/studies/studies';
+import { createShare, shareDto, shareInput, sharesOfStudy } from '@/app/_lib/studies/studies';
 
 type P = { studyId: string };
 
 /** GET: the study's share links (never their tokens). */
 export const GET = route<P>({ auth: 'session' }, async (ctx) => {
-  const { study } = await loadStudy(ctx, 'share:manage');
-  const links = await ctx.em.find(ShareLink, { study }, { orderBy: { createdAt: 'desc' } });
+  const { row: study } = await loadInLab(ctx, 'study', ctx.params.studyId, 'share:manage');
+  const links = await sharesOfStudy(ctx.em, study);
   return json({ shares: links.map(shareDto) });
 });
 
 /** POST: a read-only link with an expiry; the URL is shown once. */
 export const POST = route<P>({ auth: 'session' }, async (ctx) => {
-  const { study } = await loadStudy(ctx, 'share:manage');
+  const { row: study } = await loadInLab(ctx, 'study', ctx.params.studyId, 'share:manage');
   const { days } = await ctx.json(shareInput);
   const { link, token } = await createShare(ctx.em, study, ctx.requireActor().user, days);
   await audit(ctx.em, { kind: 'share-created', actor: ctx.requireActor().user, lab: study.lab, subject: `study "${study.title}" for ${days} days`.slice(0, 300), ip: ctx.ip });

@@ -1,13 +1,13 @@
+import { loadInLab } from '@/app/_lib/labs/load-in-lab';
 import { notFound } from '@/app/_lib/server/errors';
 import { json, route } from '@/app/_lib/server/route';
 import { blockData } from '@/app/_lib/studies/study-blocks';
-import { loadStudy } from '@/app/_lib/studies/studies';
 
 type P = { studyId: string; blockId: string };
 
 /** GET: one block of the study as plain JSON (numbers, tables, server-rendered SVG) in the member's units. */
 export const GET = route<P>({ auth: 'user' }, async (ctx) => {
-  const { study, member } = await loadStudy(ctx, 'lab:read');
+  const { row: study, member } = await loadInLab(ctx, 'study', ctx.params.studyId, 'lab:read');
   const block = study.blocks.find((b) => b.id === ctx.params.blockId);
   if (!block) throw notFound('This study has no such block (it may have been deleted).');
   const units = ctx.requireActor().user.unitSystem;

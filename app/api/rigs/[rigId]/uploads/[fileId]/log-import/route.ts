@@ -1,6 +1,6 @@
+import { loadInLab } from '@/app/_lib/labs/load-in-lab';
 import { loadFile, saveLogMapping } from '@/app/_lib/imports/trial-sheets';
 import { importJobDto, startSensorImport } from '@/app/_lib/jobs/jobs';
-import { loadRig } from '@/app/_lib/rigs/rigs';
 import { json, route } from '@/app/_lib/server/route';
 import { logImportInput } from '@/app/_lib/imports/sensor-import';
 
@@ -10,7 +10,7 @@ import { logImportInput } from '@/app/_lib/imports/sensor-import';
  * mapping is saved for the lab, to be offered again for a file with the same headers.
  */
 export const POST = route<{ rigId: string; fileId: string }>({ auth: 'user', maxBodyBytes: 1024 * 1024 }, async (ctx) => {
-  const { rig, member } = await loadRig(ctx, ctx.params.rigId, 'trial:write');
+  const { row: rig, member } = await loadInLab(ctx, 'rig', ctx.params.rigId, 'trial:write');
   const file = await loadFile(ctx.em, rig, ctx.params.fileId);
   const input = await ctx.json(logImportInput);
   const job = await startSensorImport(ctx.em, rig, file, ctx.requireActor().user, input);

@@ -1,5 +1,5 @@
+import { loadInLab } from '@/app/_lib/labs/load-in-lab';
 import { loadFile } from '@/app/_lib/imports/trial-sheets';
-import { loadRig } from '@/app/_lib/rigs/rigs';
 import { route } from '@/app/_lib/server/route';
 import { openLog, previewCriteria, previewStream, segmentPreviewInput } from '@/app/_lib/imports/sensor-preview';
 
@@ -11,7 +11,7 @@ import { openLog, previewCriteria, previewStream, segmentPreviewInput } from '@/
  * starts.
  */
 export const POST = route<{ rigId: string; fileId: string }>({ auth: 'user', maxBodyBytes: 1024 * 1024 }, async (ctx) => {
-  const { rig } = await loadRig(ctx, ctx.params.rigId, 'trial:write');
+  const { row: rig } = await loadInLab(ctx, 'rig', ctx.params.rigId, 'trial:write');
   const file = await loadFile(ctx.em, rig, ctx.params.fileId);
   const input = await ctx.json(segmentPreviewInput);
   previewCriteria(input); // thresholds out of range: 422 before reading anything

@@ -1,0 +1,31 @@
+/**
+ * The shape of the house (DEVELOPERS.md "Map"): rules a newcomer can break without noticing, so a
+ * test keeps them. Common practice: each rule is written once and used by every path.
+ */
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import path from 'node:path';
+import { describe, expect, test } from 'vitest';
+
+const root = path.resolve(__dirname, '..', '..');
+function walk(dir: string, out: string[] = []): string[] {
+  for (const e of readdirSync(dir)) {
+    const p = path.join(dir, e);
+    if (statSync(p).isDirectory()) walk(p, out);
+    else if (/\.(ts|tsx)$/.test(e)) out.push(p);
+  }
+  return out;
+}
+const appFiles = walk(path.join(root, 'app'));
+const rel = (f: string) => path.relative(root, f);
+const entryPoints = appFiles.filter((f) => /(^|\/)(page|layout|route)\.tsx?$/.test(f) && !rel(f).startsWith('app/_lib/'));
+
+describe('entry points load through app/_lib', () => {
+  test('no page, layout or route file imports an entity: they call named queries and loadInLab()', () => {
+    const offenders = entryPoints.filter((f) => /from '(@\/entities|(\.\.\/)+entities)[/']/.test(readFileSync(f, 'utf8'))).map(rel);
+    expect(offenders).toEqual([]);
+  });
+  test('ids are recognised by one UUID rule (app/_lib/labs/load-in-lab.ts)', () => {
+    const offenders = appFiles.filter((f) => !f.endsWith('load-in-lab.ts') && /\[0-9a-f\](\{8\}|-\]\{36\})/.test(readFileSync(f, 'utf8'))).map(rel);
+    expect(offenders).toEqual([]);
+  });
+});
