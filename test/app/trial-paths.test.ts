@@ -4,7 +4,7 @@
  * period of a sensor log is accepted or refused alike, with the same flow, the same stored values
  * and the same message. The cases are ours; the bucket flow V / mean(t) is JCGM 100:2008 §4.2.
  */
-import { describe, expect, test } from 'vitest';
+import { beforeAll, describe, expect, test } from 'vitest';
 import { DEMO_PASSWORD, baseUrl, type Client } from './support/client';
 import { LOG_MAPPING, engineerWithRig, jobFinished, uploadRaw } from './support/sensor-logs';
 
@@ -96,9 +96,14 @@ function check(out: Outcome, c: Case) {
 }
 
 describe('the same trial meets the same rule on every path', () => {
+  let token = '';
+  beforeAll(async () => {
+    const { eng, lab } = await engineerWithRig('Trial paths token');
+    token = (await eng.post('/api/tokens', { name: 'trial paths', labId: lab.id, password: DEMO_PASSWORD })).body.secret;
+    expect(token).toMatch(/^emb_/);
+  });
   test.each(CASES.map((c) => [c.name, c] as const))('%s', async (_name, c) => {
-    const { eng, lab, rig } = await engineerWithRig('Trial paths');
-    const token = (await eng.post('/api/tokens', { name: 'trial paths', labId: lab.id, password: DEMO_PASSWORD })).body.secret;
+    const { eng, rig } = await engineerWithRig('Trial paths');
     const tag = `${c.name.replace(/\W+/g, '-')}-${Date.now().toString(36)}`;
     const api = await viaApi(eng, rig.id, c);
     const sheet = await viaSheet(eng, token, rig.id, c, tag);

@@ -73,7 +73,7 @@ describe('trials through the API', () => {
     const { eng, rig } = await engineerAndRig();
     const r = await eng.post(`/api/rigs/${rig.id}/trials`, { flow: '8 L/min', inlet: 30, outlet: 25, notes: 'swapped probes?' });
     expect(r.status).toBe(201);
-    expect(r.body.warnings[0].messages[0]).toMatch(/colder than the inlet/);
+    expect(r.body.warnings[0].messages[0]).toMatch(/below inlet 30 °C: check the sensors are not swapped/);
   });
 
   test('the table pages, sorts and filters on the server', async () => {
