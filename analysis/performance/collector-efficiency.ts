@@ -71,7 +71,7 @@ export function collectorPowerW(p: CollectorParameters, deltaTK: number, irradia
   const c = coefficients(p);
   const dT = requireFinite(deltaTK, 'deltaTK');
   const G = requireNonNegative(irradianceWPerM2, 'irradianceWPerM2');
-  return c.A * (c.eta0 * G - c.a1 * dT - c.a2 * secondOrderExcessK2(dT));
+  return usefulPowerW(c, G, dT);
 }
 
 /**
@@ -97,6 +97,11 @@ function meanExcessK(c: Coefficients, G: number, d: number, C: number): number {
   const m = Math.abs(rhs);
   const x = (2 * m) / (b + Math.sqrt(b * b + 4 * a * m));
   return Math.sign(rhs) * x;
+}
+
+/** Useful power of validated coefficients at a mean excess x = Tm − Ta, W. */
+function usefulPowerW(c: Coefficients, G: number, x: number): number {
+  return c.A * (c.eta0 * G - c.a1 * x - c.a2 * secondOrderExcessK2(x));
 }
 
 /** Operating conditions of a collector loop, SI. */
@@ -140,7 +145,8 @@ export function collectorOutlet(p: CollectorParameters, s: CollectorConditions):
   const x = meanExcessK(c, G, Tin - Ta, m * cp);
   const outletTempC = 2 * (Ta + x) - Tin;
   return {
-    outletTempC, deltaTK: x, heatW: m * cp * (outletTempC - Tin),
+    // the heat is the collector power at the balance point (= ṁ·cp·(Tout − Tin) without its cancellation)
+    outletTempC, deltaTK: x, heatW: usefulPowerW(c, G, x),
     efficiency: G > 0 ? c.eta0 - (c.a1 * x + c.a2 * secondOrderExcessK2(x)) / G : null,
     stagnationTempC: Ta + meanExcessK(c, G, 0, 0),
     cautions: temperatureCautions(outletTempC, 'outlet'),
@@ -186,6 +192,11 @@ export function solarCollectorHeater(o: SolarCollectorHeaterOptions): HeaterMode
       if (!(flowM3PerS > 0)) return stagnation;
       const C = ((rhoFixed || fastDensityKgPerM3(inletTempC)) * flowM3PerS * (cpFixed || fastCpJPerKgK(inletTempC))) / n;
       return 2 * (Ta + meanExcessK(c, G, inletTempC - Ta, C)) - inletTempC;
+    },
+    heatW(flowM3PerS: number, inletTempC: number): number {
+      if (!(flowM3PerS > 0)) return 0;
+      const C = ((rhoFixed || fastDensityKgPerM3(inletTempC)) * flowM3PerS * (cpFixed || fastCpJPerKgK(inletTempC))) / n;
+      return n * usefulPowerW(c, G, meanExcessK(c, G, inletTempC - Ta, C));
     },
   };
 }

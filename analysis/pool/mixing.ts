@@ -6,6 +6,8 @@
 import { requireFinite, requireNonNegative, requirePositive } from '../units/guards';
 import type { HeaterModel } from '../performance/heater-model';
 import { mergeCautions, temperatureCautions, type Caution } from '../safety/cautions';
+import { waterDensityKgPerM3 } from '../water/water-properties';
+import { fastCpJPerKgK, fastDensityKgPerM3 } from '../water/property-table';
 
 /** One volume of water at one temperature. */
 export interface MixPart {
@@ -69,17 +71,19 @@ export function mixingSession(o: { poolVolumeM3: number; poolTempC: number; flow
 
 /**
  * Rise per hour by flow × pool size for a heater model at the pool temperature (the heater's
- * inlet): rise/h = V̇·(T_out(V̇, T_pool) − T_pool)·3600/V.
+ * inlet): rise/h = q(V̇, T_pool)·3600/(ρ(T_pool)·V·cp(T_pool)), with the heater's heat q computed
+ * without cancellation (so at high flow it tends to the coil's ceiling UA·(Ts − T_pool)).
  * @returns rows[i][j] for flowsM3PerS[i] and poolVolumesM3[j], K/h
- * @throws RangeError for empty or non-positive lists.
- * @example risePerHourTable(coil, [1e-4, 2e-4], [20, 50], 20)
+ * @throws RangeError for empty or non-positive lists, or a pool temperature outside liquid water.
+ * @example risePerHourTable(fixedRiseHeater(10), [1e-4, 2e-4], [20, 50], 20)[0][0] // 0.18 K/h
  */
 export function risePerHourTable(heater: HeaterModel, flowsM3PerS: number[], poolVolumesM3: number[], poolTempC: number): number[][] {
   if (!flowsM3PerS.length || !poolVolumesM3.length) throw new RangeError('flowsM3PerS and poolVolumesM3 must not be empty');
   const Tp = requireFinite(poolTempC, 'poolTempC');
+  waterDensityKgPerM3(Tp, undefined, 'poolTempC'); // the range check
+  const heatCapacityPerM3 = fastDensityKgPerM3(Tp) * fastCpJPerKgK(Tp); // the same property table as the heater models
   return flowsM3PerS.map((f, i) => {
-    const q = requirePositive(f, `flowsM3PerS[${i}]`);
-    const rise = heater.outletTempC(q, Tp) - Tp;
-    return poolVolumesM3.map((v, j) => (q * rise * 3600) / requirePositive(v, `poolVolumesM3[${j}]`));
+    const heat = heater.heatW(requirePositive(f, `flowsM3PerS[${i}]`), Tp);
+    return poolVolumesM3.map((v, j) => (heat * 3600) / (heatCapacityPerM3 * requirePositive(v, `poolVolumesM3[${j}]`)));
   });
 }
