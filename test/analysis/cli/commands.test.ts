@@ -32,10 +32,14 @@ describe('volume command (contract of issue 5 item 13)', () => {
 });
 
 describe('mix command', () => {
-  test('1000 gal at 100 °F + 9000 gal at 70 °F → 73 °F', () => {
+  test('1000 gal at 100 °F + 9000 gal at 70 °F → 73 °F by the volume-weighted rule (common practice), 72.99 °F by mass and enthalpy', () => {
     const r = mix.run({ parts: [{ volume: '1000 gal', temp: '100 degF' }, { volume: '9000 gal', temp: '70 degF' }] }) as Out;
-    expect(r.temp_degF).toBeCloseTo(73, 10);
-    expect(r.temp_degC).toBeCloseTo(22.7778, 4);
+    expect(r.volumeWeighted.temp_degF).toBeCloseTo(73, 10);
+    expect(r.volumeWeighted.temp_degC).toBeCloseTo(22.7778, 4);
+    // the 100 °F water is 0.5 % lighter than the 70 °F water (IF97), so the mix lands a little lower
+    expect(r.temp_degF).toBeLessThan(73);
+    expect(r.temp_degF).toBeGreaterThan(72.98);
+    expect(r.method).toMatch(/enthalpy/);
   });
   test('a negative volume is refused', () => {
     expect(() => mix.run({ parts: [{ volume: '-1 gal', temp: '100 degF' }] })).toThrow(/parts\[0\]\.volume/);
