@@ -26,9 +26,11 @@ input (one JSON object):
   detail     optional "full" to print every statistic, diagnostic and band point
 
 output (one JSON object):
-  {"ok":true, "model":…, "params":{"b1":{"value":…,"stdErr":…,"ciLow":…,"ciHigh":…},…},
+  {"ok":true, "model":…, "params":{"b1":{"value":…,"stdErr":…,"ciLow":…,"ciHigh":…,"identifiable":true},…},
    "rss":…, "residualSD":…, "df":…, "r2":…, "aicc":…, "iterations":…, "converged":true,
    "stoppingReason":…, "warnings":[…]}
+  a parameter the data cannot determine has "identifiable":false, stdErr/ciLow/ciHigh null and a
+  warning starting "not identifiable: <name>"
   or {"ok":false, "code":…, "reason":…} when the fit cannot be done (exit code 0).
 
 exit codes: 0 result printed (ok true or false), 2 malformed input.`;
@@ -64,13 +66,16 @@ export function run(input: unknown): unknown {
 }
 
 function summary(fit: FitSuccess) {
+  const unidentified = new Set(fit.warnings.filter((w) => w.code === 'not-identifiable').map((w) => w.parameter));
   return {
     ok: true,
     model: fit.model,
     params: Object.fromEntries(
       fit.parameterNames.map((k) => {
         const p = fit.params[k];
-        return [k, { value: p.value, stdErr: p.stdErr, ciLow: p.ciLow, ciHigh: p.ciHigh }];
+        // a parameter the data cannot determine has no standard error or interval worth printing
+        if (unidentified.has(k)) return [k, { value: p.value, stdErr: null, ciLow: null, ciHigh: null, identifiable: false }];
+        return [k, { value: p.value, stdErr: p.stdErr, ciLow: p.ciLow, ciHigh: p.ciHigh, identifiable: true }];
       }),
     ),
     rss: fit.rss,

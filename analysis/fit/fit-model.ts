@@ -9,6 +9,7 @@ import { polishSolution } from './polish-solution';
 import { predictAt } from './predict-at';
 import { prepareProblem, type Problem } from './prepare-problem';
 import { groupReplicates } from './replicates';
+import { unidentifiedParameters } from './identifiability';
 import { solveProblem, type Solution } from './solve-problem';
 import type { FitFailure, FitInput, FitResult, FitSpec, FitSuccess, FitWarning, ParameterEstimate } from './types';
 
@@ -124,6 +125,13 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
         warnings.push({ code: 'high-correlation', message: `${names[i]} and ${names[j]} are strongly correlated (r = ${correlation[i][j].toFixed(3)}): the data cannot tell them apart well; report the covariance, not two separate errors` });
       }
     }
+  }
+  for (const u of unidentifiedParameters(problem, sol.p, jac, inverse, s, t)) {
+    const where = u.side === 'both' ? 'on both sides' : u.side === 'below' ? 'below the estimate' : 'above the estimate';
+    warnings.push({
+      code: 'not-identifiable', parameter: u.name,
+      message: `not identifiable: ${u.name} — the data cannot determine it: the residual sum of squares stays flat across its ${Number((level * 100).toPrecision(4))} % interval ${where}, so its standard error and interval are not meaningful; add trials that move it (for a coil: low flows for Ts, a spread of outlet temperatures for UA) or fix it`,
+    });
   }
   if (conditionNumber > ILL_CONDITIONED) warnings.push({ code: 'ill-conditioned', message: `the Jacobian is ill-conditioned (condition number ${conditionNumber.toExponential(1)}): parameters are poorly determined and sensitive to the data` });
   if (!compiled.analytic.every(Boolean)) warnings.push({ code: 'numeric-jacobian', message: `no analytic derivative for ${names.filter((_, j) => !compiled.analytic[j]).join(', ')}: central differences were used` });
