@@ -19,8 +19,9 @@ input (one JSON object):
   start      optional {name: value}; for an expression its keys are the parameters
              (without it every free symbol other than x and covariates is a parameter)
   weights    optional array of weights 1/u² (u = standard uncertainty of each y)
-  covariates optional {name: array}; coil needs Tin (°C) and takes rho (kg/m³, default 1000)
-             and cp (J/(kg·K), default 4186); exp-inlet needs Tin
+  covariates optional {name: array}; coil needs Tin (°C) and takes rho (kg/m³; default IAPWS-IF97
+             at each outlet temperature, the bucket's water) and cp (J/(kg·K); default IAPWS-IF97
+             at the mean of inlet and outlet), the same water as the coil command; exp-inlet needs Tin
   bounds     optional {name: [low, high]} (null for an open side)
   level      optional confidence level, default 0.95
   detail     optional "full" to print every statistic, diagnostic and band point

@@ -5,7 +5,7 @@
  * source temperature is known, and the temperature cautions of the outlet.
  */
 import { requireFinite, requireNonNegative, requirePositive } from '../units/guards';
-import { waterCpJPerKgK, waterDensityKgPerM3 } from '../water/water-properties';
+import { trialWaterProperties } from '../water/trial-water';
 import { trialUaWPerK } from '../performance/coil-ntu';
 import { deadHeadingCaution, mergeCautions, temperatureCautions, type Caution } from '../safety/cautions';
 
@@ -55,12 +55,9 @@ export function deriveTrial(t: TrialInput): TrialDerivation {
   if (Tout < Tin) {
     throw new RangeError(`outletTempC (${Tout}) is below inletTempC (${Tin}): inconsistent for a heater`);
   }
-  const rhoAt = t.volumeMeasuredAt === 'inlet' ? Tin : Tout;
-  const rho = t.densityKgPerM3 === undefined
-    ? waterDensityKgPerM3(rhoAt, undefined, t.volumeMeasuredAt === 'inlet' ? 'inletTempC' : 'outletTempC')
-    : requirePositive(t.densityKgPerM3, 'densityKgPerM3');
-  waterDensityKgPerM3(Tin, undefined, 'inletTempC');
-  const cp = t.cpJPerKgK === undefined ? waterCpJPerKgK((Tin + Tout) / 2) : requirePositive(t.cpJPerKgK, 'cpJPerKgK');
+  const water = trialWaterProperties(Tin, Tout, t.volumeMeasuredAt === 'inlet' ? 'inlet' : 'outlet');
+  const rho = t.densityKgPerM3 === undefined ? water.densityKgPerM3 : requirePositive(t.densityKgPerM3, 'densityKgPerM3');
+  const cp = t.cpJPerKgK === undefined ? water.cpJPerKgK : requirePositive(t.cpJPerKgK, 'cpJPerKgK');
   const m = rho * flow;
   const dT = Tout - Tin;
   let eps: number | null = null;
