@@ -34,7 +34,9 @@ output (one JSON object):
   warning starting "not identifiable: <name>"
   or {"ok":false, "code":…, "reason":…} when the fit cannot be done (exit code 0).
 
-exit codes: 0 result printed (ok true or false), 2 malformed input.`;
+exit codes: 0 result printed (ok true or false), 2 malformed input (the message on stderr):
+  not an object, x/y not arrays of numbers or of different lengths, numbers too large for double
+  precision, weights not > 0, bounds with low ≥ high, level outside (0, 1), a missing covariate.`;
 
 function checkNumbers(name: string, v: unknown): void {
   if (!Array.isArray(v)) throw new InputError(`${name} must be an array of numbers`);
@@ -58,6 +60,9 @@ export function run(input: unknown): unknown {
   }
   if (o.detail !== undefined && o.detail !== 'full') throw new InputError('detail must be "full" when given');
   const fit = fitModel(o as unknown as FitInput);
+  // malformed input (mismatched lengths, numbers that overflow, non-positive weights, bad bounds or
+  // level, a missing covariate) exits 2 as promised; a fit that cannot be done is a result
+  if (!fit.ok && fit.code === 'invalid-input') throw new InputError(fit.reason);
   if (!fit.ok) return fit;
   if (o.detail === 'full') {
     const { spec: _spec, ...rest } = fit;

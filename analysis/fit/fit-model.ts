@@ -1,4 +1,5 @@
 import { extent } from '../stats/extent';
+import { firstNonFinitePath } from '../units/guards';
 import { compensatedSum, compensatedSumOfSquares } from '../stats/compensated-sum';
 import { studentTQuantile, studentTSf } from '../stats/distributions';
 import { informationCriteria } from './information-criteria';
@@ -239,30 +240,11 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
     }
     if (from < xMin || to > xMax) warnings.push({ code: 'extrapolation', message: `the band runs outside the data range [${xMin}, ${xMax}]: predictions there are extrapolations` });
   }
-  const bad = firstNonFinite(result, 'result');
+  const bad = firstNonFinitePath(result, 'result'); // NaN never leaves fitModel
   if (bad) {
     return { ok: false, code: 'out-of-range', reason: `the statistics overflow or underflow double precision (${bad}); rescale x or y (for example to other units) and fit again` };
   }
   return result;
-}
-
-/** Path of the first NaN or ±Infinity in a plain-data value, or null: NaN never leaves fitModel. */
-function firstNonFinite(v: unknown, path: string): string | null {
-  if (typeof v === 'number') return Number.isFinite(v) ? null : path;
-  if (Array.isArray(v)) {
-    for (let i = 0; i < v.length; i++) {
-      const r = firstNonFinite(v[i], `${path}[${i}]`);
-      if (r) return r;
-    }
-    return null;
-  }
-  if (v && typeof v === 'object') {
-    for (const [k, w] of Object.entries(v)) {
-      const r = firstNonFinite(w, `${path}.${k}`);
-      if (r) return r;
-    }
-  }
-  return null;
 }
 
 /** Physical sanity of the heater built-ins (DOMAIN.md §7 item 6). */

@@ -52,7 +52,8 @@ function numberArray(name: string, v: unknown, n?: number): Float64Array | FitFa
   for (let i = 0; i < v.length; i++) {
     const e = v[i];
     if (typeof e !== 'number' || !Number.isFinite(e)) {
-      return fail('invalid-input', `${name}[${i}] is not a finite number (got ${JSON.stringify(e) ?? String(e)})`);
+      const got = typeof e === 'number' ? `${e}${Number.isNaN(e) ? '' : ': too large for double precision'}` : JSON.stringify(e) ?? String(e);
+      return fail('invalid-input', `${name}[${i}] is not a finite number (got ${got})`);
     }
     out[i] = e;
   }
