@@ -1,8 +1,7 @@
 /** `coil`: outlet temperature, heat and effectiveness of a coil in a constant-temperature source. */
-import { InputError } from './input-error';
+import { InputError, readingInput } from './input-error';
 import { minimumMassFlowKgPerS } from '../performance/coil-ntu';
 import { coilAtFlow } from '../performance/coil-at-flow';
-import { asObject, optionalQuantity, quantity } from '../units/read-fields';
 import { trialWaterProperties } from '../water/trial-water';
 import { deadHeadingCaution, mergeCautions, sourceAboveBoilingCaution, temperatureCautions } from '../safety/cautions';
 import { saturationTempC } from '../water/saturation-pressure';
@@ -19,14 +18,14 @@ output: {"outletTemp_degC", "heat_W", "effectiveness", "ntu", "massFlow_kg_per_s
 const LIMITS: [string, number][] = [['boiling', saturationTempC(101325)], ['burns in seconds', 60], ['scald', 49], ['spa', 40]];
 
 export function run(input: unknown): unknown {
-  try {
-    const o = asObject(input, 'input');
-    const Ts = quantity(o, 'sourceTemp', 'temperature');
-    const Tin = quantity(o, 'inletTemp', 'temperature');
-    const ua = quantity(o, 'UA', 'conductance');
+  return readingInput((read) => {
+    const o = read.asObject(input, 'input');
+    const Ts = read.quantity(o, 'sourceTemp', 'temperature', { as: 'sourceTempC' });
+    const Tin = read.quantity(o, 'inletTemp', 'temperature', { as: 'inletTempC' });
+    const ua = read.quantity(o, 'UA', 'conductance', { as: 'uaWPerK' });
     if ((o.flow === undefined) === (o.massFlow === undefined)) throw new InputError('give exactly one of flow (e.g. "6 L/min") and massFlow (e.g. "0.1 kg/s")');
-    const flow = optionalQuantity(o, 'flow', 'volumeFlow');
-    const massFlow = optionalQuantity(o, 'massFlow', 'massFlow');
+    const flow = read.optionalQuantity(o, 'flow', 'volumeFlow', { as: 'flowM3PerS' });
+    const massFlow = read.optionalQuantity(o, 'massFlow', 'massFlow', { as: 'massFlowKgPerS' });
     if (o.flowMeasuredAt !== undefined && o.flowMeasuredAt !== 'outlet' && o.flowMeasuredAt !== 'inlet') {
       throw new InputError(`flowMeasuredAt must be "outlet" or "inlet", got ${JSON.stringify(o.flowMeasuredAt)}`);
     }
@@ -53,8 +52,5 @@ export function run(input: unknown): unknown {
       heatCeiling_W: r.heatCeilingW, minimumFlows,
       cautions: mergeCautions(temperatureCautions(r.outletTempC, 'outlet'), boil ? [boil] : []),
     };
-  } catch (e) {
-    if (e instanceof TypeError || e instanceof RangeError) throw new InputError(e.message);
-    throw e;
-  }
+  });
 }

@@ -1,8 +1,7 @@
 /** `mix`: the mixed temperature of volumes of water. */
-import { InputError } from './input-error';
+import { InputError, readingInput } from './input-error';
 import { mixTemperatureC, volumeWeightedTempC } from '../pool/mixing';
 import { waterDensityKgPerM3 } from '../water/water-properties';
-import { asObject, quantity } from '../units/read-fields';
 import { temperatureCautions } from '../safety/cautions';
 
 export const help = `mixed temperature of volumes of water (by mass and enthalpy, IAPWS-IF97 at 1 atm, no losses)
@@ -13,14 +12,14 @@ output: {"temp_degC", "temp_degF", "totalVolume_m3", "totalMass_kg", "method",
   volumeWeighted is the trade's rule of thumb (density and cp changes neglected), for comparison only`;
 
 export function run(input: unknown): unknown {
-  try {
-    const o = asObject(input, 'input');
+  return readingInput((read) => {
+    const o = read.asObject(input, 'input');
     if (!Array.isArray(o.parts) || o.parts.length === 0) throw new InputError('parts must be a non-empty array of {volume, temp}');
     const parts = o.parts.map((p, i) => {
-      const q = asObject(p, `parts[${i}]`);
-      const volumeM3 = quantity(q, 'volume', 'volume', `parts[${i}]`);
+      const q = read.asObject(p, `parts[${i}]`);
+      const volumeM3 = read.quantity(q, 'volume', 'volume', { path: `parts[${i}]`, as: `parts[${i}].volumeM3` });
       if (volumeM3 < 0) throw new InputError(`parts[${i}].volume must not be negative, got ${JSON.stringify(q.volume)}`);
-      return { volumeM3, tempC: quantity(q, 'temp', 'temperature', `parts[${i}]`) };
+      return { volumeM3, tempC: read.quantity(q, 'temp', 'temperature', { path: `parts[${i}]`, as: `parts[${i}].tempC` }) };
     });
     const t = mixTemperatureC(parts);
     const tv = volumeWeightedTempC(parts);
@@ -31,8 +30,5 @@ export function run(input: unknown): unknown {
       volumeWeighted: { temp_degC: tv, temp_degF: tv * 1.8 + 32, note: 'rule of thumb: volume-weighted, density and cp changes neglected; for comparison only' },
       cautions: temperatureCautions(t, 'mixed water'),
     };
-  } catch (e) {
-    if (e instanceof TypeError || e instanceof RangeError) throw new InputError(e.message);
-    throw e;
-  }
+  });
 }

@@ -1,8 +1,7 @@
 /** `uncertainty`: GUM budget of a bucket-and-thermometer trial. */
-import { InputError } from './input-error';
+import { InputError, readingInput } from './input-error';
 import { heatRateBudget } from '../trial/heat-rate-budget';
 import type { Budget } from '../trial/gum-budget';
-import { asObject, optionalQuantity, plainNumber, quantity } from '../units/read-fields';
 import { parseQuantity } from '../units/parse-quantity';
 
 export const help = `GUM uncertainty budget (JCGM 100:2008) of flow and heat rate for a bucket trial
@@ -20,23 +19,27 @@ function rows(b: Budget) {
 }
 
 export function run(input: unknown): unknown {
-  try {
-    const o = asObject(input, 'input');
+  return readingInput((read) => {
+    const o = read.asObject(input, 'input');
     if (!Array.isArray(o.fillTimes) || o.fillTimes.length === 0) throw new InputError('fillTimes must be a non-empty array such as ["74.6 s"]');
-    const fillTimesS = o.fillTimes.map((t, i) => parseQuantity(t, 'time', `fillTimes[${i}]`));
+    const fillTimesS = o.fillTimes.map((t, i) => {
+      const v = parseQuantity(t, 'time', `fillTimes[${i}]`);
+      read.record(`fillTimes[${i}]`, t, v, `fillTimesS[${i}]`);
+      return v;
+    });
     const b = heatRateBudget({
-      bucketVolumeM3: quantity(o, 'bucketVolume', 'volume'),
-      volumeHalfWidthM3: optionalQuantity(o, 'volumeTolerance', 'volume'),
+      bucketVolumeM3: read.quantity(o, 'bucketVolume', 'volume', { as: 'bucketVolumeM3' }),
+      volumeHalfWidthM3: read.optionalQuantity(o, 'volumeTolerance', 'volume', { as: 'volumeHalfWidthM3' }),
       fillTimesS,
-      timingEventUncertaintyS: optionalQuantity(o, 'timingUncertainty', 'time'),
-      inletTempC: quantity(o, 'inletTemp', 'temperature'),
-      outletTempC: quantity(o, 'outletTemp', 'temperature'),
-      sensorHalfWidthK: quantity(o, 'sensorTolerance', 'temperatureDifference'),
-      sensorCorrelation: plainNumber(o, 'sensorCorrelation'),
-      densityKgPerM3: optionalQuantity(o, 'density', 'density'),
-      cpJPerKgK: optionalQuantity(o, 'cp', 'specificHeat'),
-      level: plainNumber(o, 'level'),
-      k: plainNumber(o, 'k'),
+      timingEventUncertaintyS: read.optionalQuantity(o, 'timingUncertainty', 'time', { as: 'timingEventUncertaintyS' }),
+      inletTempC: read.quantity(o, 'inletTemp', 'temperature', { as: 'inletTempC' }),
+      outletTempC: read.quantity(o, 'outletTemp', 'temperature', { as: 'outletTempC' }),
+      sensorHalfWidthK: read.quantity(o, 'sensorTolerance', 'temperatureDifference', { as: 'sensorHalfWidthK' }),
+      sensorCorrelation: read.plainNumber(o, 'sensorCorrelation'),
+      densityKgPerM3: read.optionalQuantity(o, 'density', 'density', { as: 'densityKgPerM3' }),
+      cpJPerKgK: read.optionalQuantity(o, 'cp', 'specificHeat', { as: 'cpJPerKgK' }),
+      level: read.plainNumber(o, 'level'),
+      k: read.plainNumber(o, 'k'),
     });
     return {
       flow_m3_per_s: b.flow.value, flowUc_m3_per_s: b.flow.uc, flowU_m3_per_s: b.flow.U,
@@ -45,8 +48,5 @@ export function run(input: unknown): unknown {
       density_kg_per_m3: b.densityKgPerM3, cp_J_per_kg_K: b.cpJPerKgK,
       budget: { flow: rows(b.flow), heat: rows(b.heat) },
     };
-  } catch (e) {
-    if (e instanceof TypeError || e instanceof RangeError) throw new InputError(e.message);
-    throw e;
-  }
+  });
 }

@@ -77,7 +77,7 @@ export function normaliseWeather(weather: WeatherPoint | WeatherPoint[]): Weathe
     let pa: number;
     if (w.dewPointC !== undefined) {
       const td = requireFinite(w.dewPointC, `${f}.dewPointC`);
-      if (td > ta + 1e-9) throw new RangeError(`${f}.dewPointC (${td}) must not exceed airTempC (${ta})`);
+      if (td > ta + 1e-9) throw new RangeError(`${f}.dewPointC (${td}) must not exceed ${f}.airTempC (${ta})`);
       pa = vapourPressureAtPa(td);
     } else if (w.relativeHumidity !== undefined) {
       const rh = requireInRange(w.relativeHumidity, `${f}.relativeHumidity`, 0, 1);
