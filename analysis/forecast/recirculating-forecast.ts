@@ -115,8 +115,8 @@ export interface ForecastResult {
  * Runs the forecast.
  * @throws TypeError / RangeError naming the field: missing pool size, non-positive hours or
  *   step, more work than {@link FORECAST_LIMITS} allows, negative flow, start temperature outside 0–100 °C, bad weather rows or schedules.
- * @example recirculatingForecast({ poolMassKg: 56588, startTempC: 20, hours: 24, flowM3PerS: 2e-4,
- *   heater: coilHeater({ sourceTempC: 90, uaWPerK: 500 }), losses: false }).finalTempC // ≈ 28.98
+ * @example recirculatingForecast({ poolVolumeM3: 40, startTempC: 18, hours: 24, flowM3PerS: 1.5e-4,
+ *   heater: coilHeater({ sourceTempC: 88, uaWPerK: 430 }), losses: false }).finalTempC // ≈ 28.40 (the demo lab's Stovepipe Coil A on a 40 m³ pool)
  */
 export function recirculatingForecast(input: ForecastInput): ForecastResult {
   const T0 = requireFinite(input.startTempC, 'startTempC');

@@ -27,7 +27,7 @@ const liquid = (tC: number) => Math.min(Math.max(tC, 0), 99.97);
  * @param o.measuredAt which water's volume the flow is (default 'outlet', the bucket)
  * @throws TypeError / RangeError naming the field (non-positive flow or UA, a source outside
  *   0…1000 °C, an inlet outside liquid water at 1 atm, neither or both flows).
- * @example coilAtFlow({ sourceTempC: 88, inletTempC: 17.5, uaWPerK: 430, flowM3PerS: 1.5e-4 }).outletTempC // ≈ 52.5 (the demo lab's Stovepipe Coil A at 9 L/min)
+ * @example coilAtFlow({ sourceTempC: 88, inletTempC: 17.5, uaWPerK: 430, flowM3PerS: 1.5e-4 }).outletTempC // ≈ 52.8 (the demo lab's Stovepipe Coil A at 9 L/min)
  */
 export function coilAtFlow(o: {
   sourceTempC: number; inletTempC: number; uaWPerK: number; flowM3PerS?: number; massFlowKgPerS?: number; measuredAt?: VolumeMeasuredAt;

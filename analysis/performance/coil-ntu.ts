@@ -55,8 +55,8 @@ export interface CoilResult {
  * Evaluates the ε-NTU coil.
  * @throws TypeError for non-finite inputs; RangeError for UA, ṁ or cp ≤ 0, or a source
  *   temperature outside 0…{@link MAX_SOURCE_TEMP_C} °C.
- * @example coilPerformance({ sourceTempC: 90, inletTempC: 20, uaWPerK: 500, massFlowKgPerS: 0.1, cpJPerKgK: 4186 })
- *   // { effectiveness: 0.6971, outletTempC: 68.80, heatW: 20427, heatCeilingW: 35000, … }
+ * @example coilPerformance({ sourceTempC: 88, inletTempC: 17.5, uaWPerK: 430, massFlowKgPerS: 0.15, cpJPerKgK: 4180 })
+ *   // { effectiveness: 0.4963, outletTempC: 52.49, heatW: 21939, heatCeilingW: 30315, … } (the demo lab's Stovepipe Coil A)
  */
 export function coilPerformance(s: CoilState): CoilResult {
   const Ts = requireSourceTempC(s.sourceTempC);
@@ -84,7 +84,7 @@ export function coilPerformance(s: CoilState): CoilResult {
  * @param fraction target fraction of UA·(Ts − Tin), strictly between 0 and 1
  * @returns NTU, dimensionless
  * @throws RangeError unless 0 < fraction < 1.
- * @example ntuForCeilingFraction(0.9) // 0.2146
+ * @example ntuForCeilingFraction(0.8) // 0.4642
  */
 export function ntuForCeilingFraction(fraction: number): number {
   requireFinite(fraction, 'fraction');
@@ -110,7 +110,7 @@ export function ntuForCeilingFraction(fraction: number): number {
  * @returns kg/s; 0 when Ts ≤ T_lim (no flow can push the outlet past the limit)
  * @throws RangeError when Tin ≥ T_lim (the inlet is already at or above the limit), or for
  *   UA/cp ≤ 0; TypeError for non-finite input.
- * @example minimumMassFlowKgPerS({ sourceTempC: 150, inletTempC: 20, limitTempC: 100, uaWPerK: 400, cpJPerKgK: 4186 }) // ≈ 0.1000
+ * @example minimumMassFlowKgPerS({ sourceTempC: 135, inletTempC: 17.5, limitTempC: 60, uaWPerK: 260, cpJPerKgK: 4180 }) // ≈ 0.1385 (the demo lab's Blue Ring Burner Loop)
  */
 export function minimumMassFlowKgPerS(o: {
   sourceTempC: number; inletTempC: number; limitTempC: number; uaWPerK: number; cpJPerKgK: number;
@@ -130,7 +130,7 @@ export function minimumMassFlowKgPerS(o: {
  * (DOMAIN.md §1.5 a).
  * @returns W/K
  * @throws RangeError unless Tin < Tout < Ts; TypeError for non-finite input.
- * @example trialUaWPerK({ sourceTempC: 90, inletTempC: 20, outletTempC: 68.8, massFlowKgPerS: 0.1, cpJPerKgK: 4186 }) // ≈ 500
+ * @example trialUaWPerK({ sourceTempC: 88, inletTempC: 17.5, outletTempC: 50, massFlowKgPerS: 0.15, cpJPerKgK: 4180 }) // ≈ 387.5
  */
 export function trialUaWPerK(o: {
   sourceTempC: number; inletTempC: number; outletTempC: number; massFlowKgPerS: number; cpJPerKgK: number;

@@ -65,7 +65,7 @@ function coefficients(p: CollectorParameters): Coefficients {
  * @param deltaTK Tm − Ta, K
  * @param irradianceWPerM2 G in the collector plane, W/m² (default G* = 1000)
  * @throws TypeError / RangeError naming the field.
- * @example collectorPowerW({ areaM2: 2.02, peakPowerW: 1480, a1WPerM2K: 3.51, a2WPerM2K2: 0.017 }, 30) // ≈ 1236.4
+ * @example collectorPowerW({ areaM2: 2, eta0: 0.75, a1WPerM2K: 3.5, a2WPerM2K2: 0.015 }, 20) // 1348
  */
 export function collectorPowerW(p: CollectorParameters, deltaTK: number, irradianceWPerM2 = REFERENCE_IRRADIANCE_W_PER_M2): number {
   const c = coefficients(p);
@@ -79,7 +79,7 @@ export function collectorPowerW(p: CollectorParameters, deltaTK: number, irradia
  * @param deltaTK Tm − Ta, K
  * @param irradianceWPerM2 G, W/m², > 0
  * @throws RangeError when G ≤ 0 (efficiency is undefined without sun).
- * @example collectorEfficiency({ areaM2: 2.02, eta0: 0.739, a1WPerM2K: 3.51, a2WPerM2K2: 0.017 }, 30, 1000) // ≈ 0.6184
+ * @example collectorEfficiency({ areaM2: 2, eta0: 0.75, a1WPerM2K: 3.5, a2WPerM2K2: 0.015 }, 20, 800) // 0.655
  */
 export function collectorEfficiency(p: CollectorParameters, deltaTK: number, irradianceWPerM2: number): number {
   const G = requirePositive(irradianceWPerM2, 'irradianceWPerM2');

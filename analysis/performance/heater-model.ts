@@ -48,7 +48,7 @@ export interface CoilHeaterOptions {
  * The ε-NTU coil as a HeaterModel: ṁ = ρ(Tin)·V̇, Tout = Ts − (Ts − Tin)·exp(−UA/(ṁ·cp)),
  * q = −expm1(−NTU)·ṁ·cp·(Ts − Tin).
  * @throws TypeError for non-finite Ts or UA; RangeError for UA ≤ 0 or Ts outside 0…{@link MAX_SOURCE_TEMP_C} °C.
- * @example coilHeater({ sourceTempC: 88, uaWPerK: 430 }).heatW(1.5e-4, 20) // ≈ 20.6 kW (the demo lab's Stovepipe Coil A at 9 L/min)
+ * @example coilHeater({ sourceTempC: 88, uaWPerK: 430 }).heatW(1.5e-4, 20) // ≈ 21.2 kW (the demo lab's Stovepipe Coil A at 9 L/min)
  */
 export function coilHeater(o: CoilHeaterOptions): HeaterModel {
   const Ts = requireSourceTempC(o.sourceTempC);

@@ -23,7 +23,7 @@ export interface FillResult {
  * @param o.supplyTempC supply water temperature (the heater inlet), °C
  * @param o.initialVolumeM3 water already in the tub, m³ (default 0), at `initialTempC`
  * @throws RangeError for zero flow (with the dead-heading message), negative volumes.
- * @example fillTub({ heater: coilHeater({ sourceTempC: 90, uaWPerK: 500 }), tubVolumeM3: 1.5, flowM3PerS: 2e-4, supplyTempC: 15 })
+ * @example fillTub({ heater: coilHeater({ sourceTempC: 88, uaWPerK: 430 }), tubVolumeM3: 1.5, flowM3PerS: 1.5e-4, supplyTempC: 15 }).finalTempC // ≈ 51.2
  */
 export function fillTub(o: {
   heater: HeaterModel; tubVolumeM3: number; flowM3PerS: number; supplyTempC: number; initialVolumeM3?: number; initialTempC?: number;

@@ -36,7 +36,7 @@ const partName = (p: { field?: string } | undefined, i: number) => (typeof p?.fi
  * @returns °C
  * @throws TypeError / RangeError naming the part for a negative mass, a temperature outside
  *   liquid water at 1 atm (0–100 °C), or a total mass of 0.
- * @example mixMassesTempC([{ massKg: 100, tempC: 40 }, { massKg: 300, tempC: 20 }]) // ≈ 24.99 (volume-weighted 25)
+ * @example mixMassesTempC([{ massKg: 100, tempC: 40 }, { massKg: 300, tempC: 20 }]) // ≈ 24.997 (volume-weighted 25)
  */
 export function mixMassesTempC(parts: MassPart[]): number {
   if (!Array.isArray(parts) || parts.length === 0) throw new RangeError('parts must list at least one mass of water');

@@ -46,7 +46,7 @@ export interface TrialDerivation {
  * @throws TypeError for non-finite values; RangeError for a negative flow, an outlet below the
  *   inlet ("inconsistent: outlet below inlet for a heater"), a source not above the outlet, or
  *   temperatures outside the liquid range of the water formulation.
- * @example deriveTrial({ flowM3PerS: 2.524e-4, inletTempC: 15, outletTempC: 35 }).heatW // ≈ 20,980 W
+ * @example deriveTrial({ flowM3PerS: 2.5e-4, inletTempC: 17.5, outletTempC: 45 }).heatW // ≈ 28,450 W (a 20 L bucket in 80 s, as in the demo lab)
  */
 export function deriveTrial(t: TrialInput): TrialDerivation {
   const flow = requireNonNegative(t.flowM3PerS, 'flowM3PerS');

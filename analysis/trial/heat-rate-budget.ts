@@ -48,8 +48,8 @@ export interface HeatRateBudget {
  * Builds the flow and heat-rate budgets.
  * @throws TypeError / RangeError naming the field (non-positive volume or times, outlet below
  *   inlet, temperatures outside the water formulation, |r| > 1).
- * @example heatRateBudget({ bucketVolumeM3: 0.01893, volumeHalfWidthM3: 0.00025, fillTimesS: [74.6, 75.3, 75.1],
- *   inletTempC: 15, outletTempC: 35, sensorHalfWidthK: 1, densityKgPerM3: 994, cpJPerKgK: 4180, k: 2 }).heat.U // ≈ 1750 W
+ * @example heatRateBudget({ bucketVolumeM3: 0.02, volumeHalfWidthM3: 0.0001, fillTimesS: [79.8, 80.4, 80.1],
+ *   inletTempC: 17.5, outletTempC: 45, sensorHalfWidthK: 0.5, k: 2 }).heat.U // ≈ 874 W (the demo lab's 20 L bucket)
  */
 export function heatRateBudget(o: HeatRateBudgetInput): HeatRateBudget {
   const V = requirePositive(o.bucketVolumeM3, 'bucketVolumeM3');

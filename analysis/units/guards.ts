@@ -64,7 +64,7 @@ export function requireInRange(value: unknown, field: string, min: number, max: 
 /**
  * Requires a non-empty array of finite numbers.
  * @throws TypeError when not an array or an element is not finite; RangeError when empty.
- * @example requireFiniteArray([74.6, 75.3], 'fillTimesS')
+ * @example requireFiniteArray([79.8, 80.4], 'fillTimesS')
  */
 export function requireFiniteArray(value: unknown, field: string): number[] {
   if (!Array.isArray(value) && !(value instanceof Float64Array)) {

@@ -23,7 +23,7 @@ export function asObject(value: unknown, path: string): Fields {
 /**
  * A required quantity string converted to SI (see parseQuantity).
  * @throws TypeError / RangeError naming `path.key`.
- * @example quantity({ depth: '4 ft' }, 'depth', 'length') // 1.2192
+ * @example quantity({ depth: '5 ft' }, 'depth', 'length') // 1.524
  */
 export function quantity(o: Fields, key: string, kind: QuantityKind, path = ''): number {
   const name = path ? `${path}.${key}` : key;
@@ -75,8 +75,8 @@ const escapeRegExp = (s: string) => s.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
  * Rewrites an analysis message in the user's words: every field the reader recorded is named as
  * the user wrote it, and its value, where the message echoes it (`field (v)` or `field … got v`),
  * is shown as the user wrote it, in the user's unit.
- * @example inUserWords('deepDepthM must be greater than 0, got -5.4864', [{ path: 'deepDepth', text: '-18 ft', value: -5.4864, as: 'deepDepthM' }])
- *   // 'deepDepth must be greater than 0, got "-18 ft"'
+ * @example inUserWords('deepDepthM must be greater than 0, got -1.8288', [{ path: 'deepDepth', text: '-6 ft', value: -1.8288, as: 'deepDepthM' }])
+ *   // 'deepDepth must be greater than 0, got "-6 ft"'
  */
 export function inUserWords(message: string, reads: readonly FieldRead[]): string {
   let out = message;
@@ -99,7 +99,7 @@ export function inUserWords(message: string, reads: readonly FieldRead[]): strin
 /**
  * Reads fields like the free functions above and remembers, for each, the user's path and text
  * and the analysis name of the value (`as`), so that a message an analysis function throws about
- * `deepDepthM` can be told back as the user wrote it (`deepDepth … got "-18 ft"`): see
+ * `deepDepthM` can be told back as the user wrote it (`deepDepth … got "-6 ft"`): see
  * {@link inUserWords}. One reader per command run.
  * @example const read = fieldReader(); read.quantity(o, 'deepDepth', 'length', { as: 'deepDepthM' })
  */

@@ -15,7 +15,7 @@ const n = [
  * @param tempC water temperature, °C, 0 to 373.946 (triple point region to critical point)
  * @returns pressure, Pa
  * @throws TypeError when not finite; RangeError outside 0–373.946 °C.
- * @example saturationPressurePa(26.85) // 3536.59 (IF97 Table 35: 300 K → 0.00353658941 MPa)
+ * @example saturationPressurePa(30) // ≈ 4246.7
  */
 export function saturationPressurePa(tempC: number): number {
   requireFinite(tempC, 'tempC');
@@ -41,7 +41,7 @@ export function saturationPressureUncheckedPa(tempK: number): number {
  * ϑ = T + n9/(T − n10) and the quadratic root of Eq. (30).
  * @param tempK temperature, K
  * @param out out[0] = pressure, Pa; out[1] = dp/dT, Pa/K
- * @example saturationPressureAndSlopeUnchecked(300, new Float64Array(2)) // [3536.59, 207.9]
+ * @example saturationPressureAndSlopeUnchecked(300, out) // out ≈ [3536.6, 207.9]
  */
 export function saturationPressureAndSlopeUnchecked(tempK: number, out: Float64Array): void {
   const u = tempK - n[9];

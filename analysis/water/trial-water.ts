@@ -23,7 +23,7 @@ export interface TrialWater {
  * @param measuredAt which water's volume was measured (default 'outlet': the bucket)
  * @param fields how errors name the two temperatures (default inletTempC, outletTempC)
  * @throws TypeError when not finite; RangeError naming the field for a temperature outside liquid water at 1 atm (0–100 °C).
- * @example trialWaterProperties(17.5, 52) // { densityKgPerM3: 987.1, cpJPerKgK: 4179.3 } (a Stovepipe Coil A trial of the demo lab)
+ * @example trialWaterProperties(17.5, 52) // { densityKgPerM3: 987.1, cpJPerKgK: 4179.0 } (a Stovepipe Coil A trial of the demo lab)
  */
 export function trialWaterProperties(
   inletTempC: number, outletTempC: number, measuredAt: VolumeMeasuredAt = 'outlet',
