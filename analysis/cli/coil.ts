@@ -7,8 +7,8 @@ import { deadHeadingCaution, mergeCautions, sourceAboveBoilingCaution, temperatu
 import { saturationTempC } from '../water/saturation-pressure';
 
 export const help = `coil in a constant-temperature source (effectiveness-NTU, Cr -> 0)
-input: {"sourceTemp":"90 degC","inletTemp":"20 degC","UA":"500 W/K","flow":"6 L/min"}
-  or "massFlow":"0.1 kg/s" instead of flow
+input: {"sourceTemp":"88 degC","inletTemp":"17.5 degC","UA":"430 W/K","flow":"9 L/min"}
+  or "massFlow":"0.15 kg/s" instead of flow
   the flow is the volume of outlet water (a bucket), as in the trials: mass flow with the IF97 density at the
   outlet temperature, cp at the mean of inlet and outlet, the same rule as the coil fit (so a fitted UA
   predicts the trials it came from); "flowMeasuredAt":"inlet" for a flow measured on the inlet side
@@ -23,7 +23,7 @@ export function run(input: unknown): unknown {
     const Ts = read.quantity(o, 'sourceTemp', 'temperature', { as: 'sourceTempC' });
     const Tin = read.quantity(o, 'inletTemp', 'temperature', { as: 'inletTempC' });
     const ua = read.quantity(o, 'UA', 'conductance', { as: 'uaWPerK' });
-    if ((o.flow === undefined) === (o.massFlow === undefined)) throw new InputError('give exactly one of flow (e.g. "6 L/min") and massFlow (e.g. "0.1 kg/s")');
+    if ((o.flow === undefined) === (o.massFlow === undefined)) throw new InputError('give exactly one of flow (e.g. "9 L/min") and massFlow (e.g. "0.15 kg/s")');
     const flow = read.optionalQuantity(o, 'flow', 'volumeFlow', { as: 'flowM3PerS' });
     const massFlow = read.optionalQuantity(o, 'massFlow', 'massFlow', { as: 'massFlowKgPerS' });
     if (o.flowMeasuredAt !== undefined && o.flowMeasuredAt !== 'outlet' && o.flowMeasuredAt !== 'inlet') {

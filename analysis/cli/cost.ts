@@ -6,9 +6,9 @@ import { buildCostSheet, type BuildItem } from '../cost/build-cost';
 import { payback } from '../cost/payback';
 
 export const help = `cost of useful heat, per degree of a pool, build-cost sheet and payback
-input: {"fuel":"propane","price":3.00,"efficiency":0.82,"poolVolume":"15000 gal",
+input: {"fuel":"propane","price":2.50,"efficiency":0.8,"poolVolume":"40 m^3",
         "build":{"items":[{"subassembly":"coil","description":"copper tube","quantity":1,"unitCost":120}],"taxRate":0.08},
-        "payback":{"otherFuel":"natural-gas","otherPrice":1.5,"otherEfficiency":0.82,"annualUsefulHeat":"500 therm"}}
+        "payback":{"otherFuel":"natural-gas","otherPrice":1.2,"otherEfficiency":0.85,"annualUsefulHeat":"500 therm"}}
   fuel: natural-gas ($/therm) | propane ($/gal) | electric-resistance ($/kWh) | heat-pump ($/kWh, efficiency = COP) | wood ($/cord)
   heat contents are HHV (EIA); optional "heatContent":"91452 Btu" per price unit
 output: {"cost_per_useful_therm", "cost_per_useful_kWh", "cost_per_degF", "cost_per_K", "basis", "source", "build", "payback"}`;

@@ -7,10 +7,10 @@ import type { FieldReader, Fields } from '../units/read-fields';
 import type { QuantityKind } from '../units/parse-quantity';
 
 export const help = `recirculating pool forecast: the pool feeds the heater inlet, stepped in time
-input: {"poolVolume":"15000 gal","startTemp":"20 degC","hours":24,"flow":"12 L/min",
-        "heater":{"model":"coil","sourceTemp":"90 degC","UA":"500 W/K"},"losses":false}
+input: {"poolVolume":"40 m^3","startTemp":"18 degC","hours":24,"flow":"9 L/min",
+        "heater":{"model":"coil","sourceTemp":"88 degC","UA":"430 W/K"},"losses":false}
   heater: {"model":"coil","sourceTemp","UA"} | {"model":"fixed-rise","rise":"10 K"}
-  optional: "poolMass":"56588 kg" (instead of poolVolume), "volumeTemp":"26 degC" (water temperature the volume
+  optional: "poolMass":"40000 kg" (instead of poolVolume), "volumeTemp":"26 degC" (water temperature the volume
   was measured at, default startTemp), "step":"60 s", "targetTemp":"28 degC", "thermostat":true (heater off at the target), "heaterHours":[8,...,17], "startHour":0
   losses: false | {"surfaceArea":"46.6 m^2", "weather": {"airTemp":"20 degC","relativeHumidity":0.6 | "dewPoint":"12 degC",
            "wind":"1 m/s","solar":"200 W/m^2","cloudCover":0.5,"skyTemp":"5 degC"} or an hourly array of them,

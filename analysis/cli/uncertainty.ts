@@ -5,9 +5,9 @@ import type { Budget } from '../trial/gum-budget';
 import { parseQuantity } from '../units/parse-quantity';
 
 export const help = `GUM uncertainty budget (JCGM 100:2008) of flow and heat rate for a bucket trial
-input: {"bucketVolume":"18.93 L","volumeTolerance":"0.25 L","fillTimes":["74.6 s","75.3 s","75.1 s"],
-        "timingUncertainty":"0.1 s","inletTemp":"15 degC","outletTemp":"35 degC","sensorTolerance":"1 K",
-        "sensorCorrelation":0, "density":"994 kg/m^3", "cp":"4.18 kJ/(kg K)", "level":0.95 | "k":2}
+input: {"bucketVolume":"20 L","volumeTolerance":"0.1 L","fillTimes":["79.8 s","80.4 s","80.1 s"],
+        "timingUncertainty":"0.1 s","inletTemp":"17.5 degC","outletTemp":"45 degC","sensorTolerance":"0.5 K",
+        "sensorCorrelation":0, "density":"990 kg/m^3", "cp":"4.18 kJ/(kg K)", "level":0.95 | "k":2}
   tolerances are half-widths of rectangular distributions; density and cp default to IAPWS-IF97
 output: {"flow_m3_per_s", "flowUc_m3_per_s", "heat_W", "heatUc_W", "heatU_W", "heatRelative", "k", "nuEff", "budget": [...]}`;
 
@@ -21,7 +21,7 @@ function rows(b: Budget) {
 export function run(input: unknown): unknown {
   return readingInput((read) => {
     const o = read.asObject(input, 'input');
-    if (!Array.isArray(o.fillTimes) || o.fillTimes.length === 0) throw new InputError('fillTimes must be a non-empty array such as ["74.6 s"]');
+    if (!Array.isArray(o.fillTimes) || o.fillTimes.length === 0) throw new InputError('fillTimes must be a non-empty array such as ["80 s"]');
     const fillTimesS = o.fillTimes.map((t, i) => {
       const v = parseQuantity(t, 'time', `fillTimes[${i}]`);
       read.record(`fillTimes[${i}]`, t, v, `fillTimesS[${i}]`);

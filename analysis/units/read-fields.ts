@@ -61,7 +61,7 @@ export function toArray(a: ArrayLike<number>): number[] {
 export interface FieldRead {
   /** the user's path, e.g. `losses.weather[3].airTemp` */
   path: string;
-  /** what the user wrote, e.g. `"-18 ft"` */
+  /** what the user wrote, e.g. `"-6 ft"` */
   text: unknown;
   /** the SI value read from it */
   value: number;
