@@ -39,17 +39,23 @@ const partName = (p: { field?: string } | undefined, i: number) => (typeof p?.fi
  * @example mixMassesTempC([{ massKg: 100, tempC: 40 }, { massKg: 300, tempC: 20 }]) // ≈ 24.997 (volume-weighted 25)
  */
 export function mixMassesTempC(parts: MassPart[]): number {
-  if (!Array.isArray(parts) || parts.length === 0) throw new RangeError('parts must list at least one mass of water');
-  let m = 0, mh = 0;
+  const h = weightedMean(parts, 'mass of water', (p, name) => requireNonNegative(p?.massKg, `${name}.massKg`),
+    (p, name) => waterEnthalpyJPerKg(requireFinite(p?.tempC, `${name}.tempC`), undefined, `${name}.tempC`));
+  return waterTempAtEnthalpyC(h);
+}
+
+/** Σ wᵢ·vᵢ / Σ wᵢ over the parts, each weight and value read (and checked) by the callbacks. */
+function weightedMean<P extends { field?: string }>(parts: P[], what: string, weight: (p: P, name: string) => number, value: (p: P, name: string) => number): number {
+  if (!Array.isArray(parts) || parts.length === 0) throw new RangeError(`parts must list at least one ${what}`);
+  let w = 0, wv = 0;
   parts.forEach((p, i) => {
     const name = partName(p, i);
-    const mi = requireNonNegative(p?.massKg, `${name}.massKg`);
-    const hi = waterEnthalpyJPerKg(requireFinite(p?.tempC, `${name}.tempC`), undefined, `${name}.tempC`);
-    m += mi;
-    mh += mi * hi;
+    const wi = weight(p, name);
+    w += wi;
+    wv += wi * value(p, name);
   });
-  if (!(m > 0)) throw new RangeError('the total mass of the parts must be greater than 0');
-  return waterTempAtEnthalpyC(mh / m);
+  if (!(w > 0)) throw new RangeError(`the total ${what.replace(/ of water$/, '')} of the parts must be greater than 0`);
+  return wv / w;
 }
 
 /**
@@ -80,16 +86,7 @@ export function mixTemperatureC(parts: MixPart[]): number {
  * @example volumeWeightedTempC([{ volumeM3: 1, tempC: 40 }, { volumeM3: 3, tempC: 20 }]) // 25
  */
 export function volumeWeightedTempC(parts: MixPart[]): number {
-  if (!Array.isArray(parts) || parts.length === 0) throw new RangeError('parts must list at least one volume');
-  let v = 0, vt = 0;
-  parts.forEach((p, i) => {
-    const name = partName(p, i);
-    const vi = requireNonNegative(p?.volumeM3, `${name}.volumeM3`);
-    v += vi;
-    vt += vi * requireFinite(p?.tempC, `${name}.tempC`);
-  });
-  if (!(v > 0)) throw new RangeError('the total volume of the parts must be greater than 0');
-  return vt / v;
+  return weightedMean(parts, 'volume', (p, name) => requireNonNegative(p?.volumeM3, `${name}.volumeM3`), (p, name) => requireFinite(p?.tempC, `${name}.tempC`));
 }
 
 /** Result of a mixing session. */
