@@ -42,6 +42,11 @@ export type { CoverOptions, LossOptions } from './loss-terms';
 export const MAX_SUBSTEP_CHANGE_K = 0.5;
 /** Sub-steps of one time step at most (beyond them the exponential step is still stable, only less accurate). */
 export const MAX_SUBSTEPS = 64;
+/**
+ * The heater's dq/dT and cp's slope are taken afresh once the pool has moved this much, K (the
+ * property table's spacing; for a coil with fixed cp and ρ the heater's slope is a constant).
+ */
+const SLOPE_REFRESH_K = 0.05;
 
 /** Everything the forecast needs, SI. */
 export interface ForecastInput {
@@ -171,6 +176,8 @@ export function recirculatingForecast(input: ForecastInput): ForecastResult {
   let hourIndex = -1, heaterHour = false;
   let evapK = 0, pa = 0, convK = 0, ta = 0, radK = 0, sky4 = 0, wallUA = 0, ground = 0, qSolar = 0;
   let loHour = Infinity, hiHour = -Infinity;
+  // slopes that change slowly with the pool temperature, refreshed when it has moved SLOPE_REFRESH_K
+  let heaterSlopeAtC = Number.NaN, heaterSlope = 0, cpSlopeAtC = Number.NaN, cpRelSlope = 0;
 
   for (let i = 0; i < steps; i++) {
     const hi0 = Math.floor(i / stepsPerHour);
@@ -226,9 +233,13 @@ export function recirculatingForecast(input: ForecastInput): ForecastResult {
       if (heating) {
         const vdot = massFlow > 0 ? massFlow / fastDensityKgPerM3(T) : flow;
         qH = heater.heatW(vdot, T);
-        const d = T < 50 ? 0.01 : -0.01;
-        const vdot2 = massFlow > 0 ? massFlow / fastDensityKgPerM3(T + d) : flow;
-        sH = (heater.heatW(vdot2, T + d) - qH) / d;
+        if (!(Math.abs(T - heaterSlopeAtC) <= SLOPE_REFRESH_K)) {
+          const d = T < 50 ? 0.01 : -0.01;
+          const vdot2 = massFlow > 0 ? massFlow / fastDensityKgPerM3(T + d) : flow;
+          heaterSlope = (heater.heatW(vdot2, T + d) - qH) / d;
+          heaterSlopeAtC = T;
+        }
+        sH = heaterSlope;
       }
       let qe = 0, se = 0, qc = 0, sc = 0, qr = 0, sr = 0, qw = 0, sw = 0;
       if (terms !== null) {
@@ -243,7 +254,8 @@ export function recirculatingForecast(input: ForecastInput): ForecastResult {
       const net = qH + qSolar - qe - qc - qr - qw;
       let slope = sH - se - sc - sr - sw;
       // dT/dt = net/(M·cp(T)): linearise the rate, cp included (with IF97 cp a fixed-rise heater then adds its rise exactly)
-      let rateSlope = cpFixed ? slope : slope - (net * (fastCpJPerKgK(T + 0.01) - cp)) / (0.01 * cp);
+      if (!cpFixed && !(Math.abs(T - cpSlopeAtC) <= SLOPE_REFRESH_K)) { cpRelSlope = (fastCpJPerKgK(T + 0.01) - cp) / (0.01 * cp); cpSlopeAtC = T; }
+      let rateSlope = cpFixed ? slope : slope - net * cpRelSlope;
       if (rateSlope > 0) { rateSlope = 0; slope = 0; sH = 0; se = 0; sc = 0; sr = 0; sw = 0; } // a self-heating balance: plain Euler, kept in range below
       if (nSub === 0) {
         const dTrial = Math.abs((net * dt * phi1((rateSlope * dt) / mcp)) / mcp);
