@@ -3,12 +3,17 @@
  *   npm run -s analysis -- COMMAND < input.json
  * reads one JSON object on stdin and prints one JSON object on stdout.
  * Exit codes: 0 for a result (including {"ok":false,"reason":…} for a fit that cannot be done),
- * 2 for malformed input or an unknown command.
+ * 2 for malformed input (including inputs so large that a result would not be a finite number)
+ * or an unknown command.
  *
  * Each command lives in analysis/cli/<command>.ts and exports `run(input: unknown): unknown`
  * and `help: string`. A thrown `InputError` (analysis/cli/input-error.ts) means malformed input.
+ * Every number of every result is checked here, once, to be finite (JSON would print null).
+ * The process ends by itself once stdout is flushed (`process.exitCode`, never `process.exit`,
+ * which would cut a long result written to a pipe).
  */
 import { readFileSync } from 'node:fs';
+import { nonFiniteResultMessage } from './cli/finite-result';
 
 const COMMANDS = ['fit', 'volume', 'mix', 'coil', 'forecast', 'uncertainty', 'cost', 'collector', 'plan', 'compare'] as const;
 type Command = (typeof COMMANDS)[number];
@@ -53,7 +58,13 @@ async function main(argv: string[]): Promise<number> {
     return 2;
   }
   try {
-    console.log(JSON.stringify(await mod.run(input)));
+    const result = await mod.run(input);
+    const bad = nonFiniteResultMessage(result, input);
+    if (bad) {
+      console.error(`malformed input: ${bad}`);
+      return 2;
+    }
+    process.stdout.write(`${JSON.stringify(result)}\n`);
     return 0;
   } catch (e) {
     if ((e as Error).name === 'InputError' || e instanceof TypeError || e instanceof RangeError) {
@@ -64,4 +75,6 @@ async function main(argv: string[]): Promise<number> {
   }
 }
 
-main(process.argv.slice(2)).then((code) => process.exit(code));
+main(process.argv.slice(2)).then((code) => {
+  process.exitCode = code;
+});

@@ -1,8 +1,9 @@
 /** `collector`: steady-state efficiency curve of a solar collector test (ISO 9806 form). */
-import { InputError } from './input-error';
+import { InputError, readingInput } from './input-error';
 import { collectorTest, type CollectorTrial } from '../performance/collector-test';
 import { ISO9806_STEADY_LIMITS } from '../performance/collector-steadiness';
-import { asObject, optionalQuantity, plainNumber, quantity } from '../units/read-fields';
+import type { FieldReader, Fields } from '../units/read-fields';
+import type { QuantityKind } from '../units/parse-quantity';
 
 export const help = `solar collector efficiency test (ISO 9806 steady-state form): eta0, a1, a2 from steady trials
   eta = m*cp*(Tout - Tin)/(A*G) against x = (Tm - Ta)/G, fitted as eta = eta0 - a1*x - a2*G*x^2 by (weighted)
@@ -22,55 +23,61 @@ output: {"ok":true,"eta0":{"value","stdErr","ciLow","ciHigh"},"a1_W_per_m2K":{..
 
 const est = (e: { value: number; stdErr: number; ciLow: number; ciHigh: number }, k = 1) => ({ value: e.value * k, stdErr: e.stdErr * k, ciLow: e.ciLow * k, ciHigh: e.ciHigh * k });
 
-function readTrial(v: unknown, i: number): CollectorTrial {
+function readTrial(read: FieldReader, v: unknown, i: number): CollectorTrial {
   const path = `trials[${i}]`;
-  const t = asObject(v, path);
-  const s = t.spread === undefined ? undefined : asObject(t.spread, `${path}.spread`);
+  const t = read.asObject(v, path);
+  const s = t.spread === undefined ? undefined : read.asObject(t.spread, `${path}.spread`);
+  const q = (f: Fields, key: string, kind: QuantityKind, p: string, as: string) => read.optionalQuantity(f, key, kind, { path: p, as: `${path}.${as}` });
+  const sp = `${path}.spread`;
   return {
-    irradianceWPerM2: quantity(t, 'irradiance', 'irradiance', path),
-    inletTempC: quantity(t, 'inletTemp', 'temperature', path),
-    outletTempC: quantity(t, 'outletTemp', 'temperature', path),
-    ambientTempC: quantity(t, 'ambientTemp', 'temperature', path),
-    flowM3PerS: optionalQuantity(t, 'flow', 'volumeFlow', path),
-    massFlowKgPerS: optionalQuantity(t, 'massFlow', 'massFlow', path),
-    windMPerS: optionalQuantity(t, 'wind', 'speed', path),
+    irradianceWPerM2: read.quantity(t, 'irradiance', 'irradiance', { path, as: `${path}.irradianceWPerM2` }),
+    inletTempC: read.quantity(t, 'inletTemp', 'temperature', { path, as: `${path}.inletTempC` }),
+    outletTempC: read.quantity(t, 'outletTemp', 'temperature', { path, as: `${path}.outletTempC` }),
+    ambientTempC: read.quantity(t, 'ambientTemp', 'temperature', { path, as: `${path}.ambientTempC` }),
+    flowM3PerS: q(t, 'flow', 'volumeFlow', path, 'flowM3PerS'),
+    massFlowKgPerS: q(t, 'massFlow', 'massFlow', path, 'massFlowKgPerS'),
+    windMPerS: q(t, 'wind', 'speed', path, 'windMPerS'),
     spread: s && {
-      irradianceWPerM2: optionalQuantity(s, 'irradiance', 'irradiance', `${path}.spread`),
-      ambientTempK: optionalQuantity(s, 'ambientTemp', 'temperatureDifference', `${path}.spread`),
-      inletTempK: optionalQuantity(s, 'inletTemp', 'temperatureDifference', `${path}.spread`),
-      flowRelative: plainNumber(s, 'flow', `${path}.spread`),
+      irradianceWPerM2: q(s, 'irradiance', 'irradiance', sp, 'spread.irradianceWPerM2'),
+      ambientTempK: q(s, 'ambientTemp', 'temperatureDifference', sp, 'spread.ambientTempK'),
+      inletTempK: q(s, 'inletTemp', 'temperatureDifference', sp, 'spread.inletTempK'),
+      flowRelative: read.plainNumber(s, 'flow', { path: sp, as: `${path}.spread.flowRelative` }),
     },
   };
 }
 
 export function run(input: unknown): unknown {
-  try {
-    const o = asObject(input, 'input');
-    const gross = optionalQuantity(o, 'grossArea', 'area');
-    const aperture = optionalQuantity(o, 'apertureArea', 'area');
+  return readingInput((read) => {
+    const o = read.asObject(input, 'input');
+    const gross = read.optionalQuantity(o, 'grossArea', 'area', { as: 'grossAreaM2' });
+    const aperture = read.optionalQuantity(o, 'apertureArea', 'area', { as: 'apertureAreaM2' });
     if (gross === undefined && aperture === undefined) throw new InputError('grossArea or apertureArea is required (e.g. "2 m^2")');
     if (o.areaBasis !== undefined && o.areaBasis !== 'gross' && o.areaBasis !== 'aperture') throw new InputError(`areaBasis must be "gross" or "aperture", got ${JSON.stringify(o.areaBasis)}`);
     const basis = o.areaBasis === 'aperture' || gross === undefined ? 'aperture' : 'gross';
     const area = basis === 'gross' ? gross : aperture;
     if (area === undefined) throw new InputError('areaBasis "aperture" needs apertureArea');
+    read.record(basis === 'gross' ? 'grossArea' : 'apertureArea', basis === 'gross' ? o.grossArea : o.apertureArea, area, 'areaM2');
     if (!Array.isArray(o.trials)) throw new InputError('trials must be an array of trial objects');
     if (o.trials.length > 10_000) throw new InputError(`trials: at most 10000 trials, got ${o.trials.length}`);
     if (o.order !== undefined && o.order !== 1 && o.order !== 2) throw new InputError(`order must be 1 or 2, got ${JSON.stringify(o.order)}`);
-    const fluid = o.fluid === undefined ? undefined : asObject(o.fluid, 'fluid');
-    const unc = o.uncertainty === undefined ? undefined : asObject(o.uncertainty, 'uncertainty');
+    const fluid = o.fluid === undefined ? undefined : read.asObject(o.fluid, 'fluid');
+    const unc = o.uncertainty === undefined ? undefined : read.asObject(o.uncertainty, 'uncertainty');
     const r = collectorTest({
-      trials: o.trials.map(readTrial),
+      trials: o.trials.map((t, i) => readTrial(read, t, i)),
       areaM2: area,
       areaBasis: basis,
-      fluid: fluid && { cpJPerKgK: optionalQuantity(fluid, 'cp', 'specificHeat', 'fluid'), densityKgPerM3: optionalQuantity(fluid, 'density', 'density', 'fluid') },
+      fluid: fluid && {
+        cpJPerKgK: read.optionalQuantity(fluid, 'cp', 'specificHeat', { path: 'fluid', as: 'fluid.cpJPerKgK' }),
+        densityKgPerM3: read.optionalQuantity(fluid, 'density', 'density', { path: 'fluid', as: 'fluid.densityKgPerM3' }),
+      },
       uncertainty: unc && {
-        temperatureDifferenceK: optionalQuantity(unc, 'temperatureDifference', 'temperatureDifference', 'uncertainty'),
-        flowRelative: plainNumber(unc, 'flowRelative', 'uncertainty'),
-        irradianceRelative: plainNumber(unc, 'irradianceRelative', 'uncertainty'),
+        temperatureDifferenceK: read.optionalQuantity(unc, 'temperatureDifference', 'temperatureDifference', { path: 'uncertainty', as: 'uncertainty.temperatureDifferenceK' }),
+        flowRelative: read.plainNumber(unc, 'flowRelative', { path: 'uncertainty' }),
+        irradianceRelative: read.plainNumber(unc, 'irradianceRelative', { path: 'uncertainty' }),
       },
       order: o.order as 1 | 2 | undefined,
-      level: plainNumber(o, 'level'),
-      bandIrradianceWPerM2: optionalQuantity(o, 'bandIrradiance', 'irradiance'),
+      level: read.plainNumber(o, 'level'),
+      bandIrradianceWPerM2: read.optionalQuantity(o, 'bandIrradiance', 'irradiance', { as: 'bandIrradianceWPerM2' }),
     });
     if (!r.ok) return r;
     const other = basis === 'gross' ? aperture : gross;
@@ -95,8 +102,5 @@ export function run(input: unknown): unknown {
       limits: ISO9806_STEADY_LIMITS,
       warnings: r.warnings,
     };
-  } catch (e) {
-    if (e instanceof TypeError || e instanceof RangeError) throw new InputError(e.message);
-    throw e;
-  }
+  });
 }

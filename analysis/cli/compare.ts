@@ -1,8 +1,8 @@
 /** `compare`: two heater designs from their trials — UA ratio, Ts difference and delivered heat, in words. */
-import { InputError } from './input-error';
+import { InputError, readingInput } from './input-error';
 import { compareDesigns, MAX_COMPARE_POINTS, type DeltaInterval, type DesignData } from '../compare/compare-designs';
 import { parseQuantity } from '../units/parse-quantity';
-import { asObject, optionalQuantity, plainNumber } from '../units/read-fields';
+import { asObject, plainNumber } from '../units/read-fields';
 
 export const help = `compare two designs: UA ratio, Ts difference and delivered heat with intervals, and a verdict in words
   each design is fitted on its own (default the coil model); UA_B/UA_A and Ts_B - Ts_A by the delta method
@@ -43,8 +43,8 @@ function readDesign(v: unknown, name: string): DesignData {
 const interval = (d: DeltaInterval | null) => d && { value: d.value, ciLow: d.ciLow, ciHigh: d.ciHigh, stdErr: d.stdErr, df: d.df };
 
 export function run(input: unknown): unknown {
-  try {
-    const o = asObject(input, 'input');
+  return readingInput((read) => {
+    const o = read.asObject(input, 'input');
     if (o.model !== undefined && typeof o.model !== 'string') throw new InputError('model must be a model name such as "coil"');
     if (o.labels !== undefined && (!Array.isArray(o.labels) || o.labels.length !== 2 || o.labels.some((l) => typeof l !== 'string' || l.length === 0 || l.length > 40))) throw new InputError('labels must be two names of at most 40 characters');
     if (o.flows !== undefined && (!Array.isArray(o.flows) || o.flows.length === 0 || o.flows.length > 50)) throw new InputError('flows must list 1 to 50 flows such as "10 L/min"');
@@ -60,9 +60,13 @@ export function run(input: unknown): unknown {
       a: readDesign(o.a, 'a'), b: readDesign(o.b, 'b'),
       model: o.model as string | undefined,
       labels: o.labels as [string, string] | undefined,
-      inletTempC: optionalQuantity(o, 'inletTemp', 'temperature'),
-      flowsM3PerS: (o.flows as unknown[] | undefined)?.map((f, i) => parseQuantity(f, 'volumeFlow', `flows[${i}]`)),
-      verdictFlowM3PerS: optionalQuantity(o, 'verdictFlow', 'volumeFlow'),
+      inletTempC: read.optionalQuantity(o, 'inletTemp', 'temperature', { as: 'inletTempC' }),
+      flowsM3PerS: (o.flows as unknown[] | undefined)?.map((f, i) => {
+        const v = parseQuantity(f, 'volumeFlow', `flows[${i}]`);
+        read.record(`flows[${i}]`, f, v, `flowsM3PerS[${i}]`);
+        return v;
+      }),
+      verdictFlowM3PerS: read.optionalQuantity(o, 'verdictFlow', 'volumeFlow', { as: 'verdictFlowM3PerS' }),
       flowUnit: o.flowUnit as string | undefined,
       level: plainNumber(o, 'level'),
       bootstrap,
@@ -85,8 +89,5 @@ export function run(input: unknown): unknown {
       },
       fits: r.fits, notes: r.notes,
     };
-  } catch (e) {
-    if (e instanceof TypeError || e instanceof RangeError) throw new InputError(e.message);
-    throw e;
-  }
+  });
 }

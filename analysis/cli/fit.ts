@@ -19,19 +19,24 @@ input (one JSON object):
   start      optional {name: value}; for an expression its keys are the parameters
              (without it every free symbol other than x and covariates is a parameter)
   weights    optional array of weights 1/u² (u = standard uncertainty of each y)
-  covariates optional {name: array}; coil needs Tin (°C) and takes rho (kg/m³, default 1000)
-             and cp (J/(kg·K), default 4186); exp-inlet needs Tin
+  covariates optional {name: array}; coil needs Tin (°C) and takes rho (kg/m³; default IAPWS-IF97
+             at each outlet temperature, the bucket's water) and cp (J/(kg·K); default IAPWS-IF97
+             at the mean of inlet and outlet), the same water as the coil command; exp-inlet needs Tin
   bounds     optional {name: [low, high]} (null for an open side)
   level      optional confidence level, default 0.95
   detail     optional "full" to print every statistic, diagnostic and band point
 
 output (one JSON object):
-  {"ok":true, "model":…, "params":{"b1":{"value":…,"stdErr":…,"ciLow":…,"ciHigh":…},…},
+  {"ok":true, "model":…, "params":{"b1":{"value":…,"stdErr":…,"ciLow":…,"ciHigh":…,"identifiable":true},…},
    "rss":…, "residualSD":…, "df":…, "r2":…, "aicc":…, "iterations":…, "converged":true,
    "stoppingReason":…, "warnings":[…]}
+  a parameter the data cannot determine has "identifiable":false, stdErr/ciLow/ciHigh null and a
+  warning starting "not identifiable: <name>"
   or {"ok":false, "code":…, "reason":…} when the fit cannot be done (exit code 0).
 
-exit codes: 0 result printed (ok true or false), 2 malformed input.`;
+exit codes: 0 result printed (ok true or false), 2 malformed input (the message on stderr):
+  not an object, x/y not arrays of numbers or of different lengths, numbers too large for double
+  precision, weights not > 0, bounds with low ≥ high, level outside (0, 1), a missing covariate.`;
 
 function checkNumbers(name: string, v: unknown): void {
   if (!Array.isArray(v)) throw new InputError(`${name} must be an array of numbers`);
@@ -55,6 +60,9 @@ export function run(input: unknown): unknown {
   }
   if (o.detail !== undefined && o.detail !== 'full') throw new InputError('detail must be "full" when given');
   const fit = fitModel(o as unknown as FitInput);
+  // malformed input (mismatched lengths, numbers that overflow, non-positive weights, bad bounds or
+  // level, a missing covariate) exits 2 as promised; a fit that cannot be done is a result
+  if (!fit.ok && fit.code === 'invalid-input') throw new InputError(fit.reason);
   if (!fit.ok) return fit;
   if (o.detail === 'full') {
     const { spec: _spec, ...rest } = fit;
@@ -64,13 +72,16 @@ export function run(input: unknown): unknown {
 }
 
 function summary(fit: FitSuccess) {
+  const unidentified = new Set(fit.warnings.filter((w) => w.code === 'not-identifiable').map((w) => w.parameter));
   return {
     ok: true,
     model: fit.model,
     params: Object.fromEntries(
       fit.parameterNames.map((k) => {
         const p = fit.params[k];
-        return [k, { value: p.value, stdErr: p.stdErr, ciLow: p.ciLow, ciHigh: p.ciHigh }];
+        // a parameter the data cannot determine has no standard error or interval worth printing
+        if (unidentified.has(k)) return [k, { value: p.value, stdErr: null, ciLow: null, ciHigh: null, identifiable: false }];
+        return [k, { value: p.value, stdErr: p.stdErr, ciLow: p.ciLow, ciHigh: p.ciHigh, identifiable: true }];
       }),
     ),
     rss: fit.rss,

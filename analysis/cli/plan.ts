@@ -1,10 +1,10 @@
 /** `plan`: a locally D-optimal test session for a heater model, safe against an outlet limit. */
-import { InputError } from './input-error';
+import { InputError, readingInput } from './input-error';
 import { BUILTIN_MODELS } from '../fit';
 import { MAX_PLAN_TRIALS, planSession, type PlanPrior } from '../plan/plan-session';
 import { PLANNABLE_MODELS } from '../plan/model-response';
 import { parseQuantity, type QuantityKind } from '../units/parse-quantity';
-import { asObject, optionalQuantity, plainNumber, quantity } from '../units/read-fields';
+import { asObject, plainNumber } from '../units/read-fields';
 
 export const help = `test-session plan: flows, order and purpose of each run (locally D-optimal at a prior)
 input: {"model":"coil","prior":{"Ts":"90 degC","UA":"400 W/K"},"inletTemp":"15 degC",
@@ -39,8 +39,8 @@ function readPrior(v: unknown, model: string): PlanPrior {
 }
 
 export function run(input: unknown): unknown {
-  try {
-    const o = asObject(input, 'input');
+  return readingInput((read) => {
+    const o = read.asObject(input, 'input');
     if (typeof o.model !== 'string' || !(PLANNABLE_MODELS as readonly string[]).includes(o.model)) throw new InputError(`model must be one of ${PLANNABLE_MODELS.join(', ')}, got ${JSON.stringify(o.model)}`);
     if (!Array.isArray(o.flowRange) || o.flowRange.length !== 2) throw new InputError('flowRange must be [low, high], e.g. ["2 L/min", "20 L/min"]');
     const trials = plainNumber(o, 'trials');
@@ -48,11 +48,15 @@ export function run(input: unknown): unknown {
     const r = planSession({
       model: o.model,
       prior: readPrior(o.prior, o.model),
-      inletTempC: quantity(o, 'inletTemp', 'temperature'),
-      flowRangeM3PerS: [parseQuantity(o.flowRange[0], 'volumeFlow', 'flowRange[0]'), parseQuantity(o.flowRange[1], 'volumeFlow', 'flowRange[1]')],
-      maxOutletTempC: quantity(o, 'maxOutletTemp', 'temperature'),
+      inletTempC: read.quantity(o, 'inletTemp', 'temperature', { as: 'inletTempC' }),
+      flowRangeM3PerS: [0, 1].map((k) => {
+        const v = parseQuantity((o.flowRange as unknown[])[k], 'volumeFlow', `flowRange[${k}]`);
+        read.record(`flowRange[${k}]`, (o.flowRange as unknown[])[k], v, `flowRangeM3PerS[${k}]`);
+        return v;
+      }) as [number, number],
+      maxOutletTempC: read.quantity(o, 'maxOutletTemp', 'temperature', { as: 'maxOutletTempC' }),
       trials,
-      measurementUK: optionalQuantity(o, 'measurementU', 'temperatureDifference'),
+      measurementUK: read.optionalQuantity(o, 'measurementU', 'temperatureDifference', { as: 'measurementUK' }),
       seed: plainNumber(o, 'seed'),
       level: plainNumber(o, 'level'),
       distinctFlows: plainNumber(o, 'distinctFlows'),
@@ -74,8 +78,5 @@ export function run(input: unknown): unknown {
       closedFormMinimumFlow_m3_per_s: r.closedFormMinimumFlowM3PerS,
       prior: r.prior, measurementU_K: r.measurementUK, level: r.level, seed: r.seed, notes: r.notes, cautions: r.cautions,
     };
-  } catch (e) {
-    if (e instanceof TypeError || e instanceof RangeError) throw new InputError(e.message);
-    throw e;
-  }
+  });
 }

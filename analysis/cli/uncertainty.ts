@@ -1,14 +1,13 @@
 /** `uncertainty`: GUM budget of a bucket-and-thermometer trial. */
-import { InputError } from './input-error';
+import { InputError, readingInput } from './input-error';
 import { heatRateBudget } from '../trial/heat-rate-budget';
 import type { Budget } from '../trial/gum-budget';
-import { asObject, optionalQuantity, plainNumber, quantity } from '../units/read-fields';
 import { parseQuantity } from '../units/parse-quantity';
 
 export const help = `GUM uncertainty budget (JCGM 100:2008) of flow and heat rate for a bucket trial
-input: {"bucketVolume":"18.93 L","volumeTolerance":"0.25 L","fillTimes":["74.6 s","75.3 s","75.1 s"],
-        "timingUncertainty":"0.1 s","inletTemp":"15 degC","outletTemp":"35 degC","sensorTolerance":"1 K",
-        "sensorCorrelation":0, "density":"994 kg/m^3", "cp":"4.18 kJ/(kg K)", "level":0.95 | "k":2}
+input: {"bucketVolume":"20 L","volumeTolerance":"0.1 L","fillTimes":["79.8 s","80.4 s","80.1 s"],
+        "timingUncertainty":"0.1 s","inletTemp":"17.5 degC","outletTemp":"45 degC","sensorTolerance":"0.5 K",
+        "sensorCorrelation":0, "density":"990 kg/m^3", "cp":"4.18 kJ/(kg K)", "level":0.95 | "k":2}
   tolerances are half-widths of rectangular distributions; density and cp default to IAPWS-IF97
 output: {"flow_m3_per_s", "flowUc_m3_per_s", "heat_W", "heatUc_W", "heatU_W", "heatRelative", "k", "nuEff", "budget": [...]}`;
 
@@ -20,23 +19,27 @@ function rows(b: Budget) {
 }
 
 export function run(input: unknown): unknown {
-  try {
-    const o = asObject(input, 'input');
-    if (!Array.isArray(o.fillTimes) || o.fillTimes.length === 0) throw new InputError('fillTimes must be a non-empty array such as ["74.6 s"]');
-    const fillTimesS = o.fillTimes.map((t, i) => parseQuantity(t, 'time', `fillTimes[${i}]`));
+  return readingInput((read) => {
+    const o = read.asObject(input, 'input');
+    if (!Array.isArray(o.fillTimes) || o.fillTimes.length === 0) throw new InputError('fillTimes must be a non-empty array such as ["80 s"]');
+    const fillTimesS = o.fillTimes.map((t, i) => {
+      const v = parseQuantity(t, 'time', `fillTimes[${i}]`);
+      read.record(`fillTimes[${i}]`, t, v, `fillTimesS[${i}]`);
+      return v;
+    });
     const b = heatRateBudget({
-      bucketVolumeM3: quantity(o, 'bucketVolume', 'volume'),
-      volumeHalfWidthM3: optionalQuantity(o, 'volumeTolerance', 'volume'),
+      bucketVolumeM3: read.quantity(o, 'bucketVolume', 'volume', { as: 'bucketVolumeM3' }),
+      volumeHalfWidthM3: read.optionalQuantity(o, 'volumeTolerance', 'volume', { as: 'volumeHalfWidthM3' }),
       fillTimesS,
-      timingEventUncertaintyS: optionalQuantity(o, 'timingUncertainty', 'time'),
-      inletTempC: quantity(o, 'inletTemp', 'temperature'),
-      outletTempC: quantity(o, 'outletTemp', 'temperature'),
-      sensorHalfWidthK: quantity(o, 'sensorTolerance', 'temperatureDifference'),
-      sensorCorrelation: plainNumber(o, 'sensorCorrelation'),
-      densityKgPerM3: optionalQuantity(o, 'density', 'density'),
-      cpJPerKgK: optionalQuantity(o, 'cp', 'specificHeat'),
-      level: plainNumber(o, 'level'),
-      k: plainNumber(o, 'k'),
+      timingEventUncertaintyS: read.optionalQuantity(o, 'timingUncertainty', 'time', { as: 'timingEventUncertaintyS' }),
+      inletTempC: read.quantity(o, 'inletTemp', 'temperature', { as: 'inletTempC' }),
+      outletTempC: read.quantity(o, 'outletTemp', 'temperature', { as: 'outletTempC' }),
+      sensorHalfWidthK: read.quantity(o, 'sensorTolerance', 'temperatureDifference', { as: 'sensorHalfWidthK' }),
+      sensorCorrelation: read.plainNumber(o, 'sensorCorrelation'),
+      densityKgPerM3: read.optionalQuantity(o, 'density', 'density', { as: 'densityKgPerM3' }),
+      cpJPerKgK: read.optionalQuantity(o, 'cp', 'specificHeat', { as: 'cpJPerKgK' }),
+      level: read.plainNumber(o, 'level'),
+      k: read.plainNumber(o, 'k'),
     });
     return {
       flow_m3_per_s: b.flow.value, flowUc_m3_per_s: b.flow.uc, flowU_m3_per_s: b.flow.U,
@@ -45,8 +48,5 @@ export function run(input: unknown): unknown {
       density_kg_per_m3: b.densityKgPerM3, cp_J_per_kg_K: b.cpJPerKgK,
       budget: { flow: rows(b.flow), heat: rows(b.heat) },
     };
-  } catch (e) {
-    if (e instanceof TypeError || e instanceof RangeError) throw new InputError(e.message);
-    throw e;
-  }
+  });
 }

@@ -1,7 +1,6 @@
 /** `volume`: water volume and surface area of a pool or tub from dimensions with units. */
-import { InputError } from './input-error';
+import { InputError, readingInput } from './input-error';
 import { poolGeometry, type PoolDimensions, type PoolShape } from '../pool/pool-geometry';
-import { asObject, optionalQuantity } from '../units/read-fields';
 import { convert } from '../units/parse-quantity';
 import { energyPerDegreeJPerK } from '../pool/energy-per-degree';
 
@@ -14,30 +13,28 @@ output: {"volume_m3", "area_m2", "volume_gal", "area_ft2", "meanDepth_m", "energ
 const SHAPES = ['round', 'rectangle', 'ellipse', 'stadium', 'kidney'];
 
 export function run(input: unknown): unknown {
-  try {
-    const o = asObject(input, 'input');
+  return readingInput((read) => {
+    const o = read.asObject(input, 'input');
     if (typeof o.shape !== 'string' || !SHAPES.includes(o.shape)) {
       throw new InputError(`shape must be one of ${SHAPES.join(', ')}, got ${JSON.stringify(o.shape)}`);
     }
+    const length = (key: string, as: string) => read.optionalQuantity(o, key, 'length', { as });
     const d: PoolDimensions = {
       shape: o.shape as PoolShape,
-      diameterM: optionalQuantity(o, 'diameter', 'length'),
-      lengthM: optionalQuantity(o, 'length', 'length'),
-      widthM: optionalQuantity(o, 'width', 'length'),
-      width2M: optionalQuantity(o, 'width2', 'length'),
-      depthM: optionalQuantity(o, 'depth', 'length'),
-      shallowDepthM: optionalQuantity(o, 'shallowDepth', 'length'),
-      deepDepthM: optionalQuantity(o, 'deepDepth', 'length'),
-      enteredVolumeM3: optionalQuantity(o, 'volume', 'volume'),
-      enteredAreaM2: optionalQuantity(o, 'area', 'area'),
+      diameterM: length('diameter', 'diameterM'),
+      lengthM: length('length', 'lengthM'),
+      widthM: length('width', 'widthM'),
+      width2M: length('width2', 'width2M'),
+      depthM: length('depth', 'depthM'),
+      shallowDepthM: length('shallowDepth', 'shallowDepthM'),
+      deepDepthM: length('deepDepth', 'deepDepthM'),
+      enteredVolumeM3: read.optionalQuantity(o, 'volume', 'volume', { as: 'enteredVolumeM3' }),
+      enteredAreaM2: read.optionalQuantity(o, 'area', 'area', { as: 'enteredAreaM2' }),
     };
     const g = poolGeometry(d);
     return {
       volume_m3: g.volumeM3, area_m2: g.areaM2, volume_gal: convert(g.volumeM3, 'm^3', 'gal'), area_ft2: convert(g.areaM2, 'm^2', 'ft^2'),
       meanDepth_m: g.meanDepthM, energyPerDegree_J_per_K: energyPerDegreeJPerK(g.volumeM3), method: g.volumeMethod, notes: g.notes,
     };
-  } catch (e) {
-    if (e instanceof TypeError || e instanceof RangeError) throw new InputError(e.message);
-    throw e;
-  }
+  });
 }

@@ -23,7 +23,7 @@ export interface FuelEfficiency {
  * @param basis which heating value that is
  * @param grossToNet HHV/LHV of the fuel (1.105 natural gas, 1.088 propane), when known
  * @throws RangeError for non-positive fuel quantity or heating value, negative delivered energy.
- * @example fuelEfficiency(300e6, 9.07, 50e6, 'HHV', 1.088).efficiency // 0.66
+ * @example fuelEfficiency(300e6, 10, 50e6, 'HHV').efficiency // 0.6
  */
 export function fuelEfficiency(
   deliveredJ: number, fuelQuantity: number, heatingValueJPerUnit: number, basis: 'HHV' | 'LHV', grossToNet?: number,

@@ -61,7 +61,7 @@ export const FUELS: Record<FuelKind, FuelInfo> = {
  * @param moistureFraction moisture as a fraction of wet mass, 0–1
  * @param hydrogenFraction hydrogen as a fraction of dry mass (about 0.06)
  * @returns MJ/kg wet basis
- * @example woodNetCalorificValueMJPerKg(19.8, 0.2, 0.06) // 14.3
+ * @example woodNetCalorificValueMJPerKg(19, 0.25, 0.06) // ≈ 12.6
  */
 export function woodNetCalorificValueMJPerKg(gcvMJPerKg: number, moistureFraction: number, hydrogenFraction = 0.06): number {
   if (!(gcvMJPerKg > 0)) throw new RangeError(`gcvMJPerKg must be greater than 0, got ${gcvMJPerKg}`);

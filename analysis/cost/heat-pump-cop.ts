@@ -27,7 +27,7 @@ export interface CopAtAir {
  * @param airTempC air temperature, °C
  * @throws TypeError for a non-array or non-finite entry; RangeError for an empty table, COP ≤ 0
  *   or a repeated air temperature (each names the row).
- * @example copAtAirTemp([{ airTempC: 10, cop: 4 }, { airTempC: 27, cop: 6 }], 20).cop // ≈ 5.18
+ * @example copAtAirTemp([{ airTempC: 5, cop: 3 }, { airTempC: 25, cop: 5 }], 15).cop // 4
  */
 export function copAtAirTemp(table: CopPoint[], airTempC: number): CopAtAir {
   if (!Array.isArray(table)) throw new TypeError('copTable must be an array of { airTempC, cop } rows');

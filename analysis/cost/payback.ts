@@ -23,7 +23,7 @@ export interface Payback {
  * @param o.perUsefulThermThis / perUsefulThermOther running cost per useful therm
  * @param o.lifeYears assumed life for the capital-per-therm figure
  * @throws RangeError for negative costs or non-positive heat or life.
- * @example payback({ capitalCost: 600, annualUsefulHeatJ: 500 * 105.5e6, perUsefulThermThis: 0.4, perUsefulThermOther: 1.83 }).years // ≈ 0.84
+ * @example payback({ capitalCost: 800, annualUsefulHeatJ: 400 * 105.5e6, perUsefulThermThis: 0.9, perUsefulThermOther: 2.5 }).years // ≈ 1.25
  */
 export function payback(o: {
   capitalCost: number; annualUsefulHeatJ: number; perUsefulThermThis: number; perUsefulThermOther: number; lifeYears?: number;

@@ -44,8 +44,8 @@ export interface UsefulHeatCost {
  * @throws TypeError / RangeError naming the field: negative price, efficiency outside (0, 1]
  *   for a burner or resistance heater, COP ≤ 0, heat content ≤ 0, unknown fuel; a `copTable`
  *   for another fuel, with `efficiency` too, or without `airTempC`.
- * @example usefulHeatCost({ fuel: 'heat-pump', pricePerUnit: 0.15, efficiency: 5 }).perUsefulTherm // 0.879
- * @example usefulHeatCost({ fuel: 'heat-pump', pricePerUnit: 0.15, copTable: [{ airTempC: 10, cop: 4 }, { airTempC: 27, cop: 6 }], airTempC: 27 }).perUsefulTherm // 0.733
+ * @example usefulHeatCost({ fuel: 'heat-pump', pricePerUnit: 0.2, efficiency: 4 }).perUsefulTherm // ≈ 1.465
+ * @example usefulHeatCost({ fuel: 'heat-pump', pricePerUnit: 0.2, copTable: [{ airTempC: 5, cop: 3 }, { airTempC: 25, cop: 5 }], airTempC: 25 }).perUsefulTherm // ≈ 1.172
  */
 export function usefulHeatCost(i: UsefulHeatCostInput): UsefulHeatCost {
   const info = FUELS[i.fuel];
@@ -73,7 +73,7 @@ export function usefulHeatCost(i: UsefulHeatCostInput): UsefulHeatCost {
  * @param perUsefulTherm cost of one useful therm
  * @param tempC water temperature for ρ and cp, °C (default 25)
  * @returns { perDegF, perK }
- * @example costPerDegree(56.78, 1.83) // { perDegF: 2.29, … } (15,000 gal, gas)
+ * @example costPerDegree(40, 2) // { perDegF: 1.756, perK: 3.162 }
  */
 export function costPerDegree(volumeM3: number, perUsefulTherm: number, tempC = 25): { perDegF: number; perK: number } {
   const c = requireNonNegative(perUsefulTherm, 'perUsefulTherm');
@@ -83,7 +83,7 @@ export function costPerDegree(volumeM3: number, perUsefulTherm: number, tempC = 
 
 /**
  * Useful heat implied by a fuel bill: therms bought × η.
- * @example usefulThermsFromBill(2810, 1, 0.8) // 2248 (DOE Atlanta cover table, check value #15)
+ * @example usefulThermsFromBill(1200, 1.5, 0.8) // 640
  */
 export function usefulThermsFromBill(billCost: number, pricePerTherm: number, efficiency: number): number {
   return (requireNonNegative(billCost, 'billCost') / requirePositive(pricePerTherm, 'pricePerTherm')) * requirePositive(efficiency, 'efficiency');
@@ -91,7 +91,7 @@ export function usefulThermsFromBill(billCost: number, pricePerTherm: number, ef
 
 /**
  * Fractional saving of `after` against `before`.
- * @example savingFraction(2810, 530) // 0.811
+ * @example savingFraction(1000, 250) // 0.75
  */
 export function savingFraction(before: number, after: number): number {
   const b = requirePositive(before, 'before');

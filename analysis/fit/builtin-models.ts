@@ -1,5 +1,6 @@
 import { extent } from '../stats/extent';
 import { linearLeastSquares } from './linear-least-squares';
+import { trialWaterProperties } from '../water/trial-water';
 
 /** Data a built-in start-value rule sees (covariates already filled with their defaults). */
 export interface StartData {
@@ -17,8 +18,11 @@ export interface BuiltinModel {
   parameterUnits: Record<string, string>;
   /** covariates the model needs on every point */
   requiredCovariates: string[];
-  /** covariates with a documented default used only when the input does not give them */
-  defaultCovariates: Record<string, number>;
+  /**
+   * covariates computed from the data when the input does not give them, with the words that
+   * say how (the coil's rho and cp: IAPWS-IF97 at each trial's temperatures)
+   */
+  derivedCovariates?: { names: string[]; how: Record<string, string>; derive(data: StartData): Record<string, Float64Array> };
   /** what the data must satisfy, in words, shown when the model cannot be evaluated */
   requirement?: string;
   /** every x must be > 0 (flows for the coil; the power law) */
@@ -29,10 +33,22 @@ export interface BuiltinModel {
   starts(data: StartData): number[][];
 }
 
-/** Water density used by `coil` only when the input gives no `rho` covariate (kg/m³; 1 kg/L, common practice). */
-export const DEFAULT_RHO_KG_PER_M3 = 1000;
-/** Specific heat used by `coil` only when the input gives no `cp` covariate (J/(kg·K); DOMAIN.md §1.2 worked numbers). */
-export const DEFAULT_CP_J_PER_KG_K = 4186;
+/**
+ * The coil's rho and cp when the input does not give them: the trial water properties of every
+ * point (analysis/water/trial-water.ts: ρ at the outlet, the bucket's water; cp at the mean of
+ * inlet and outlet), the same rule as the `coil` command, so UA agrees between the two.
+ * @throws RangeError naming the point whose temperature is outside liquid water at 1 atm.
+ */
+function coilWater({ y, covariates }: StartData): Record<string, Float64Array> {
+  const tin = covariates.Tin;
+  const rho = new Float64Array(y.length), cp = new Float64Array(y.length);
+  for (let i = 0; i < y.length; i++) {
+    const w = trialWaterProperties(tin[i], y[i], 'outlet', { inlet: `covariates.Tin[${i}]`, outlet: `y[${i}]` });
+    rho[i] = w.densityKgPerM3;
+    cp[i] = w.cpJPerKgK;
+  }
+  return { rho, cp };
+}
 
 const mean = (v: ArrayLike<number>) => {
   let s = 0;
@@ -131,7 +147,11 @@ export const BUILTIN_MODELS: Record<string, BuiltinModel> = {
     requirement: 'the coil model needs every flow x > 0 (m³/s)',
     positiveX: true,
     requiredCovariates: ['Tin'],
-    defaultCovariates: { rho: DEFAULT_RHO_KG_PER_M3, cp: DEFAULT_CP_J_PER_KG_K },
+    derivedCovariates: {
+      names: ['rho', 'cp'],
+      how: { rho: 'IAPWS-IF97 density at each outlet temperature (the bucket holds outlet water)', cp: 'IAPWS-IF97 cp at the mean of each inlet and outlet temperature' },
+      derive: coilWater,
+    },
     starts: coilStarts,
   },
   'exp-approach': {
@@ -141,7 +161,6 @@ export const BUILTIN_MODELS: Record<string, BuiltinModel> = {
     parameters: ['Tinf', 'A', 'k'],
     parameterUnits: { Tinf: '°C', A: 'K', k: 's/m³' },
     requiredCovariates: [],
-    defaultCovariates: {},
     starts: expApproachStarts,
   },
   'exp-inlet': {
@@ -151,7 +170,6 @@ export const BUILTIN_MODELS: Record<string, BuiltinModel> = {
     parameters: ['A', 'k'],
     parameterUnits: { A: 'K', k: 's/m³' },
     requiredCovariates: ['Tin'],
-    defaultCovariates: {},
     starts: expInletStarts,
   },
   poly1: polynomial(1),
@@ -166,7 +184,6 @@ export const BUILTIN_MODELS: Record<string, BuiltinModel> = {
     parameters: ['a', 'b'],
     parameterUnits: { a: 'unit of y per (unit of x)^b', b: '1' },
     requiredCovariates: [],
-    defaultCovariates: {},
     starts: powerStarts,
   },
 };
@@ -181,7 +198,6 @@ function polynomial(degree: number): BuiltinModel {
     parameters,
     parameterUnits: Object.fromEntries(parameters.map((b, k) => [b, `unit of y per (unit of x)^${k}`])),
     requiredCovariates: [],
-    defaultCovariates: {},
     polynomialDegree: degree,
     starts: () => [],
   };

@@ -1,4 +1,5 @@
 import { extent } from '../stats/extent';
+import { firstNonFinitePath } from '../units/guards';
 import { compensatedSum, compensatedSumOfSquares } from '../stats/compensated-sum';
 import { studentTQuantile, studentTSf } from '../stats/distributions';
 import { informationCriteria } from './information-criteria';
@@ -9,6 +10,7 @@ import { polishSolution } from './polish-solution';
 import { predictAt } from './predict-at';
 import { prepareProblem, type Problem } from './prepare-problem';
 import { groupReplicates } from './replicates';
+import { unidentifiedParameters } from './identifiability';
 import { solveProblem, type Solution } from './solve-problem';
 import type { FitFailure, FitInput, FitResult, FitSpec, FitSuccess, FitWarning, ParameterEstimate } from './types';
 
@@ -125,6 +127,13 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
       }
     }
   }
+  for (const u of unidentifiedParameters(problem, sol.p, jac, inverse, s, t)) {
+    const where = u.side === 'both' ? 'on both sides' : u.side === 'below' ? 'below the estimate' : 'above the estimate';
+    warnings.push({
+      code: 'not-identifiable', parameter: u.name,
+      message: `not identifiable: ${u.name} — the data cannot determine it: the residual sum of squares stays flat across its ${Number((level * 100).toPrecision(4))} % interval ${where}, so its standard error and interval are not meaningful; add trials that move it (for a coil: low flows for Ts, a spread of outlet temperatures for UA) or fix it`,
+    });
+  }
   if (conditionNumber > ILL_CONDITIONED) warnings.push({ code: 'ill-conditioned', message: `the Jacobian is ill-conditioned (condition number ${conditionNumber.toExponential(1)}): parameters are poorly determined and sensitive to the data` });
   if (!compiled.analytic.every(Boolean)) warnings.push({ code: 'numeric-jacobian', message: `no analytic derivative for ${names.filter((_, j) => !compiled.analytic[j]).join(', ')}: central differences were used` });
   if (!problem.userStart && !problem.builtin) warnings.push({ code: 'auto-start', message: `no start values given: ${sol.startsTried} automatic starting points were tried and the best fit kept; check it is the one you expect` });
@@ -231,30 +240,11 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
     }
     if (from < xMin || to > xMax) warnings.push({ code: 'extrapolation', message: `the band runs outside the data range [${xMin}, ${xMax}]: predictions there are extrapolations` });
   }
-  const bad = firstNonFinite(result, 'result');
+  const bad = firstNonFinitePath(result, 'result'); // NaN never leaves fitModel
   if (bad) {
     return { ok: false, code: 'out-of-range', reason: `the statistics overflow or underflow double precision (${bad}); rescale x or y (for example to other units) and fit again` };
   }
   return result;
-}
-
-/** Path of the first NaN or ±Infinity in a plain-data value, or null: NaN never leaves fitModel. */
-function firstNonFinite(v: unknown, path: string): string | null {
-  if (typeof v === 'number') return Number.isFinite(v) ? null : path;
-  if (Array.isArray(v)) {
-    for (let i = 0; i < v.length; i++) {
-      const r = firstNonFinite(v[i], `${path}[${i}]`);
-      if (r) return r;
-    }
-    return null;
-  }
-  if (v && typeof v === 'object') {
-    for (const [k, w] of Object.entries(v)) {
-      const r = firstNonFinite(w, `${path}.${k}`);
-      if (r) return r;
-    }
-  }
-  return null;
 }
 
 /** Physical sanity of the heater built-ins (DOMAIN.md §7 item 6). */

@@ -30,7 +30,7 @@ export interface HeatOptimum {
  * @param options.range - flow range to search (m³/s), default the tested range (optimum reported only inside it)
  * @returns the optimum (interior: false when heat rises or falls monotonically over the range)
  * @throws RangeError for a range that is not increasing and positive, or a model that cannot be evaluated there
- * @example heatOptimum(expInletFit).flowM3PerS * 60000 // ≈ 14.1 L/min for the DOMAIN.md §1.3 data
+ * @example heatOptimum(expInletFit).flowM3PerS * 60000 // 1/k of the fit, in L/min
  */
 export function heatOptimum(fit: FitSuccess | FittedCurve, options: { TinC?: number; rhoKgPerM3?: number; cpJPerKgK?: number; range?: [number, number] } = {}): HeatOptimum {
   const curve = 'predict' in fit ? fit : fittedCurve(fit);

@@ -2,7 +2,7 @@
 export { fitModel } from './fit-model';
 export { predictAt } from './predict-at';
 export { compileModel, type CompiledModel } from './model-expression';
-export { BUILTIN_MODELS, DEFAULT_CP_J_PER_KG_K, DEFAULT_RHO_KG_PER_M3, type BuiltinModel } from './builtin-models';
+export { BUILTIN_MODELS, type BuiltinModel } from './builtin-models';
 export { levenbergMarquardt, type LeastSquaresProblem, type LmOptions, type LmResult } from './levenberg-marquardt';
 export { linearLeastSquares, polynomialDesign, type LinearLeastSquaresResult } from './linear-least-squares';
 export { groupReplicates } from './replicates';

@@ -78,7 +78,7 @@ const REASONS: Record<number, string> = {
  * @param options - stopping tolerances
  * @returns the final point and how the run ended (never throws for a bad model: info 0 instead)
  * @throws RangeError when start has the wrong length
- * @example levenbergMarquardt(problem, Float64Array.of(500, 1e-4)).p
+ * @example levenbergMarquardt(problem, Float64Array.of(250, 5e-4)).p
  */
 export function levenbergMarquardt(problem: LeastSquaresProblem, start: ArrayLike<number>, options: LmOptions = {}): LmResult {
   const { m, n } = problem;

@@ -52,7 +52,8 @@ function numberArray(name: string, v: unknown, n?: number): Float64Array | FitFa
   for (let i = 0; i < v.length; i++) {
     const e = v[i];
     if (typeof e !== 'number' || !Number.isFinite(e)) {
-      return fail('invalid-input', `${name}[${i}] is not a finite number (got ${JSON.stringify(e) ?? String(e)})`);
+      const got = typeof e === 'number' ? `${e}${Number.isNaN(e) ? '' : ': too large for double precision'}` : JSON.stringify(e) ?? String(e);
+      return fail('invalid-input', `${name}[${i}] is not a finite number (got ${got})`);
     }
     out[i] = e;
   }
@@ -100,10 +101,18 @@ export function prepareProblem(input: FitInput): { ok: true; problem: Problem } 
     for (const c of builtin.requiredCovariates) {
       if (!covariates[c]) return fail('invalid-input', `model "${builtin.name}" needs the covariate ${c} on every point`);
     }
-    for (const [c, value] of Object.entries(builtin.defaultCovariates)) {
-      if (!covariates[c]) {
-        covariates[c] = new Float64Array(x.length).fill(value);
-        warnings.push({ code: 'default-property', message: `no ${c} given: the documented default ${value} was used for every point` });
+    const derived = builtin.derivedCovariates;
+    const missing = derived ? derived.names.filter((c) => !covariates[c]) : [];
+    if (derived && missing.length > 0) {
+      let values: Record<string, Float64Array>;
+      try {
+        values = derived.derive({ x, y, covariates });
+      } catch (e) {
+        return fail('invalid-input', `${(e as Error).message}; give ${missing.join(' and ')} as covariates for such points`);
+      }
+      for (const c of missing) {
+        covariates[c] = values[c];
+        warnings.push({ code: 'default-property', message: `no ${c} given: ${derived.how[c]} was used for every point` });
       }
     }
   }

@@ -34,7 +34,7 @@ const MULTI_START_BUDGET = 1e7;
  * @param options - LM tolerances (default {@link SOLVER_OPTIONS})
  * @param restarts - how many times to restart from the end point (default 3; the bootstrap uses 0)
  * @returns the solution (converged false when LM did not)
- * @example solveFrom(problem, problem.y, [90, 500])
+ * @example solveFrom(problem, problem.y, [88, 430])
  */
 export function solveFrom(problem: Problem, y: Float64Array, start: ArrayLike<number>, options: LmOptions = SOLVER_OPTIONS, restarts = MAX_RESTARTS): Solution {
   const { compiled, x, cov, sw } = problem;

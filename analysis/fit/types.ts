@@ -67,8 +67,11 @@ export interface ParameterEstimate {
 
 /** Something a reviewer should look at; the fit itself succeeded. */
 export interface FitWarning {
-  code: 'at-bound' | 'high-correlation' | 'ill-conditioned' | 'extrapolation' | 'exact-fit' | 'default-property' | 'unphysical' | 'auto-start' | 'numeric-jacobian';
+  code: 'at-bound' | 'high-correlation' | 'ill-conditioned' | 'extrapolation' | 'exact-fit' | 'default-property' | 'unphysical' | 'auto-start' | 'numeric-jacobian' | 'not-identifiable';
+  /** starts with `not identifiable: <parameter>` for that code */
   message: string;
+  /** the parameter a `not-identifiable` warning is about */
+  parameter?: string;
 }
 
 /** A prediction with its confidence (mean) and prediction (new observation) intervals, units of y. */

@@ -4,21 +4,21 @@
  * bisection on 0–100 °C. A mean of the terms, not of their products: a guide, not a forecast.
  */
 import type { HeaterModel } from '../performance/heater-model';
-import { fastCpJPerKgK, fastDensityKgPerM3 } from '../water/property-table';
+import { fastDensityKgPerM3 } from '../water/property-table';
 import { saturationPressureUncheckedPa } from '../water/saturation-pressure';
 import { convectionCoefficient, evaporationWPerM2, STEFAN_BOLTZMANN } from './surface-losses';
 import type { Terms } from './loss-terms';
 
 /**
  * @returns the temperature, °C, or null with a note when gains and losses do not balance in 0–100 °C
- * @example equilibriumTempC({ heater, terms: null, flowM3PerS: 2e-4, massFlowKgPerS: 0, heaterOn, fixedCpJPerKgK: 0, startHourOfDay: 0, hours: 24 })
+ * @example equilibriumTempC({ heater, terms: null, flowM3PerS: 2e-4, massFlowKgPerS: 0, heaterOn, startHourOfDay: 0, hours: 24 })
  */
 export function equilibriumTempC(o: {
   heater: HeaterModel; terms: Terms | null; flowM3PerS: number; massFlowKgPerS: number; heaterOn: Uint8Array;
-  fixedCpJPerKgK: number; startHourOfDay: number; hours: number;
+  startHourOfDay: number; hours: number;
 }): { tempC: number | null; note: string } {
   const { heater, terms, heaterOn } = o;
-  const flow = o.flowM3PerS, massFlow = o.massFlowKgPerS, cpFixed = o.fixedCpJPerKgK, startHour = o.startHourOfDay;
+  const flow = o.flowM3PerS, massFlow = o.massFlowKgPerS, startHour = o.startHourOfDay;
   const nH = Math.max(1, Math.ceil(o.hours));
   const duty = Array.from({ length: nH }, (_, h) => heaterOn[(startHour + h) % 24]).reduce((a, b) => a + b, 0) / nH;
   let ta = 0, pa = 0, wind = 0, sky4 = 0, solar = 0, cov = 0;
@@ -33,10 +33,9 @@ export function equilibriumTempC(o: {
     ta /= nH; pa /= nH; wind /= nH; solar /= nH; sky4 /= nH; cov /= nH;
   }
   const net = (T: number): number => {
-    const cp = cpFixed || fastCpJPerKgK(T);
     const rho = fastDensityKgPerM3(T);
     const vdot = massFlow > 0 ? massFlow / rho : flow;
-    let q = vdot > 0 ? duty * rho * vdot * cp * (heater.outletTempC(vdot, T) - T) : 0;
+    let q = vdot > 0 ? duty * heater.heatW(vdot, T) : 0;
     if (terms) {
       const a = terms.area;
       const f = (c: number) => 1 - cov + cov * c;
@@ -50,8 +49,23 @@ export function equilibriumTempC(o: {
   };
   let lo = 0, hi = 100;
   const nlo = net(lo), nhi = net(hi);
-  if (!(nlo > 0)) return { tempC: null, note: 'No equilibrium above 0 °C: losses exceed gains even for water at 0 °C.' };
-  if (nhi > 0) return { tempC: null, note: 'No equilibrium below 100 °C: gains exceed losses up to boiling. The water would keep heating; see the cautions.' };
+  if (!(nlo > 0)) {
+    if (terms) return { tempC: null, note: 'No equilibrium above 0 °C: losses exceed gains even for water at 0 °C.' };
+    return {
+      tempC: null,
+      note: nlo === 0 && nhi === 0
+        ? 'No equilibrium: losses are off and the heater delivers no heat (no flow, or no heater hours), so the pool stays where it starts.'
+        : 'No equilibrium above 0 °C: losses are off and the heater takes heat out of water even at 0 °C.',
+    };
+  }
+  if (nhi > 0) {
+    return {
+      tempC: null,
+      note: terms
+        ? 'No equilibrium below 100 °C: gains exceed losses up to boiling. The water would keep heating; see the cautions.'
+        : 'No equilibrium below 100 °C: losses are off and the heater keeps adding heat up to boiling. The water would keep heating; see the cautions.',
+    };
+  }
   for (let i = 0; i < 200 && hi - lo > 1e-9; i++) {
     const mid = (lo + hi) / 2;
     if (net(mid) > 0) lo = mid; else hi = mid;

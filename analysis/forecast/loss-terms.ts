@@ -2,7 +2,7 @@
  * The loss and gain options of the recirculating forecast, and their resolution (once per run)
  * into the plain numbers and typed arrays the time loop reads.
  */
-import { requireFinite, requireNonNegative, requirePositive } from '../units/guards';
+import { requireFinite, requireInRange, requireNonNegative, requirePositive } from '../units/guards';
 import type { ConvectionModel } from './surface-losses';
 import { normaliseWeather, type WeatherPoint, type WeatherSeries } from './weather';
 
@@ -27,9 +27,11 @@ export interface LossOptions {
   surfaceAreaM2: number;
   evaporation?: false | { activityFactor?: number; correction?: number };
   convection?: false | { model?: ConvectionModel };
+  /** long-wave emissivity of the water surface, 0–1 (default 0.95) */
   radiation?: false | { emissivity?: number };
   /** conduction through walls/floor: U·A·(Tp − T_ground or air) */
   walls?: false | { areaM2: number; uWPerM2K: number; groundTempC?: number };
+  /** solar absorptance of the pool, 0–1 (default 0.85, a light pool) */
   solar?: false | { absorptance?: number };
   cover?: CoverOptions;
 }
@@ -59,7 +61,8 @@ export interface Terms {
 
 /**
  * Validates the loss options and resolves them.
- * @throws TypeError / RangeError naming the field.
+ * @throws TypeError / RangeError naming the field (a negative area or factor; an emissivity or
+ *   absorptance outside 0–1, which no surface has).
  * @example resolveTerms({ weather: { airTempC: 20, relativeHumidity: 0.5 }, surfaceAreaM2: 40 }).area // 40
  */
 export function resolveTerms(l: LossOptions): Terms {
@@ -77,10 +80,10 @@ export function resolveTerms(l: LossOptions): Terms {
     conv: cv ? 1 : 0,
     convModel: cv?.model ?? 'pool-guidance',
     rad: rd ? 1 : 0,
-    emis: rd ? requireNonNegative(rd.emissivity ?? 0.95, 'losses.radiation.emissivity') : 0,
+    emis: rd ? requireInRange(rd.emissivity ?? 0.95, 'losses.radiation.emissivity', 0, 1) : 0,
     wallUA: w ? requireNonNegative(w.areaM2, 'losses.walls.areaM2') * requireNonNegative(w.uWPerM2K, 'losses.walls.uWPerM2K') : 0,
     groundC: w && w.groundTempC !== undefined ? requireFinite(w.groundTempC, 'losses.walls.groundTempC') : null,
-    solar: so ? requireNonNegative(so.absorptance ?? 0.85, 'losses.solar.absorptance') : 0,
+    solar: so ? requireInRange(so.absorptance ?? 0.85, 'losses.solar.absorptance', 0, 1) : 0,
     cover: hourMask(c?.coveredHours, 'losses.cover.coveredHours', false),
     cEvap: requireNonNegative(c?.evaporationFactor ?? 0.1, 'losses.cover.evaporationFactor'),
     cSolar: requireNonNegative(c?.solarFactor ?? 0.8, 'losses.cover.solarFactor'),

@@ -22,7 +22,7 @@ export const STEFAN_BOLTZMANN = 5.670374419e-8;
  * @param waterVapourPa saturation pressure at the water temperature, Pa
  * @param airVapourPa actual vapour pressure of the air (psat at the dew point), Pa
  * @param airSpeedMPerS air speed over the water, m/s
- * @example evaporationWPerM2(3499, 1768, 0) // ≈ 154 W/m² (DOMAIN.md §3.4 worked example)
+ * @example evaporationWPerM2(3000, 1500, 1) // 250.8 W/m²
  */
 export function evaporationWPerM2(waterVapourPa: number, airVapourPa: number, airSpeedMPerS: number): number {
   return (waterVapourPa - airVapourPa) * (0.089 + 0.0782 * airSpeedMPerS); // kPa·kW/m² ↔ Pa·W/m²
@@ -32,7 +32,7 @@ export function evaporationWPerM2(waterVapourPa: number, airVapourPa: number, ai
  * The IP form of the same equation, W = A·(pw − pa)·(95 + 0.425·V)/Y.
  * @param areaFt2 ft²; pressures in inHg; air speed ft/min; latent heat Btu/lb
  * @returns evaporation, lb/h
- * @example carrierEvaporationLbPerH(800, 1.033, 0.522, 0, 1048) // ≈ 37.1 lb/h (check value #10)
+ * @example carrierEvaporationLbPerH(500, 1.0, 0.5, 0, 1050) // ≈ 22.6 lb/h
  */
 export function carrierEvaporationLbPerH(areaFt2: number, waterInHg: number, airInHg: number, airSpeedFtPerMin: number, latentBtuPerLb: number): number {
   return (areaFt2 * (waterInHg - airInHg) * (95 + 0.425 * airSpeedFtPerMin)) / latentBtuPerLb;
@@ -51,7 +51,7 @@ export function convectionCoefficient(windMPerS: number, model: ConvectionModel 
 
 /**
  * Net long-wave radiation from the water to the sky, W/m².
- * @example skyRadiationWPerM2(27, 0) // ≈ 137 W/m² (check value #11)
+ * @example skyRadiationWPerM2(30, 10) // ≈ 108.7 W/m²
  */
 export function skyRadiationWPerM2(waterTempC: number, skyTempC: number, emissivity = 0.95): number {
   const tw = waterTempC + 273.15, ts = skyTempC + 273.15;

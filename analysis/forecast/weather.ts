@@ -4,7 +4,7 @@
  * season). Each row is normalised once into typed arrays the time loop reads without allocating.
  */
 import { requireFinite, requireInRange, requireNonNegative } from '../units/guards';
-import { saturationPressureUncheckedPa } from '../water/saturation-pressure';
+import { saturationPressureUncheckedPa, saturationTempUncheckedC } from '../water/saturation-pressure';
 
 /**
  * Vapour pressure over liquid water at a dew point, Pa. Dew points are defined over liquid water
@@ -41,6 +41,8 @@ export interface WeatherSeries {
   windMPerS: Float64Array;
   solarWPerM2: Float64Array;
   skyTempC: Float64Array;
+  /** the temperature at which evaporation stops (saturation at the air's vapour pressure), °C; −Infinity for dry air */
+  dewPointC: Float64Array;
 }
 
 /**
@@ -66,7 +68,7 @@ export function normaliseWeather(weather: WeatherPoint | WeatherPoint[]): Weathe
   const s: WeatherSeries = {
     hours: n,
     airTempC: new Float64Array(n), vapourPressurePa: new Float64Array(n), windMPerS: new Float64Array(n),
-    solarWPerM2: new Float64Array(n), skyTempC: new Float64Array(n),
+    solarWPerM2: new Float64Array(n), skyTempC: new Float64Array(n), dewPointC: new Float64Array(n),
   };
   rows.forEach((w, i) => {
     const f = Array.isArray(weather) ? `weather[${i}]` : 'weather';
@@ -75,7 +77,7 @@ export function normaliseWeather(weather: WeatherPoint | WeatherPoint[]): Weathe
     let pa: number;
     if (w.dewPointC !== undefined) {
       const td = requireFinite(w.dewPointC, `${f}.dewPointC`);
-      if (td > ta + 1e-9) throw new RangeError(`${f}.dewPointC (${td}) must not exceed airTempC (${ta})`);
+      if (td > ta + 1e-9) throw new RangeError(`${f}.dewPointC (${td}) must not exceed ${f}.airTempC (${ta})`);
       pa = vapourPressureAtPa(td);
     } else if (w.relativeHumidity !== undefined) {
       const rh = requireInRange(w.relativeHumidity, `${f}.relativeHumidity`, 0, 1);
@@ -86,6 +88,8 @@ export function normaliseWeather(weather: WeatherPoint | WeatherPoint[]): Weathe
     const cloud = requireInRange(w.cloudCover ?? 0.5, `${f}.cloudCover`, 0, 1);
     s.airTempC[i] = ta;
     s.vapourPressurePa[i] = pa;
+    const dew = saturationTempUncheckedC(pa);
+    s.dewPointC[i] = Number.isFinite(dew) ? dew : -Infinity;
     s.windMPerS[i] = requireNonNegative(w.windMPerS ?? 0, `${f}.windMPerS`);
     s.solarWPerM2[i] = requireNonNegative(w.solarWPerM2 ?? 0, `${f}.solarWPerM2`);
     s.skyTempC[i] = w.skyTempC !== undefined ? requireInRange(w.skyTempC, `${f}.skyTempC`, -100, 60) : defaultSkyTempC(ta, cloud);

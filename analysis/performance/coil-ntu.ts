@@ -3,8 +3,26 @@
  * (any heat-transfer text; DOMAIN.md §1.2):
  *     NTU = UA/(ṁ·cp),  ε = 1 − exp(−NTU),  Tout = Ts − (Ts − Tin)·exp(−NTU),  q = ε·ṁ·cp·(Ts − Tin).
  */
-import { requireFinite, requireNonNegative, requirePositive } from '../units/guards';
+import { requireFinite, requireInRange, requireNonNegative, requirePositive } from '../units/guards';
 import { temperatureCautions, type Caution } from '../safety/cautions';
+
+/**
+ * The hottest effective source temperature the coil relations accept, °C. The water side is
+ * liquid water (IAPWS-IF97 region 1 reaches 350 °C, under pressure); an effective source far
+ * beyond that no longer describes a coil heating liquid water, and it only makes the arithmetic
+ * overflow. Our bound; the lower one is the freezing point (a source colder than the water's
+ * freezing point heats nothing).
+ */
+export const MAX_SOURCE_TEMP_C = 1000;
+
+/**
+ * Checks an effective source temperature.
+ * @throws TypeError when not finite; RangeError outside 0…{@link MAX_SOURCE_TEMP_C} °C, naming `field`.
+ * @example requireSourceTempC(88) // 88
+ */
+export function requireSourceTempC(value: unknown, field = 'sourceTempC'): number {
+  return requireInRange(value, field, 0, MAX_SOURCE_TEMP_C);
+}
 
 /** Inputs of the coil relations, SI. */
 export interface CoilState {
@@ -35,12 +53,13 @@ export interface CoilResult {
 
 /**
  * Evaluates the ε-NTU coil.
- * @throws TypeError for non-finite inputs; RangeError for UA, ṁ or cp ≤ 0.
- * @example coilPerformance({ sourceTempC: 90, inletTempC: 20, uaWPerK: 500, massFlowKgPerS: 0.1, cpJPerKgK: 4186 })
- *   // { effectiveness: 0.6971, outletTempC: 68.80, heatW: 20427, heatCeilingW: 35000, … }
+ * @throws TypeError for non-finite inputs; RangeError for UA, ṁ or cp ≤ 0, or a source
+ *   temperature outside 0…{@link MAX_SOURCE_TEMP_C} °C.
+ * @example coilPerformance({ sourceTempC: 88, inletTempC: 17.5, uaWPerK: 430, massFlowKgPerS: 0.15, cpJPerKgK: 4180 })
+ *   // { effectiveness: 0.4963, outletTempC: 52.49, heatW: 21939, heatCeilingW: 30315, … } (the demo lab's Stovepipe Coil A)
  */
 export function coilPerformance(s: CoilState): CoilResult {
-  const Ts = requireFinite(s.sourceTempC, 'sourceTempC');
+  const Ts = requireSourceTempC(s.sourceTempC);
   const Tin = requireFinite(s.inletTempC, 'inletTempC');
   const ua = requirePositive(s.uaWPerK, 'uaWPerK');
   const m = requirePositive(s.massFlowKgPerS, 'massFlowKgPerS');
@@ -65,7 +84,7 @@ export function coilPerformance(s: CoilState): CoilResult {
  * @param fraction target fraction of UA·(Ts − Tin), strictly between 0 and 1
  * @returns NTU, dimensionless
  * @throws RangeError unless 0 < fraction < 1.
- * @example ntuForCeilingFraction(0.9) // 0.2146
+ * @example ntuForCeilingFraction(0.8) // 0.4642
  */
 export function ntuForCeilingFraction(fraction: number): number {
   requireFinite(fraction, 'fraction');
@@ -91,12 +110,12 @@ export function ntuForCeilingFraction(fraction: number): number {
  * @returns kg/s; 0 when Ts ≤ T_lim (no flow can push the outlet past the limit)
  * @throws RangeError when Tin ≥ T_lim (the inlet is already at or above the limit), or for
  *   UA/cp ≤ 0; TypeError for non-finite input.
- * @example minimumMassFlowKgPerS({ sourceTempC: 150, inletTempC: 20, limitTempC: 100, uaWPerK: 400, cpJPerKgK: 4186 }) // ≈ 0.1000
+ * @example minimumMassFlowKgPerS({ sourceTempC: 135, inletTempC: 17.5, limitTempC: 60, uaWPerK: 260, cpJPerKgK: 4180 }) // ≈ 0.1385 (the demo lab's Blue Ring Burner Loop)
  */
 export function minimumMassFlowKgPerS(o: {
   sourceTempC: number; inletTempC: number; limitTempC: number; uaWPerK: number; cpJPerKgK: number;
 }): number {
-  const Ts = requireFinite(o.sourceTempC, 'sourceTempC');
+  const Ts = requireSourceTempC(o.sourceTempC);
   const Tin = requireFinite(o.inletTempC, 'inletTempC');
   const Tl = requireFinite(o.limitTempC, 'limitTempC');
   const ua = requirePositive(o.uaWPerK, 'uaWPerK');
@@ -111,12 +130,12 @@ export function minimumMassFlowKgPerS(o: {
  * (DOMAIN.md §1.5 a).
  * @returns W/K
  * @throws RangeError unless Tin < Tout < Ts; TypeError for non-finite input.
- * @example trialUaWPerK({ sourceTempC: 90, inletTempC: 20, outletTempC: 68.8, massFlowKgPerS: 0.1, cpJPerKgK: 4186 }) // ≈ 500
+ * @example trialUaWPerK({ sourceTempC: 88, inletTempC: 17.5, outletTempC: 50, massFlowKgPerS: 0.15, cpJPerKgK: 4180 }) // ≈ 387.5
  */
 export function trialUaWPerK(o: {
   sourceTempC: number; inletTempC: number; outletTempC: number; massFlowKgPerS: number; cpJPerKgK: number;
 }): number {
-  const Ts = requireFinite(o.sourceTempC, 'sourceTempC');
+  const Ts = requireSourceTempC(o.sourceTempC);
   const Tin = requireFinite(o.inletTempC, 'inletTempC');
   const Tout = requireFinite(o.outletTempC, 'outletTempC');
   const m = requireNonNegative(o.massFlowKgPerS, 'massFlowKgPerS');

@@ -65,13 +65,13 @@ function coefficients(p: CollectorParameters): Coefficients {
  * @param deltaTK Tm − Ta, K
  * @param irradianceWPerM2 G in the collector plane, W/m² (default G* = 1000)
  * @throws TypeError / RangeError naming the field.
- * @example collectorPowerW({ areaM2: 2.02, peakPowerW: 1480, a1WPerM2K: 3.51, a2WPerM2K2: 0.017 }, 30) // ≈ 1236.4
+ * @example collectorPowerW({ areaM2: 2, eta0: 0.75, a1WPerM2K: 3.5, a2WPerM2K2: 0.015 }, 20) // 1348
  */
 export function collectorPowerW(p: CollectorParameters, deltaTK: number, irradianceWPerM2 = REFERENCE_IRRADIANCE_W_PER_M2): number {
   const c = coefficients(p);
   const dT = requireFinite(deltaTK, 'deltaTK');
   const G = requireNonNegative(irradianceWPerM2, 'irradianceWPerM2');
-  return c.A * (c.eta0 * G - c.a1 * dT - c.a2 * secondOrderExcessK2(dT));
+  return usefulPowerW(c, G, dT);
 }
 
 /**
@@ -79,7 +79,7 @@ export function collectorPowerW(p: CollectorParameters, deltaTK: number, irradia
  * @param deltaTK Tm − Ta, K
  * @param irradianceWPerM2 G, W/m², > 0
  * @throws RangeError when G ≤ 0 (efficiency is undefined without sun).
- * @example collectorEfficiency({ areaM2: 2.02, eta0: 0.739, a1WPerM2K: 3.51, a2WPerM2K2: 0.017 }, 30, 1000) // ≈ 0.6184
+ * @example collectorEfficiency({ areaM2: 2, eta0: 0.75, a1WPerM2K: 3.5, a2WPerM2K2: 0.015 }, 20, 800) // 0.655
  */
 export function collectorEfficiency(p: CollectorParameters, deltaTK: number, irradianceWPerM2: number): number {
   const G = requirePositive(irradianceWPerM2, 'irradianceWPerM2');
@@ -97,6 +97,11 @@ function meanExcessK(c: Coefficients, G: number, d: number, C: number): number {
   const m = Math.abs(rhs);
   const x = (2 * m) / (b + Math.sqrt(b * b + 4 * a * m));
   return Math.sign(rhs) * x;
+}
+
+/** Useful power of validated coefficients at a mean excess x = Tm − Ta, W. */
+function usefulPowerW(c: Coefficients, G: number, x: number): number {
+  return c.A * (c.eta0 * G - c.a1 * x - c.a2 * secondOrderExcessK2(x));
 }
 
 /** Operating conditions of a collector loop, SI. */
@@ -140,7 +145,8 @@ export function collectorOutlet(p: CollectorParameters, s: CollectorConditions):
   const x = meanExcessK(c, G, Tin - Ta, m * cp);
   const outletTempC = 2 * (Ta + x) - Tin;
   return {
-    outletTempC, deltaTK: x, heatW: m * cp * (outletTempC - Tin),
+    // the heat is the collector power at the balance point (= ṁ·cp·(Tout − Tin) without its cancellation)
+    outletTempC, deltaTK: x, heatW: usefulPowerW(c, G, x),
     efficiency: G > 0 ? c.eta0 - (c.a1 * x + c.a2 * secondOrderExcessK2(x)) / G : null,
     stagnationTempC: Ta + meanExcessK(c, G, 0, 0),
     cautions: temperatureCautions(outletTempC, 'outlet'),
@@ -186,6 +192,11 @@ export function solarCollectorHeater(o: SolarCollectorHeaterOptions): HeaterMode
       if (!(flowM3PerS > 0)) return stagnation;
       const C = ((rhoFixed || fastDensityKgPerM3(inletTempC)) * flowM3PerS * (cpFixed || fastCpJPerKgK(inletTempC))) / n;
       return 2 * (Ta + meanExcessK(c, G, inletTempC - Ta, C)) - inletTempC;
+    },
+    heatW(flowM3PerS: number, inletTempC: number): number {
+      if (!(flowM3PerS > 0)) return 0;
+      const C = ((rhoFixed || fastDensityKgPerM3(inletTempC)) * flowM3PerS * (cpFixed || fastCpJPerKgK(inletTempC))) / n;
+      return n * usefulPowerW(c, G, meanExcessK(c, G, inletTempC - Ta, C));
     },
   };
 }

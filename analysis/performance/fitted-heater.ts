@@ -4,6 +4,7 @@
  * fitted, flagged as not transferable to other inlet temperatures.
  */
 import type { FitSuccess } from '../fit';
+import { fastCpJPerKgK, fastDensityKgPerM3 } from '../water/property-table';
 import { coilHeater, type HeaterModel } from './heater-model';
 import { fittedCurve } from './fitted-curve';
 
@@ -25,6 +26,7 @@ export function heaterFromFit(fit: FitSuccess, options: { sourceTempC?: number; 
   const tFit = options.fittedInletC ?? (range ? (range[0] + range[1]) / 2 : null);
   const x = [0];
   const raw = (flow: number, tin: number) => { x[0] = flow; return curve.evaluate(p, x, tin)[0]; };
+  const capacity = (flow: number, tin: number) => fastDensityKgPerM3(tin) * flow * fastCpJPerKgK(tin);
   if (options.sourceTempC !== undefined) {
     const Ts = options.sourceTempC;
     if (tFit === null) throw new RangeError('fittedInletC is required to re-reference an empirical fit without a Tin covariate');
@@ -35,6 +37,11 @@ export function heaterFromFit(fit: FitSuccess, options: { sourceTempC?: number; 
         const eps = (raw(flowM3PerS, tFit) - tFit) / (Ts - tFit);
         return inletTempC + eps * (Ts - inletTempC);
       },
+      heatW(flowM3PerS: number, inletTempC: number): number {
+        if (!(flowM3PerS > 0)) return 0;
+        const eps = (raw(flowM3PerS, tFit) - tFit) / (Ts - tFit);
+        return eps * capacity(flowM3PerS, inletTempC) * (Ts - inletTempC);
+      },
     };
   }
   return {
@@ -43,5 +50,6 @@ export function heaterFromFit(fit: FitSuccess, options: { sourceTempC?: number; 
     fittedInletC: tFit,
     sourceTempC: null,
     outletTempC: raw,
+    heatW: (flowM3PerS: number, inletTempC: number) => (flowM3PerS > 0 ? capacity(flowM3PerS, inletTempC) * (raw(flowM3PerS, inletTempC) - inletTempC) : 0),
   };
 }

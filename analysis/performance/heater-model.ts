@@ -6,6 +6,7 @@
  */
 import { requireFinite, requirePositive } from '../units/guards';
 import { fastCpJPerKgK, fastDensityKgPerM3 } from '../water/property-table';
+import { MAX_SOURCE_TEMP_C, requireSourceTempC } from './coil-ntu';
 
 /** A heater as seen by the pool models. */
 export interface HeaterModel {
@@ -16,6 +17,13 @@ export interface HeaterModel {
    * cheap and allocation-free: the forecast calls it every step.
    */
   outletTempC(flowM3PerS: number, inletTempC: number): number;
+  /**
+   * Heat delivered to the water, W, for the same flow and inlet, computed without taking the
+   * small difference Tout − Tin of two nearly equal numbers (for the coil
+   * −expm1(−NTU)·ṁ·cp·(Ts − Tin), which tends to UA·(Ts − Tin) as the flow grows, DOMAIN.md §1.2).
+   * Same cost rules as `outletTempC`.
+   */
+  heatW(flowM3PerS: number, inletTempC: number): number;
   /** true when the model holds at any inlet temperature (physics), false for empirical fits */
   readonly inletTransferable: boolean;
   /** the inlet temperature an empirical model was fitted at, °C (null when transferable) */
@@ -37,12 +45,13 @@ export interface CoilHeaterOptions {
 }
 
 /**
- * The ε-NTU coil as a HeaterModel: ṁ = ρ(Tin)·V̇, Tout = Ts − (Ts − Tin)·exp(−UA/(ṁ·cp)).
- * @throws TypeError / RangeError for non-finite Ts or UA ≤ 0.
- * @example coilHeater({ sourceTempC: 90, uaWPerK: 500 }).outletTempC(1e-4, 20) // ≈ 68.8
+ * The ε-NTU coil as a HeaterModel: ṁ = ρ(Tin)·V̇, Tout = Ts − (Ts − Tin)·exp(−UA/(ṁ·cp)),
+ * q = −expm1(−NTU)·ṁ·cp·(Ts − Tin).
+ * @throws TypeError for non-finite Ts or UA; RangeError for UA ≤ 0 or Ts outside 0…{@link MAX_SOURCE_TEMP_C} °C.
+ * @example coilHeater({ sourceTempC: 88, uaWPerK: 430 }).heatW(1.5e-4, 20) // ≈ 21.2 kW (the demo lab's Stovepipe Coil A at 9 L/min)
  */
 export function coilHeater(o: CoilHeaterOptions): HeaterModel {
-  const Ts = requireFinite(o.sourceTempC, 'sourceTempC');
+  const Ts = requireSourceTempC(o.sourceTempC);
   const ua = requirePositive(o.uaWPerK, 'uaWPerK');
   const cpFixed = o.cpJPerKgK === undefined ? 0 : requirePositive(o.cpJPerKgK, 'cpJPerKgK');
   const rhoFixed = o.densityKgPerM3 === undefined ? 0 : requirePositive(o.densityKgPerM3, 'densityKgPerM3');
@@ -57,18 +66,29 @@ export function coilHeater(o: CoilHeaterOptions): HeaterModel {
       const cp = cpFixed || fastCpJPerKgK(inletTempC);
       return Ts - (Ts - inletTempC) * Math.exp(-ua / (rho * flowM3PerS * cp));
     },
+    heatW(flowM3PerS: number, inletTempC: number): number {
+      if (!(flowM3PerS > 0)) return 0;
+      const C = (rhoFixed || fastDensityKgPerM3(inletTempC)) * flowM3PerS * (cpFixed || fastCpJPerKgK(inletTempC));
+      return -Math.expm1(-ua / C) * C * (Ts - inletTempC);
+    },
   };
 }
 
 /**
  * A heater that adds a fixed rise whatever the flow and inlet (the naive reading of one bucket
- * test). Offered for comparison: it over-predicts a warming pool (DOMAIN.md §3.3).
+ * test). Offered for comparison: it over-predicts a warming pool (DOMAIN.md §3.3). Heat
+ * q = ρ(Tin)·V̇·cp(Tin)·rise.
+ * @param riseK 0…100 K: a heater does not cool the water, and liquid water at 1 atm spans 100 K
+ * @throws TypeError when not finite; RangeError for a rise below 0 (it would cool the water) or above 100 K.
  * @example fixedRiseHeater(10).outletTempC(1e-4, 20) // 30
  */
 export function fixedRiseHeater(riseK: number): HeaterModel {
   const r = requireFinite(riseK, 'riseK');
+  if (r < 0) throw new RangeError(`riseK must be 0 or more: a rise of ${r} K would cool the water, which is not a heater`);
+  if (r > 100) throw new RangeError(`riseK must be at most 100 K (liquid water at 1 atm), got ${r}`);
   return {
     name: 'fixed-rise', inletTransferable: false, fittedInletC: null, sourceTempC: null,
     outletTempC: (_f: number, tin: number) => tin + r,
+    heatW: (f: number, tin: number) => (f > 0 ? fastDensityKgPerM3(tin) * f * fastCpJPerKgK(tin) * r : 0),
   };
 }

@@ -48,7 +48,7 @@ export interface PerformanceTable {
  * @param densityKgPerM3 ρ(Tin) when already known
  * @returns W/K
  * @throws RangeError for an inlet outside the liquid range
- * @example heatPerKelvinWPerK(1e-4, 20, 68.8) * (68.8 - 20) // ≈ 20.4 kW
+ * @example heatPerKelvinWPerK(1.5e-4, 17.5, 52.5) * (52.5 - 17.5) // ≈ 21.9 kW (the demo lab's Stovepipe Coil A at 9 L/min)
  */
 export function heatPerKelvinWPerK(flowM3PerS: number, inletTempC: number, outletTempC: number, densityKgPerM3 = waterDensityKgPerM3(inletTempC, undefined, 'inletTempC')): number {
   return densityKgPerM3 * flowM3PerS * waterCpJPerKgK(Math.min(Math.max((inletTempC + outletTempC) / 2, 0), 100));

@@ -33,7 +33,7 @@ export function builtinResponseModel(name: string): ResponseModel {
   const b = BUILTIN_MODELS[name];
   return {
     name, expression: b.expression, parameterNames: b.parameters.slice(), parameterUnits: { ...b.parameterUnits },
-    covariateNames: [...b.requiredCovariates, ...Object.keys(b.defaultCovariates)], covariateMeans: {},
+    covariateNames: [...b.requiredCovariates, ...(b.derivedCovariates?.names ?? [])], covariateMeans: {},
   };
 }
 
@@ -57,7 +57,7 @@ export type ResponseAt = (params: ArrayLike<number>, flowsM3PerS: number[]) => {
  * @param inletTempC inlet temperature, °C
  * @returns a function of parameters (in `model.parameterNames` order, SI) and flows (m³/s, > 0)
  * @throws RangeError when the expression cannot be compiled or the inlet is outside the liquid range
- * @example responseAt(builtinResponseModel('coil'), 15)([90, 400], [1e-4]).y[0]
+ * @example responseAt(builtinResponseModel('coil'), 15)([88, 430], [1.5e-4]).y[0]
  */
 export function responseAt(model: ResponseModel, inletTempC: number): ResponseAt {
   const compiled = compileCached(model.expression, model.parameterNames, model.covariateNames);

@@ -161,7 +161,7 @@ function readPrior(model: ResponseModel, prior: PlanPrior): { theta: number[]; s
  * @throws TypeError / RangeError naming the field for malformed input (unknown model, missing prior
  *   value, a covariance of the wrong shape, flows not 0 < low < high, a limit at or below the inlet,
  *   trials outside MIN_PLAN_TRIALS–MAX_PLAN_TRIALS, a grid over MAX_PLAN_GRID_POINTS)
- * @example planSession({ model: 'coil', prior: { values: { Ts: 90, UA: 400 } }, inletTempC: 15, flowRangeM3PerS: [2 / 60000, 20 / 60000], maxOutletTempC: 95, trials: 8 })
+ * @example planSession({ model: 'coil', prior: { values: { Ts: 88, UA: 430 } }, inletTempC: 15, flowRangeM3PerS: [2 / 60000, 20 / 60000], maxOutletTempC: 95, trials: 8 })
  */
 export function planSession(input: SessionPlanInput): SessionPlan | { ok: false; reason: string } {
   const model = builtinResponseModel(input?.model);

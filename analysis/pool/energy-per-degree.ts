@@ -10,7 +10,7 @@ import { waterCpJPerKgK, waterDensityKgPerM3 } from '../water/water-properties';
  * @param tempC water temperature, °C (default 25)
  * @returns J/K
  * @throws TypeError / RangeError for a non-positive volume or a temperature outside 0–100 °C.
- * @example energyPerDegreeJPerK(56.78) // ≈ 2.367e8 J/K (15,000 gal ≈ 1.25 therm per °F)
+ * @example energyPerDegreeJPerK(40) // ≈ 1.668e8 J/K
  */
 export function energyPerDegreeJPerK(volumeM3: number, tempC = 25): number {
   const v = requirePositive(volumeM3, 'volumeM3');
@@ -20,7 +20,7 @@ export function energyPerDegreeJPerK(volumeM3: number, tempC = 25): number {
 /**
  * Loss-free heat-up rate of a pool receiving `heatW`.
  * @returns K/h
- * @example heatUpRateKPerH(29307, 37.85) // ≈ 0.667 K/h (100,000 Btu/h into 10,000 gal → 1.20 °F/h)
+ * @example heatUpRateKPerH(20000, 40) // ≈ 0.432 K/h
  */
 export function heatUpRateKPerH(heatW: number, volumeM3: number, tempC = 25): number {
   return (requireFinite(heatW, 'heatW') * 3600) / energyPerDegreeJPerK(volumeM3, tempC);

@@ -1,6 +1,7 @@
 /**
  * Fill mode: a heater filling a tub in a single pass from a supply (mains or a tank). Fill time
- * V/V̇; the tub ends at the volume-weighted mean of the outlet water and any water already in it.
+ * V/V̇; the tub ends at the mass-and-enthalpy mix (mixing.ts) of the outlet water and any water
+ * already in it.
  * Surface losses during the fill are ignored (fills take minutes to hours).
  */
 import { requireFinite, requireNonNegative, requirePositive } from '../units/guards';
@@ -22,7 +23,7 @@ export interface FillResult {
  * @param o.supplyTempC supply water temperature (the heater inlet), °C
  * @param o.initialVolumeM3 water already in the tub, m³ (default 0), at `initialTempC`
  * @throws RangeError for zero flow (with the dead-heading message), negative volumes.
- * @example fillTub({ heater: coilHeater({ sourceTempC: 90, uaWPerK: 500 }), tubVolumeM3: 1.5, flowM3PerS: 2e-4, supplyTempC: 15 })
+ * @example fillTub({ heater: coilHeater({ sourceTempC: 88, uaWPerK: 430 }), tubVolumeM3: 1.5, flowM3PerS: 1.5e-4, supplyTempC: 15 }).finalTempC // ≈ 51.2
  */
 export function fillTub(o: {
   heater: HeaterModel; tubVolumeM3: number; flowM3PerS: number; supplyTempC: number; initialVolumeM3?: number; initialTempC?: number;
@@ -34,7 +35,7 @@ export function fillTub(o: {
   const V0 = requireNonNegative(o.initialVolumeM3 ?? 0, 'initialVolumeM3');
   const T0 = V0 > 0 ? requireFinite(o.initialTempC, 'initialTempC') : 0;
   const Tout = o.heater.outletTempC(q, Tin);
-  const T = mixTemperatureC([{ volumeM3: V, tempC: Tout }, { volumeM3: V0, tempC: T0 }]);
+  const T = mixTemperatureC([{ volumeM3: V, tempC: Tout, field: 'outlet water' }, { volumeM3: V0, tempC: T0, field: 'initial water' }]);
   return {
     fillTimeS: V / q, outletTempC: Tout, finalTempC: T,
     cautions: mergeCautions(temperatureCautions(Tout, 'outlet'), temperatureCautions(T, 'tub')),

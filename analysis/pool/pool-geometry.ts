@@ -45,7 +45,7 @@ export interface PoolGeometry {
 /**
  * Surface (plan) area of the pool shape, m².
  * @throws TypeError / RangeError naming the missing or non-positive dimension.
- * @example planAreaM2({ shape: 'round', diameterM: 4.572 }) // 16.417 m²
+ * @example planAreaM2({ shape: 'round', diameterM: 5 }) // 19.635 m²
  */
 export function planAreaM2(d: PoolDimensions): number {
   switch (d.shape) {
@@ -73,7 +73,7 @@ export function planAreaM2(d: PoolDimensions): number {
 /**
  * Mean water depth from a uniform depth or a shallow/deep pair, m.
  * @throws RangeError when neither or both forms are given, or a depth is not positive.
- * @example meanDepthM({ shape: 'rectangle', shallowDepthM: 0.9144, deepDepthM: 2.4384 }) // 1.6764
+ * @example meanDepthM({ shape: 'rectangle', shallowDepthM: 1, deepDepthM: 2 }) // 1.5
  */
 export function meanDepthM(d: PoolDimensions): number {
   const uniform = d.depthM !== undefined;
@@ -90,7 +90,7 @@ export function meanDepthM(d: PoolDimensions): number {
  * Volume and surface area of a pool.
  * @throws TypeError / RangeError naming the field (missing, negative or zero dimensions,
  *   unknown shape, negative entered volume).
- * @example poolGeometry({ shape: 'round', diameterM: 4.572, depthM: 1.2192 }).volumeM3 // 20.016 m³ = 5,288 gal
+ * @example poolGeometry({ shape: 'round', diameterM: 5, depthM: 1.2 }).volumeM3 // 23.562 m³
  */
 export function poolGeometry(d: PoolDimensions): PoolGeometry {
   const notes: string[] = [];

@@ -21,7 +21,7 @@ export const TRADE_VOLUME_FACTORS: Record<Exclude<PoolShape, 'stadium'>, number>
  * @param dimsFt [L, W] (rectangle/ellipse), [D] (round), [A, B, L] (kidney), feet
  * @param depthFt average water depth, ft
  * @throws RangeError for a stadium or wrong number of dimensions.
- * @example tradeRuleGallons('round', [15], 4) // 5310
+ * @example tradeRuleGallons('round', [18], 4) // 7646.4
  */
 export function tradeRuleGallons(shape: PoolShape, dimsFt: number[], depthFt: number): number {
   const d = requirePositive(depthFt, 'depthFt');
@@ -47,7 +47,7 @@ export const TRADE_BTU_PER_GAL_PER_DEGF = 8.33;
 
 /**
  * The hydronic "500 rule": q [Btu/h] ≈ 500 × gpm × ΔT[°F] (485 for antifreeze mixes).
- * @example fiveHundredRuleBtuPerH(10, 20) // 100000
+ * @example fiveHundredRuleBtuPerH(5, 15) // 37500
  */
 export function fiveHundredRuleBtuPerH(gpm: number, deltaTF: number, factor = 500): number {
   return requireFinite(factor, 'factor') * requireFinite(gpm, 'gpm') * requireFinite(deltaTF, 'deltaTF');
@@ -60,7 +60,7 @@ export function fiveHundredRuleBtuPerH(gpm: number, deltaTF: number, factor = 50
  * @param targetC desired water temperature, °C
  * @param coldestAirC average air temperature of the coldest month of use, °C
  * @throws RangeError when the target is not above the air temperature.
- * @example doeHeaterSizing(66.89, 23.889, 10).outputBtuPerH // 216,000 (720 ft², ΔT 25 °F)
+ * @example doeHeaterSizing(50, 27, 15).outputBtuPerH // ≈ 139,500 (538 ft², ΔT 21.6 °F)
  */
 export function doeHeaterSizing(areaM2: number, targetC: number, coldestAirC: number): { outputBtuPerH: number; outputW: number } {
   const ft2 = convert(requirePositive(areaM2, 'areaM2'), 'm^2', 'ft^2');

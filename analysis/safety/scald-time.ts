@@ -65,8 +65,7 @@ function phrase(lo: number | null, hi: number | null, interpolated: boolean): Pi
  * @param tempC water temperature, °C
  * @returns the time with its qualifier and a display text; times in s
  * @throws TypeError when `tempC` is not a finite number.
- * @example scaldTime(60).text // 'shorter than 5 s' (140 °F)
- * @example scaldTime(54.44).text // '30 s' (130 °F)
+ * @example scaldTime(57).text // 'about 11 s'
  */
 export function scaldTime(tempC: number): ScaldTime {
   const T = requireFinite(tempC, 'tempC');

@@ -24,7 +24,7 @@ export interface BucketFlow {
  * @param bucketVolumeM3 m³, > 0
  * @param fillTimesS s, one or more, each > 0
  * @throws TypeError / RangeError naming the field for non-finite, empty or non-positive values.
- * @example bucketFlow(5 * 3.785411784e-3, [124]).flowM3PerS // 1.5264e-4 m³/s = 2.42 gpm
+ * @example bucketFlow(0.02, [79.8, 80.4, 80.1]).flowM3PerS // ≈ 2.497e-4 m³/s = 14.98 L/min (the demo lab's 20 L bucket)
  */
 export function bucketFlow(bucketVolumeM3: number, fillTimesS: number[]): BucketFlow {
   const V = requirePositive(bucketVolumeM3, 'bucketVolumeM3');

@@ -7,7 +7,7 @@
  * Returns one budget for the flow and one for the heat rate.
  */
 import { requireInRange, requireNonNegative, requirePositive } from '../units/guards';
-import { waterCpJPerKgK, waterDensityKgPerM3 } from '../water/water-properties';
+import { trialWaterProperties } from '../water/trial-water';
 import { bucketFlow } from './bucket-flow';
 import { gumBudget, rectangularU, type Budget, type BudgetInput } from './gum-budget';
 
@@ -48,8 +48,8 @@ export interface HeatRateBudget {
  * Builds the flow and heat-rate budgets.
  * @throws TypeError / RangeError naming the field (non-positive volume or times, outlet below
  *   inlet, temperatures outside the water formulation, |r| > 1).
- * @example heatRateBudget({ bucketVolumeM3: 0.01893, volumeHalfWidthM3: 0.00025, fillTimesS: [74.6, 75.3, 75.1],
- *   inletTempC: 15, outletTempC: 35, sensorHalfWidthK: 1, densityKgPerM3: 994, cpJPerKgK: 4180, k: 2 }).heat.U // ≈ 1750 W
+ * @example heatRateBudget({ bucketVolumeM3: 0.02, volumeHalfWidthM3: 0.0001, fillTimesS: [79.8, 80.4, 80.1],
+ *   inletTempC: 17.5, outletTempC: 45, sensorHalfWidthK: 0.5, k: 2 }).heat.U // ≈ 874 W (the demo lab's 20 L bucket)
  */
 export function heatRateBudget(o: HeatRateBudgetInput): HeatRateBudget {
   const V = requirePositive(o.bucketVolumeM3, 'bucketVolumeM3');
@@ -65,10 +65,10 @@ export function heatRateBudget(o: HeatRateBudgetInput): HeatRateBudget {
   }
   const uEvent = requireNonNegative(o.timingEventUncertaintyS ?? 0.1, 'timingEventUncertaintyS');
   const Tin = o.inletTempC, Tout = o.outletTempC;
-  const rho = o.densityKgPerM3 === undefined ? waterDensityKgPerM3(Tout, undefined, 'outletTempC') : requirePositive(o.densityKgPerM3, 'densityKgPerM3');
-  waterDensityKgPerM3(Tin, undefined, 'inletTempC');
+  const water = trialWaterProperties(Tin, Tout);
   if (Tout < Tin) throw new RangeError(`outletTempC (${Tout}) is below inletTempC (${Tin}): inconsistent for a heater`);
-  const cp = o.cpJPerKgK === undefined ? waterCpJPerKgK((Tin + Tout) / 2) : requirePositive(o.cpJPerKgK, 'cpJPerKgK');
+  const rho = o.densityKgPerM3 === undefined ? water.densityKgPerM3 : requirePositive(o.densityKgPerM3, 'densityKgPerM3');
+  const cp = o.cpJPerKgK === undefined ? water.cpJPerKgK : requirePositive(o.cpJPerKgK, 'cpJPerKgK');
   const uT = rectangularU(requireNonNegative(o.sensorHalfWidthK, 'sensorHalfWidthK'));
   const r = requireInRange(o.sensorCorrelation ?? 0, 'sensorCorrelation', -1, 1);
 

@@ -64,7 +64,7 @@ export function requireInRange(value: unknown, field: string, min: number, max: 
 /**
  * Requires a non-empty array of finite numbers.
  * @throws TypeError when not an array or an element is not finite; RangeError when empty.
- * @example requireFiniteArray([74.6, 75.3], 'fillTimesS')
+ * @example requireFiniteArray([79.8, 80.4], 'fillTimesS')
  */
 export function requireFiniteArray(value: unknown, field: string): number[] {
   if (!Array.isArray(value) && !(value instanceof Float64Array)) {
@@ -74,6 +74,31 @@ export function requireFiniteArray(value: unknown, field: string): number[] {
   if (arr.length === 0) throw new RangeError(`${field} must not be empty`);
   arr.forEach((x, i) => requireFinite(x, `${field}[${i}]`));
   return arr as number[];
+}
+
+/**
+ * The path of the first NaN or ±Infinity in a plain-data value (numbers, arrays, typed arrays,
+ * objects), or null when every number is finite: the one check that no result carries a number
+ * JSON would print as null.
+ * @example firstNonFinitePath({ a: [1, Infinity] }, 'result') // 'result.a[1]'
+ */
+export function firstNonFinitePath(value: unknown, path: string): string | null {
+  if (typeof value === 'number') return Number.isFinite(value) ? null : path;
+  if (Array.isArray(value) || ArrayBuffer.isView(value)) {
+    const a = value as ArrayLike<unknown>;
+    for (let i = 0; i < a.length; i++) {
+      const r = firstNonFinitePath(a[i], `${path}[${i}]`);
+      if (r) return r;
+    }
+    return null;
+  }
+  if (value && typeof value === 'object') {
+    for (const [k, w] of Object.entries(value)) {
+      const r = firstNonFinitePath(w, `${path}.${k}`);
+      if (r) return r;
+    }
+  }
+  return null;
 }
 
 /** Echo helper for error messages elsewhere in analysis/. */

@@ -41,7 +41,7 @@ export interface Region1State {
 /**
  * Evaluates IF97 region 1 at temperature `tempK` and pressure `pressurePa`. No range check:
  * callers (water-properties.ts) keep to 273.15 K ≤ T ≤ 623.15 K, psat(T) ≤ p ≤ 100 MPa.
- * @example if97Region1(300, 3e6).specificVolumeM3PerKg // 0.00100215168 (IF97 Table 5)
+ * @example if97Region1(320, 1e6).densityKgPerM3 // ≈ 989.83
  */
 export function if97Region1(tempK: number, pressurePa: number): Region1State {
   const pi = pressurePa / 16.53e6;

@@ -31,7 +31,7 @@ export interface SaturationState {
  * @param tempC temperature, °C, 0.01 to 373.946
  * @throws TypeError when not finite; RangeError outside 0.01–373.946 °C (a 0 °C input is accepted
  *   and treated as the triple point, 0.01 °C, for the purposes of the range check only).
- * @example saturationState(1.85).latentHeatJPerKg // ≈ 2.4965e6 (R6-95 Table 8 at 275 K)
+ * @example saturationState(30).latentHeatJPerKg // ≈ 2.430e6
  */
 export function saturationState(tempC: number): SaturationState {
   requireFinite(tempC, 'tempC');
@@ -62,7 +62,7 @@ export function saturationState(tempC: number): SaturationState {
  * @param tempC water temperature, °C, 0 to 373.946
  * @returns J/kg
  * @throws TypeError / RangeError as `saturationState`.
- * @example latentHeatJPerKg(26.67) // ≈ 2.438e6 J/kg ≈ 1048 Btu/lb
+ * @example latentHeatJPerKg(30) // ≈ 2.430e6 J/kg
  */
 export function latentHeatJPerKg(tempC: number): number {
   return saturationState(tempC).latentHeatJPerKg;

@@ -54,7 +54,7 @@ let latent: Float64Array | null = null;
 /**
  * Latent heat of vaporisation by table interpolation (SR1-86 auxiliary equations, see
  * latent-heat.ts), J/kg; input clamped to 0–100 °C.
- * @example fastLatentHeatJPerKg(26.67) // ≈ 2.438e6
+ * @example fastLatentHeatJPerKg(30) // ≈ 2.430e6
  */
 export function fastLatentHeatJPerKg(tempC: number): number {
   if (latent === null) {

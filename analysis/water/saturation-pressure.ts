@@ -15,7 +15,7 @@ const n = [
  * @param tempC water temperature, °C, 0 to 373.946 (triple point region to critical point)
  * @returns pressure, Pa
  * @throws TypeError when not finite; RangeError outside 0–373.946 °C.
- * @example saturationPressurePa(26.85) // 3536.59 (IF97 Table 35: 300 K → 0.00353658941 MPa)
+ * @example saturationPressurePa(30) // ≈ 4246.7
  */
 export function saturationPressurePa(tempC: number): number {
   requireFinite(tempC, 'tempC');
@@ -36,6 +36,31 @@ export function saturationPressureUncheckedPa(tempK: number): number {
 }
 
 /**
+ * Eq. (30) and its derivative dp/dT, without argument checks (for inner loops: the forecast
+ * linearises evaporation about the pool temperature each step). Differentiated by hand through
+ * ϑ = T + n9/(T − n10) and the quadratic root of Eq. (30).
+ * @param tempK temperature, K
+ * @param out out[0] = pressure, Pa; out[1] = dp/dT, Pa/K
+ * @example saturationPressureAndSlopeUnchecked(300, out) // out ≈ [3536.6, 207.9]
+ */
+export function saturationPressureAndSlopeUnchecked(tempK: number, out: Float64Array): void {
+  const u = tempK - n[9];
+  const th = tempK + n[8] / u;
+  const dth = 1 - n[8] / (u * u);
+  const A = th * th + n[0] * th + n[1], dA = 2 * th + n[0];
+  const B = n[2] * th * th + n[3] * th + n[4], dB = 2 * n[2] * th + n[3];
+  const C = n[5] * th * th + n[6] * th + n[7], dC = 2 * n[5] * th + n[6];
+  const D = Math.sqrt(B * B - 4 * A * C);
+  const dD = (B * dB - 2 * (dA * C + A * dC)) / D;
+  const den = D - B, dDen = dD - dB;
+  const x = (2 * C) / den;
+  const dx = (2 * (dC * den - C * dDen)) / (den * den);
+  const x3 = x * x * x;
+  out[0] = x3 * x * 1e6;
+  out[1] = 4 * x3 * dx * dth * 1e6;
+}
+
+/**
  * Saturation (boiling) temperature at a pressure.
  * @param pressurePa absolute pressure, Pa, 611.213 Pa to 22.064 MPa
  * @returns temperature, °C
@@ -47,6 +72,16 @@ export function saturationTempC(pressurePa: number): number {
   if (pressurePa < 611.213 || pressurePa > 22.064e6) {
     throw new RangeError(`pressurePa must be between 611.213 Pa and 22.064 MPa, got ${pressurePa}`);
   }
+  return saturationTempUncheckedC(pressurePa);
+}
+
+/**
+ * Eq. (31) without argument checks: below the triple-point pressure it extrapolates over
+ * supercooled liquid (a dew point below 0 °C); −Infinity for a pressure of 0 or less.
+ * @example saturationTempUncheckedC(101325) // 99.974
+ */
+export function saturationTempUncheckedC(pressurePa: number): number {
+  if (!(pressurePa > 0)) return -Infinity;
   const beta = (pressurePa / 1e6) ** 0.25;
   const E = beta * beta + n[2] * beta + n[5];
   const F = n[0] * beta * beta + n[3] * beta + n[6];

@@ -6,6 +6,7 @@ import * as forecast from '../../../analysis/cli/forecast';
 import * as uncertainty from '../../../analysis/cli/uncertainty';
 import * as cost from '../../../analysis/cli/cost';
 import { InputError } from '../../../analysis/cli/input-error';
+import { waterDensityKgPerM3 } from '../../../analysis/water/water-properties';
 
 type Out = Record<string, any>;
 
@@ -32,10 +33,14 @@ describe('volume command (contract of issue 5 item 13)', () => {
 });
 
 describe('mix command', () => {
-  test('1000 gal at 100 °F + 9000 gal at 70 °F → 73 °F', () => {
+  test('1000 gal at 100 °F + 9000 gal at 70 °F → 73 °F by the volume-weighted rule (common practice), 72.99 °F by mass and enthalpy', () => {
     const r = mix.run({ parts: [{ volume: '1000 gal', temp: '100 degF' }, { volume: '9000 gal', temp: '70 degF' }] }) as Out;
-    expect(r.temp_degF).toBeCloseTo(73, 10);
-    expect(r.temp_degC).toBeCloseTo(22.7778, 4);
+    expect(r.volumeWeighted.temp_degF).toBeCloseTo(73, 10);
+    expect(r.volumeWeighted.temp_degC).toBeCloseTo(22.7778, 4);
+    // the 100 °F water is 0.5 % lighter than the 70 °F water (IF97), so the mix lands a little lower
+    expect(r.temp_degF).toBeLessThan(73);
+    expect(r.temp_degF).toBeGreaterThan(72.98);
+    expect(r.method).toMatch(/enthalpy/);
   });
   test('a negative volume is refused', () => {
     expect(() => mix.run({ parts: [{ volume: '-1 gal', temp: '100 degF' }] })).toThrow(/parts\[0\]\.volume/);
@@ -43,16 +48,25 @@ describe('mix command', () => {
 });
 
 describe('coil command', () => {
-  test('Ts 90, Tin 20, UA 500, 6 L/min → close to check value #2 (mass flow with IF97 density at the inlet)', () => {
-    const r = coil.run({ sourceTemp: '90 degC', inletTemp: '20 degC', UA: '500 W/K', flow: '6 L/min' }) as Out;
-    // check #2 uses ṁ = 0.1 kg/s and cp 4186; 6 L/min of 20 °C water is 0.0998 kg/s with cp 4184
-    expect(r.massFlow_kg_per_s).toBeCloseTo(0.0998, 4);
-    expect(Math.abs(r.outletTemp_degC - 68.8)).toBeLessThan(0.1);
+  test('Ts 90, Tin 20, UA 500, ṁ 0.1 kg/s → check value #2: ε 0.6971, Tout 68.80 °C, q 20,427 W (ε-NTU, computed)', () => {
+    const r = coil.run({ sourceTemp: '90 degC', inletTemp: '20 degC', UA: '500 W/K', massFlow: '0.1 kg/s' }) as Out;
+    // check #2 takes cp = 4186; the command takes IF97 cp at the mean water temperature, 4178.7 (0.17 % less)
+    expect(r.cp_J_per_kg_K).toBeCloseTo(4178.7, 1);
+    expect(Math.abs(r.outletTemp_degC - 68.8)).toBeLessThan(0.05);
     expect(Math.abs(r.heat_W / 20427 - 1)).toBeLessThan(0.002);
-    expect(r.effectiveness).toBeCloseTo(0.698, 3);
+    expect(Math.abs(r.effectiveness - 0.6971)).toBeLessThan(0.001);
     expect(r.heatCeiling_W).toBe(35000);
     expect(r.cautions.map((c: Out) => c.code)).toContain('scald-seconds');
     expect(r.minimumFlows.map((m: Out) => m.limit_degC)).toEqual([60, 49, 40]);
+  });
+  test('6 L/min of outlet water (a bucket): ṁ = ρ(Tout)·V̇ (DOMAIN.md §1.1); measured at the inlet: ρ(Tin)·V̇', () => {
+    const r = coil.run({ sourceTemp: '90 degC', inletTemp: '20 degC', UA: '500 W/K', flow: '6 L/min' }) as Out;
+    expect(r.density_kg_per_m3).toBeCloseTo(waterDensityKgPerM3(r.outletTemp_degC), 9);
+    expect(r.massFlow_kg_per_s).toBeCloseTo((r.density_kg_per_m3 * 6) / 60000, 12);
+    const atInlet = coil.run({ sourceTemp: '90 degC', inletTemp: '20 degC', UA: '500 W/K', flow: '6 L/min', flowMeasuredAt: 'inlet' }) as Out;
+    expect(atInlet.density_kg_per_m3).toBeCloseTo(waterDensityKgPerM3(20), 9);
+    // lighter outlet water: less mass for the same volume, so a hotter outlet
+    expect(r.outletTemp_degC).toBeGreaterThan(atInlet.outletTemp_degC);
   });
   test('zero flow gives the dead-heading warning, not NaN', () => {
     const r = coil.run({ sourceTemp: '150 degC', inletTemp: '20 degC', UA: '500 W/K', flow: '0 L/min' }) as Out;
@@ -147,9 +161,9 @@ describe('the command line itself', () => {
   const cli = (cmd: string, input: unknown) =>
     spawnSync(process.execPath, [path.join(root, 'node_modules/tsx/dist/cli.mjs'), path.join(root, 'analysis/cli.ts'), cmd], { input: JSON.stringify(input), encoding: 'utf8' });
   test('prints one JSON object and exits 0; malformed input exits 2 naming the field', () => {
-    const ok = cli('coil', { sourceTemp: '90 degC', inletTemp: '20 degC', UA: '500 W/K', flow: '6 L/min' });
+    const ok = cli('coil', { sourceTemp: '90 degC', inletTemp: '20 degC', UA: '500 W/K', massFlow: '0.1 kg/s' });
     expect(ok.status).toBe(0);
-    expect(JSON.parse(ok.stdout).outletTemp_degC).toBeCloseTo(68.85, 1);
+    expect(JSON.parse(ok.stdout).outletTemp_degC).toBeCloseTo(68.8, 1); // check value #2
     const bad = cli('coil', { sourceTemp: '90 degC', inletTemp: '20 degC', UA: '500 W/K', flow: '5 kg' });
     expect(bad.status).toBe(2);
     expect(bad.stderr).toMatch(/flow: "5 kg" is not a volumeFlow/);

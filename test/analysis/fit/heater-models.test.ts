@@ -1,5 +1,6 @@
 import { describe, expect, test } from 'vitest';
 import { bootstrapDerived, compareModels, fitModel, heatOptimum, predictAt } from '../../../analysis/fit';
+import { trialWaterProperties } from '../../../analysis/water/trial-water';
 
 // DOMAIN.md §1.3 demonstration (computed): exact constant-source coil data, Ts = 90 °C, Tin = 20 °C,
 // UA = 500 W/K, cp = 4186 J/(kg·K), 13 evenly spaced flows from 2 to 20 L/min, 1 kg/L for this check.
@@ -41,12 +42,14 @@ describe('coil model (effectiveness–NTU, Cr → 0)', () => {
     expect(h.flowM3PerS).toBeCloseTo(20 * LPM, 12);
   });
 
-  test('uses the documented defaults 1000 kg/m³ and 4186 J/(kg·K) only when rho and cp are absent, and says so', () => {
+  test('takes IF97 water at the documented temperatures only when rho and cp are absent (ρ at the outlet, cp at the mean), and says so', () => {
     const f = fitModel({ x, y, model: 'coil', covariates: { Tin } });
     expect(f.ok).toBe(true);
     if (!f.ok) return;
-    expect(f.params.UA.value).toBeCloseTo(500, 6);
-    expect(f.warnings.filter((w) => w.code === 'default-property').length).toBe(2);
+    const water = y.map((t) => trialWaterProperties(20, t));
+    const same = fitModel({ x, y, model: 'coil', covariates: { Tin, rho: water.map((w) => w.densityKgPerM3), cp: water.map((w) => w.cpJPerKgK) } });
+    expect(same.ok && same.params.UA.value).toBeCloseTo(f.params.UA.value, 9);
+    expect(f.warnings.filter((w) => w.code === 'default-property').map((w) => w.message).join(' ')).toMatch(/IAPWS-IF97 density at each outlet.*IAPWS-IF97 cp at the mean/);
     const g = fitModel({ x, y, model: 'coil', covariates: { Tin, rho: rho.map(() => 994), cp } });
     expect(g.ok && g.warnings.some((w) => w.code === 'default-property')).toBe(false);
     if (g.ok) expect(g.params.UA.value).toBeCloseTo(500 * 0.994, 6);
