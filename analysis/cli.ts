@@ -7,7 +7,7 @@
  * or an unknown command.
  *
  * Each command lives in analysis/cli/<command>.ts and exports `run(input: unknown): unknown`
- * and `help: string`. A thrown `InputError` (analysis/cli/input-error.ts) means malformed input.
+ * and `help: string`. A thrown `InputError` (analysis/units/reading-input.ts) means malformed input.
  * Every number of every result is checked here, once, to be finite (JSON would print null).
  * The process ends by itself once stdout is flushed (`process.exitCode`, never `process.exit`,
  * which would cut a long result written to a pipe).

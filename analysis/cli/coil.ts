@@ -1,5 +1,5 @@
 /** `coil`: outlet temperature, heat and effectiveness of a coil in a constant-temperature source. */
-import { InputError, readingInput } from './input-error';
+import { InputError, readingInput } from '../units/reading-input';
 import { minimumMassFlowKgPerS } from '../performance/coil-ntu';
 import { coilAtFlow } from '../performance/coil-at-flow';
 import { trialWaterProperties } from '../water/trial-water';

@@ -1,5 +1,5 @@
 /** `collector`: steady-state efficiency curve of a solar collector test (ISO 9806 form). */
-import { InputError, readingInput } from './input-error';
+import { InputError, readingInput } from '../units/reading-input';
 import { collectorTest, type CollectorTrial } from '../performance/collector-test';
 import { ISO9806_STEADY_LIMITS } from '../performance/collector-steadiness';
 import type { FieldReader, Fields } from '../units/read-fields';

@@ -1,5 +1,5 @@
 /** `compare`: two heater designs from their trials — UA ratio, Ts difference and delivered heat, in words. */
-import { InputError, readingInput } from './input-error';
+import { InputError, readingInput } from '../units/reading-input';
 import { compareDesigns, MAX_COMPARE_POINTS, type DeltaInterval, type DesignData } from '../compare/compare-designs';
 import { parseQuantity } from '../units/parse-quantity';
 import { asObject, plainNumber } from '../units/read-fields';

@@ -1,5 +1,5 @@
 /** `cost`: cost per useful therm and per degree, a build-cost sheet, payback. */
-import { InputError, readingInput } from './input-error';
+import { InputError, readingInput } from '../units/reading-input';
 import { FUELS, type FuelKind } from '../cost/fuels';
 import { costPerDegree, usefulHeatCost } from '../cost/useful-heat-cost';
 import { buildCostSheet, type BuildItem } from '../cost/build-cost';

@@ -5,7 +5,7 @@
  */
 import { fitModel } from '../fit';
 import type { FitInput, FitSuccess } from '../fit';
-import { InputError } from './input-error';
+import { InputError } from '../units/reading-input';
 
 export const help = `fit: least-squares fit of a model to x/y data (solver checked against NIST StRD)
 

@@ -1,5 +1,5 @@
 /** `mix`: the mixed temperature of volumes of water. */
-import { InputError, readingInput } from './input-error';
+import { InputError, readingInput } from '../units/reading-input';
 import { mixTemperatureC, volumeWeightedTempC } from '../pool/mixing';
 import { waterDensityKgPerM3 } from '../water/water-properties';
 import { temperatureCautions } from '../safety/cautions';

@@ -1,5 +1,5 @@
 /** `plan`: a locally D-optimal test session for a heater model, safe against an outlet limit. */
-import { InputError, readingInput } from './input-error';
+import { InputError, readingInput } from '../units/reading-input';
 import { BUILTIN_MODELS } from '../fit';
 import { MAX_PLAN_TRIALS, planSession, type PlanPrior } from '../plan/plan-session';
 import { PLANNABLE_MODELS } from '../plan/model-response';

@@ -1,5 +1,5 @@
 /** `uncertainty`: GUM budget of a bucket-and-thermometer trial. */
-import { InputError, readingInput } from './input-error';
+import { InputError, readingInput } from '../units/reading-input';
 import { heatRateBudget } from '../trial/heat-rate-budget';
 import type { Budget } from '../trial/gum-budget';
 import { parseQuantity } from '../units/parse-quantity';

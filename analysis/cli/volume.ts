@@ -1,6 +1,7 @@
 /** `volume`: water volume and surface area of a pool or tub from dimensions with units. */
-import { InputError, readingInput } from './input-error';
-import { poolGeometry, type PoolDimensions, type PoolShape } from '../pool/pool-geometry';
+import { readingInput } from '../units/reading-input';
+import { poolGeometry } from '../pool/pool-geometry';
+import { readPoolDimensions } from '../pool/read-pool-dimensions';
 import { convert } from '../units/parse-quantity';
 import { energyPerDegreeJPerK } from '../pool/energy-per-degree';
 
@@ -10,28 +11,10 @@ input: {"shape":"round","diameter":"18 ft","depth":"4 ft"}
   depth, or shallowDepth + deepDepth (water depth, not wall height); optional volume (metered) and area
 output: {"volume_m3", "area_m2", "volume_gal", "area_ft2", "meanDepth_m", "energyPerDegree_J_per_K", "method", "notes"}`;
 
-const SHAPES = ['round', 'rectangle', 'ellipse', 'stadium', 'kidney'];
-
 export function run(input: unknown): unknown {
   return readingInput((read) => {
     const o = read.asObject(input, 'input');
-    if (typeof o.shape !== 'string' || !SHAPES.includes(o.shape)) {
-      throw new InputError(`shape must be one of ${SHAPES.join(', ')}, got ${JSON.stringify(o.shape)}`);
-    }
-    const length = (key: string, as: string) => read.optionalQuantity(o, key, 'length', { as });
-    const d: PoolDimensions = {
-      shape: o.shape as PoolShape,
-      diameterM: length('diameter', 'diameterM'),
-      lengthM: length('length', 'lengthM'),
-      widthM: length('width', 'widthM'),
-      width2M: length('width2', 'width2M'),
-      depthM: length('depth', 'depthM'),
-      shallowDepthM: length('shallowDepth', 'shallowDepthM'),
-      deepDepthM: length('deepDepth', 'deepDepthM'),
-      enteredVolumeM3: read.optionalQuantity(o, 'volume', 'volume', { as: 'enteredVolumeM3' }),
-      enteredAreaM2: read.optionalQuantity(o, 'area', 'area', { as: 'enteredAreaM2' }),
-    };
-    const g = poolGeometry(d);
+    const g = poolGeometry(readPoolDimensions(read, o));
     return {
       volume_m3: g.volumeM3, area_m2: g.areaM2, volume_gal: convert(g.volumeM3, 'm^3', 'gal'), area_ft2: convert(g.areaM2, 'm^2', 'ft^2'),
       meanDepth_m: g.meanDepthM, energyPerDegree_J_per_K: energyPerDegreeJPerK(g.volumeM3), method: g.volumeMethod, notes: g.notes,

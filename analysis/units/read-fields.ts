@@ -135,6 +135,10 @@ export function fieldReader() {
     translate(message: string): string {
       return inUserWords(message, reads);
     },
+    /** the user's path of the field a message (in the user's words) begins with, if one was read */
+    fieldOf(message: string): string | undefined {
+      return [...reads].sort((a, b) => b.path.length - a.path.length).find((r) => message.startsWith(r.path) && !/[\w[]/.test(message[r.path.length] ?? ' '))?.path;
+    },
   };
   return reader;
 }

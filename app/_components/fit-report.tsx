@@ -37,14 +37,28 @@ export interface FitView {
   stoppingReason: string;
   flags: { highLeverage: number[]; influential: number[]; outliers: number[] };
   lackOfFit: { ok: boolean; F?: number; pValue?: number; verdict?: string; reason?: string } | null;
-  warnings: { code: string; message: string }[];
+  warnings: { code: string; message: string; parameter?: string }[];
 }
 
 const PARAM_UNITS: Record<string, string> = { Ts: '°C', UA: 'W/K', Tinf: '°C', A: 'K', k: 's/m³' };
 
 export function ParameterTable({ fit }: { fit: FitView }) {
+  // parameters the data cannot determine: their standard errors and intervals mean nothing
+  const unknown = fit.warnings.filter((w) => w.code === 'not-identifiable');
+  const undetermined = new Set(unknown.map((w) => w.parameter).filter(Boolean));
   return (
     <div className="overflow-x-auto">
+      {unknown.length ? (
+        <div role="note" className="mb-2 rounded-lg border border-danger-line bg-danger-bg px-3 py-2 text-sm text-danger-text">
+          <p className="font-semibold">These trials cannot determine every parameter.</p>
+          <ul className="mt-1 list-disc pl-5">
+            {unknown.map((w) => (
+              <li key={w.message}>{w.message}</li>
+            ))}
+          </ul>
+          <p className="mt-1">Test at more different flows (low flows pin the source temperature, high flows the conductance) before relying on them.</p>
+        </div>
+      ) : null}
       <table className="data-table">
         <caption className="px-3 py-2 text-left text-sm font-semibold text-ink">{fit.label}: parameters ({Math.round(fit.level * 100)} % intervals)</caption>
         <thead>
@@ -65,10 +79,19 @@ export function ParameterTable({ fit }: { fit: FitView }) {
                   {e.atBound ? <span className="ml-1 text-xs text-caution-text">at {e.atBound} bound</span> : null}
                 </th>
                 <td className="num text-right">{f(e.value, 4)}</td>
-                <td className="num text-right">{f(e.stdErr, 3)}</td>
-                <td className="num text-right">
-                  {f(e.ciLow, 4)} … {f(e.ciHigh, 4)}
-                </td>
+                {undetermined.has(p) ? (
+                  <>
+                    <td className="num text-right text-danger-text">—</td>
+                    <td className="text-right text-sm text-danger-text">not determined by these data</td>
+                  </>
+                ) : (
+                  <>
+                    <td className="num text-right">{f(e.stdErr, 3)}</td>
+                    <td className="num text-right">
+                      {f(e.ciLow, 4)} … {f(e.ciHigh, 4)}
+                    </td>
+                  </>
+                )}
               </tr>
             );
           })}

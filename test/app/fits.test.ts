@@ -88,3 +88,20 @@ describe('fit exports', () => {
     expect((await get('?format=csv&table=Nope')).status).toBe(422);
   });
 });
+
+describe('fits on data that cannot decide a parameter', () => {
+  // Flat outlets at every flow cannot tell UA (closed form, DOMAIN.md §1.2: Tout → Ts at low flow, →
+  // Tin at high flow; with neither seen, any UA with Ts at the level fits as well).
+  test('the analysis says "not identifiable: UA" in its warnings, and the saved fit keeps it', async () => {
+    const eng = await signedIn('engineer@cinder-hollow.test');
+    const lab = (await eng.get('/api/me')).body.labs[0];
+    const rig = (await eng.post(`/api/labs/${lab.id}/rigs`, { name: `Flat rig ${Date.now()}`, heatSource: 'wood-fire' })).body.rig;
+    const trials = [3, 5, 7, 9, 11, 13, 15, 17].map((lpm, i) => ({ flow: `${lpm} L/min`, inlet: '18 degC', outlet: `${45 + (i % 2 ? 0.02 : -0.02)} degC` }));
+    expect((await eng.post(`/api/rigs/${rig.id}/trials`, { trials })).status).toBe(201);
+    const a = await eng.post(`/api/rigs/${rig.id}/analyze`, { models: ['coil'] });
+    expect(a.status, a.text).toBe(200);
+    const w = a.body.fits[0].warnings.find((x: { code: string }) => x.code === 'not-identifiable');
+    expect(w.message).toMatch(/^not identifiable: UA/);
+    expect(w.parameter).toBe('UA');
+  });
+});

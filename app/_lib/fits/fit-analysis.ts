@@ -6,7 +6,7 @@ import { Trial, type RigRow, type TrialRow } from '@/entities';
 import { compareModels, type FitSuccess } from '@/analysis/fit';
 import { chooseFlow } from '@/analysis/performance/choose-flow';
 import { performanceTable } from '@/analysis/performance/performance-table';
-import { waterCpJPerKgK, waterDensityKgPerM3 } from '@/analysis/water/water-properties';
+import { trialWaterProperties } from '@/analysis/water/trial-water';
 import { plotToSvg } from '../plots/plot-svg';
 import { fitCurveInputFromFits, fitCurvePlot, heatInputFromFit, heatPlot, residualInputFromFit, residualPlots, type PlotFigure, type UnitSystem } from '../plots';
 import { DomainError } from '../server/errors';
@@ -72,14 +72,17 @@ export function trialsHash(trials: TrialRow[]): string {
  * at the mean of inlet and outlet).
  */
 export function fitData(trials: TrialRow[]) {
+  // the water rule of analysis/water/trial-water.ts, on temperatures kept inside liquid water (a
+  // trial may record up to 150 °C: the property tables stop at 100 °C)
   const clamp = (t: number) => Math.min(Math.max(t, 0.01), 99.9);
+  const water = trials.map((t) => trialWaterProperties(clamp(t.inletTempC), clamp(t.outletTempC)));
   return {
     x: trials.map((t) => t.flowM3PerS),
     y: trials.map((t) => t.outletTempC),
     covariates: {
       Tin: trials.map((t) => t.inletTempC),
-      rho: trials.map((t) => waterDensityKgPerM3(clamp(t.outletTempC))),
-      cp: trials.map((t) => waterCpJPerKgK(clamp((t.inletTempC + t.outletTempC) / 2))),
+      rho: water.map((w) => w.densityKgPerM3),
+      cp: water.map((w) => w.cpJPerKgK),
     },
   };
 }

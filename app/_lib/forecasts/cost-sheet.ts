@@ -3,7 +3,10 @@ import { z } from 'zod';
 import { FUELS, type FuelKind } from '@/analysis/cost/fuels';
 import { costPerDegree, usefulHeatCost, USEFUL_THERM_J } from '@/analysis/cost/useful-heat-cost';
 import { energyPerDegreeJPerK } from '@/analysis/pool/energy-per-degree';
-import { run as runVolume } from '@/analysis/cli/volume';
+import { poolGeometry } from '@/analysis/pool/pool-geometry';
+import { readPoolDimensions } from '@/analysis/pool/read-pool-dimensions';
+import { InputError, readingInput } from '@/analysis/units/reading-input';
+import { invalid } from '../server/errors';
 import { parseQuantity } from '@/analysis/units/parse-quantity';
 import type { StudyBlock } from '@/entities/study';
 import type { CostView } from '../../_components/study-block-types';
@@ -42,62 +45,63 @@ export const costBlockData = z
   .strict();
 export type CostBlockData = z.infer<typeof costBlockData>;
 
-/** Bad or missing settings of a cost block; the message names the field. */
-export class CostInputError extends Error {}
+/** A bad or missing setting of a cost block: invalid input naming the field (the message begins with it). */
+const bad = (field: string, message: string) => invalid(`${field}: ${message}`, { [field]: message });
 
-const mustRead = <T,>(f: () => T): T => {
+/** Reads a setting; what the analysis refuses becomes invalid input naming the field. */
+const mustRead = <T,>(field: string, f: () => T): T => {
   try {
-    return f();
+    return readingInput(() => f());
   } catch (e) {
-    if (e instanceof RangeError || e instanceof TypeError || (e instanceof Error && e.name === 'InputError')) throw new CostInputError(e.message);
+    if (e instanceof InputError) throw invalid(e.message, { [field]: e.message });
     throw e;
   }
 };
 
 /** Volume, °C at the middle of the heat-up and the rise, from a forecast block's settings. */
 function fromForecast(block: StudyBlock | undefined) {
-  if (!block || block.kind !== 'forecast') throw new CostInputError('forecastBlockId: pick a forecast block of this study for the heat needed.');
+  if (!block || block.kind !== 'forecast') throw bad('forecastBlockId', 'pick a forecast block of this study for the heat needed.');
   const d = block.data;
-  const volumeM3 = mustRead(() =>
-    d.pool && typeof d.pool === 'object' ? (runVolume(d.pool) as { volume_m3: number }).volume_m3 : parseQuantity(d.poolVolume, 'volume', 'forecast poolVolume'),
+  const volumeM3 = mustRead('forecastBlockId', () =>
+    d.pool && typeof d.pool === 'object' ? readingInput((read) => poolGeometry(readPoolDimensions(read, d.pool, 'forecast pool'))).volumeM3 : parseQuantity(d.poolVolume, 'volume', 'forecast poolVolume'),
   );
-  const startC = mustRead(() => parseQuantity(d.startTemp, 'temperature', 'forecast startTemp'));
-  const targetC = mustRead(() => parseQuantity(d.targetTemp, 'temperature', 'forecast targetTemp'));
-  if (!(targetC > startC)) throw new CostInputError('The forecast block’s target is not above its start temperature: there is no heat-up to cost.');
+  const startC = mustRead('forecastBlockId', () => parseQuantity(d.startTemp, 'temperature', 'forecast startTemp'));
+  const targetC = mustRead('forecastBlockId', () => parseQuantity(d.targetTemp, 'temperature', 'forecast targetTemp'));
+  if (!(targetC > startC)) throw invalid('The forecast block’s target is not above its start temperature: there is no heat-up to cost.', { forecastBlockId: 'its target is not above its start temperature' });
   return { volumeM3, midC: (startC + targetC) / 2, riseK: targetC - startC, basis: 'the forecast block’s pool from its start to its target temperature' };
 }
 
 /**
  * The numbers of a cost block.
  * @param blocks the study's blocks (a forecast block is looked up by `forecastBlockId`)
- * @throws CostInputError naming the field when a setting is missing or cannot be read.
+ * @throws DomainError (invalid) naming the field when a setting is missing or cannot be read.
  */
 export function costView(data: Record<string, unknown>, blocks: readonly StudyBlock[] = []): CostView {
   const parsed = costBlockData.safeParse(data);
   if (!parsed.success) {
     const i = parsed.error.issues[0];
-    throw new CostInputError(`${i?.path.join('.') || 'settings'}: ${i?.message ?? 'not valid'}`);
+    throw bad(i?.path.join('.') || 'settings', i?.message ?? 'not valid');
   }
   const d = parsed.data;
   const fuel: FuelKind = d.fuel ?? 'propane';
   const info = FUELS[fuel];
-  if (d.price == null) throw new CostInputError(`price: enter the price of ${FUEL_LABELS[fuel].toLowerCase()} per ${info.priceUnit}.`);
-  const u = mustRead(() => usefulHeatCost({ fuel, pricePerUnit: d.price!, efficiency: d.efficiency ?? undefined }));
+  if (d.price == null) throw bad('price', `enter the price of ${FUEL_LABELS[fuel].toLowerCase()} per ${info.priceUnit}.`);
+  const u = mustRead('efficiency', () => usefulHeatCost({ fuel, pricePerUnit: d.price!, efficiency: d.efficiency ?? undefined }));
   let volumeM3: number | null = null, riseK: number | null = null, midC = 25, heatJ: number, heatBasis: string;
   const from = d.heatFrom ?? 'pool';
   if (from === 'energy') {
-    heatJ = mustRead(() => parseQuantity(d.heat, 'energy', 'heat'));
-    if (!(heatJ > 0)) throw new CostInputError('heat: give the useful heat needed, more than zero (e.g. "2248 therm" or "500 kWh").');
+    heatJ = mustRead('heat', () => parseQuantity(d.heat, 'energy', 'heat'));
+    if (!(heatJ > 0)) throw bad('heat', 'give the useful heat needed, more than zero (e.g. "100 therm" or "500 kWh").');
     heatBasis = 'the useful heat given';
   } else {
     if (from === 'forecast') ({ volumeM3, midC, riseK, basis: heatBasis } = fromForecast(blocks.find((b) => b.id === d.forecastBlockId)));
     else {
-      volumeM3 = mustRead(() => parseQuantity(d.poolVolume, 'volume', 'poolVolume'));
-      riseK = mustRead(() => parseQuantity(d.rise, 'temperatureDifference', 'rise'));
-      if (!(riseK > 0)) throw new CostInputError('rise: give the temperature rise of the heat-up, more than zero.');
+      volumeM3 = mustRead('poolVolume', () => parseQuantity(d.poolVolume, 'volume', 'poolVolume'));
+      riseK = mustRead('rise', () => parseQuantity(d.rise, 'temperatureDifference', 'rise'));
+      if (!(riseK > 0)) throw bad('rise', 'give the temperature rise of the heat-up, more than zero.');
       heatBasis = 'the pool volume and rise given (water properties at 25 °C)';
     }
-    if (!(volumeM3! > 0)) throw new CostInputError('poolVolume: the pool volume must be more than zero.');
+    if (!(volumeM3! > 0)) throw bad('poolVolume', 'the pool volume must be more than zero.');
     heatJ = energyPerDegreeJPerK(volumeM3!, midC) * riseK!;
   }
   const perDegree = volumeM3 ? costPerDegree(volumeM3, u.perUsefulTherm, midC) : null;

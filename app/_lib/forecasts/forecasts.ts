@@ -1,77 +1,68 @@
 import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
+import { z } from 'zod';
 import { Fit, type LabRow } from '@/entities';
 import type { FitSuccess } from '@/analysis/fit';
-import { run as runForecast } from '@/analysis/cli/forecast';
-import { run as runVolume } from '@/analysis/cli/volume';
 import { costPerDegree, usefulHeatCost, USEFUL_THERM_J } from '@/analysis/cost/useful-heat-cost';
 import type { FuelKind } from '@/analysis/cost/fuels';
-import { coilHeater } from '@/analysis/performance/heater-model';
-import { risePerHourTable } from '@/analysis/pool/mixing';
-import { parseQuantity } from '@/analysis/units/parse-quantity';
-import { reduceForDisplay } from '@/analysis/reduce';
 import { checkForecastWork, FORECAST_LIMITS } from '@/analysis/forecast/forecast-limits';
-import { z } from 'zod';
-import { DomainError } from '../server/errors';
+import { forecastJson } from '@/analysis/forecast/forecast-json';
+import { readForecastInput } from '@/analysis/forecast/read-forecast-input';
+import { recirculatingForecast, type ForecastInput, type ForecastResult } from '@/analysis/forecast/recirculating-forecast';
+import { risePerHourTable } from '@/analysis/pool/mixing';
+import { poolGeometry, type PoolGeometry } from '@/analysis/pool/pool-geometry';
+import { readPoolDimensions } from '@/analysis/pool/read-pool-dimensions';
+import { reduceForDisplay } from '@/analysis/reduce';
+import { parseQuantity } from '@/analysis/units/parse-quantity';
+import { readingInput } from '@/analysis/units/reading-input';
+import { waterDensityKgPerM3 } from '@/analysis/water/water-properties';
+import { invalid, notFound } from '../server/errors';
 import { plotToSvg } from '../plots/plot-svg';
 import { energyBudgetInput, energyBudgetPlot, forecastPlot, type UnitSystem } from '../plots';
 import { isUuid } from '../labs/load-in-lab';
 import type { ForecastExport } from '../exports';
 
-interface ForecastOutput {
-  finalTemp_degC: number;
-  poolMass_kg: number;
-  maxTemp_degC: number;
-  maxOutletTemp_degC: number;
-  hoursToTarget_h: number | null;
-  equilibriumTemp_degC: number | null;
-  equilibriumNote?: string;
-  energy_J: Record<string, number>;
-  evaporated_kg: number;
-  series: { time_h: number; temp_degC: number; outletTemp_degC: number }[];
-  cautions: { code: string; level: string; thresholdC: number | null; message: string }[];
+/** A forecast as the app runs it: the typed input, its result, and what the page adds. */
+interface Prepared {
+  input: ForecastInput;
+  result: ForecastResult;
+  pool: PoolGeometry | null;
+  fitNote: string | null;
+  costInput: unknown;
 }
 
 /**
- * Runs the recirculating forecast (the same contract as `npm run analysis -- forecast`, unit
- * strings in) and renders its plots. With `fitId`, the heater is the saved coil fit's Ts and UA.
+ * Runs the recirculating forecast of a request body (the same fields as `npm run analysis --
+ * forecast`, quantities as unit strings; `pool` by its shape instead of a volume; `fitId` for a
+ * saved coil fit as the heater) and renders its plots.
+ * @throws DomainError not_found (no such fit); InputError (422) naming the field the user wrote
  */
 export async function forecast(em: EntityManager, lab: LabRow, body: Record<string, unknown>, units: UnitSystem) {
-  const { input, out, pool, fitNote, costInput } = await runForecastBody(em, lab, body);
-  const hours = out.series.at(-1)?.time_h ?? 0;
-  const targetC = typeof out.hoursToTarget_h === 'number' || input.targetTemp ? parseTarget(input.targetTemp) : null;
+  const { input, result: r, pool, fitNote, costInput } = await prepareForecast(em, lab, body);
   // Long series (a season sampled hourly and finer) are reduced for display, keeping extremes and endpoints.
-  const shown = reduceForDisplay(out.series.map((s) => s.time_h), out.series.map((s) => s.temp_degC));
-  const pick = <T,>(f: (s: ForecastOutput['series'][number]) => T) => Array.from(shown.indices, (i) => f(out.series[i]));
+  const shown = reduceForDisplay(r.timeH, r.tempC);
+  const pick = (a: Float64Array) => Array.from(shown.indices, (i) => a[i]);
   const trajectory = forecastPlot(
     {
-      timeH: pick((s) => s.time_h),
-      poolC: pick((s) => s.temp_degC),
-      outletTempC: pick((s) => s.outletTemp_degC),
-      targetC,
-      hoursToTarget: out.hoursToTarget_h,
-      cautions: out.cautions.filter((c) => c.thresholdC !== null).map((c) => ({ thresholdC: c.thresholdC!, level: c.level, message: c.message })),
+      timeH: pick(r.timeH),
+      poolC: pick(r.tempC),
+      outletTempC: pick(r.outletTempC),
+      targetC: input.targetTempC ?? null,
+      hoursToTarget: r.hoursToTarget,
+      cautions: r.cautions.filter((c) => c.thresholdC !== null).map((c) => ({ thresholdC: c.thresholdC!, level: c.level, message: c.message })),
     },
     units,
   );
-  const budget = energyBudgetPlot(
-    energyBudgetInput(
-      budgetOf(out),
-      hours,
-    ),
-    units,
-  );
-  const { series, ...summary } = out;
-  const extras = await forecastExtras(input, pool, out, costInput);
+  const budget = energyBudgetPlot(energyBudgetInput(r.energy, input.hours), units);
   return {
-    ...summary,
-    samples: series.length,
+    ...forecastJson(r),
+    samples: r.timeH.length,
     shownSamples: shown.indices.length,
     fitNote,
-    pool,
-    ...extras,
+    pool: pool && { volume_m3: pool.volumeM3, area_m2: pool.areaM2 },
+    ...forecastExtras(input, r, costInput),
     plots: {
-      trajectory: { title: trajectory.title, summary: trajectory.summary, svg: plotToSvg(trajectory.options) },
+      trajectory: { title: trajectory.title, summary: trajectory.summary, svg: plotToSvg(trajectory.options), cautions: trajectory.cautions },
       budget: { title: budget.title, summary: budget.summary, svg: plotToSvg(budget.options) },
     },
   };
@@ -100,106 +91,61 @@ export function forecastWorkProblem(body: Record<string, unknown>): string | nul
   }
 }
 
-/** The forecast of a request body: the saved fit as heater, the pool by shape, the CLI contract. */
-async function runForecastBody(em: EntityManager, lab: LabRow, body: Record<string, unknown>) {
-  const input = { ...body };
+/**
+ * The typed forecast of a request body: the saved fit as heater, the pool by its shape (its area
+ * the surface of the loss terms), read by the same reader as the command line.
+ */
+async function prepareForecast(em: EntityManager, lab: LabRow, body: Record<string, unknown>): Promise<Prepared> {
+  const { fitId, cost: costInput, pool: poolBody, ...rest } = body;
   let fitNote: string | null = null;
-  if (typeof input.fitId === 'string') {
-    const fit = isUuid(input.fitId) ? await em.findOne(Fit, { id: input.fitId, lab }) : null;
-    if (!fit) throw new DomainError('not_found', 'not_found', 'No such saved fit in this lab.');
-    if (fit.model !== 'coil') throw new DomainError('invalid', 'invalid', 'Forecasts take a saved coil fit (its Ts and UA carry over to any inlet temperature).', { fields: { fitId: 'Pick a coil fit.' } });
+  const input: Record<string, unknown> = { ...rest };
+  if (fitId !== undefined) {
+    const fit = isUuid(fitId) ? await em.findOne(Fit, { id: fitId, lab }) : null;
+    if (!fit) throw notFound('No such saved fit in this lab.');
+    if (fit.model !== 'coil') throw invalid('Forecasts take a saved coil fit (its Ts and UA carry over to any inlet temperature).', { fitId: 'Pick a coil fit.' });
     const p = (fit.result as { fit: FitSuccess }).fit.params;
     input.heater = { model: 'coil', sourceTemp: `${p.Ts.value} degC`, UA: `${p.UA.value} W/K` };
     fitNote = `Heater: saved fit "${fit.title}" v${fit.version} (Ts ${p.Ts.value.toFixed(1)} °C, UA ${p.UA.value.toFixed(0)} W/K).`;
-    delete input.fitId;
   }
-  const costInput = input.cost;
-  delete input.cost;
-  let out: ForecastOutput;
-  let pool: { volume_m3: number; area_m2: number } | null = null;
-  try {
-    if (input.pool && typeof input.pool === 'object') {
-      pool = runVolume(input.pool) as { volume_m3: number; area_m2: number };
-      input.poolVolume = `${pool.volume_m3} m^3`;
-      if (input.losses && typeof input.losses === 'object') (input.losses as Record<string, unknown>).surfaceArea = `${pool.area_m2} m^2`;
-      delete input.pool;
-    }
-    out = runForecast(input) as ForecastOutput;
-  } catch (e) {
-    if (e instanceof Error && (e.name === 'InputError' || e instanceof RangeError || e instanceof TypeError)) {
-      const field = /^([\w.[\]]+):/.exec(e.message)?.[1] ?? '_';
-      throw new DomainError('invalid', 'invalid', e.message, { fields: { [field]: e.message } });
-    }
-    throw e;
-  }
-  return { input, out, pool, fitNote, costInput };
+  return readingInput((read) => {
+    const pool = poolBody === undefined ? null : poolGeometry(readPoolDimensions(read, poolBody, 'pool'));
+    if (pool && input.losses && typeof input.losses === 'object') input.losses = { ...(input.losses as object), surfaceArea: `${pool.areaM2} m^2` };
+    const typed = readForecastInput(read, input);
+    if (pool) typed.poolVolumeM3 = pool.volumeM3;
+    return { input: typed, result: recirculatingForecast(typed), pool, fitNote, costInput };
+  });
 }
 
 /**
  * A forecast block's results for the spreadsheet export (Forecast sheet and Summary items).
- * @throws DomainError 404 / 422 as {@link forecast}
+ * @throws as {@link forecast}
  */
 export async function forecastForExport(em: EntityManager, lab: LabRow, body: Record<string, unknown>, label: string): Promise<ForecastExport> {
-  const { out } = await runForecastBody(em, lab, body);
-  return {
-    label,
-    result: {
-      timeH: Float64Array.from(out.series, (x) => x.time_h),
-      tempC: Float64Array.from(out.series, (x) => x.temp_degC),
-      outletTempC: Float64Array.from(out.series, (x) => x.outletTemp_degC),
-      finalTempC: out.finalTemp_degC, maxTempC: out.maxTemp_degC, maxOutletTempC: out.maxOutletTemp_degC, poolMassKg: out.poolMass_kg,
-      steps: out.series.length, hoursToTarget: out.hoursToTarget_h, equilibriumTempC: out.equilibriumTemp_degC, equilibriumNote: out.equilibriumNote ?? '',
-      energy: budgetOf(out),
-      cautions: out.cautions as ForecastExport['result']['cautions'],
-    },
-  };
-}
-
-/** The energy budget by term from the CLI's output (J, kg). */
-function budgetOf(out: ForecastOutput) {
-  const e = out.energy_J;
-  return {
-    heaterJ: e.heater_J ?? 0, solarJ: e.solar_J ?? 0, evaporationJ: e.evaporation_J ?? 0, convectionJ: e.convection_J ?? 0,
-    radiationJ: e.radiation_J ?? 0, wallsJ: e.walls_J ?? 0, netJ: e.net_J ?? 0, evaporatedKg: out.evaporated_kg ?? 0,
-  };
-}
-
-function parseTarget(v: unknown): number | null {
-  if (typeof v !== 'string') return null;
-  const m = /^\s*(-?[\d.]+)\s*(degC|degF)\s*$/.exec(v);
-  if (!m) return null;
-  return m[2] === 'degF' ? ((Number(m[1]) - 32) * 5) / 9 : Number(m[1]);
+  return { label, result: (await prepareForecast(em, lab, body)).result };
 }
 
 const costSchema = z.object({ fuel: z.enum(['natural-gas', 'propane', 'electric-resistance', 'heat-pump', 'wood']), pricePerUnit: z.number().positive(), efficiency: z.number().positive().max(10).optional() }).strict();
 
 /**
- * The rise per hour by flow × pool size (coil heater, at the start temperature) and, with a fuel
+ * The rise per hour by flow × pool size (a heater with a source temperature, at the start temperature) and, with a fuel
  * price, the cost of a useful therm, of one degree and of this forecast's heat.
  */
-async function forecastExtras(input: Record<string, unknown>, pool: { volume_m3: number } | null, out: ForecastOutput, costInput: unknown) {
-  const heater = input.heater as { model?: string; sourceTemp?: string; UA?: string } | undefined;
+function forecastExtras(input: ForecastInput, r: ForecastResult, costInput: unknown) {
   let riseTable: { flowsM3PerS: number[]; volumesM3: number[]; risePerHourK: number[][] } | null = null;
-  let volumeM3: number | null = pool?.volume_m3 ?? null;
-  try {
-    if (volumeM3 === null && typeof input.poolVolume === 'string') volumeM3 = parseQuantity(input.poolVolume, 'volume', 'poolVolume');
-    if (heater?.model === 'coil' && heater.sourceTemp && heater.UA && volumeM3 && typeof input.flow === 'string' && typeof input.startTemp === 'string') {
-      const coil = coilHeater({ sourceTempC: parseQuantity(heater.sourceTemp, 'temperature', 'heater.sourceTemp'), uaWPerK: parseQuantity(heater.UA, 'conductance', 'heater.UA') });
-      const q = parseQuantity(input.flow, 'volumeFlow', 'flow');
-      const flowsM3PerS = [0.5, 1, 1.5, 2].map((k) => q * k);
-      const volumesM3 = [0.5, 1, 2].map((k) => volumeM3! * k);
-      riseTable = { flowsM3PerS, volumesM3, risePerHourK: risePerHourTable(coil, flowsM3PerS, volumesM3, parseQuantity(input.startTemp, 'temperature', 'startTemp')) };
-    }
-  } catch {
-    riseTable = null;
+  const volumeM3 = input.poolVolumeM3 ?? r.poolMassKg / waterDensityKgPerM3(input.startTempC);
+  const q = input.flowM3PerS ?? 0;
+  if (input.heater.sourceTempC !== null && q > 0) {
+    const flowsM3PerS = [0.5, 1, 1.5, 2].map((k) => q * k);
+    const volumesM3 = [0.5, 1, 2].map((k) => volumeM3 * k);
+    riseTable = { flowsM3PerS, volumesM3, risePerHourK: risePerHourTable(input.heater, flowsM3PerS, volumesM3, input.startTempC) };
   }
   let cost: { perUsefulTherm: number; perDegF: number; perK: number; forecastHeatCost: number; basis: string } | null = null;
   if (costInput !== undefined) {
     const c = costSchema.safeParse(costInput);
-    if (!c.success) throw new DomainError('invalid', 'invalid', 'cost: give a fuel, a price per unit and optionally an efficiency (COP for a heat pump).', { fields: { cost: c.error.issues[0]?.message ?? 'invalid' } });
+    if (!c.success) throw invalid('cost: give a fuel, a price per unit and optionally an efficiency (COP for a heat pump).', { cost: c.error.issues[0]?.message ?? 'invalid' });
     const u = usefulHeatCost({ fuel: c.data.fuel as FuelKind, pricePerUnit: c.data.pricePerUnit, efficiency: c.data.efficiency });
     const d = volumeM3 ? costPerDegree(volumeM3, u.perUsefulTherm) : { perDegF: NaN, perK: NaN };
-    cost = { perUsefulTherm: u.perUsefulTherm, perDegF: d.perDegF, perK: d.perK, forecastHeatCost: ((out.energy_J.heater_J ?? 0) / USEFUL_THERM_J) * u.perUsefulTherm, basis: 'HHV' };
+    cost = { perUsefulTherm: u.perUsefulTherm, perDegF: d.perDegF, perK: d.perK, forecastHeatCost: (r.energy.heaterJ / USEFUL_THERM_J) * u.perUsefulTherm, basis: 'HHV' };
     if (!Number.isFinite(cost.perK)) cost = { ...cost, perDegF: 0, perK: 0 };
   }
   return { riseTable, cost };

@@ -1,4 +1,5 @@
 import 'server-only';
+import { DomainError } from '../server/errors';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { Fit, SensorOverview, SourceFile, type FitRow, type LabRow, type StudyRow } from '@/entities';
 import type { StudyBlock } from '@/entities/study';
@@ -6,7 +7,7 @@ import type { FitSuccess } from '@/analysis/fit';
 import { SEGMENT_ROWS, type BlockBody, type BlockData, type FitHead, type PlotView } from '../../_components/study-block-types';
 import type { ChoiceView, ComparisonView, FitView, PerformanceView } from '../../_components/fit-report';
 import type { Units } from '../../_components/units';
-import { CostInputError, costView } from '../forecasts/cost-sheet';
+import { costView } from '../forecasts/cost-sheet';
 import { modelLabel } from '../fits/fit-analysis';
 import { forecast } from '../forecasts/forecasts';
 import { renderMarkdown } from './markdown';
@@ -138,7 +139,7 @@ async function body(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
       try {
         return { type: 'costs', cost: costView(d, ctx.study.blocks) };
       } catch (e) {
-        if (e instanceof CostInputError) return { type: 'note', tone: 'danger', message: `This cost sheet cannot be computed: ${e.message}` };
+        if (e instanceof DomainError && e.kind === 'invalid') return { type: 'note', tone: 'danger', message: `This cost sheet cannot be computed: ${e.message}` };
         throw e;
       }
     case 'sensor-log':

@@ -4,7 +4,7 @@ import { Fit, Rig, type StudyRow } from '@/entities';
 import type { FitSuccess } from '@/analysis/fit';
 import type { PerformanceTable } from '@/analysis/performance/performance-table';
 import { STUDY_SHEETS, studyCsv, studyWorkbook, type FitExport, type ForecastExport, type PerformanceExport, type RunningCostExport, type StudyExport, type StudySheetName, type TrialExportRow } from '../exports';
-import { CostInputError, costExport, costView } from '../forecasts/cost-sheet';
+import { costExport, costView } from '../forecasts/cost-sheet';
 import { DomainError } from '../server/errors';
 import { forecastForExport } from '../forecasts/forecasts';
 import { modelLabel, SOFTWARE_VERSION } from '../fits/fit-analysis';
@@ -64,7 +64,7 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
     try {
       running.push(costExport(label, costView(b.data, study.blocks)));
     } catch (e) {
-      if (!(e instanceof CostInputError)) throw e;
+      if (!(e instanceof DomainError && e.kind === 'invalid')) throw e;
       notes.push(`${label} cannot be computed: ${e.message}`);
     }
   });

@@ -5,7 +5,7 @@ import * as coil from '../../../analysis/cli/coil';
 import * as forecast from '../../../analysis/cli/forecast';
 import * as uncertainty from '../../../analysis/cli/uncertainty';
 import * as cost from '../../../analysis/cli/cost';
-import { InputError } from '../../../analysis/cli/input-error';
+import { InputError } from '../../../analysis/units/reading-input';
 import { waterDensityKgPerM3 } from '../../../analysis/water/water-properties';
 
 type Out = Record<string, any>;

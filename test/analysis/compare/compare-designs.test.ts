@@ -6,7 +6,7 @@ import { coilPerformance } from '../../../analysis/performance/coil-ntu';
 import { heatPerKelvinWPerK } from '../../../analysis/performance/performance-table';
 import { waterCpJPerKgK, waterDensityKgPerM3 } from '../../../analysis/water/water-properties';
 import { run } from '../../../analysis/cli/compare';
-import { InputError } from '../../../analysis/cli/input-error';
+import { InputError } from '../../../analysis/units/reading-input';
 import { normalStream } from '../../support/seeded-normals';
 
 const LPM = 1 / 60000;

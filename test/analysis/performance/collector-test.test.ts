@@ -3,7 +3,7 @@ import { collectorOutlet, collectorPowerW, type CollectorParameters } from '../.
 import { collectorTest, type CollectorTrial } from '../../../analysis/performance/collector-test';
 import { collectorSteadiness, ISO9806_STEADY_LIMITS } from '../../../analysis/performance/collector-steadiness';
 import { run } from '../../../analysis/cli/collector';
-import { InputError } from '../../../analysis/cli/input-error';
+import { InputError } from '../../../analysis/units/reading-input';
 import { normalStream } from '../../support/seeded-normals';
 
 // Solar Keymark data sheet DS 3663 (ISO 9806:2017, gross area 2.02 m²), DOMAIN.md §4 and check value #14 [16]

@@ -6,7 +6,7 @@ import { symmetricInverse } from '../../../analysis/plan/information-matrix';
 import { builtinResponseModel, responseAt } from '../../../analysis/plan/model-response';
 import { waterCpJPerKgK, waterDensityKgPerM3 } from '../../../analysis/water/water-properties';
 import { run } from '../../../analysis/cli/plan';
-import { InputError } from '../../../analysis/cli/input-error';
+import { InputError } from '../../../analysis/units/reading-input';
 import { normalStream } from '../../support/seeded-normals';
 
 const LPM = 1 / 60000;

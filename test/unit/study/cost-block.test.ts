@@ -3,7 +3,8 @@
  * brief's illustrative inputs; heat contents are the EIA factors of analysis/cost/fuels.
  */
 import { describe, expect, test } from 'vitest';
-import { CostInputError, costExport, costView } from '../../../app/_lib/forecasts/cost-sheet';
+import { costExport, costView } from '../../../app/_lib/forecasts/cost-sheet';
+import { DomainError } from '../../../app/_lib/server/errors';
 import { costsSheet } from '../../../app/_lib/exports/result-sheets';
 import type { StudyBlock } from '../../../entities/study';
 
@@ -61,8 +62,16 @@ describe('cost per useful therm, per degree and of the heat', () => {
     [{ fuel: 'propane', price: 3, efficiency: 1.2, heatFrom: 'energy', heat: '10 therm' }, /efficiency must be at most 1/],
     [{ fuel: 'coal', price: 3 }, /fuel/],
   ])('bad settings get a message naming the field (%#)', (data, msg) => {
-    expect(() => costView(data as Record<string, unknown>)).toThrow(CostInputError);
-    expect(() => costView(data as Record<string, unknown>)).toThrow(msg);
+    let err: unknown;
+    try {
+      costView(data as Record<string, unknown>);
+    } catch (e) {
+      err = e;
+    }
+    expect(err).toBeInstanceOf(DomainError);
+    expect((err as DomainError).kind).toBe('invalid');
+    expect((err as DomainError).message).toMatch(msg);
+    expect(Object.keys((err as DomainError).details.fields as object)).toHaveLength(1);
   });
 
   test('cautions travel with every cost: losses left out, field efficiency and CO for burners, GFCI and COP for heat pumps (DOMAIN.md §5, §6)', () => {
