@@ -28,4 +28,14 @@ describe('entry points load through app/_lib', () => {
     const offenders = appFiles.filter((f) => !f.endsWith('load-in-lab.ts') && /\[0-9a-f\](\{8\}|-\]\{36\})/.test(readFileSync(f, 'utf8'))).map(rel);
     expect(offenders).toEqual([]);
   });
+  test('the app calls typed analysis functions, never the command-line adapters', () => {
+    expect(appFiles.filter((f) => /from '@\/analysis\/cli/.test(readFileSync(f, 'utf8'))).map(rel)).toEqual([]);
+  });
+});
+
+describe('one error model (app/_lib/server/errors.ts)', () => {
+  test('errors are told apart by class and kind, never by their name or by parsing their message', () => {
+    const offenders = appFiles.filter((f) => /\.name === '\w*Error'|HttpError/.test(readFileSync(f, 'utf8'))).map(rel);
+    expect(offenders).toEqual([]);
+  });
 });
