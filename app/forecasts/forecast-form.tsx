@@ -174,8 +174,8 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
             </select>
           </label>
           <div className="grid grid-cols-2 gap-3">
-            {field('ts', 'Source Ts', us ? '194' : '90', tempUnit(units))}
-            {field('ua', 'UA', '500', 'W/K')}
+            {field('ts', 'Source Ts', us ? '190' : '88', tempUnit(units))}
+            {field('ua', 'UA', '430', 'W/K')}
           </div>
           <p className="text-xs text-ink-muted">Ts and UA are used only when no saved fit is chosen.</p>
         </fieldset>

@@ -2,10 +2,13 @@ import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { ApiToken, type LabRow, type UserRow } from '@/entities';
 import { audit } from '../labs/audit';
-import { DomainError, notFound } from '../server/errors';
+import { conflict, invalid, notFound } from '../server/errors';
 import { verifyPassword } from './passwords';
-import { enforceLimits } from '../server/rate-limit';
+import { checkLimit, hitLimit } from '../server/rate-limit';
 import { newSecret } from '../server/secrets';
+
+/** Most active (unrevoked, unexpired) tokens one person may hold. */
+export const MAX_ACTIVE_TOKENS = 50;
 
 /** Token lifetimes, days: chosen at creation. */
 export const TOKEN_DAYS = { default: 90, min: 1, max: 365 } as const;
@@ -16,9 +19,15 @@ export const TOKEN_DAYS = { default: 90, min: 1, max: 365 } as const;
  * once and only its hash is kept.
  */
 export async function createToken(em: EntityManager, user: UserRow, lab: LabRow, input: { name: string; password: string; expiresInDays: number }, ip: string) {
-  await enforceLimits(em, [{ key: `token-create:account:${user.id}`, max: 10, windowS: 900 }]);
+  // wrong passwords count against the account (the password check must not become an oracle); successful creations do not
+  const wrong = { key: `token-create:wrong-password:${user.id}`, max: 10, windowS: 900 };
+  await checkLimit(em, wrong);
   if (!(await verifyPassword(user.passwordHash, input.password))) {
-    throw new DomainError('invalid', 'invalid', 'The password is not right.', { fields: { password: 'Enter your current password to create a token.' } });
+    await hitLimit(em, wrong);
+    throw invalid('The password is not right.', { password: 'Enter your current password to create a token.' });
+  }
+  if ((await em.count(ApiToken, { user, revokedAt: null, expiresAt: { $gt: new Date() } })) >= MAX_ACTIVE_TOKENS) {
+    throw conflict(`You have ${MAX_ACTIVE_TOKENS} active tokens: revoke one you no longer use first.`, 'too_many_tokens');
   }
   const { token, hash } = newSecret('emb_');
   const expiresAt = new Date(Date.now() + input.expiresInDays * 86_400_000);

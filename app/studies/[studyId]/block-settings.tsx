@@ -20,7 +20,7 @@ export function costDefaults(units: 'si' | 'us', forecastBlockId: string | null)
     currency: 'USD',
     heatFrom: forecastBlockId ? 'forecast' : 'pool',
     ...(forecastBlockId ? { forecastBlockId } : {}),
-    poolVolume: units === 'us' ? '15000 gal' : '57 m^3',
+    poolVolume: units === 'us' ? '10000 gal' : '40 m^3',
     rise: units === 'us' ? '10 degF' : '5 K',
     heat: units === 'us' ? '100 therm' : '3000 kWh',
   };
@@ -94,11 +94,11 @@ export function CostSettings({ n, data, set, units, forecasts }: { n: number; da
         </label>
       ) : from === 'pool' ? (
         <>
-          {text('poolVolume', 'Pool volume', units === 'us' ? '15000 gal' : '57 m^3')}
+          {text('poolVolume', 'Pool volume', units === 'us' ? '10000 gal' : '40 m^3')}
           {text('rise', 'Rise', units === 'us' ? '10 degF' : '5 K')}
         </>
       ) : (
-        text('heat', 'Useful heat', units === 'us' ? '2248 therm' : '3000 kWh')
+        text('heat', 'Useful heat', units === 'us' ? '100 therm' : '3000 kWh')
       )}
       <p className="text-xs text-ink-muted sm:col-span-3">Quantities take units (gal, m^3, degF, K, therm, kWh). Heat contents are EIA higher heating values; efficiency defaults to the fuel’s typical value.</p>
     </div>

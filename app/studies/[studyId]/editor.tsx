@@ -125,12 +125,12 @@ export function StudyEditor({ studyId, initial, initialReviewState, fits, logs, 
   }, [status, s, studyId]); // eslint-disable-line react-hooks/exhaustive-deps
 
   const forecastDefaults = (): Record<string, unknown> => ({
-    poolVolume: units === 'us' ? '15000 gal' : '57 m^3',
+    poolVolume: units === 'us' ? '10000 gal' : '40 m^3',
     startTemp: units === 'us' ? '68 degF' : '20 degC',
     targetTemp: units === 'us' ? '82 degF' : '28 degC',
     hours: 48,
     flow: units === 'us' ? '3 gpm' : '12 L/min',
-    ...(fits.find((f) => f.coil) ? { fitId: fits.find((f) => f.coil)!.id } : { heater: { model: 'coil', sourceTemp: '90 degC', UA: '500 W/K' } }),
+    ...(fits.find((f) => f.coil) ? { fitId: fits.find((f) => f.coil)!.id } : { heater: { model: 'coil', sourceTemp: '88 degC', UA: '430 W/K' } }),
     losses: false,
   });
 
