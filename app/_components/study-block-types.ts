@@ -5,7 +5,7 @@
  * the client hooks share the one definition of each key.
  */
 import type { ChoiceView, ComparisonView, FitView, PerformanceView } from './fit-report';
-import type { Units } from './units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 import type { CautionLike } from '@/analysis/safety/cautions';
 
 /** A plot as the server rendered it (plotToSvg) with the words of its figcaption. */
@@ -96,7 +96,7 @@ export type BlockBody =
 export interface BlockData {
   id: string;
   kind: string;
-  units: Units;
+  units: UnitSystem;
   body: BlockBody;
 }
 
@@ -121,5 +121,5 @@ export const studyKey = (studyId: string) => `/api/studies/${studyId}`;
 /** SWR key of one block of a study, for lab members (in the member's own units). */
 export const studyBlockKey = (studyId: string, blockId: string) => `/api/studies/${studyId}/blocks/${encodeURIComponent(blockId)}`;
 /** SWR key of one block on the public share view, in the units the reader chose. */
-export const sharedBlockKey = (token: string, blockId: string, units: Units) =>
+export const sharedBlockKey = (token: string, blockId: string, units: UnitSystem) =>
   `/api/share/${encodeURIComponent(token)}/blocks/${encodeURIComponent(blockId)}?units=${units}`;

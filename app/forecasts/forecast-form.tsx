@@ -4,7 +4,8 @@ import { useState } from 'react';
 import { api, ApiError } from '../_components/api';
 import { CautionList, TempValue } from '../_components/safety-notice';
 import { PlotFigure } from '../_components/plot-figure';
-import { flowOut, flowUnit, tempUnit, type Units } from '../_components/units';
+import { displayUnit, displayUnits } from '@/app/_contracts/units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 import { parseWeatherCsv, type WeatherTable } from './weather-csv';
 
 /** Hours of the day from `from` up to (not including) `to`, wrapping past midnight; from = to is all day. */
@@ -35,10 +36,12 @@ interface Result {
 }
 
 /** Pool or tub warm-up forecast: shape and size, temperatures, flow, heater (a saved coil fit or Ts/UA), weather and cover. */
-export function ForecastForm({ labId, units, fits }: { labId: string; units: Units; fits: { id: string; label: string }[] }) {
+export function ForecastForm({ labId, units, fits }: { labId: string; units: UnitSystem; fits: { id: string; label: string }[] }) {
   const us = units === 'us';
-  const L = us ? 'ft' : 'm';
-  const T = us ? 'degF' : 'degC';
+  const u = displayUnits(units);
+  const length = displayUnit('length', units), speed = displayUnit('speed', units), poolVolume = displayUnit('poolVolume', units), area = displayUnit('area', units);
+  const L = length.mathUnit;
+  const T = u.temp.mathUnit;
   const [res, setRes] = useState<Result | null>(null);
   const [error, setError] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
@@ -77,11 +80,11 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
       startTemp: q('startTemp', T),
       targetTemp: q('targetTemp', T),
       hours: Number(v('hours')),
-      flow: q('flow', us ? 'gpm' : 'L/min'),
+      flow: q('flow', u.flow.mathUnit),
       thermostat: f.get('thermostat') === 'on' && !!v('targetTemp'),
       losses: losses
         ? {
-            weather: hourly ? table!.rows : { airTemp: q('airTemp', T), relativeHumidity: Number(v('rh')) / 100, wind: q('wind', us ? 'mph' : 'm/s'), solar: q('solar', 'W/m^2') },
+            weather: hourly ? table!.rows : { airTemp: q('airTemp', T), relativeHumidity: Number(v('rh')) / 100, wind: q('wind', speed.mathUnit), solar: q('solar', 'W/m^2') },
             ...(f.get('cover') === 'on' ? { cover: { coveredHours: hoursBetween(Number(v('coverFrom')), Number(v('coverTo'))) } } : {}),
           }
         : false,
@@ -137,21 +140,21 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
               <option value="stadium">Stadium</option>
             </select>
           </label>
-          {shape === 'round' ? field('diameter', 'Diameter', us ? '18' : '5.5', L) : (
+          {shape === 'round' ? field('diameter', 'Diameter', us ? '18' : '5.5', length.label) : (
             <div className="grid grid-cols-2 gap-3">
-              {field('length', 'Length', us ? '32' : '10', L)}
-              {field('width', 'Width', us ? '16' : '5', L)}
+              {field('length', 'Length', us ? '32' : '10', length.label)}
+              {field('width', 'Width', us ? '16' : '5', length.label)}
             </div>
           )}
-          {field('depth', 'Water depth', us ? '4' : '1.2', L)}
+          {field('depth', 'Water depth', us ? '4' : '1.2', length.label)}
         </fieldset>
         <fieldset className="card space-y-3 p-4">
           <legend className="px-1 font-semibold">Heating</legend>
           <div className="grid grid-cols-2 gap-3">
-            {field('startTemp', 'Start', us ? '68' : '20', tempUnit(units))}
-            {field('targetTemp', 'Target', us ? '82' : '28', tempUnit(units))}
+            {field('startTemp', 'Start', us ? '68' : '20', u.temp.label)}
+            {field('targetTemp', 'Target', us ? '82' : '28', u.temp.label)}
             {field('hours', 'Hours', '48', 'h')}
-            {field('flow', 'Pump flow', us ? '3' : '12', us ? 'gpm' : 'L/min')}
+            {field('flow', 'Pump flow', us ? '3' : '12', u.flow.label)}
           </div>
           <label className="flex items-center gap-2 text-sm">
             <input type="checkbox" name="thermostat" defaultChecked /> stop heating at the target (thermostat)
@@ -174,7 +177,7 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
             </select>
           </label>
           <div className="grid grid-cols-2 gap-3">
-            {field('ts', 'Source Ts', us ? '194' : '90', tempUnit(units))}
+            {field('ts', 'Source Ts', us ? '194' : '90', u.temp.label)}
             {field('ua', 'UA', '500', 'W/K')}
           </div>
           <p className="text-xs text-ink-muted">Ts and UA are used only when no saved fit is chosen.</p>
@@ -196,9 +199,9 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
               </div>
               {weatherMode === 'constant' ? (
                 <div className="grid grid-cols-2 gap-3">
-                  {field('airTemp', 'Air', us ? '72' : '22', tempUnit(units))}
+                  {field('airTemp', 'Air', us ? '72' : '22', u.temp.label)}
                   {field('rh', 'Humidity', '60', '%')}
-                  {field('wind', 'Wind', us ? '2' : '1', us ? 'mph' : 'm/s')}
+                  {field('wind', 'Wind', us ? '2' : '1', speed.label)}
                   {field('solar', 'Mean sun', '150', 'W/m²')}
                 </div>
               ) : (
@@ -262,9 +265,9 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
           <>
             <dl className="grid gap-3 sm:grid-cols-3">
               {[
-                ['Final temperature', <TempValue key="f" c={res.finalTemp_degC} units={units} withUnit />],
+                ['Final temperature', <TempValue key="f" tempC={res.finalTemp_degC} units={units} withUnit />],
                 ['Hours to target', res.hoursToTarget_h == null ? 'not reached' : `${res.hoursToTarget_h.toFixed(1)} h`],
-                ['Equilibrium', res.equilibriumTemp_degC == null ? '—' : <TempValue key="e" c={res.equilibriumTemp_degC} units={units} withUnit />],
+                ['Equilibrium', res.equilibriumTemp_degC == null ? '—' : <TempValue key="e" tempC={res.equilibriumTemp_degC} units={units} withUnit />],
               ].map(([k, val]) => (
                 <div key={String(k)} className="card p-4">
                   <dt className="text-sm text-ink-soft">{k}</dt>
@@ -275,8 +278,8 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
             {res.fitNote ? <p className="text-sm text-ink-soft">{res.fitNote}</p> : null}
             {res.pool ? (
               <p className="text-sm text-ink-soft">
-                Pool: <span className="num">{us ? (res.pool.volume_m3 * 264.172).toFixed(0) + ' gal' : res.pool.volume_m3.toFixed(1) + ' m³'}</span>, surface{' '}
-                <span className="num">{us ? (res.pool.area_m2 * 10.7639).toFixed(0) + ' ft²' : res.pool.area_m2.toFixed(1) + ' m²'}</span>.
+                Pool: <span className="num">{poolVolume.from(res.pool.volume_m3).toFixed(us ? 0 : 1)} {poolVolume.label}</span>, surface{' '}
+                <span className="num">{area.from(res.pool.area_m2).toFixed(us ? 0 : 1)} {area.label}</span>.
               </p>
             ) : null}
             <CautionList cautions={res.cautions} />
@@ -286,7 +289,7 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
               <dl className="grid gap-3 sm:grid-cols-3">
                 {[
                   ['Per useful therm', res.cost.perUsefulTherm.toFixed(2)],
-                  [`Per degree (${us ? '°F' : 'K'})`, (us ? res.cost.perDegF : res.cost.perK).toFixed(2)],
+                  [`Per degree (${u.tempDiff.label})`, (us ? res.cost.perDegF : res.cost.perK).toFixed(2)],
                   ['Heat of this forecast', res.cost.forecastHeatCost.toFixed(2)],
                 ].map(([k, val]) => (
                   <div key={k} className="card p-4">
@@ -305,7 +308,7 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
                       <th scope="col">Flow</th>
                       {res.riseTable.volumesM3.map((vol) => (
                         <th key={vol} scope="col" className="text-right">
-                          {us ? `${(vol * 264.172).toFixed(0)} gal` : `${vol.toFixed(1)} m³`}
+                          {poolVolume.from(vol).toFixed(us ? 0 : 1)} {poolVolume.label}
                         </th>
                       ))}
                     </tr>
@@ -314,11 +317,11 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
                     {res.riseTable.flowsM3PerS.map((q, i) => (
                       <tr key={q}>
                         <th scope="row" className="num bg-white font-normal">
-                          {flowOut(q, units).toFixed(1)} {flowUnit(units)}
+                          {u.flow.from(q).toFixed(1)} {u.flow.label}
                         </th>
                         {res.riseTable!.risePerHourK[i].map((r, j) => (
                           <td key={j} className="num text-right">
-                            {(us ? r * 1.8 : r).toFixed(2)} {us ? '°F/h' : 'K/h'}
+                            {u.tempDiff.from(r).toFixed(2)} {u.tempDiff.label}/h
                           </td>
                         ))}
                       </tr>

@@ -14,7 +14,8 @@ import { checkForecastWork, FORECAST_LIMITS } from '@/analysis/forecast/forecast
 import { z } from 'zod';
 import { HttpError } from '../server/errors';
 import { plotToSvg } from '../plots/plot-svg';
-import { energyBudgetInput, energyBudgetPlot, forecastPlot, type UnitSystem } from '../plots';
+import { energyBudgetInput, energyBudgetPlot, forecastPlot } from '../plots';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 import { UUID } from '../rigs/rigs';
 import type { ForecastExport } from '../exports';
 
@@ -164,11 +165,14 @@ function budgetOf(out: ForecastOutput) {
   };
 }
 
+/** The target as the forecast read it (analysis/units), °C; null when none was given. */
 function parseTarget(v: unknown): number | null {
   if (typeof v !== 'string') return null;
-  const m = /^\s*(-?[\d.]+)\s*(degC|degF)\s*$/.exec(v);
-  if (!m) return null;
-  return m[2] === 'degF' ? ((Number(m[1]) - 32) * 5) / 9 : Number(m[1]);
+  try {
+    return parseQuantity(v, 'temperature', 'targetTemp');
+  } catch {
+    return null;
+  }
 }
 
 const costSchema = z.object({ fuel: z.enum(['natural-gas', 'propane', 'electric-resistance', 'heat-pump', 'wood']), pricePerUnit: z.number().positive(), efficiency: z.number().positive().max(10).optional() }).strict();

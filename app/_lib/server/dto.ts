@@ -4,8 +4,9 @@ import 'server-only';
  * hidden column (a hash, a secret) cannot slip out.
  */
 import type { ApiTokenRow, AuditEventRow, InvitationRow, LabRow, MembershipRow, RigRow, UserRow } from '@/entities';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 
-export type UserDto = { id: string; email: string; name: string; unitSystem: 'si' | 'us' };
+export type UserDto = { id: string; email: string; name: string; unitSystem: UnitSystem };
 
 export const userDto = (u: UserRow): UserDto => ({ id: u.id, email: u.email, name: u.name, unitSystem: u.unitSystem });
 

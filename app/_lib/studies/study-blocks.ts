@@ -5,7 +5,7 @@ import type { StudyBlock } from '@/entities/study';
 import type { FitSuccess } from '@/analysis/fit';
 import { SEGMENT_ROWS, type BlockBody, type BlockData, type FitHead, type PlotView } from '../../_components/study-block-types';
 import type { ChoiceView, ComparisonView, FitView, PerformanceView } from '../../_components/fit-report';
-import type { Units } from '../../_components/units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 import { CostInputError, costView } from '../forecasts/cost-sheet';
 import { modelLabel } from '../fits/fit-analysis';
 import { forecast } from '../forecasts/forecasts';
@@ -31,7 +31,7 @@ export interface BlockContext {
   em: EntityManager;
   lab: LabRow;
   study: StudyRow;
-  units: Units;
+  units: UnitSystem;
   /** the share view: no fit links, no file names */
   publicView: boolean;
   /** saved fits by id, loaded once for the blocks that need them */
@@ -72,7 +72,7 @@ function fitView(fit: FitSuccess, label: string): FitView {
   return { label, model, params, parameterNames, correlation, n, df, rss, residualSD, r2, adjustedR2, aicc, bic, level, iterations, stoppingReason, flags, lackOfFit: lackOfFit as FitView['lackOfFit'], warnings };
 }
 
-function fitBody(kind: string, fit: FitRow, publicView: boolean, units: Units): BlockBody {
+function fitBody(kind: string, fit: FitRow, publicView: boolean, units: UnitSystem): BlockBody {
   const r = fit.result as unknown as StoredFitResult;
   const label = modelLabel(fit.model);
   const head: FitHead = { fitId: publicView ? null : fit.id, title: fit.title, version: fit.version, label, reviewState: fit.reviewState };

@@ -3,6 +3,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { Fit, Rig, type StudyRow } from '@/entities';
 import type { FitSuccess } from '@/analysis/fit';
 import type { PerformanceTable } from '@/analysis/performance/performance-table';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 import { STUDY_SHEETS, studyCsv, studyWorkbook, type FitExport, type ForecastExport, type PerformanceExport, type RunningCostExport, type StudyExport, type StudySheetName, type TrialExportRow } from '../exports';
 import { CostInputError, costExport, costView } from '../forecasts/cost-sheet';
 import { HttpError } from '../server/errors';
@@ -30,7 +31,7 @@ export async function studyFits(em: EntityManager, study: StudyRow) {
 }
 
 /** The study's tables (Summary with provenance, Trials, Fit, Residuals, Performance, Forecast series of its forecast blocks, Costs of its cost-sheet blocks) as export data. */
-export async function studyExportData(em: EntityManager, study: StudyRow, labName: string, unitSystem: 'si' | 'us'): Promise<StudyExport> {
+export async function studyExportData(em: EntityManager, study: StudyRow, labName: string, unitSystem: UnitSystem): Promise<StudyExport> {
   const fits = await studyFits(em, study);
   const rigs = fits.length ? await em.find(Rig, { id: { $in: fits.map((f) => f.rig.id) } }) : [];
   const trials: TrialExportRow[] = [];

@@ -1,5 +1,6 @@
 'use client';
 
+import type { UnitSystem } from '@/analysis/units/unit-system';
 /** Settings of the cost-sheet and sensor-log blocks in the study editor. */
 
 type Data = Record<string, unknown>;
@@ -13,7 +14,7 @@ const FUELS = [
 ] as const;
 
 /** A new cost sheet: heat from the last forecast block when there is one, else a pool and a rise. Prices are the user's. */
-export function costDefaults(units: 'si' | 'us', forecastBlockId: string | null): Data {
+export function costDefaults(units: UnitSystem, forecastBlockId: string | null): Data {
   return {
     fuel: 'propane',
     price: null,
@@ -28,7 +29,7 @@ export function costDefaults(units: 'si' | 'us', forecastBlockId: string | null)
 
 const num = (v: string): number | null => (v.trim() === '' || !Number.isFinite(Number(v)) ? null : Number(v));
 
-export function CostSettings({ n, data, set, units, forecasts }: { n: number; data: Data; set: (d: Data) => void; units: 'si' | 'us'; forecasts: { id: string; n: number }[] }) {
+export function CostSettings({ n, data, set, units, forecasts }: { n: number; data: Data; set: (d: Data) => void; units: UnitSystem; forecasts: { id: string; n: number }[] }) {
   const fuel = FUELS.find((f) => f.fuel === data.fuel) ?? FUELS[0];
   const from = String(data.heatFrom ?? 'pool');
   const text = (k: string, label: string, hint: string) => (

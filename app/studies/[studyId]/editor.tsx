@@ -6,6 +6,7 @@ import { useSWRConfig } from 'swr';
 import { api, ApiError } from '../../_components/api';
 import { studyBlockKey, studyKey, type StudyRecord } from '../../_components/study-block-types';
 import { CostSettings, SensorLogSettings, costDefaults } from './block-settings';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 
 type Kind = 'text' | 'trials' | 'fit' | 'comparison' | 'performance' | 'forecast' | 'costs' | 'sensor-log' | 'caution';
 interface Block {
@@ -57,7 +58,7 @@ export function StudyEditor({ studyId, initial, initialReviewState, fits, logs, 
   initialReviewState: string;
   fits: { id: string; label: string; coil: boolean }[];
   logs: { id: string; label: string }[];
-  units: 'si' | 'us';
+  units: UnitSystem;
 }) {
   const router = useRouter();
   const { mutate } = useSWRConfig();

@@ -8,7 +8,8 @@ import { api, ApiError } from '../../../_components/api';
 import { JobProgress } from '../../../_components/job-progress';
 import { PlotFigure } from '../../../_components/plot-figure';
 import { TempValue, TemperatureCautions } from '../../../_components/safety-notice';
-import { dtOut, dtUnit, flowOut, flowUnit, tempUnit, type Units } from '../../../_components/units';
+import { displayUnits } from '@/app/_contracts/units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 
 const PRESET_TEXT: Record<PresetName, { label: string; note: string }> = {
   laboratory: { label: 'Laboratory', note: 'After ASHRAE 93: outlet drifting under 0.05 K/min, inlet within ±1 K, flow within ±2 %, at least 15 min.' },
@@ -19,15 +20,16 @@ const PRESET_TEXT: Record<PresetName, { label: string; note: string }> = {
 type Key = 'windowS' | 'maxOutletSlopeKPerS' | 'inletTolK' | 'flowTolFraction' | 'maxFlowCv' | 'ambientTolK' | 'minDurationS' | 'settlingS' | 'transitTimeS' | 'blockS';
 
 /** The thresholds the page offers, each shown in a display unit (empty = not judged, where allowed). */
-function thresholdRows(u: Units): { key: Key; label: string; unit: string; toShow: (si: number) => number; toSI: (v: number) => number; nullable: boolean }[] {
-  const k = (x: number) => dtOut(x, u);
-  const kInv = (x: number) => (u === 'us' ? (x * 5) / 9 : x);
+function thresholdRows(u: UnitSystem): { key: Key; label: string; unit: string; toShow: (si: number) => number; toSI: (v: number) => number; nullable: boolean }[] {
+  const diff = displayUnits(u).tempDiff;
+  const k = diff.from;
+  const kInv = diff.to;
   return [
-    { key: 'maxOutletSlopeKPerS', label: 'Outlet drift under', unit: `${dtUnit(u)}/min`, toShow: (x) => k(x) * 60, toSI: (v) => kInv(v) / 60, nullable: true },
-    { key: 'inletTolK', label: 'Inlet within ±', unit: dtUnit(u), toShow: k, toSI: kInv, nullable: true },
+    { key: 'maxOutletSlopeKPerS', label: 'Outlet drift under', unit: `${diff.label}/min`, toShow: (x) => k(x) * 60, toSI: (v) => kInv(v) / 60, nullable: true },
+    { key: 'inletTolK', label: 'Inlet within ±', unit: diff.label, toShow: k, toSI: kInv, nullable: true },
     { key: 'flowTolFraction', label: 'Flow within ±', unit: '%', toShow: (x) => x * 100, toSI: (v) => v / 100, nullable: true },
     { key: 'maxFlowCv', label: 'Flow variation (CV) under', unit: '%', toShow: (x) => x * 100, toSI: (v) => v / 100, nullable: true },
-    { key: 'ambientTolK', label: 'Ambient within ±', unit: dtUnit(u), toShow: k, toSI: kInv, nullable: true },
+    { key: 'ambientTolK', label: 'Ambient within ±', unit: diff.label, toShow: k, toSI: kInv, nullable: true },
     { key: 'windowS', label: 'Judged over windows of', unit: 'min', toShow: (x) => x / 60, toSI: (v) => v * 60, nullable: false },
     { key: 'minDurationS', label: 'Shortest period', unit: 'min', toShow: (x) => x / 60, toSI: (v) => v * 60, nullable: false },
     { key: 'settlingS', label: 'Settling dropped from each start', unit: 'min', toShow: (x) => x / 60, toSI: (v) => v * 60, nullable: false },
@@ -104,7 +106,7 @@ async function fetchPreview(url: string, body: unknown, onProgress: (f: number) 
  * accept / adjust / drop each (or take a rejected run anyway), then the background import with its
  * progress. Nothing is stored until "Import".
  */
-export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId: string; fileId: string; fileState: string; mapping: Mapping; units: Units }) {
+export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId: string; fileId: string; fileState: string; mapping: Mapping; units: UnitSystem }) {
   const [preset, setPreset] = useState<PresetName>('field');
   const [edits, setEdits] = useState<Partial<Record<Key, number | null>>>({});
   const [preview, setPreview] = useState<SegmentPreview | null>(null);
@@ -377,10 +379,10 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
                   <th scope="col">Start (min)</th>
                   <th scope="col">End (min)</th>
                   <th scope="col" className="text-right">Length (min)</th>
-                  <th scope="col" className="text-right">Flow ({flowUnit(units)})</th>
-                  <th scope="col" className="text-right">Inlet ({tempUnit(units)})</th>
-                  <th scope="col" className="text-right">Outlet ({tempUnit(units)})</th>
-                  <th scope="col" className="text-right">u(outlet) ({dtUnit(units)})</th>
+                  <th scope="col" className="text-right">Flow ({displayUnits(units).flow.label})</th>
+                  <th scope="col" className="text-right">Inlet ({displayUnits(units).temp.label})</th>
+                  <th scope="col" className="text-right">Outlet ({displayUnits(units).temp.label})</th>
+                  <th scope="col" className="text-right">u(outlet) ({displayUnits(units).tempDiff.label})</th>
                   <th scope="col">Lines</th>
                   <th scope="col">Notes</th>
                 </tr>
@@ -426,10 +428,10 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
                         </td>
                       ))}
                       <td className="num text-right">{num((c.endS - c.startS) / 60, 1)}</td>
-                      <td className="num text-right">{m ? num(flowOut(m.mean.flowM3PerS, units), 2) : '…'}</td>
-                      <td className="num text-right">{m ? <TempValue c={m.mean.inletTempC} units={units} digits={2} /> : '…'}</td>
-                      <td className="num text-right">{m ? <TempValue c={m.mean.outletTempC} units={units} digits={2} /> : '…'}</td>
-                      <td className="num text-right">{m?.blockStdError ? num(dtOut(m.blockStdError.outletTempC, units), 3) : m ? '—' : '…'}</td>
+                      <td className="num text-right">{m ? num(displayUnits(units).flow.from(m.mean.flowM3PerS), 2) : '…'}</td>
+                      <td className="num text-right">{m ? <TempValue tempC={m.mean.inletTempC} units={units} digits={2} /> : '…'}</td>
+                      <td className="num text-right">{m ? <TempValue tempC={m.mean.outletTempC} units={units} digits={2} /> : '…'}</td>
+                      <td className="num text-right">{m?.blockStdError ? num(displayUnits(units).tempDiff.from(m.blockStdError.outletTempC), 3) : m ? '—' : '…'}</td>
                       <td className="num text-xs">{m ? `${m.startLine}–${m.endLine}` : ''}</td>
                       <td className="text-xs text-caution-text">{m?.notes.join('; ')}</td>
                     </tr>

@@ -4,7 +4,8 @@ import Link from 'next/link';
 import { useState } from 'react';
 import { api, ApiError } from '../../../_components/api';
 import { TempValue, TemperatureCautions } from '../../../_components/safety-notice';
-import { flowOut, flowUnit, tempUnit, type Units } from '../../../_components/units';
+import { displayUnits } from '@/app/_contracts/units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 import { LogPeriods } from './log-periods';
 
 type Field = 'time' | 'bucketVolume' | 'fillTime' | 'flow' | 'inletTemp' | 'outletTemp' | 'ambientTemp' | 'notes';
@@ -84,7 +85,7 @@ function uploadWithProgress(url: string, file: File, onProgress: (f: number) => 
 }
 
 /** The first rows of a file converted to the user's units (with the log's time from its start when given). */
-function ConvertedRows({ rows, units, tempDigits, caption }: { rows: { line: number; timeS?: number; flowM3PerS: number; inletTempC: number; outletTempC: number }[]; units: Units; tempDigits: number; caption?: string }) {
+function ConvertedRows({ rows, units, tempDigits, caption }: { rows: { line: number; timeS?: number; flowM3PerS: number; inletTempC: number; outletTempC: number }[]; units: UnitSystem; tempDigits: number; caption?: string }) {
   const timed = rows.some((r) => r.timeS !== undefined);
   return (
     <table className="data-table">
@@ -93,9 +94,9 @@ function ConvertedRows({ rows, units, tempDigits, caption }: { rows: { line: num
         <tr>
           <th scope="col">Line</th>
           {timed ? <th scope="col" className="text-right">Time (s)</th> : null}
-          <th scope="col" className="text-right">Flow ({flowUnit(units)})</th>
-          <th scope="col" className="text-right">Inlet ({tempUnit(units)})</th>
-          <th scope="col" className="text-right">Outlet ({tempUnit(units)})</th>
+          <th scope="col" className="text-right">Flow ({displayUnits(units).flow.label})</th>
+          <th scope="col" className="text-right">Inlet ({displayUnits(units).temp.label})</th>
+          <th scope="col" className="text-right">Outlet ({displayUnits(units).temp.label})</th>
         </tr>
       </thead>
       <tbody>
@@ -103,9 +104,9 @@ function ConvertedRows({ rows, units, tempDigits, caption }: { rows: { line: num
           <tr key={r.line}>
             <td className="num">{r.line}</td>
             {timed ? <td className="num text-right">{r.timeS?.toFixed(1)}</td> : null}
-            <td className="num text-right">{flowOut(r.flowM3PerS, units).toFixed(2)}</td>
-            <td className="num text-right"><TempValue c={r.inletTempC} units={units} digits={tempDigits} /></td>
-            <td className="num text-right"><TempValue c={r.outletTempC} units={units} digits={tempDigits} /></td>
+            <td className="num text-right">{displayUnits(units).flow.from(r.flowM3PerS).toFixed(2)}</td>
+            <td className="num text-right"><TempValue tempC={r.inletTempC} units={units} digits={tempDigits} /></td>
+            <td className="num text-right"><TempValue tempC={r.outletTempC} units={units} digits={tempDigits} /></td>
           </tr>
         ))}
       </tbody>
@@ -114,7 +115,7 @@ function ConvertedRows({ rows, units, tempDigits, caption }: { rows: { line: num
 }
 
 /** Upload → map and check → confirm. Nothing is written as trials until the engineer confirms. */
-export function ImportWizard({ rigId, units, maxMb }: { rigId: string; units: Units; maxMb: number }) {
+export function ImportWizard({ rigId, units, maxMb }: { rigId: string; units: UnitSystem; maxMb: number }) {
   const [progress, setProgress] = useState<number | null>(null);
   const [duplicate, setDuplicate] = useState(false);
   const [preview, setPreview] = useState<Preview | null>(null);
@@ -418,7 +419,7 @@ export function ImportWizard({ rigId, units, maxMb }: { rigId: string; units: Un
               ) : null}
               {preview.check.hottest?.outletTempC != null ? (
                 <p className="text-sm">
-                  Hottest outlet in the file: <span className="num"><TempValue c={preview.check.hottest.outletTempC} units={units} withUnit /></span>
+                  Hottest outlet in the file: <span className="num"><TempValue tempC={preview.check.hottest.outletTempC} units={units} withUnit /></span>
                   {preview.check.hottest.outletLine != null ? <> (line <span className="num">{preview.check.hottest.outletLine}</span>)</> : null}.
                 </p>
               ) : null}
