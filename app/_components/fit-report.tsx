@@ -4,6 +4,7 @@
  * and its verdict, the recommended and minimum flows, the performance table and cautions.
  * Plain components without hooks, so both sides can render them.
  */
+import type { ChoiceView, ComparisonView, FitView, PerformanceView } from '@/app/_contracts/fit-report';
 import { TempValue } from './safety-notice';
 import { displayUnits } from '@/app/_contracts/units';
 import type { UnitSystem } from '@/analysis/units/unit-system';
@@ -12,35 +13,6 @@ type Num = number | null | undefined;
 const f = (v: Num, d = 3) => (v == null || !Number.isFinite(v) ? '—' : Math.abs(v) >= 1e5 || (Math.abs(v) < 1e-3 && v !== 0) ? v.toExponential(d) : v.toFixed(d));
 /** Heat in kW (2 decimals) or Btu/h (whole). */
 const kw = (w: number, u: UnitSystem) => `${f(displayUnits(u).power.from(w), u === 'us' ? 0 : 2)} ${displayUnits(u).power.label}`;
-
-export interface ParamView {
-  value: number;
-  stdErr: number;
-  ciLow: number;
-  ciHigh: number;
-  atBound?: string | null;
-}
-export interface FitView {
-  label: string;
-  model: string;
-  params: Record<string, ParamView>;
-  parameterNames: string[];
-  correlation: number[][];
-  n: number;
-  df: number;
-  rss: number;
-  residualSD: number;
-  r2: number | null;
-  adjustedR2: number | null;
-  aicc: number | null;
-  bic: number | null;
-  level: number;
-  iterations: number;
-  stoppingReason: string;
-  flags: { highLeverage: number[]; influential: number[]; outliers: number[] };
-  lackOfFit: { ok: boolean; F?: number; pValue?: number; verdict?: string; reason?: string } | null;
-  warnings: { code: string; message: string }[];
-}
 
 const PARAM_UNITS: Record<string, string> = { Ts: '°C', UA: 'W/K', Tinf: '°C', A: 'K', k: 's/m³' };
 
@@ -120,11 +92,6 @@ export function FitStats({ fit, units }: { fit: FitView; units: UnitSystem }) {
   );
 }
 
-export interface ComparisonView {
-  verdict: string;
-  ranking: { label: string; ok: boolean; reason: string | null; aicc: number | null; deltaAicc: number | null; akaikeWeight: number | null; residualSD: number | null; sdRatio: number | null; patterned: boolean; verdict: string }[];
-}
-
 export function ComparisonTable({ comparison, units }: { comparison: ComparisonView; units: UnitSystem }) {
   return (
     <div>
@@ -162,15 +129,6 @@ export function ComparisonTable({ comparison, units }: { comparison: ComparisonV
       </div>
     </div>
   );
-}
-
-export interface ChoiceView {
-  inletTempC: number;
-  optimum: { flowM3PerS: number; flowU: number | null; heatW: number } | null;
-  optimumNote: string;
-  ceiling: { fraction: number; flowM3PerS: number; flowU: number | null; heatCeilingW: number; extrapolated: boolean } | null;
-  minimumFlows: { label: string; limitC: number; flowM3PerS: number | null; conservativeFlowM3PerS: number | null; note: string }[];
-  notes: string[];
 }
 
 export function FlowChoice({ choice, units }: { choice: ChoiceView; units: UnitSystem }) {
@@ -222,13 +180,6 @@ export function FlowChoice({ choice, units }: { choice: ChoiceView; units: UnitS
       ))}
     </div>
   );
-}
-
-export interface PerformanceView {
-  inletTempC: number;
-  rows: { flowM3PerS: number; outletTempC: number; outletPiC: [number, number]; deltaTK: number; heatW: number; heatPiW: [number, number]; extrapolated: boolean }[];
-  notes: string[];
-  cautions: { code: string; level: string; message: string }[];
 }
 
 export function PerformanceTableView({ table, units }: { table: PerformanceView; units: UnitSystem }) {

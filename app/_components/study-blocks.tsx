@@ -6,7 +6,8 @@ import { ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTable
 import { PlotFigure } from './plot-figure';
 import { CautionList, TempValue, TemperatureCautions } from './safety-notice';
 import { StateBadge } from './review-panel';
-import { sharedBlockKey, studyBlockKey, type BlockBody, type BlockData, type CostView, type FitHead } from './study-block-types';
+import type { BlockBody, BlockData, CostView, FitHead } from '../_contracts/study-blocks';
+import { sharedBlockKey, studyBlockKey } from '../_contracts/study-keys';
 import { displayUnits } from '@/app/_contracts/units';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { useStudy } from './use-study';

@@ -2,7 +2,8 @@
 
 import { useState } from 'react';
 import { api, ApiError } from './api';
-import { DEFAULT_TRIAL_QUERY, useTrials, type TrialQuery, type TrialRowDto } from './use-trials';
+import { DEFAULT_TRIAL_QUERY, useTrials, type TrialQuery } from './use-trials';
+import type { TrialDto } from '../_contracts/dto';
 import { TempValue, TemperatureCautions } from './safety-notice';
 import { displayUnits } from '@/app/_contracts/units';
 import type { UnitSystem } from '@/analysis/units/unit-system';
@@ -33,7 +34,7 @@ export function TrialsTable({ rigId, units, canWrite }: { rigId: string; units: 
     }
   }
 
-  async function saveNotes(t: TrialRowDto, notes: string) {
+  async function saveNotes(t: TrialDto, notes: string) {
     if (notes === t.notes) return;
     try {
       await api(`/api/trials/${t.id}`, { method: 'PATCH', body: { notes } });

@@ -6,7 +6,7 @@ import { energyPerDegreeJPerK } from '@/analysis/pool/energy-per-degree';
 import { run as runVolume } from '@/analysis/cli/volume';
 import { parseQuantity } from '@/analysis/units/parse-quantity';
 import type { StudyBlock } from '@/entities/study';
-import type { CostView } from '../../_components/study-block-types';
+import type { CostView } from '@/app/_contracts/study-blocks';
 import type { RunningCostExport } from '../exports';
 
 /**

@@ -1,7 +1,6 @@
 import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { Fit, type LabRow } from '@/entities';
-import type { FitSuccess } from '@/analysis/fit';
 import { run as runForecast } from '@/analysis/cli/forecast';
 import { run as runVolume } from '@/analysis/cli/volume';
 import { costPerDegree, usefulHeatCost, USEFUL_THERM_J } from '@/analysis/cost/useful-heat-cost';
@@ -17,6 +16,7 @@ import { plotToSvg } from '../plots/plot-svg';
 import { energyBudgetInput, energyBudgetPlot, forecastPlot } from '../plots';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { UUID } from '../rigs/rigs';
+import { parseStoredFit } from '../fits/stored-fit';
 import type { ForecastExport } from '../exports';
 
 interface ForecastOutput {
@@ -109,7 +109,7 @@ async function runForecastBody(em: EntityManager, lab: LabRow, body: Record<stri
     const fit = UUID.test(input.fitId) ? await em.findOne(Fit, { id: input.fitId, lab }) : null;
     if (!fit) throw new HttpError(404, 'not_found', 'No such saved fit in this lab.');
     if (fit.model !== 'coil') throw new HttpError(422, 'invalid', 'Forecasts take a saved coil fit (its Ts and UA carry over to any inlet temperature).', { fields: { fitId: 'Pick a coil fit.' } });
-    const p = (fit.result as { fit: FitSuccess }).fit.params;
+    const p = parseStoredFit(fit.result, fit.id).fit.params;
     input.heater = { model: 'coil', sourceTemp: `${p.Ts.value} degC`, UA: `${p.UA.value} W/K` };
     fitNote = `Heater: saved fit "${fit.title}" v${fit.version} (Ts ${p.Ts.value.toFixed(1)} °C, UA ${p.UA.value.toFixed(0)} W/K).`;
     delete input.fitId;

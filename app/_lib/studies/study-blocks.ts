@@ -3,11 +3,12 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { Fit, SensorOverview, SourceFile, type FitRow, type LabRow, type StudyRow } from '@/entities';
 import type { StudyBlock } from '@/entities/study';
 import type { FitSuccess } from '@/analysis/fit';
-import { SEGMENT_ROWS, type BlockBody, type BlockData, type FitHead, type PlotView } from '../../_components/study-block-types';
-import type { ChoiceView, ComparisonView, FitView, PerformanceView } from '../../_components/fit-report';
+import { SEGMENT_ROWS, type BlockBody, type BlockData, type FitHead, type PlotView } from '@/app/_contracts/study-blocks';
+import type { FitView } from '@/app/_contracts/fit-report';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { CostInputError, costView } from '../forecasts/cost-sheet';
 import { modelLabel } from '../fits/fit-analysis';
+import { parseStoredFit } from '../fits/stored-fit';
 import { forecast } from '../forecasts/forecasts';
 import { renderMarkdown } from './markdown';
 import { STANDING_NOTICE } from '@/analysis/safety/standing-notice';
@@ -38,14 +39,6 @@ export interface BlockContext {
   fits?: Map<string, FitRow>;
 }
 
-interface StoredFitResult {
-  fit: FitSuccess;
-  comparison: ComparisonView;
-  choice: ChoiceView;
-  performance: PerformanceView;
-  trials: { startedAt: string; flowM3PerS: number; inletTempC: number; outletTempC: number }[];
-}
-
 const FIT_KINDS = new Set(['fit', 'comparison', 'performance', 'trials']);
 const plotView = (f: PlotFigure): PlotView => ({ title: f.title, summary: f.summary, svg: plotToSvg(f.options), ...(f.cautions?.length ? { cautions: f.cautions } : {}) });
 
@@ -73,7 +66,7 @@ function fitView(fit: FitSuccess, label: string): FitView {
 }
 
 function fitBody(kind: string, fit: FitRow, publicView: boolean, units: UnitSystem): BlockBody {
-  const r = fit.result as unknown as StoredFitResult;
+  const r = parseStoredFit(fit.result, fit.id);
   const label = modelLabel(fit.model);
   const head: FitHead = { fitId: publicView ? null : fit.id, title: fit.title, version: fit.version, label, reviewState: fit.reviewState };
   switch (kind) {

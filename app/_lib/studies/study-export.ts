@@ -1,27 +1,13 @@
 import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { Fit, Rig, type StudyRow } from '@/entities';
-import type { FitSuccess } from '@/analysis/fit';
-import type { PerformanceTable } from '@/analysis/performance/performance-table';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { STUDY_SHEETS, studyCsv, studyWorkbook, type FitExport, type ForecastExport, type PerformanceExport, type RunningCostExport, type StudyExport, type StudySheetName, type TrialExportRow } from '../exports';
 import { CostInputError, costExport, costView } from '../forecasts/cost-sheet';
 import { HttpError } from '../server/errors';
 import { forecastForExport } from '../forecasts/forecasts';
 import { modelLabel, SOFTWARE_VERSION } from '../fits/fit-analysis';
-
-/** A trial as a saved fit keeps it (`result.trials`). */
-export interface StoredTrial {
-  id: string;
-  startedAt: string;
-  flowM3PerS: number;
-  inletTempC: number;
-  outletTempC: number;
-  bucketVolumeM3: number | null;
-  fillTimesS: number[] | null;
-  ambientTempC: number | null;
-  notes?: string;
-}
+import { parseStoredFit } from '../fits/stored-fit';
 
 /** The saved fits a study's blocks point at, in block order, once each (lab-scoped). */
 export async function studyFits(em: EntityManager, study: StudyRow) {
@@ -38,7 +24,7 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
   const fitExports: FitExport[] = [];
   const performance: PerformanceExport[] = [];
   for (const f of fits) {
-    const r = f.result as { fit: FitSuccess; performance: PerformanceTable; trials: StoredTrial[] };
+    const r = parseStoredFit(f.result, f.id);
     const label = `${f.title} v${f.version} (${modelLabel(f.model)})`;
     r.trials.forEach((t, i) =>
       trials.push({ id: t.id, order: i + 1, timestamp: new Date(t.startedAt), included: true, flowM3PerS: t.flowM3PerS, inletTempC: t.inletTempC, outletTempC: t.outletTempC, ambientTempC: t.ambientTempC, bucketVolumeM3: t.bucketVolumeM3, fillTimesS: t.fillTimesS }),

@@ -1,15 +1,14 @@
 import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { Fit, Rig } from '@/entities';
-import type { FitSuccess } from '@/analysis/fit';
-import type { FlowChoice as Choice } from '@/analysis/performance/choose-flow';
 import { AppPage } from '../../_components/app-page';
-import { ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTableView, type ComparisonView, type PerformanceView } from '../../_components/fit-report';
+import { ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTableView } from '../../_components/fit-report';
 import { PlotFigure } from '../../_components/plot-figure';
 import { CautionList } from '../../_components/safety-notice';
 import { ReviewPanel } from '../../_components/review-panel';
 import { modelLabel } from '../../_lib/fits/fit-analysis';
 import { reviewTrail } from '../../_lib/fits/fits';
+import { parseStoredFit } from '../../_lib/fits/stored-fit';
 import { plotToSvg } from '../../_lib/plots/plot-svg';
 import { fitCurveInputFromFits, fitCurvePlot, heatInputFromFit, heatPlot, residualInputFromFit, residualPlots, type PlotFigure as Figure } from '../../_lib/plots';
 import { UUID } from '../../_lib/rigs/rigs';
@@ -26,7 +25,7 @@ export default async function SavedFitPage({ params }: { params: Promise<{ fitId
   const row = UUID.test(fitId) ? await v.em.findOne(Fit, { id: fitId, lab: v.current.lab }, { populate: ['createdBy'] }) : null;
   if (!row) notFound();
   const rig = await v.em.findOneOrFail(Rig, { id: row.rig.id });
-  const r = row.result as { fit: FitSuccess; comparison: ComparisonView; choice: Choice; performance: PerformanceView; trials: { startedAt: string }[] };
+  const r = parseStoredFit(row.result, row.id);
   const u = v.user.unitSystem;
   const label = modelLabel(row.model);
   const labels = r.trials.map((t) => t.startedAt.slice(0, 16).replace('T', ' '));

@@ -4,7 +4,8 @@ import { useRouter } from 'next/navigation';
 import { useEffect, useRef, useState } from 'react';
 import { useSWRConfig } from 'swr';
 import { api, ApiError } from '../../_components/api';
-import { studyBlockKey, studyKey, type StudyRecord } from '../../_components/study-block-types';
+import type { StudyRecord } from '../../_contracts/study-blocks';
+import { studyBlockKey, studyKey } from '../../_contracts/study-keys';
 import { CostSettings, SensorLogSettings, costDefaults } from './block-settings';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 

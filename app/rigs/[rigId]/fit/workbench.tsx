@@ -3,7 +3,8 @@
 import { useRouter } from 'next/navigation';
 import { useEffect, useState } from 'react';
 import { api, ApiError } from '../../../_components/api';
-import { ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTableView, type ChoiceView, type ComparisonView, type FitView, type PerformanceView } from '../../../_components/fit-report';
+import { ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTableView } from '../../../_components/fit-report';
+import type { ChoiceView, ComparisonView, FitView, PerformanceView } from '../../../_contracts/fit-report';
 import { PlotFigure } from '../../../_components/plot-figure';
 import { CautionList } from '../../../_components/safety-notice';
 import type { CautionLike } from '@/analysis/safety/cautions';

@@ -1,6 +1,5 @@
-import type { FitSuccess } from '@/analysis/fit';
-import type { PerformanceTable } from '@/analysis/performance/performance-table';
-import { exportResponse, type StoredTrial } from '@/app/_lib/studies/study-export';
+import { exportResponse } from '@/app/_lib/studies/study-export';
+import { parseStoredFit } from '@/app/_lib/fits/stored-fit';
 import { loadFit } from '@/app/_lib/fits/fit-access';
 import { modelLabel } from '@/app/_lib/fits/fit-analysis';
 import { route } from '@/app/_lib/server/route';
@@ -11,7 +10,7 @@ import { Rig } from '@/entities';
 export const GET = route<{ fitId: string }>({ auth: 'user' }, async (ctx) => {
   const { fit, member } = await loadFit(ctx, 'lab:export');
   const rig = await ctx.em.findOneOrFail(Rig, { id: fit.rig.id });
-  const r = fit.result as { fit: FitSuccess; performance: PerformanceTable; trials: StoredTrial[] };
+  const r = parseStoredFit(fit.result, fit.id);
   const label = modelLabel(fit.model);
   const data = {
     unitSystem: ctx.requireActor().user.unitSystem,
