@@ -1,6 +1,6 @@
 import { defineEntity, p } from '@mikro-orm/core';
 import { baseProperties } from './base';
-import { UNIT_SYSTEMS, type UnitSystem } from './lab';
+import { UNIT_SYSTEMS, type UnitSystem } from '../analysis/units/unit-system';
 
 /**
  * A person who signs in. `passwordHash` is hidden: it never appears in serialised output.

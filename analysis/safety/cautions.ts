@@ -6,6 +6,8 @@
  * temperature (scald-time.ts, DOMAIN.md §5 [39]). Wording is Emberline's own and defers to local codes.
  */
 import { scaldTime } from './scald-time';
+import { celsiusToFahrenheit } from '../units/exact-factors';
+import type { UnitSystem } from '../units/unit-system';
 
 /** How serious a caution is: `notice` < `warning` < `danger`. */
 export type CautionLevel = 'notice' | 'warning' | 'danger';
@@ -49,12 +51,12 @@ const DEFER = CAUTION_DEFER;
 const BOILING_1ATM_C = 99.97;
 
 /** A temperature in both units, the reader's first: '62.0 °C (144 °F)' or '143.6 °F (62.0 °C)'. */
-function fmt(c: number, units: 'si' | 'us' = 'si'): string {
-  return units === 'us' ? `${(c * 1.8 + 32).toFixed(1)} °F (${c.toFixed(1)} °C)` : `${c.toFixed(1)} °C (${(c * 1.8 + 32).toFixed(0)} °F)`;
+function fmt(c: number, units: UnitSystem = 'si'): string {
+  return units === 'us' ? `${celsiusToFahrenheit(c).toFixed(1)} °F (${c.toFixed(1)} °C)` : `${c.toFixed(1)} °C (${celsiusToFahrenheit(c).toFixed(0)} °F)`;
 }
 
 /** A threshold in both units, the reader's first: '60 °C (140 °F)' or '140 °F (60 °C)'. */
-const limit = (c: number, units: 'si' | 'us') => (units === 'us' ? `${thresholdText(c, 'us')} (${thresholdText(c)})` : `${thresholdText(c)} (${thresholdText(c, 'us')})`);
+const limit = (c: number, units: UnitSystem) => (units === 'us' ? `${thresholdText(c, 'us')} (${thresholdText(c)})` : `${thresholdText(c)} (${thresholdText(c, 'us')})`);
 
 function exposure(c: number): string {
   const t = scaldTime(c).text.replace(/^longer than/, 'more than').replace(/^shorter than/, 'less than');
@@ -109,8 +111,8 @@ export const HAZARD_BANDS: readonly HazardBandRule[] = [
 ];
 
 /** A threshold in words, in the unit system of the reader: '49 °C' or '120 °F' (rounded to 1 °F). */
-export function thresholdText(thresholdC: number, units: 'si' | 'us' = 'si'): string {
-  return units === 'us' ? `${Math.round(thresholdC * 1.8 + 32)} °F` : `${thresholdC} °C`;
+export function thresholdText(thresholdC: number, units: UnitSystem = 'si'): string {
+  return units === 'us' ? `${Math.round(celsiusToFahrenheit(thresholdC))} °F` : `${thresholdC} °C`;
 }
 
 /** The hazard band of one temperature, with its words for a mark beside the value. */
@@ -136,7 +138,7 @@ export interface TemperatureHazard {
  * @example hazardBand(62, 'us').label // 'at or above 140 °F: burns in seconds'
  * @example hazardBand(39.9).band // 'none'
  */
-export function hazardBand(tempC: number, units: 'si' | 'us' = 'si'): TemperatureHazard {
+export function hazardBand(tempC: number, units: UnitSystem = 'si'): TemperatureHazard {
   if (typeof tempC !== 'number' || !Number.isFinite(tempC)) throw new TypeError(`tempC must be a finite number, got ${String(tempC)}`);
   const rule = HAZARD_BANDS.find((r) => tempC >= r.thresholdC) ?? null;
   if (!rule) return { band: 'none', rule: null, short: '', tag: '', label: '' };
@@ -158,7 +160,7 @@ export function hazardBand(tempC: number, units: 'si' | 'us' = 'si'): Temperatur
  * @example temperatureCautions(62, 'outlet').map(c => c.code) // ['scald-seconds', 'scald', 'spa-limit']
  * @example temperatureCautions(40, 'tub')[0].code // 'spa-limit'
  */
-export function temperatureCautions(tempC: number, where: string, units: 'si' | 'us' = 'si'): Caution[] {
+export function temperatureCautions(tempC: number, where: string, units: UnitSystem = 'si'): Caution[] {
   if (typeof tempC !== 'number' || !Number.isFinite(tempC)) {
     throw new TypeError(`tempC must be a finite number, got ${String(tempC)}`);
   }
@@ -292,7 +294,7 @@ export interface PlaceTemperatures {
  * that are not finite are skipped (a table shows them as gaps).
  * @example hottestCautions([{ where: 'outlet', valuesC: [38, 52, 47] }]).map(c => c.code) // ['scald', 'spa-limit']
  */
-export function hottestCautions(places: readonly PlaceTemperatures[], units: 'si' | 'us' = 'si'): Caution[] {
+export function hottestCautions(places: readonly PlaceTemperatures[], units: UnitSystem = 'si'): Caution[] {
   const lists: Caution[][] = [];
   for (const p of places) {
     let max = -Infinity;

@@ -8,6 +8,7 @@
  * older people and thin skin burn faster than the table says.
  */
 import { requireFinite } from '../units/guards';
+import { fahrenheitToCelsius } from '../units/exact-factors';
 
 /** One row of the table: temperature, °F, and the shortest and longest time stated, s (null = open). */
 interface ScaldRow { tempF: number; lowS: number | null; highS: number | null }
@@ -43,7 +44,7 @@ export interface ScaldTime {
   text: string;
 }
 
-const fToC = (f: number) => (f - 32) / 1.8;
+const fToC = fahrenheitToCelsius;
 
 function dur(s: number): string {
   const trim = (x: number) => String(Number(x.toFixed(1)));

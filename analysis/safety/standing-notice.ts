@@ -5,9 +5,10 @@
  * before the fire, carbon monoxide and GFCI, and deference to local codes.
  */
 import { CAUTION_THRESHOLDS_C } from './cautions';
+import { celsiusToFahrenheit } from '../units/exact-factors';
 
 const T = CAUTION_THRESHOLDS_C;
-const f = (c: number) => `${c} °C (${Math.round(c * 1.8 + 32)} °F)`;
+const f = (c: number) => `${c} °C (${Math.round(celsiusToFahrenheit(c))} °F)`;
 
 /** The notice as sentences, most important first; each stands alone. */
 export const STANDING_NOTICE: readonly string[] = [

@@ -1,6 +1,8 @@
 /**
  * The one mathjs instance of analysis/, with the units mathjs lacks defined from NIST SP 811
  * (2008) Appendix B.8 factors. Everything that parses or converts a quantity goes through it.
+ * The exact values come from exact-factors.ts, the one table that the display edge
+ * (app/_contracts/units.ts) also converts with.
  *
  * Added units (exact values as SP 811 / NIST Handbook 44 give them):
  * - `gpm` = US gallon per minute = 3.785411784 L/min (gallon = 231 in³ exactly); `gph` per hour.
@@ -17,6 +19,7 @@
  * - `psi` and `hp` are redefined with the exact SP 811 values (lbf/in², 550 ft·lbf/s).
  */
 import { all, create, type MathJsInstance, type Unit } from 'mathjs';
+import { FAHRENHEIT_PER_KELVIN, JOULES_PER_BTU, JOULES_PER_THERM, LITRES_PER_US_GALLON, METRES_PER_MILE } from './exact-factors';
 
 export const math: MathJsInstance = create(all, {});
 
@@ -25,19 +28,19 @@ function defineUnits(): void {
   if (defined) return;
   defined = true;
   math.createUnit({
-    gpm: { definition: '3.785411784 L/min' },
-    gph: { definition: '3.785411784 L/hour' },
+    gpm: { definition: `${LITRES_PER_US_GALLON} L/min` },
+    gph: { definition: `${LITRES_PER_US_GALLON} L/hour` },
     lpm: { definition: '1 L/min' },
-    mph: { definition: '1609.344 m/hour' },
-    Btu: { definition: '1055.05585262 J', aliases: ['btu'] },
-    MBtu: { definition: '1055055.85262 J' },
-    MMBtu: { definition: '1055055852.62 J' },
-    therm: { definition: '105505585.262 J', aliases: ['therms', 'thm'] },
+    mph: { definition: `${METRES_PER_MILE} m/hour` },
+    Btu: { definition: `${JOULES_PER_BTU} J`, aliases: ['btu'] },
+    MBtu: { definition: `${JOULES_PER_BTU} kJ` },
+    MMBtu: { definition: `${JOULES_PER_BTU} MJ` },
+    therm: { definition: `${JOULES_PER_THERM} J`, aliases: ['therms', 'thm'] },
     thermEC: { definition: '105506000 J' },
     thermUS: { definition: '105480400 J' },
     cord: { definition: '128 ft^3', aliases: ['cords'] },
     inHg: { definition: '3386.388640341 Pa' },
-    degFdiff: { definition: '0.5555555555555556 K' },
+    degFdiff: { definition: `${1 / FAHRENHEIT_PER_KELVIN} K` },
     degCdiff: { definition: '1 K' },
   });
   // mathjs's own psi and hp are a few parts in 1e11 off the exact SP 811 values; replace them.

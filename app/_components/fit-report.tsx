@@ -4,41 +4,15 @@
  * and its verdict, the recommended and minimum flows, the performance table and cautions.
  * Plain components without hooks, so both sides can render them.
  */
+import type { ChoiceView, ComparisonView, FitView, PerformanceView } from '@/app/_contracts/fit-report';
 import { TempValue } from './safety-notice';
-import { dtOut, dtUnit, flowOut, flowUnit, tempOut, tempUnit, type Units } from './units';
+import { displayUnits } from '@/app/_contracts/units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 
 type Num = number | null | undefined;
 const f = (v: Num, d = 3) => (v == null || !Number.isFinite(v) ? '—' : Math.abs(v) >= 1e5 || (Math.abs(v) < 1e-3 && v !== 0) ? v.toExponential(d) : v.toFixed(d));
-const kw = (w: number, u: Units) => (u === 'us' ? `${f(w * 3.412141633, 0)} Btu/h` : `${f(w / 1000, 2)} kW`);
-
-export interface ParamView {
-  value: number;
-  stdErr: number;
-  ciLow: number;
-  ciHigh: number;
-  atBound?: string | null;
-}
-export interface FitView {
-  label: string;
-  model: string;
-  params: Record<string, ParamView>;
-  parameterNames: string[];
-  correlation: number[][];
-  n: number;
-  df: number;
-  rss: number;
-  residualSD: number;
-  r2: number | null;
-  adjustedR2: number | null;
-  aicc: number | null;
-  bic: number | null;
-  level: number;
-  iterations: number;
-  stoppingReason: string;
-  flags: { highLeverage: number[]; influential: number[]; outliers: number[] };
-  lackOfFit: { ok: boolean; F?: number; pValue?: number; verdict?: string; reason?: string } | null;
-  warnings: { code: string; message: string; parameter?: string }[];
-}
+/** Heat in kW (2 decimals) or Btu/h (whole). */
+const kw = (w: number, u: UnitSystem) => `${f(displayUnits(u).power.from(w), u === 'us' ? 0 : 2)} ${displayUnits(u).power.label}`;
 
 const PARAM_UNITS: Record<string, string> = { Ts: '°C', UA: 'W/K', Tinf: '°C', A: 'K', k: 's/m³' };
 
@@ -106,10 +80,10 @@ export function ParameterTable({ fit }: { fit: FitView }) {
   );
 }
 
-export function FitStats({ fit, units }: { fit: FitView; units: Units }) {
+export function FitStats({ fit, units }: { fit: FitView; units: UnitSystem }) {
   const rows: [string, string][] = [
     ['Trials (n) / degrees of freedom', `${fit.n} / ${fit.df}`],
-    [`Residual SD (${dtUnit(units)})`, f(dtOut(fit.residualSD, units), 3)],
+    [`Residual SD (${displayUnits(units).tempDiff.label})`, f(displayUnits(units).tempDiff.from(fit.residualSD), 3)],
     ['R² / adjusted R²', `${f(fit.r2, 5)} / ${f(fit.adjustedR2, 5)}`],
     ['RSS (K²)', f(fit.rss, 4)],
     ['AICc / BIC', `${f(fit.aicc, 2)} / ${f(fit.bic, 2)}`],
@@ -141,12 +115,7 @@ export function FitStats({ fit, units }: { fit: FitView; units: Units }) {
   );
 }
 
-export interface ComparisonView {
-  verdict: string;
-  ranking: { label: string; ok: boolean; reason: string | null; aicc: number | null; deltaAicc: number | null; akaikeWeight: number | null; residualSD: number | null; sdRatio: number | null; patterned: boolean; verdict: string }[];
-}
-
-export function ComparisonTable({ comparison, units }: { comparison: ComparisonView; units: Units }) {
+export function ComparisonTable({ comparison, units }: { comparison: ComparisonView; units: UnitSystem }) {
   return (
     <div>
       <p className="mb-3 rounded-lg bg-paper-deep px-3 py-2 text-sm text-ink" role="note">
@@ -159,7 +128,7 @@ export function ComparisonTable({ comparison, units }: { comparison: ComparisonV
               <th scope="col">Model</th>
               <th scope="col" className="text-right">ΔAICc</th>
               <th scope="col" className="text-right">Weight</th>
-              <th scope="col" className="text-right">Residual SD ({dtUnit(units)})</th>
+              <th scope="col" className="text-right">Residual SD ({displayUnits(units).tempDiff.label})</th>
               <th scope="col" className="text-right">SD / measurement u</th>
               <th scope="col">Residuals</th>
             </tr>
@@ -173,7 +142,7 @@ export function ComparisonTable({ comparison, units }: { comparison: ComparisonV
                 </th>
                 <td className="num text-right">{f(r.deltaAicc, 1)}</td>
                 <td className="num text-right">{f(r.akaikeWeight, 3)}</td>
-                <td className="num text-right">{r.residualSD == null ? '—' : f(dtOut(r.residualSD, units), 3)}</td>
+                <td className="num text-right">{r.residualSD == null ? '—' : f(displayUnits(units).tempDiff.from(r.residualSD), 3)}</td>
                 <td className="num text-right">{f(r.sdRatio, 2)}</td>
                 <td>{r.ok ? (r.patterned ? <span className="text-caution-text">patterned (runs test)</span> : <span className="text-ok-text">random</span>) : '—'}</td>
               </tr>
@@ -185,26 +154,17 @@ export function ComparisonTable({ comparison, units }: { comparison: ComparisonV
   );
 }
 
-export interface ChoiceView {
-  inletTempC: number;
-  optimum: { flowM3PerS: number; flowU: number | null; heatW: number } | null;
-  optimumNote: string;
-  ceiling: { fraction: number; flowM3PerS: number; flowU: number | null; heatCeilingW: number; extrapolated: boolean } | null;
-  minimumFlows: { label: string; limitC: number; flowM3PerS: number | null; conservativeFlowM3PerS: number | null; note: string }[];
-  notes: string[];
-}
-
-export function FlowChoice({ choice, units }: { choice: ChoiceView; units: Units }) {
-  const q = (v: number | null) => (v == null ? 'none in range' : v === 0 ? 'any flow' : `${f(flowOut(v, units), 2)} ${flowUnit(units)}`);
+export function FlowChoice({ choice, units }: { choice: ChoiceView; units: UnitSystem }) {
+  const q = (v: number | null) => (v == null ? 'none in range' : v === 0 ? 'any flow' : `${f(displayUnits(units).flow.from(v), 2)} ${displayUnits(units).flow.label}`);
   return (
     <div className="space-y-3 text-sm">
       <p>
-        For an inlet of <span className="num"><TempValue c={choice.inletTempC} units={units} withUnit /></span>:
+        For an inlet of <span className="num"><TempValue tempC={choice.inletTempC} units={units} withUnit /></span>:
       </p>
       {choice.ceiling ? (
         <p className="rounded-lg bg-ember-50 px-3 py-2 text-ink">
           <strong>Recommended flow: {q(choice.ceiling.flowM3PerS)}</strong>
-          {choice.ceiling.flowU ? <span className="num"> ± {f(flowOut(choice.ceiling.flowU, units), 2)}</span> : null} — where delivered heat reaches{' '}
+          {choice.ceiling.flowU ? <span className="num"> ± {f(displayUnits(units).flow.from(choice.ceiling.flowU), 2)}</span> : null} — where delivered heat reaches{' '}
           {Math.round(choice.ceiling.fraction * 100)} % of its ceiling of {kw(choice.ceiling.heatCeilingW, units)}.
           {choice.ceiling.extrapolated ? ' This lies outside the tested flows.' : ''}
         </p>
@@ -230,7 +190,7 @@ export function FlowChoice({ choice, units }: { choice: ChoiceView; units: Units
           {choice.minimumFlows.map((m) => (
             <tr key={m.label}>
               <th scope="row" className="bg-white font-normal">
-                {m.label} <span className="num text-xs text-ink-muted">{f(tempOut(m.limitC, units), 0)} {tempUnit(units)}</span>
+                {m.label} <span className="num text-xs text-ink-muted">{f(displayUnits(units).temp.from(m.limitC), 0)} {displayUnits(units).temp.label}</span>
               </th>
               <td className="num text-right">{q(m.flowM3PerS)}</td>
               <td className="num text-right">{q(m.conservativeFlowM3PerS)}</td>
@@ -245,25 +205,18 @@ export function FlowChoice({ choice, units }: { choice: ChoiceView; units: Units
   );
 }
 
-export interface PerformanceView {
-  inletTempC: number;
-  rows: { flowM3PerS: number; outletTempC: number; outletPiC: [number, number]; deltaTK: number; heatW: number; heatPiW: [number, number]; extrapolated: boolean }[];
-  notes: string[];
-  cautions: { code: string; level: string; message: string }[];
-}
-
-export function PerformanceTableView({ table, units }: { table: PerformanceView; units: Units }) {
+export function PerformanceTableView({ table, units }: { table: PerformanceView; units: UnitSystem }) {
   return (
     <div className="overflow-x-auto">
       <table className="data-table">
         <caption className="py-1 text-left text-sm font-semibold text-ink">
-          Performance at an inlet of <TempValue c={table.inletTempC} units={units} withUnit /> (95 % prediction intervals)
+          Performance at an inlet of <TempValue tempC={table.inletTempC} units={units} withUnit /> (95 % prediction intervals)
         </caption>
         <thead>
           <tr>
-            <th scope="col" className="text-right">Flow ({flowUnit(units)})</th>
-            <th scope="col" className="text-right">Outlet ({tempUnit(units)})</th>
-            <th scope="col" className="text-right">ΔT ({dtUnit(units)})</th>
+            <th scope="col" className="text-right">Flow ({displayUnits(units).flow.label})</th>
+            <th scope="col" className="text-right">Outlet ({displayUnits(units).temp.label})</th>
+            <th scope="col" className="text-right">ΔT ({displayUnits(units).tempDiff.label})</th>
             <th scope="col" className="text-right">Heat</th>
             <th scope="col"></th>
           </tr>
@@ -271,11 +224,11 @@ export function PerformanceTableView({ table, units }: { table: PerformanceView;
         <tbody>
           {table.rows.map((r) => (
             <tr key={r.flowM3PerS} className={r.extrapolated ? 'text-ink-muted' : ''}>
-              <td className="num text-right">{f(flowOut(r.flowM3PerS, units), 2)}</td>
+              <td className="num text-right">{f(displayUnits(units).flow.from(r.flowM3PerS), 2)}</td>
               <td className="num text-right">
-                <TempValue c={r.outletTempC} units={units} /> <span className="text-xs">({f(tempOut(r.outletPiC[0], units), 1)}–{f(tempOut(r.outletPiC[1], units), 1)})</span>
+                <TempValue tempC={r.outletTempC} units={units} /> <span className="text-xs">({f(displayUnits(units).temp.from(r.outletPiC[0]), 1)}–{f(displayUnits(units).temp.from(r.outletPiC[1]), 1)})</span>
               </td>
-              <td className="num text-right">{f(dtOut(r.deltaTK, units), 1)}</td>
+              <td className="num text-right">{f(displayUnits(units).tempDiff.from(r.deltaTK), 1)}</td>
               <td className="num text-right">{kw(r.heatW, units)}</td>
               <td className="text-xs">{r.extrapolated ? 'extrapolated' : ''}</td>
             </tr>

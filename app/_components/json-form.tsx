@@ -3,7 +3,7 @@
 import { useRouter } from 'next/navigation';
 import { useEffect, useId, useState, type ReactNode } from 'react';
 import { api, ApiError } from './api';
-import { safeNextPath } from './safe-next';
+import { safeNextPath } from '../_contracts/safe-next';
 
 export interface Field {
   name: string;

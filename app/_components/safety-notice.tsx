@@ -6,7 +6,8 @@
  */
 import { CAUTION_DEFER, cautionsToShow, hazardBand, hottestCautions, type CautionLike, type HazardBand, type PlaceTemperatures } from '@/analysis/safety/cautions';
 import { STANDING_NOTICE } from '@/analysis/safety/standing-notice';
-import { tempOut, tempUnit, type Units } from './units';
+import { displayUnits } from '@/app/_contracts/units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 
 /** The standing notice shown on every page: Emberline is an analysis aid, not a design approval. */
 export function SafetyNotice() {
@@ -36,11 +37,11 @@ function WarningIcon({ className = '' }: { className?: string }) {
  * A temperature in the reader's units, marked when it is at or above a caution threshold: a
  * warning icon and a one-word badge that are seen, the reason in words for screen readers
  * (visually hidden), and the same words as a tooltip. Below 40 °C it is the plain number.
- * @param c the temperature, °C (not finite: a dash)
+ * @param tempC the temperature, °C (not finite: a dash)
  */
-export function TempValue({ c, units, digits = 1, withUnit = false }: { c: number | null | undefined; units: Units; digits?: number; withUnit?: boolean }) {
+export function TempValue({ tempC: c, units, digits = 1, withUnit = false }: { tempC: number | null | undefined; units: UnitSystem; digits?: number; withUnit?: boolean }) {
   if (typeof c !== 'number' || !Number.isFinite(c)) return <>—</>;
-  const text = `${tempOut(c, units).toFixed(digits)}${withUnit ? ` ${tempUnit(units)}` : ''}`;
+  const text = `${displayUnits(units).temp.from(c).toFixed(digits)}${withUnit ? ` ${displayUnits(units).temp.label}` : ''}`;
   const h = hazardBand(c, units);
   if (h.band === 'none') return <>{text}</>;
   const tone = DANGER.has(h.band) ? 'bg-danger-bg text-danger-text ring-danger-line' : 'bg-caution-bg text-caution-text ring-caution-line';
@@ -93,6 +94,6 @@ export function CautionList({ cautions, label = 'Cautions' }: { cautions: readon
  * (inlet, outlet, pool…) and one caution per hazard it reaches. Nothing when all are below 40 °C.
  * @example <TemperatureCautions places={[{ where: 'outlet', valuesC: rows.map((r) => r.outletTempC) }]} />
  */
-export function TemperatureCautions({ places, units = 'si', label }: { places: readonly PlaceTemperatures[]; units?: Units; label?: string }) {
+export function TemperatureCautions({ places, units = 'si', label }: { places: readonly PlaceTemperatures[]; units?: UnitSystem; label?: string }) {
   return <CautionList cautions={hottestCautions(places, units)} label={label} />;
 }

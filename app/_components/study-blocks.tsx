@@ -6,13 +6,15 @@ import { ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTable
 import { PlotFigure } from './plot-figure';
 import { CautionList, TempValue, TemperatureCautions } from './safety-notice';
 import { StateBadge } from './review-panel';
-import { sharedBlockKey, studyBlockKey, type BlockBody, type BlockData, type CostView, type FitHead } from './study-block-types';
-import { dtOut, dtUnit, flowOut, flowUnit, tempUnit, volOut, volUnit, type Units } from './units';
+import type { BlockBody, BlockData, CostView, FitHead } from '../_contracts/study-blocks';
+import { sharedBlockKey, studyBlockKey } from '../_contracts/study-keys';
+import { displayUnits } from '@/app/_contracts/units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 import { useStudy } from './use-study';
 import { useStudyBlock } from './use-study-block';
 
 /** Where the blocks come from: the lab's own study page, or a share link (with the reader's units). */
-export type BlocksSource = { studyId: string } | { token: string; units: Units; blocks: { id: string; kind: string }[] };
+export type BlocksSource = { studyId: string } | { token: string; units: UnitSystem; blocks: { id: string; kind: string }[] };
 
 /**
  * The blocks of a study. Each block's data comes from its block-data route through SWR; the page
@@ -91,7 +93,7 @@ export function BlockView({ block }: { block: BlockData }) {
       return (
         <div className="space-y-3">
           <p className="text-sm">
-            Final <span className="num"><TempValue c={b.finalTempC} units={units} withUnit /></span>
+            Final <span className="num"><TempValue tempC={b.finalTempC} units={units} withUnit /></span>
             {b.hoursToTarget != null ? <>, target reached after <span className="num">{b.hoursToTarget.toFixed(1)} h</span></> : null}. {b.fitNote}
           </p>
           <CautionList cautions={b.cautions} />
@@ -131,18 +133,18 @@ export function BlockView({ block }: { block: BlockData }) {
             <thead>
               <tr>
                 <th scope="col">Started (UTC)</th>
-                <th scope="col" className="text-right">Flow ({flowUnit(units)})</th>
-                <th scope="col" className="text-right">Inlet ({tempUnit(units)})</th>
-                <th scope="col" className="text-right">Outlet ({tempUnit(units)})</th>
+                <th scope="col" className="text-right">Flow ({displayUnits(units).flow.label})</th>
+                <th scope="col" className="text-right">Inlet ({displayUnits(units).temp.label})</th>
+                <th scope="col" className="text-right">Outlet ({displayUnits(units).temp.label})</th>
               </tr>
             </thead>
             <tbody>
               {b.trials.map((t, i) => (
                 <tr key={i}>
                   <td className="num">{t.startedAt.slice(0, 16).replace('T', ' ')}</td>
-                  <td className="num text-right">{flowOut(t.flowM3PerS, units).toFixed(2)}</td>
-                  <td className="num text-right"><TempValue c={t.inletTempC} units={units} /></td>
-                  <td className="num text-right"><TempValue c={t.outletTempC} units={units} /></td>
+                  <td className="num text-right">{displayUnits(units).flow.from(t.flowM3PerS).toFixed(2)}</td>
+                  <td className="num text-right"><TempValue tempC={t.inletTempC} units={units} /></td>
+                  <td className="num text-right"><TempValue tempC={t.outletTempC} units={units} /></td>
                 </tr>
               ))}
             </tbody>
@@ -179,10 +181,10 @@ export function BlockView({ block }: { block: BlockData }) {
                     <th scope="col">#</th>
                     <th scope="col">From (UTC)</th>
                     <th scope="col" className="text-right">Minutes</th>
-                    <th scope="col" className="text-right">Flow ({flowUnit(units)})</th>
-                    <th scope="col" className="text-right">Inlet ({tempUnit(units)})</th>
-                    <th scope="col" className="text-right">Outlet ({tempUnit(units)})</th>
-                    <th scope="col" className="text-right">Rise ({dtUnit(units)})</th>
+                    <th scope="col" className="text-right">Flow ({displayUnits(units).flow.label})</th>
+                    <th scope="col" className="text-right">Inlet ({displayUnits(units).temp.label})</th>
+                    <th scope="col" className="text-right">Outlet ({displayUnits(units).temp.label})</th>
+                    <th scope="col" className="text-right">Rise ({displayUnits(units).tempDiff.label})</th>
                   </tr>
                 </thead>
                 <tbody>
@@ -191,10 +193,10 @@ export function BlockView({ block }: { block: BlockData }) {
                       <td className="num">{i + 1}</td>
                       <td className="num">{new Date(Date.parse(b.startedAt) + s.startS * 1000).toISOString().slice(11, 19)}</td>
                       <td className="num text-right">{((s.endS - s.startS) / 60).toFixed(1)}</td>
-                      <td className="num text-right">{flowOut(s.flowM3PerS, units).toFixed(2)}</td>
-                      <td className="num text-right"><TempValue c={s.inletTempC} units={units} /></td>
-                      <td className="num text-right"><TempValue c={s.outletTempC} units={units} /></td>
-                      <td className="num text-right">{dtOut(s.outletTempC - s.inletTempC, units).toFixed(1)}</td>
+                      <td className="num text-right">{displayUnits(units).flow.from(s.flowM3PerS).toFixed(2)}</td>
+                      <td className="num text-right"><TempValue tempC={s.inletTempC} units={units} /></td>
+                      <td className="num text-right"><TempValue tempC={s.outletTempC} units={units} /></td>
+                      <td className="num text-right">{displayUnits(units).tempDiff.from(s.outletTempC - s.inletTempC).toFixed(1)}</td>
                     </tr>
                   ))}
                 </tbody>
@@ -212,25 +214,25 @@ export function BlockView({ block }: { block: BlockData }) {
 }
 
 const hours = (s: number) => (s >= 3600 ? `${(s / 3600).toFixed(1)} h` : `${(s / 60).toFixed(0)} min`);
-const THERM_J = 105_505_585.262; // 100,000 Btu_IT (NIST SP 811)
 /** Money to the cent, or to a tenth of a cent below one unit (a useful kWh costs cents). */
 const money = (v: number, c: string) => `${v.toLocaleString('en-US', { minimumFractionDigits: 2, maximumFractionDigits: Math.abs(v) < 1 ? 3 : 2 })} ${c}`;
 
 /** The cost-sheet block: running cost per useful heat, per degree and of the heat-up, with its cautions. */
-function CostSheet({ cost: c, units }: { cost: CostView; units: Units }) {
+function CostSheet({ cost: c, units }: { cost: CostView; units: UnitSystem }) {
   const us = units === 'us';
+  const u = displayUnits(units);
   const rows: [string, string][] = [
     [`${c.fuelLabel} price`, `${money(c.price, c.currency)} per ${c.priceUnit}`],
     [c.efficiencyIsCop ? 'COP' : 'Efficiency (HHV)', c.efficiencyIsCop ? c.efficiency.toFixed(2) : `${(c.efficiency * 100).toFixed(0)} %`],
     ['Per useful therm (100,000 Btu delivered)', money(c.perUsefulTherm, c.currency)],
     ['Per useful kWh', money(c.perUsefulKWh, c.currency)],
   ];
-  if (c.perDegF !== null && c.perK !== null) rows.push([`Per degree of the pool (${us ? '°F' : 'K'})`, money(us ? c.perDegF : c.perK, c.currency)]);
+  if (c.perDegF !== null && c.perK !== null) rows.push([`Per degree of the pool (${u.tempDiff.label})`, money(us ? c.perDegF : c.perK, c.currency)]);
   if (c.volumeM3 !== null && c.riseK !== null) {
-    rows.push(['Heat-up', `${dtOut(c.riseK, units).toFixed(1)} ${dtUnit(units)} rise of ${volOut(c.volumeM3, units).toLocaleString('en-US', { maximumFractionDigits: 0 })} ${volUnit(units)}`]);
+    rows.push(['Heat-up', `${u.tempDiff.from(c.riseK).toFixed(1)} ${u.tempDiff.label} rise of ${u.volume.from(c.volumeM3).toLocaleString('en-US', { maximumFractionDigits: 0 })} ${u.volume.label}`]);
   }
   rows.push(
-    ['Useful heat', us ? `${(c.heatJ / THERM_J).toLocaleString('en-US', { maximumFractionDigits: 1 })} therm` : `${(c.heatJ / 3.6e6).toLocaleString('en-US', { maximumFractionDigits: 1 })} kWh`],
+    ['Useful heat', `${u.energy.from(c.heatJ).toLocaleString('en-US', { maximumFractionDigits: 1 })} ${u.energy.label}`],
     [`${c.fuelLabel} for that heat`, `${c.fuelQuantity.toLocaleString('en-US', { maximumFractionDigits: 1 })} ${c.priceUnit}`],
     ['Cost of that heat', money(c.heatCost, c.currency)],
   );

@@ -2,14 +2,16 @@
 
 import { useState } from 'react';
 import { api, ApiError } from './api';
-import { DEFAULT_TRIAL_QUERY, useTrials, type TrialQuery, type TrialRowDto } from './use-trials';
+import { DEFAULT_TRIAL_QUERY, useTrials, type TrialQuery } from './use-trials';
+import type { TrialDto } from '../_contracts/dto';
 import { TempValue, TemperatureCautions } from './safety-notice';
-import { dtOut, dtUnit, flowOut, flowUnit, tempUnit, type Units } from './units';
+import { displayUnits } from '@/app/_contracts/units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 
 const fmt = (v: number, d: number) => v.toFixed(d);
 
 /** The trials of one rig: server-side paging, sorting and filtering; writers edit notes and exclude trials. */
-export function TrialsTable({ rigId, units, canWrite }: { rigId: string; units: Units; canWrite: boolean }) {
+export function TrialsTable({ rigId, units, canWrite }: { rigId: string; units: UnitSystem; canWrite: boolean }) {
   const [q, setQ] = useState<TrialQuery>(DEFAULT_TRIAL_QUERY);
   const [selected, setSelected] = useState<Set<string>>(new Set());
   const [error, setError] = useState<string | null>(null);
@@ -32,7 +34,7 @@ export function TrialsTable({ rigId, units, canWrite }: { rigId: string; units: 
     }
   }
 
-  async function saveNotes(t: TrialRowDto, notes: string) {
+  async function saveNotes(t: TrialDto, notes: string) {
     if (notes === t.notes) return;
     try {
       await api(`/api/trials/${t.id}`, { method: 'PATCH', body: { notes } });
@@ -108,10 +110,10 @@ export function TrialsTable({ rigId, units, canWrite }: { rigId: string; units: 
                 </th>
               ) : null}
               <Th s="startedAt">Started (UTC)</Th>
-              <Th s="flowM3PerS" right>Flow ({flowUnit(units)})</Th>
-              <Th s="inletTempC" right>Inlet ({tempUnit(units)})</Th>
-              <Th s="outletTempC" right>Outlet ({tempUnit(units)})</Th>
-              <Th right>ΔT ({dtUnit(units)})</Th>
+              <Th s="flowM3PerS" right>Flow ({displayUnits(units).flow.label})</Th>
+              <Th s="inletTempC" right>Inlet ({displayUnits(units).temp.label})</Th>
+              <Th s="outletTempC" right>Outlet ({displayUnits(units).temp.label})</Th>
+              <Th right>ΔT ({displayUnits(units).tempDiff.label})</Th>
               <Th>Notes</Th>
             </tr>
           </thead>
@@ -137,10 +139,10 @@ export function TrialsTable({ rigId, units, canWrite }: { rigId: string; units: 
                   {t.startedAt.slice(0, 16).replace('T', ' ')}
                   {t.excluded ? <span className="ml-2 rounded bg-white px-1.5 py-0.5 text-xs text-ink-muted ring-1 ring-paper-line">excluded</span> : null}
                 </td>
-                <td className="num text-right">{fmt(flowOut(t.flowM3PerS, units), 2)}</td>
-                <td className="num text-right"><TempValue c={t.inletTempC} units={units} /></td>
-                <td className="num text-right"><TempValue c={t.outletTempC} units={units} /></td>
-                <td className="num text-right">{fmt(dtOut(t.outletTempC - t.inletTempC, units), 1)}</td>
+                <td className="num text-right">{fmt(displayUnits(units).flow.from(t.flowM3PerS), 2)}</td>
+                <td className="num text-right"><TempValue tempC={t.inletTempC} units={units} /></td>
+                <td className="num text-right"><TempValue tempC={t.outletTempC} units={units} /></td>
+                <td className="num text-right">{fmt(displayUnits(units).tempDiff.from(t.outletTempC - t.inletTempC), 1)}</td>
                 <td className="min-w-[14rem] text-sm">
                   {t.isReference ? <span className="mr-1 rounded bg-water-50 px-1.5 py-0.5 text-xs font-medium text-water-800">reference</span> : null}
                   {t.origin === 'log-segment' ? <span title={`A steady period of a sensor log, from line ${t.sourceLine ?? '?'}`} className="mr-1 rounded bg-paper-deep px-1.5 py-0.5 text-xs text-ink-soft">logged</span> : null}

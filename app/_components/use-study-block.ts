@@ -2,7 +2,7 @@
 
 import useSWR from 'swr';
 import { fetcher } from './api';
-import type { BlockData } from './study-block-types';
+import type { BlockData } from '../_contracts/study-blocks';
 
 /**
  * One study block's data (numbers, tables, plot SVG) from its block-data route. `key` is

@@ -2,7 +2,8 @@
 
 import useSWR from 'swr';
 import { fetcher } from './api';
-import { studyKey, type StudyRecord } from './study-block-types';
+import type { StudyRecord } from '../_contracts/study-blocks';
+import { studyKey } from '../_contracts/study-keys';
 
 /**
  * The study (title, ordered blocks, revision) for lab members: the page's server render puts it in

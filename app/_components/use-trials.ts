@@ -2,32 +2,7 @@
 
 import useSWR from 'swr';
 import { fetcher } from './api';
-
-export interface TrialRowDto {
-  id: string;
-  startedAt: string;
-  bucketVolumeM3: number | null;
-  fillTimesS: number[] | null;
-  flowM3PerS: number;
-  inletTempC: number;
-  outletTempC: number;
-  ambientTempC: number | null;
-  isReference: boolean;
-  excluded: boolean;
-  notes: string;
-  origin: string;
-  sourceLine: number | null;
-  warnings: string[];
-}
-
-/** One page of a rig's trials, with the hottest inlet and outlet (°C) of all trials matching the query. */
-export interface TrialPage {
-  trials: TrialRowDto[];
-  total: number;
-  page: number;
-  pageSize: number;
-  hottest?: { inletTempC: number | null; outletTempC: number | null };
-}
+import type { TrialPageDto } from '../_contracts/dto';
 
 export interface TrialQuery {
   page: number;
@@ -48,5 +23,5 @@ export function trialsKey(rigId: string, q: TrialQuery): string {
 }
 
 export function useTrials(rigId: string, q: TrialQuery) {
-  return useSWR<TrialPage>(trialsKey(rigId, q), fetcher, { keepPreviousData: true });
+  return useSWR<TrialPageDto>(trialsKey(rigId, q), fetcher, { keepPreviousData: true });
 }

@@ -2,17 +2,8 @@
 
 import { useState } from 'react';
 import { api, ApiError } from '../_components/api';
+import type { TokenDto as Token } from '../_contracts/dto';
 
-interface Token {
-  id: string;
-  name: string;
-  prefix: string;
-  labId: string;
-  createdAt: string;
-  lastUsedAt: string | null;
-  expiresAt: string;
-  revokedAt: string | null;
-}
 
 const when = (iso: string | null) => (iso ? new Date(iso).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short', timeZone: 'UTC' }) + ' UTC' : '—');
 

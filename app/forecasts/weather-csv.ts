@@ -9,6 +9,8 @@
  * is checked; a bad cell is reported with its line and column, and the table is refused.
  */
 import Papa from 'papaparse';
+import type { UnitSystem } from '@/analysis/units/unit-system';
+import { displayUnit } from '@/app/_contracts/units';
 
 /** One hour as the forecast API takes it (quantities as unit strings). */
 export interface WeatherRow {
@@ -61,7 +63,7 @@ function windUnit(h: string, fallback: 'm/s' | 'mph'): string {
  * @param units the user's units, for temperature and wind columns whose header names none
  * @example parseWeatherCsv('hour,air (°C),RH (%)\n0,18,70\n1,17.5,72', 'si').rows[1] // { airTemp: '17.5 degC', relativeHumidity: 0.72 }
  */
-export function parseWeatherCsv(text: string, units: 'si' | 'us'): WeatherTable {
+export function parseWeatherCsv(text: string, units: UnitSystem): WeatherTable {
   const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ''), { skipEmptyLines: 'greedy' });
   const data = parsed.data;
   const issues: WeatherTable['issues'] = [];
@@ -78,9 +80,9 @@ export function parseWeatherCsv(text: string, units: 'si' | 'us'): WeatherTable 
   if (data.length - 1 > MAX_ROWS) issues.push({ line: MAX_ROWS + 2, message: `more than ${MAX_ROWS} hourly rows (a year); shorten the table` });
   if (issues.length) return { rows: [], issues, columns: [] };
 
-  const fallbackT = units === 'us' ? 'degF' : 'degC';
+  const fallbackT = displayUnit('temperature', units).mathUnit as 'degC' | 'degF';
   const tUnit = (k: Kind) => tempUnit(header[cols.get(k)!], fallbackT);
-  const wUnit = cols.has('wind') ? windUnit(header[cols.get('wind')!], units === 'us' ? 'mph' : 'm/s') : 'm/s';
+  const wUnit = cols.has('wind') ? windUnit(header[cols.get('wind')!], displayUnit('speed', units).mathUnit as 'm/s' | 'mph') : 'm/s';
   const rhPercent = cols.has('rh') && !/0\s*[-–]\s*1\b|fraction/i.test(header[cols.get('rh')!]);
   const cloudPercent = cols.has('cloud') && /%|percent|okta/i.test(header[cols.get('cloud')!]);
   const oktas = cols.has('cloud') && /okta/i.test(header[cols.get('cloud')!]);

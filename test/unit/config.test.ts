@@ -1,6 +1,6 @@
 import { describe, expect, test } from 'vitest';
 import { configProblems, ownOrigins, readConfig } from '../../app/_lib/server/config';
-import { safeNextPath } from '../../app/_components/safe-next';
+import { safeNextPath } from '../../app/_contracts/safe-next';
 
 const secret = 'x'.repeat(40);
 

@@ -2,7 +2,7 @@ import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { z } from 'zod';
 import { ApiToken, Lab, Membership, PasswordReset, PendingSignUp, Session, User, type UserRow } from '@/entities';
-import { safeNextPath } from '@/app/_components/safe-next';
+import { safeNextPath } from '@/app/_contracts/safe-next';
 import { audit } from '../labs/audit';
 import { appOrigin } from '../server/config';
 import { DomainError } from '../server/errors';

@@ -1,6 +1,7 @@
 /** zod schemas of the account and lab boundaries, each defined once and shared by routes and forms. */
 import { z } from 'zod';
 import { ROLES } from '@/entities/membership';
+import { UNIT_SYSTEMS } from '@/analysis/units/unit-system';
 
 export const email = z
   .string()
@@ -40,4 +41,4 @@ export const tokenInput = z.object({
   /** lifetime in days (default 90, at most a year); a form sends it as text */
   expiresInDays: z.coerce.number().int('Whole days.').min(1, 'At least one day.').max(365, 'At most 365 days.').default(90),
 });
-export const preferencesInput = z.object({ unitSystem: z.enum(['si', 'us']) });
+export const preferencesInput = z.object({ unitSystem: z.enum(UNIT_SYSTEMS) });

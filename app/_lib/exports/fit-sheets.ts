@@ -8,7 +8,8 @@
  */
 import { BUILTIN_MODELS } from '@/analysis/fit';
 import type { ExportColumn, ExportRow } from './columns';
-import { displayUnit, toDisplay, spreadToDisplay, type UnitSystem } from './display-units';
+import { displayUnit, toDisplay, spreadToDisplay } from '@/app/_contracts/units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 import { FMT, quantityColumn } from './quantity-columns';
 import type { FitExport } from './types';
 import type { SheetSpec, SummaryItem } from './xlsx';

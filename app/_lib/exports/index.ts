@@ -6,7 +6,6 @@ import 'server-only';
 export { neutraliseCell, neutraliseText, FORMULA_TRIGGERS, type CellValue, type SafeCell } from './cells';
 export { csvHeader, xlsxHeader, unitToken, snakeName, type ExportColumn, type ExportRow } from './columns';
 export { toCsv, type CsvOptions } from './csv';
-export { displayUnit, toDisplay, spreadToDisplay, type DisplayUnit, type ExportQuantity, type UnitSystem } from './display-units';
 export { buildWorkbook, workbookDocument, summarySheet, DATE_NUM_FMT, SUMMARY_COLUMNS, type SheetSpec, type SummaryItem, type WorkbookSpec } from './xlsx';
 export { quantityColumn } from './quantity-columns';
 export { trialsSheet, trialExportRow } from './trial-sheet';

@@ -4,9 +4,10 @@
  * the full-precision converted value).
  */
 import type { ExportColumn } from './columns';
-import { displayUnit, type ExportQuantity, type UnitSystem } from './display-units';
+import { displayUnit, type DisplayQuantity } from '@/app/_contracts/units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 
-const FORMATS: Record<ExportQuantity, [si: string, us: string]> = {
+const FORMATS: Record<DisplayQuantity, [si: string, us: string]> = {
   volumeFlow: ['0.00', '0.00'],
   massFlow: ['0.0000', '0.00'],
   temperature: ['0.00', '0.00'],
@@ -14,6 +15,7 @@ const FORMATS: Record<ExportQuantity, [si: string, us: string]> = {
   power: ['0.000', '#,##0'],
   conductance: ['0.0', '0.0'],
   volume: ['0.00', '0.00'],
+  poolVolume: ['0.00', '0'],
   mass: ['0.00', '0.00'],
   energy: ['0.00', '0.000'],
   irradiance: ['0', '0.0'],
@@ -27,7 +29,7 @@ const FORMATS: Record<ExportQuantity, [si: string, us: string]> = {
  * A column of `quantity` in `system`: unit label in the header, a number format for it.
  * @example quantityColumn('flow', 'Flow', 'volumeFlow', 'us') // { unit: 'gpm', numFmt: '0.00', … }
  */
-export function quantityColumn(key: string, header: string, quantity: ExportQuantity, system: UnitSystem, numFmt?: string): ExportColumn {
+export function quantityColumn(key: string, header: string, quantity: DisplayQuantity, system: UnitSystem, numFmt?: string): ExportColumn {
   return { key, header, unit: displayUnit(quantity, system).label, numFmt: numFmt ?? FORMATS[quantity][system === 'us' ? 1 : 0] };
 }
 

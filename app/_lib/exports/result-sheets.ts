@@ -4,7 +4,8 @@
  * analysis/cost) and converts to the display units.
  */
 import type { ExportColumn, ExportRow } from './columns';
-import { displayUnit, spreadToDisplay, toDisplay, type UnitSystem } from './display-units';
+import { displayUnit, spreadToDisplay, toDisplay } from '@/app/_contracts/units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 import { FMT, quantityColumn } from './quantity-columns';
 import type { CostExport, ForecastExport, PerformanceExport } from './types';
 import type { SheetSpec, SummaryItem } from './xlsx';

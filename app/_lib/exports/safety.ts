@@ -6,7 +6,8 @@
  */
 import { CAUTION_DEFER, cautionsToShow, HAZARD_BANDS, hazardBand, hottestCautions, thresholdText, type CautionLike, type PlaceTemperatures } from '@/analysis/safety/cautions';
 import { CAUTION_LIMITS, STANDING_NOTICE } from '@/analysis/safety/standing-notice';
-import type { UnitSystem } from './display-units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
+import { displayUnit } from '@/app/_contracts/units';
 import type { SummaryItem } from './xlsx';
 
 /** The first notice row of every sheet that shows temperatures: the limits in the reader's units. */
@@ -45,12 +46,13 @@ export function cautionCell(values: readonly [string, number | null | undefined]
 
 /** The caution limits of the Summary: each threshold in the display unit, its meaning and basis. */
 export function limitItems(system: UnitSystem): SummaryItem[] {
-  const unit = system === 'us' ? '°F' : '°C';
+  const temp = displayUnit('temperature', system);
   return CAUTION_LIMITS.map((l) => ({
     section: 'Safety limits',
     key: `${l.meaning} (${l.basis})`,
-    value: system === 'us' ? Math.round(l.thresholdC * 1.8 + 32) : l.thresholdC,
-    unit,
+    // whole degrees, as thresholdText (analysis/safety) writes them
+    value: Math.round(temp.from(l.thresholdC)),
+    unit: temp.label,
   }));
 }
 

@@ -3,6 +3,7 @@
  * results), Trials, Fit, Residuals, Performance, Forecast and Costs — each sheet present when its
  * data is — and CSV of any of those tables.
  */
+import type { UnitSystem } from '@/analysis/units/unit-system';
 import { toCsv, type CsvOptions } from './csv';
 import { fitSheet, fitSummaryItems, residualsSheet } from './fit-sheets';
 import { costsSheet, forecastSheet, forecastSummaryItems, performanceSheet } from './result-sheets';
@@ -20,7 +21,7 @@ export const STUDY_SHEETS = ['Summary', 'Trials', 'Fit', 'Residuals', 'Performan
 export type StudySheetName = (typeof STUDY_SHEETS)[number];
 
 /** Provenance lines of the Summary sheet. */
-export function provenanceItems(p: ExportProvenance, unitSystem: 'si' | 'us'): SummaryItem[] {
+export function provenanceItems(p: ExportProvenance, unitSystem: UnitSystem): SummaryItem[] {
   const section = 'Provenance';
   const items: SummaryItem[] = [
     { section, key: 'Lab', value: p.lab },

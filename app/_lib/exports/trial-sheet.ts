@@ -1,7 +1,8 @@
 /** The Trials sheet: raw inputs and derived values per trial (DOMAIN.md §7). */
 import type { TrialInput, TrialDerivation } from '@/analysis/trial/derive-trial';
 import type { ExportColumn, ExportRow } from './columns';
-import { toDisplay, spreadToDisplay, type UnitSystem } from './display-units';
+import { toDisplay, spreadToDisplay } from '@/app/_contracts/units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 import { FMT, quantityColumn } from './quantity-columns';
 import type { TrialExportRow } from './types';
 import type { SheetSpec } from './xlsx';

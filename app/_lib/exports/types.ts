@@ -13,9 +13,7 @@ import type { UsefulHeatCost } from '@/analysis/cost/useful-heat-cost';
 import type { Payback } from '@/analysis/cost/payback';
 import type { FuelKind } from '@/analysis/cost/fuels';
 import type { CellValue } from './cells';
-import type { UnitSystem } from './display-units';
-
-export type { UnitSystem } from './display-units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 
 /** Where the numbers come from: the Summary sheet's Provenance section (DOMAIN.md §7, reproducibility). */
 export interface ExportProvenance {

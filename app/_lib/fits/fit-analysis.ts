@@ -8,7 +8,8 @@ import { chooseFlow } from '@/analysis/performance/choose-flow';
 import { performanceTable } from '@/analysis/performance/performance-table';
 import { trialWaterProperties } from '@/analysis/water/trial-water';
 import { plotToSvg } from '../plots/plot-svg';
-import { fitCurveInputFromFits, fitCurvePlot, heatInputFromFit, heatPlot, residualInputFromFit, residualPlots, type PlotFigure, type UnitSystem } from '../plots';
+import { fitCurveInputFromFits, fitCurvePlot, heatInputFromFit, heatPlot, residualInputFromFit, residualPlots, type PlotFigure } from '../plots';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 import { DomainError } from '../server/errors';
 import pkg from '@/package.json';
 

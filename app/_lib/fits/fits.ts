@@ -7,6 +7,7 @@ import { chooseFlow } from '@/analysis/performance/choose-flow';
 import { performanceTable } from '@/analysis/performance/performance-table';
 import { DomainError } from '../server/errors';
 import { DEFAULT_MEASUREMENT_SD_K, MAX_FIT_TRIALS, SOFTWARE_VERSION, fitData, modelLabel, trialsForFit, trialsHash } from './fit-analysis';
+import { parseStoredFit, storedFitResult } from './stored-fit';
 
 export const saveFitInput = z
   .object({
@@ -33,8 +34,6 @@ export async function saveFit(em: EntityManager, rig: RigRow, user: UserRow, inp
   const fit: FitSuccess = mine.fit;
   const meanTin = data.covariates.Tin.reduce((a, b) => a + b, 0) / trials.length;
   const planInletC = input.planInletC ?? Math.round(meanTin * 10) / 10;
-  const [lo, hi] = fit.xRange;
-  const steps = Array.from({ length: 8 }, (_, i) => lo + ((hi * 1.25 - lo) * i) / 7);
   const previous = await em.findOne(Fit, { rig, title: input.title }, { orderBy: { version: 'desc' } });
   const row = em.create(Fit, {
     lab: rig.lab,
@@ -47,15 +46,7 @@ export async function saveFit(em: EntityManager, rig: RigRow, user: UserRow, inp
     trialIds: trials.map((t) => t.id),
     trialsHash: trialsHash(trials),
     settings: { measurementSdK: input.measurementSdK, planInletC, compareWith: input.compareWith, x: 'volume flow, m³/s', y: 'outlet temperature, °C' },
-    result: JSON.parse(
-      JSON.stringify({
-        fit,
-        comparison: { best: comparison.best, verdict: comparison.verdict, ranking: comparison.ranking.map((r) => ({ ...r, fit: undefined })) },
-        choice: chooseFlow(fit, planInletC),
-        performance: performanceTable(fit, steps, planInletC),
-        trials: trials.map((t) => ({ id: t.id, startedAt: t.startedAt.toISOString(), flowM3PerS: t.flowM3PerS, inletTempC: t.inletTempC, outletTempC: t.outletTempC, bucketVolumeM3: t.bucketVolumeM3 ?? null, fillTimesS: t.fillTimesS ?? null, ambientTempC: t.ambientTempC ?? null, notes: t.notes })),
-      }),
-    ),
+    result: storedFitResult(fit, comparison, planInletC, trials) as unknown as Record<string, unknown>,
     softwareVersion: SOFTWARE_VERSION,
   });
   await em.flush();
@@ -75,7 +66,7 @@ export const fitListDto = (f: FitRow) => ({
   createdBy: f.createdBy?.name ?? null,
 });
 
-export const fitDto = (f: FitRow) => ({ ...fitListDto(f), trialIds: f.trialIds, trialsHash: f.trialsHash, settings: f.settings, result: f.result, softwareVersion: f.softwareVersion });
+export const fitDto = (f: FitRow) => ({ ...fitListDto(f), trialIds: f.trialIds, trialsHash: f.trialsHash, settings: f.settings, result: parseStoredFit(f.result, f.id), softwareVersion: f.softwareVersion });
 
 export const fitsOfLab = (em: EntityManager, lab: LabRow, opts: { limit?: number; model?: string } = {}) =>
   em.find(Fit, { lab, ...(opts.model ? { model: opts.model } : {}) }, { populate: ['rig', 'createdBy'], orderBy: { createdAt: 'desc' }, limit: opts.limit ?? 200 });

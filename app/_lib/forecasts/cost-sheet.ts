@@ -9,7 +9,7 @@ import { InputError, readingInput } from '@/analysis/units/reading-input';
 import { invalid } from '../server/errors';
 import { parseQuantity } from '@/analysis/units/parse-quantity';
 import type { StudyBlock } from '@/entities/study';
-import type { CostView } from '../../_components/study-block-types';
+import type { CostView } from '@/app/_contracts/study-blocks';
 import type { RunningCostExport } from '../exports';
 
 /**

@@ -2,7 +2,6 @@ import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
 import { Fit, type LabRow } from '@/entities';
-import type { FitSuccess } from '@/analysis/fit';
 import { costPerDegree, usefulHeatCost, USEFUL_THERM_J } from '@/analysis/cost/useful-heat-cost';
 import type { FuelKind } from '@/analysis/cost/fuels';
 import { checkForecastWork, FORECAST_LIMITS } from '@/analysis/forecast/forecast-limits';
@@ -18,8 +17,10 @@ import { readingInput } from '@/analysis/units/reading-input';
 import { waterDensityKgPerM3 } from '@/analysis/water/water-properties';
 import { invalid, notFound } from '../server/errors';
 import { plotToSvg } from '../plots/plot-svg';
-import { energyBudgetInput, energyBudgetPlot, forecastPlot, type UnitSystem } from '../plots';
+import { energyBudgetInput, energyBudgetPlot, forecastPlot } from '../plots';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 import { isUuid } from '../labs/load-in-lab';
+import { parseStoredFit } from '../fits/stored-fit';
 import type { ForecastExport } from '../exports';
 
 /** A forecast as the app runs it: the typed input, its result, and what the page adds. */
@@ -103,7 +104,7 @@ async function prepareForecast(em: EntityManager, lab: LabRow, body: Record<stri
     const fit = isUuid(fitId) ? await em.findOne(Fit, { id: fitId, lab }) : null;
     if (!fit) throw notFound('No such saved fit in this lab.');
     if (fit.model !== 'coil') throw invalid('Forecasts take a saved coil fit (its Ts and UA carry over to any inlet temperature).', { fitId: 'Pick a coil fit.' });
-    const p = (fit.result as { fit: FitSuccess }).fit.params;
+    const p = parseStoredFit(fit.result, fit.id).fit.params;
     input.heater = { model: 'coil', sourceTemp: `${p.Ts.value} degC`, UA: `${p.UA.value} W/K` };
     fitNote = `Heater: saved fit "${fit.title}" v${fit.version} (Ts ${p.Ts.value.toFixed(1)} °C, UA ${p.UA.value.toFixed(0)} W/K).`;
   }

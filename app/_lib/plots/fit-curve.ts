@@ -10,7 +10,9 @@ import { baseOptions, COLORS, DASHES, MODEL_STROKES, type PlotFigure } from './t
 
 /** Trials with a hover tooltip each, at most. */
 export const TOOLTIP_MAX_TRIALS = 300;
-import { displayUnits, fmt, sentences, withUnit, type UnitSystem } from './units';
+import { displayUnits, fmt, withUnit } from '@/app/_contracts/units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
+import { sentences } from './words';
 
 /** One trial, SI: flow m³/s, outlet °C. */
 export interface FitCurveTrial {

@@ -6,7 +6,9 @@ import * as Plot from '@observablehq/plot';
 import type { EnergyBudget, ForecastResult } from '../../../analysis/forecast/recirculating-forecast';
 import { CAUTION_THRESHOLDS_C, HAZARD_BANDS } from '../../../analysis/safety/cautions';
 import { baseOptions, COLORS, type PlotFigure } from './theme';
-import { displayUnits, fmt, sentences, withUnit, type UnitSystem } from './units';
+import { displayUnits, fmt, withUnit } from '@/app/_contracts/units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
+import { sentences } from './words';
 
 /** Everything forecastPlot draws, SI (°C, hours). */
 export interface ForecastPlotInput {

@@ -8,7 +8,9 @@ import { heatOptimum, predictAt, type FitSuccess } from '../../../analysis/fit';
 import type { FlowChoice } from '../../../analysis/performance/choose-flow';
 import { waterCpJPerKgK, waterDensityKgPerM3 } from '../../../analysis/water/water-properties';
 import { baseOptions, COLORS, type PlotFigure } from './theme';
-import { displayUnits, fmt, sentences, withUnit, type UnitSystem } from './units';
+import { displayUnits, fmt, withUnit } from '@/app/_contracts/units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
+import { sentences } from './words';
 
 /** Heat on the curve at one flow, SI (W), with the intervals of the outlet mapped through q. */
 export interface HeatCurvePoint {

@@ -3,7 +3,6 @@
  * with plotToSvg on the server or Plot.plot in a client component), each with a title and a
  * summary for the figcaption. Adapters turn the analysis results into the plot inputs.
  */
-export { displayUnits, type DisplayUnit, type DisplayUnits, type UnitSystem } from './units';
 export { COLORS, type PlotFigure } from './theme';
 export { fitCurvePlot, fitCurveInputFromFits, type FitCurveInput, type FitCurveTrial, type FitCurveReplicate, type FitCurveModel, type FitCurveFromFitsOptions } from './fit-curve';
 export { residualPlots, residualInputFromFit, type ResidualInput, type ResidualPoint, type ResidualFlag, type ResidualFigures } from './residuals';

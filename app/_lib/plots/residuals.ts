@@ -7,7 +7,9 @@ import * as Plot from '@observablehq/plot';
 import { runsTest, type FitSuccess } from '../../../analysis/fit';
 import { normalQuantile } from '../../../analysis/stats/distributions';
 import { baseOptions, COLORS, type PlotFigure } from './theme';
-import { displayUnits, fmt, sentences, withUnit, type DisplayUnits, type UnitSystem } from './units';
+import { displayUnits, fmt, withUnit, type DisplayUnits } from '@/app/_contracts/units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
+import { sentences } from './words';
 
 /** Why a point is flagged, with the fitting engine's thresholds. */
 export type ResidualFlag = 'high-leverage' | 'influential' | 'outlier';

@@ -1,3 +1,5 @@
+import { displayUnit } from '@/app/_contracts/units';
+
 /**
  * The static sample on the landing page: an invented coil (Ts 85 °C, UA 450 W/K, inlet 18 °C)
  * drawn with the constant-source model, and a few invented trial points around it.
@@ -8,7 +10,8 @@ export function sampleCoilData() {
   const tin = 18;
   const cp = 4181;
   const rho = 997;
-  const outlet = (lpm: number) => ts - (ts - tin) * Math.exp(-ua / ((rho * lpm) / 60_000 * cp));
+  const lpm = displayUnit('volumeFlow', 'si');
+  const outlet = (q: number) => ts - (ts - tin) * Math.exp(-ua / (rho * lpm.to(q) * cp));
   const curve = Array.from({ length: 91 }, (_, i) => {
     const q = 1.5 + i * 0.25;
     const t = outlet(q);

@@ -7,7 +7,9 @@
 import * as Plot from '@observablehq/plot';
 import { baseOptions, COLORS, type PlotFigure } from './theme';
 import { HAZARD_BANDS, hottestCautions } from '../../../analysis/safety/cautions';
-import { displayUnits, fmt, sentences, withUnit, type UnitSystem } from './units';
+import { displayUnits, fmt, withUnit } from '@/app/_contracts/units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
+import { sentences } from './words';
 
 /** Gaps between steady segments narrower than this, in CSS px, are not drawn (one band). */
 const MERGE_PX = 2;

@@ -1,4 +1,5 @@
 import 'server-only';
+import type { TrialDto } from '@/app/_contracts/dto';
 import { raw, type EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
 import { Trial, TrialChange, type RigRow, type TrialRow, type UserRow } from '@/entities';
@@ -139,7 +140,7 @@ export async function trialsOfRig(em: EntityManager, rig: RigRow, ids: string[])
   return rows;
 }
 
-export const trialDto = (t: TrialRow) => ({
+export const trialDto = (t: TrialRow): TrialDto => ({
   id: t.id,
   rigId: t.rig.id,
   startedAt: t.startedAt.toISOString(),

@@ -4,12 +4,11 @@ import 'server-only';
  * hidden column (a hash, a secret) cannot slip out.
  */
 import type { ApiTokenRow, AuditEventRow, InvitationRow, LabRow, MembershipRow, RigRow, UserRow } from '@/entities';
-
-export type UserDto = { id: string; email: string; name: string; unitSystem: 'si' | 'us' };
+import type { LabDto, RigDto, TokenDto, UserDto } from '@/app/_contracts/dto';
 
 export const userDto = (u: UserRow): UserDto => ({ id: u.id, email: u.email, name: u.name, unitSystem: u.unitSystem });
 
-export const labDto = (l: LabRow) => ({ id: l.id, name: l.name, slug: l.slug, unitSystem: l.unitSystem, isDemo: l.isDemo });
+export const labDto = (l: LabRow): LabDto => ({ id: l.id, name: l.name, slug: l.slug, unitSystem: l.unitSystem, isDemo: l.isDemo });
 
 export const memberDto = (m: MembershipRow) => ({
   id: m.id,
@@ -27,7 +26,7 @@ export const invitationDto = (i: InvitationRow) => ({
   revokedAt: i.revokedAt?.toISOString() ?? null,
 });
 
-export const tokenDto = (t: ApiTokenRow) => ({
+export const tokenDto = (t: ApiTokenRow): TokenDto => ({
   id: t.id,
   name: t.name,
   prefix: t.prefix,
@@ -47,7 +46,7 @@ export const auditDto = (a: AuditEventRow) => ({
   ip: a.ip,
 });
 
-export const rigDto = (r: RigRow) => ({
+export const rigDto = (r: RigRow): RigDto => ({
   id: r.id,
   labId: r.lab.id,
   name: r.name,

@@ -4,6 +4,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
 import { ShareLink, Study, type LabRow, type ShareLinkRow, type StudyRow, type UserRow } from '@/entities';
 import { BLOCK_KINDS, type StudyBlock } from '@/entities/study';
+import { UNIT_SYSTEMS, type UnitSystem } from '@/analysis/units/unit-system';
 import { costBlockData } from '../forecasts/cost-sheet';
 import { forecastWorkProblem } from '../forecasts/forecasts';
 import { conflict, DomainError, notFound } from '../server/errors';
@@ -132,8 +133,8 @@ export async function sharedStudy(em: EntityManager, token: string) {
  * The units of the public share view: the reader's explicit choice (`?units=si|us`), else a
  * signed-in reader's own preference, else SI.
  */
-export function shareUnits(param: string | null | undefined, preference?: 'si' | 'us' | null): 'si' | 'us' {
-  if (param === 'si' || param === 'us') return param;
+export function shareUnits(param: string | null | undefined, preference?: UnitSystem | null): UnitSystem {
+  if ((UNIT_SYSTEMS as readonly (string | null | undefined)[]).includes(param)) return param as UnitSystem;
   return preference === 'us' ? 'us' : 'si';
 }
 

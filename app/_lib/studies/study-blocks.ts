@@ -4,11 +4,12 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { Fit, SensorOverview, SourceFile, type FitRow, type LabRow, type StudyRow } from '@/entities';
 import type { StudyBlock } from '@/entities/study';
 import type { FitSuccess } from '@/analysis/fit';
-import { SEGMENT_ROWS, type BlockBody, type BlockData, type FitHead, type PlotView } from '../../_components/study-block-types';
-import type { ChoiceView, ComparisonView, FitView, PerformanceView } from '../../_components/fit-report';
-import type { Units } from '../../_components/units';
+import { SEGMENT_ROWS, type BlockBody, type BlockData, type FitHead, type PlotView } from '@/app/_contracts/study-blocks';
+import type { FitView } from '@/app/_contracts/fit-report';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 import { costView } from '../forecasts/cost-sheet';
 import { modelLabel } from '../fits/fit-analysis';
+import { parseStoredFit } from '../fits/stored-fit';
 import { forecast } from '../forecasts/forecasts';
 import { renderMarkdown } from './markdown';
 import { STANDING_NOTICE } from '@/analysis/safety/standing-notice';
@@ -32,19 +33,11 @@ export interface BlockContext {
   em: EntityManager;
   lab: LabRow;
   study: StudyRow;
-  units: Units;
+  units: UnitSystem;
   /** the share view: no fit links, no file names */
   publicView: boolean;
   /** saved fits by id, loaded once for the blocks that need them */
   fits?: Map<string, FitRow>;
-}
-
-interface StoredFitResult {
-  fit: FitSuccess;
-  comparison: ComparisonView;
-  choice: ChoiceView;
-  performance: PerformanceView;
-  trials: { startedAt: string; flowM3PerS: number; inletTempC: number; outletTempC: number }[];
 }
 
 const FIT_KINDS = new Set(['fit', 'comparison', 'performance', 'trials']);
@@ -73,8 +66,8 @@ function fitView(fit: FitSuccess, label: string): FitView {
   return { label, model, params, parameterNames, correlation, n, df, rss, residualSD, r2, adjustedR2, aicc, bic, level, iterations, stoppingReason, flags, lackOfFit: lackOfFit as FitView['lackOfFit'], warnings };
 }
 
-function fitBody(kind: string, fit: FitRow, publicView: boolean, units: Units): BlockBody {
-  const r = fit.result as unknown as StoredFitResult;
+function fitBody(kind: string, fit: FitRow, publicView: boolean, units: UnitSystem): BlockBody {
+  const r = parseStoredFit(fit.result, fit.id);
   const label = modelLabel(fit.model);
   const head: FitHead = { fitId: publicView ? null : fit.id, title: fit.title, version: fit.version, label, reviewState: fit.reviewState };
   switch (kind) {

@@ -1,26 +1,13 @@
 import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { Fit, Rig, type StudyRow } from '@/entities';
-import type { FitSuccess } from '@/analysis/fit';
-import type { PerformanceTable } from '@/analysis/performance/performance-table';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 import { STUDY_SHEETS, studyCsv, studyWorkbook, type FitExport, type ForecastExport, type PerformanceExport, type RunningCostExport, type StudyExport, type StudySheetName, type TrialExportRow } from '../exports';
 import { costExport, costView } from '../forecasts/cost-sheet';
 import { DomainError } from '../server/errors';
 import { forecastForExport } from '../forecasts/forecasts';
 import { modelLabel, SOFTWARE_VERSION } from '../fits/fit-analysis';
-
-/** A trial as a saved fit keeps it (`result.trials`). */
-export interface StoredTrial {
-  id: string;
-  startedAt: string;
-  flowM3PerS: number;
-  inletTempC: number;
-  outletTempC: number;
-  bucketVolumeM3: number | null;
-  fillTimesS: number[] | null;
-  ambientTempC: number | null;
-  notes?: string;
-}
+import { parseStoredFit } from '../fits/stored-fit';
 
 /** The saved fits a study's blocks point at, in block order, once each (lab-scoped). */
 export async function studyFits(em: EntityManager, study: StudyRow) {
@@ -30,14 +17,14 @@ export async function studyFits(em: EntityManager, study: StudyRow) {
 }
 
 /** The study's tables (Summary with provenance, Trials, Fit, Residuals, Performance, Forecast series of its forecast blocks, Costs of its cost-sheet blocks) as export data. */
-export async function studyExportData(em: EntityManager, study: StudyRow, labName: string, unitSystem: 'si' | 'us'): Promise<StudyExport> {
+export async function studyExportData(em: EntityManager, study: StudyRow, labName: string, unitSystem: UnitSystem): Promise<StudyExport> {
   const fits = await studyFits(em, study);
   const rigs = fits.length ? await em.find(Rig, { id: { $in: fits.map((f) => f.rig.id) } }) : [];
   const trials: TrialExportRow[] = [];
   const fitExports: FitExport[] = [];
   const performance: PerformanceExport[] = [];
   for (const f of fits) {
-    const r = f.result as { fit: FitSuccess; performance: PerformanceTable; trials: StoredTrial[] };
+    const r = parseStoredFit(f.result, f.id);
     const label = `${f.title} v${f.version} (${modelLabel(f.model)})`;
     r.trials.forEach((t, i) =>
       trials.push({ id: t.id, order: i + 1, timestamp: new Date(t.startedAt), included: true, flowM3PerS: t.flowM3PerS, inletTempC: t.inletTempC, outletTempC: t.outletTempC, ambientTempC: t.ambientTempC, bucketVolumeM3: t.bucketVolumeM3, fillTimesS: t.fillTimesS }),

@@ -1,13 +1,12 @@
 import Link from 'next/link';
-import type { FitSuccess } from '@/analysis/fit';
-import type { FlowChoice as Choice } from '@/analysis/performance/choose-flow';
 import { AppPage } from '../../_components/app-page';
-import { ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTableView, type ComparisonView, type PerformanceView } from '../../_components/fit-report';
+import { ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTableView } from '../../_components/fit-report';
 import { PlotFigure } from '../../_components/plot-figure';
 import { CautionList } from '../../_components/safety-notice';
 import { ReviewPanel } from '../../_components/review-panel';
 import { modelLabel } from '../../_lib/fits/fit-analysis';
 import { reviewTrail } from '../../_lib/review/review';
+import { parseStoredFit } from '../../_lib/fits/stored-fit';
 import { plotToSvg } from '../../_lib/plots/plot-svg';
 import { fitCurveInputFromFits, fitCurvePlot, heatInputFromFit, heatPlot, residualInputFromFit, residualPlots, type PlotFigure as Figure } from '../../_lib/plots';
 import { loadInLab } from '../../_lib/labs/load-in-lab';
@@ -23,7 +22,7 @@ export default async function SavedFitPage({ params }: { params: Promise<{ fitId
   const v = await requireLabAction(`/fits/${fitId}`, 'lab:read');
   const { row } = await loadInLab(v, 'fit', fitId, 'lab:read');
   const rig = row.rig;
-  const r = row.result as { fit: FitSuccess; comparison: ComparisonView; choice: Choice; performance: PerformanceView; trials: { startedAt: string }[] };
+  const r = parseStoredFit(row.result, row.id);
   const u = v.user.unitSystem;
   const label = modelLabel(row.model);
   const labels = r.trials.map((t) => t.startedAt.slice(0, 16).replace('T', ' '));

@@ -1,7 +1,7 @@
 import { SWRConfig } from 'swr';
 import { SiteHeader } from '../../_components/site-header';
 import { StudyBlocks } from '../../_components/study-blocks';
-import { sharedBlockKey } from '../../_components/study-block-types';
+import { sharedBlockKey } from '../../_contracts/study-keys';
 import { getEm } from '../../_lib/server/db';
 import { studyBlocksData } from '../../_lib/studies/study-blocks';
 import { sharedStudy, shareUnits } from '../../_lib/studies/studies';

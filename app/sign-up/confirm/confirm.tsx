@@ -3,7 +3,7 @@
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { api, ApiError } from '../../_components/api';
-import { safeNextPath } from '../../_components/safe-next';
+import { safeNextPath } from '../../_contracts/safe-next';
 
 export function ConfirmSignUp({ token }: { token: string }) {
   const router = useRouter();

@@ -1,6 +1,8 @@
 'use client';
 
-/** Settings of the cost-sheet and sensor-log blocks in the study editor. */
+/** Settings of the forecast, cost-sheet and sensor-log blocks in the study editor. */
+import type { UnitSystem } from '@/analysis/units/unit-system';
+import { defaultPoolVolume } from './study-blocks-model';
 
 type Data = Record<string, unknown>;
 
@@ -12,23 +14,9 @@ const FUELS = [
   { fuel: 'wood', label: 'Wood', unit: 'cord', eff: '0.30' },
 ] as const;
 
-/** A new cost sheet: heat from the last forecast block when there is one, else a pool and a rise. Prices are the user's. */
-export function costDefaults(units: 'si' | 'us', forecastBlockId: string | null): Data {
-  return {
-    fuel: 'propane',
-    price: null,
-    currency: 'USD',
-    heatFrom: forecastBlockId ? 'forecast' : 'pool',
-    ...(forecastBlockId ? { forecastBlockId } : {}),
-    poolVolume: units === 'us' ? '10000 gal' : '40 m^3',
-    rise: units === 'us' ? '10 degF' : '5 K',
-    heat: units === 'us' ? '100 therm' : '3000 kWh',
-  };
-}
-
 const num = (v: string): number | null => (v.trim() === '' || !Number.isFinite(Number(v)) ? null : Number(v));
 
-export function CostSettings({ n, data, set, units, forecasts }: { n: number; data: Data; set: (d: Data) => void; units: 'si' | 'us'; forecasts: { id: string; n: number }[] }) {
+export function CostSettings({ n, data, set, units, forecasts }: { n: number; data: Data; set: (d: Data) => void; units: UnitSystem; forecasts: { id: string; n: number }[] }) {
   const fuel = FUELS.find((f) => f.fuel === data.fuel) ?? FUELS[0];
   const from = String(data.heatFrom ?? 'pool');
   const text = (k: string, label: string, hint: string) => (
@@ -94,7 +82,7 @@ export function CostSettings({ n, data, set, units, forecasts }: { n: number; da
         </label>
       ) : from === 'pool' ? (
         <>
-          {text('poolVolume', 'Pool volume', units === 'us' ? '10000 gal' : '40 m^3')}
+          {text('poolVolume', 'Pool volume', defaultPoolVolume(units))}
           {text('rise', 'Rise', units === 'us' ? '10 degF' : '5 K')}
         </>
       ) : (
@@ -116,5 +104,36 @@ export function SensorLogSettings({ n, data, set, logs }: { n: number; data: Dat
         </option>
       ))}
     </select>
+  );
+}
+
+const FORECAST_FIELDS = { poolVolume: 'Pool volume', startTemp: 'Start', targetTemp: 'Target', flow: 'Pump flow' } as const;
+
+/** A forecast block: pool volume, start and target, pump flow and hours (each typed with its unit), and the heater. */
+export function ForecastSettings({ data, set, fits }: { data: Data; set: (d: Data) => void; fits: { id: string; label: string; coil: boolean }[] }) {
+  return (
+    <div className="grid gap-2 sm:grid-cols-3">
+      {(['poolVolume', 'startTemp', 'targetTemp', 'flow'] as const).map((k) => (
+        <label key={k} className="text-sm">
+          <span className="field-label">{FORECAST_FIELDS[k]}</span>
+          <input className="field-input num" value={String(data[k] ?? '')} onChange={(e) => set({ [k]: e.target.value })} />
+        </label>
+      ))}
+      <label className="text-sm">
+        <span className="field-label">Hours</span>
+        <input className="field-input num" value={String(data.hours ?? '')} onChange={(e) => set({ hours: Number(e.target.value) || 0 })} />
+      </label>
+      <label className="text-sm">
+        <span className="field-label">Heater (coil fit)</span>
+        <select className="field-input" value={String(data.fitId ?? '')} onChange={(e) => set({ fitId: e.target.value || undefined })}>
+          {fits.filter((f) => f.coil).map((f) => (
+            <option key={f.id} value={f.id}>
+              {f.label}
+            </option>
+          ))}
+          <option value="">Ts and UA given in the block</option>
+        </select>
+      </label>
+    </div>
   );
 }

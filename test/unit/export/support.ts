@@ -13,7 +13,8 @@ import { costPerDegree, usefulHeatCost } from '../../../analysis/cost/useful-hea
 import { payback } from '../../../analysis/cost/payback';
 import { deriveTrial } from '../../../analysis/trial/derive-trial';
 import { trialExportRow } from '../../../app/_lib/exports/trial-sheet';
-import type { StudyExport, TrialExportRow, UnitSystem } from '../../../app/_lib/exports/types';
+import type { StudyExport, TrialExportRow } from '../../../app/_lib/exports/types';
+import type { UnitSystem } from '../../../analysis/units/unit-system';
 
 export const LPM = 1 / 60000; // m³/s per L/min (NIST SP 811: 1 L = 10⁻³ m³ exactly)
 const DEVIATIONS_K = [0.21, -0.34, 0.12, 0.05, -0.27, 0.31, -0.08, -0.18, 0.16];

@@ -6,6 +6,7 @@
 import { describe, expect, test } from 'vitest';
 import { fitModel, type FitSuccess } from '../../../analysis/fit';
 import { blockData, type BlockContext } from '../../../app/_lib/studies/study-blocks';
+import { storedFitResult } from '../../../app/_lib/fits/stored-fit';
 import type { FitRow } from '../../../entities';
 import { coilOutletC, LPM, seededNormals } from '../plots/support';
 
@@ -17,7 +18,11 @@ y[1234] += 45; // one trial far above the curve (about 105 °C where the curve g
 const fit = fitModel({ x, y, model: 'coil', covariates: { Tin: x.map(() => 20), rho: x.map(() => 1000), cp: x.map(() => 4186) } }) as FitSuccess;
 
 describe('fit block over 3,000 trials', () => {
-  const row = { id: 'f1', title: 'big fit', version: 1, model: 'coil', reviewState: 'draft', result: { fit, choice: { inletTempC: 20 } } } as unknown as FitRow;
+  // the result as saveFit stores it (one schema: app/_lib/fits/stored-fit.ts)
+  const trials = x.map((q, i) => ({ id: `t${i}`, startedAt: new Date(Date.UTC(2026, 5, 1) + i * 60_000), flowM3PerS: q, inletTempC: 20, outletTempC: y[i] }));
+  const comparison = { best: 'coil', verdict: 'coil only', ranking: [] };
+  const result = JSON.parse(JSON.stringify(storedFitResult(fit, comparison, 20, trials)));
+  const row = { id: 'f1', title: 'big fit', version: 1, model: 'coil', reviewState: 'draft', result } as unknown as FitRow;
   const ctx = { units: 'si', publicView: true, fits: new Map([['f1', row]]) } as unknown as BlockContext;
 
   test('draws at most 2,000 trial dots, keeps the outlier and says how many were fitted', async () => {

@@ -1,6 +1,6 @@
 /** Which blocks fetch their data again after an autosave (issue 7: only the changed ones). Common practice. */
 import { describe, expect, test } from 'vitest';
-import { changedBlocks } from '../../../app/studies/[studyId]/editor';
+import { changedBlocks } from '../../../app/studies/[studyId]/study-blocks-model';
 
 type B = Parameters<typeof changedBlocks>[0][number];
 const text: B = { id: 't', kind: 'text', data: { markdown: 'a' } };

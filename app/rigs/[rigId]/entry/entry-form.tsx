@@ -3,7 +3,8 @@
 import { useEffect, useRef, useState } from 'react';
 import { api, ApiError } from '../../../_components/api';
 import { TempValue, TemperatureCautions } from '../../../_components/safety-notice';
-import { flowOut, flowUnit, tempOut, tempUnit, volOut, volUnit, type Units } from '../../../_components/units';
+import { displayUnits } from '@/app/_contracts/units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 
 interface Previous {
   bucketVolumeM3: number | null;
@@ -11,15 +12,15 @@ interface Previous {
   ambientTempC: number | null;
 }
 
-const unitText = (u: Units) => ({ vol: u === 'us' ? 'gal' : 'L', temp: u === 'us' ? 'degF' : 'degC', flow: u === 'us' ? 'gpm' : 'L/min' });
 
 /**
  * Entry at the rig, sized for a phone: a fill timer (start when the bucket goes under the
  * stream, stop when it is full), the bucket volume, the temperatures, and the previous trial's
  * values offered.
  */
-export function EntryForm({ rigId, units, previous }: { rigId: string; units: Units; previous: Previous | null }) {
-  const t = unitText(units);
+export function EntryForm({ rigId, units, previous }: { rigId: string; units: UnitSystem; previous: Previous | null }) {
+  const u = displayUnits(units);
+  const t = { vol: u.volume.mathUnit, temp: u.temp.mathUnit, flow: u.flow.mathUnit };
   const [fills, setFills] = useState<number[]>([]);
   const [runningSince, setRunningSince] = useState<number | null>(null);
   const [now, setNow] = useState(0);
@@ -74,7 +75,7 @@ export function EntryForm({ rigId, units, previous }: { rigId: string; units: Un
     try {
       const r = await api<{ trials: { flowM3PerS: number; outletTempC: number; inletTempC: number }[]; warnings: { messages: string[] }[] }>(`/api/rigs/${rigId}/trials`, { body });
       const saved = r.trials[0];
-      setMessage(`Saved: ${flowOut(saved.flowM3PerS, units).toFixed(2)} ${flowUnit(units)}, rise ${(tempOut(saved.outletTempC, units) - tempOut(saved.inletTempC, units)).toFixed(1)} ${units === 'us' ? '°F' : 'K'}.`);
+      setMessage(`Saved: ${u.flow.from(saved.flowM3PerS).toFixed(2)} ${u.flow.label}, rise ${(u.temp.from(saved.outletTempC) - u.temp.from(saved.inletTempC)).toFixed(1)} ${u.tempDiff.label}.`);
       setSaved({ inletTempC: saved.inletTempC, outletTempC: saved.outletTempC });
       setWarnings(r.warnings.flatMap((w) => w.messages));
       setFills([]);
@@ -98,8 +99,8 @@ export function EntryForm({ rigId, units, previous }: { rigId: string; units: Un
       <fieldset className="card space-y-4 p-4">
         <legend className="px-1 text-lg font-semibold">Flow</legend>
         <label className="block">
-          <span className="field-label">Bucket volume ({volUnit(units)})</span>
-          <input name="bucket" inputMode="decimal" className="field-input num text-lg" defaultValue={previous?.bucketVolumeM3 ? +volOut(previous.bucketVolumeM3, units).toFixed(2) : ''} />
+          <span className="field-label">Bucket volume ({u.volume.label})</span>
+          <input name="bucket" inputMode="decimal" className="field-input num text-lg" defaultValue={previous?.bucketVolumeM3 ? +u.volume.from(previous.bucketVolumeM3).toFixed(2) : ''} />
           {fe('bucketVolume')}
         </label>
         <div>
@@ -125,16 +126,16 @@ export function EntryForm({ rigId, units, previous }: { rigId: string; units: Un
           {fe('fillTimesS')}
         </div>
         <label className="block">
-          <span className="field-label">…or a flow reading ({flowUnit(units)})</span>
+          <span className="field-label">…or a flow reading ({u.flow.label})</span>
           <input name="flow" inputMode="decimal" className="field-input num" />
           {fe('flow')}
         </label>
       </fieldset>
       <fieldset className="card grid grid-cols-2 gap-4 p-4">
-        <legend className="px-1 text-lg font-semibold">Temperatures ({tempUnit(units)})</legend>
+        <legend className="px-1 text-lg font-semibold">Temperatures ({u.temp.label})</legend>
         <label>
           <span className="field-label">Inlet</span>
-          <input name="inlet" inputMode="decimal" required className="field-input num text-lg" defaultValue={previous ? +tempOut(previous.inletTempC, units).toFixed(1) : ''} />
+          <input name="inlet" inputMode="decimal" required className="field-input num text-lg" defaultValue={previous ? +u.temp.from(previous.inletTempC).toFixed(1) : ''} />
           {fe('inlet')}
         </label>
         <label>
@@ -144,7 +145,7 @@ export function EntryForm({ rigId, units, previous }: { rigId: string; units: Un
         </label>
         <label>
           <span className="field-label">Ambient</span>
-          <input name="ambient" inputMode="decimal" className="field-input num" defaultValue={previous?.ambientTempC != null ? +tempOut(previous.ambientTempC, units).toFixed(1) : ''} />
+          <input name="ambient" inputMode="decimal" className="field-input num" defaultValue={previous?.ambientTempC != null ? +u.temp.from(previous.ambientTempC).toFixed(1) : ''} />
         </label>
         <label className="flex items-end gap-2 pb-2 text-sm">
           <input type="checkbox" name="isReference" /> reference flow
@@ -158,7 +159,7 @@ export function EntryForm({ rigId, units, previous }: { rigId: string; units: Un
       {message ? (
         <p role="status" className="rounded-lg bg-ok-bg px-3 py-2 text-sm text-ok-text">
           {message}
-          {saved ? <> Outlet <span className="num"><TempValue c={saved.outletTempC} units={units} withUnit /></span>.</> : null}
+          {saved ? <> Outlet <span className="num"><TempValue tempC={saved.outletTempC} units={units} withUnit /></span>.</> : null}
         </p>
       ) : null}
       {saved ? <TemperatureCautions units={units} label="Cautions for this trial" places={[{ where: 'outlet', valuesC: [saved.outletTempC] }, { where: 'inlet', valuesC: [saved.inletTempC] }]} /> : null}

@@ -3,11 +3,13 @@
 import { useRouter } from 'next/navigation';
 import { useEffect, useState } from 'react';
 import { api, ApiError } from '../../../_components/api';
-import { ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTableView, type ChoiceView, type ComparisonView, type FitView, type PerformanceView } from '../../../_components/fit-report';
+import { ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTableView } from '../../../_components/fit-report';
+import type { ChoiceView, ComparisonView, FitView, PerformanceView } from '../../../_contracts/fit-report';
 import { PlotFigure } from '../../../_components/plot-figure';
 import { CautionList } from '../../../_components/safety-notice';
 import type { CautionLike } from '@/analysis/safety/cautions';
-import { tempIn, tempOut, tempUnit, type Units } from '../../../_components/units';
+import { displayUnits } from '@/app/_contracts/units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 
 interface Figure {
   title: string;
@@ -36,7 +38,7 @@ const MODELS: { id: string; label: string }[] = [
 ];
 
 /** Fit and compare models live on a rig's included trials; save the chosen fit as a record. */
-export function FitWorkbench({ rigId, rigName, labId, units, canSave }: { rigId: string; rigName: string; labId: string; units: Units; canSave: boolean }) {
+export function FitWorkbench({ rigId, rigName, labId, units, canSave }: { rigId: string; rigName: string; labId: string; units: UnitSystem; canSave: boolean }) {
   const router = useRouter();
   const [models, setModels] = useState<string[]>(['coil', 'exp-inlet']);
   const [inlet, setInlet] = useState<string>('');
@@ -49,7 +51,7 @@ export function FitWorkbench({ rigId, rigName, labId, units, canSave }: { rigId:
 
   useEffect(() => {
     if (!models.length) return;
-    const planInletC = inlet.trim() ? tempIn(Number(inlet.replace(',', '.')), units) : undefined;
+    const planInletC = inlet.trim() ? displayUnits(units).temp.to(Number(inlet.replace(',', '.'))) : undefined;
     if (planInletC !== undefined && !Number.isFinite(planInletC)) return;
     let live = true;
     setBusy(true);
@@ -58,7 +60,7 @@ export function FitWorkbench({ rigId, rigName, labId, units, canSave }: { rigId:
         if (!live) return;
         setResult(r);
         setError(null);
-        if (!inlet) setInlet(tempOut(r.planInletC, units).toFixed(1));
+        if (!inlet) setInlet(displayUnits(units).temp.from(r.planInletC).toFixed(1));
       })
       .catch((e) => live && setError(e instanceof ApiError ? e.message : 'The server could not be reached.'))
       .finally(() => live && setBusy(false));
@@ -74,7 +76,7 @@ export function FitWorkbench({ rigId, rigName, labId, units, canSave }: { rigId:
   async function save() {
     setSaveError(null);
     try {
-      const planInletC = inlet.trim() ? tempIn(Number(inlet), units) : undefined;
+      const planInletC = inlet.trim() ? displayUnits(units).temp.to(Number(inlet)) : undefined;
       const r = await api<{ fit: { id: string } }>(`/api/labs/${labId}/fits`, {
         body: { rigId, title, model: primary, trialIds: result?.trialIds, compareWith: models.filter((m) => m !== primary), ...(planInletC !== undefined ? { planInletC } : {}) },
       });
@@ -102,7 +104,7 @@ export function FitWorkbench({ rigId, rigName, labId, units, canSave }: { rigId:
           ))}
         </fieldset>
         <label className="card block p-4">
-          <span className="field-label">Plan for an inlet of ({tempUnit(units)})</span>
+          <span className="field-label">Plan for an inlet of ({displayUnits(units).temp.label})</span>
           <input className="field-input num" inputMode="decimal" value={inlet} onChange={(e) => setInlet(e.target.value)} />
           <span className="mt-1 block text-xs text-ink-muted">Used for the heat curve, the flow choice and the performance table.</span>
         </label>

@@ -1,7 +1,6 @@
 import { loadInLab } from '@/app/_lib/labs/load-in-lab';
-import type { FitSuccess } from '@/analysis/fit';
-import type { PerformanceTable } from '@/analysis/performance/performance-table';
-import { exportResponse, type StoredTrial } from '@/app/_lib/studies/study-export';
+import { exportResponse } from '@/app/_lib/studies/study-export';
+import { parseStoredFit } from '@/app/_lib/fits/stored-fit';
 import { modelLabel } from '@/app/_lib/fits/fit-analysis';
 import { route } from '@/app/_lib/server/route';
 
@@ -10,7 +9,7 @@ import { route } from '@/app/_lib/server/route';
 export const GET = route<{ fitId: string }>({ auth: 'user' }, async (ctx) => {
   const { row: fit, member } = await loadInLab(ctx, 'fit', ctx.params.fitId, 'lab:export');
   const rig = fit.rig;
-  const r = fit.result as { fit: FitSuccess; performance: PerformanceTable; trials: StoredTrial[] };
+  const r = parseStoredFit(fit.result, fit.id);
   const label = modelLabel(fit.model);
   const data = {
     unitSystem: ctx.requireActor().user.unitSystem,

@@ -1,11 +1,11 @@
 /**
  * What the block-data routes return for one study block (plain JSON: numbers in SI, tables, and
- * the server-rendered SVG of its plots in the reader's units), and the SWR keys of the study and
- * its blocks. This module has no directive, so the server page (building the SWR `fallback`) and
- * the client hooks share the one definition of each key.
+ * the server-rendered SVG of its plots in the reader's units), built by app/_lib/studies/
+ * study-blocks.ts and rendered by app/_components/study-blocks.tsx. Their SWR keys are in
+ * study-keys.ts beside this file.
  */
 import type { ChoiceView, ComparisonView, FitView, PerformanceView } from './fit-report';
-import type { Units } from './units';
+import type { UnitSystem } from '@/analysis/units/unit-system';
 import type { CautionLike } from '@/analysis/safety/cautions';
 
 /** A plot as the server rendered it (plotToSvg) with the words of its figcaption. */
@@ -96,7 +96,7 @@ export type BlockBody =
 export interface BlockData {
   id: string;
   kind: string;
-  units: Units;
+  units: UnitSystem;
   body: BlockBody;
 }
 
@@ -115,11 +115,3 @@ export interface StudyRecord {
 
 /** Rows of a sensor-log block's segment table (the block says how many there are in all). */
 export const SEGMENT_ROWS = 50;
-
-/** SWR key of a study (lab members). */
-export const studyKey = (studyId: string) => `/api/studies/${studyId}`;
-/** SWR key of one block of a study, for lab members (in the member's own units). */
-export const studyBlockKey = (studyId: string, blockId: string) => `/api/studies/${studyId}/blocks/${encodeURIComponent(blockId)}`;
-/** SWR key of one block on the public share view, in the units the reader chose. */
-export const sharedBlockKey = (token: string, blockId: string, units: Units) =>
-  `/api/share/${encodeURIComponent(token)}/blocks/${encodeURIComponent(blockId)}?units=${units}`;

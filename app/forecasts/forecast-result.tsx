@@ -1,0 +1,98 @@
+import type { UnitSystem } from '@/analysis/units/unit-system';
+import { displayUnit, displayUnits } from '@/app/_contracts/units';
+import { CautionList, TempValue } from '../_components/safety-notice';
+import { PlotFigure } from '../_components/plot-figure';
+
+/** What POST /api/labs/:id/forecast answers (SI; the names carry the unit). */
+export interface ForecastResult {
+  finalTemp_degC: number;
+  maxOutletTemp_degC: number;
+  hoursToTarget_h: number | null;
+  equilibriumTemp_degC: number | null;
+  equilibriumNote?: string;
+  evaporated_kg: number;
+  fitNote: string | null;
+  pool: { volume_m3: number; area_m2: number } | null;
+  cautions: { code: string; level: string; message: string }[];
+  riseTable: { flowsM3PerS: number[]; volumesM3: number[]; risePerHourK: number[][] } | null;
+  cost: { perUsefulTherm: number; perDegF: number; perK: number; forecastHeatCost: number } | null;
+  plots: Record<'trajectory' | 'budget', { title: string; summary: string; svg: string }>;
+}
+
+/** A forecast's result: final temperature, hours to target, equilibrium, the pool, cautions, both plots, the cost and the rise table. */
+export function ForecastResultView({ res, units }: { res: ForecastResult; units: UnitSystem }) {
+  const us = units === 'us';
+  const u = displayUnits(units);
+  const poolVolume = displayUnit('poolVolume', units), area = displayUnit('area', units);
+  return (
+    <>
+      <dl className="grid gap-3 sm:grid-cols-3">
+        {[
+          ['Final temperature', <TempValue key="f" tempC={res.finalTemp_degC} units={units} withUnit />],
+          ['Hours to target', res.hoursToTarget_h == null ? 'not reached' : `${res.hoursToTarget_h.toFixed(1)} h`],
+          ['Equilibrium', res.equilibriumTemp_degC == null ? '—' : <TempValue key="e" tempC={res.equilibriumTemp_degC} units={units} withUnit />],
+        ].map(([k, val]) => (
+          <div key={String(k)} className="card p-4">
+            <dt className="text-sm text-ink-soft">{k}</dt>
+            <dd className="num mt-1 text-2xl text-ink">{val}</dd>
+          </div>
+        ))}
+      </dl>
+      {res.fitNote ? <p className="text-sm text-ink-soft">{res.fitNote}</p> : null}
+      {res.pool ? (
+        <p className="text-sm text-ink-soft">
+          Pool: <span className="num">{poolVolume.from(res.pool.volume_m3).toFixed(us ? 0 : 1)} {poolVolume.label}</span>, surface{' '}
+          <span className="num">{area.from(res.pool.area_m2).toFixed(us ? 0 : 1)} {area.label}</span>.
+        </p>
+      ) : null}
+      <CautionList cautions={res.cautions} />
+      <PlotFigure {...res.plots.trajectory} filename="forecast" />
+      <PlotFigure {...res.plots.budget} filename="energy-budget" />
+      {res.cost ? (
+        <dl className="grid gap-3 sm:grid-cols-3">
+          {[
+            ['Per useful therm', res.cost.perUsefulTherm.toFixed(2)],
+            [`Per degree (${u.tempDiff.label})`, (us ? res.cost.perDegF : res.cost.perK).toFixed(2)],
+            ['Heat of this forecast', res.cost.forecastHeatCost.toFixed(2)],
+          ].map(([k, val]) => (
+            <div key={k} className="card p-4">
+              <dt className="text-sm text-ink-soft">{k}</dt>
+              <dd className="num mt-1 text-xl text-ink">{val}</dd>
+            </div>
+          ))}
+        </dl>
+      ) : null}
+      {res.riseTable ? (
+        <div className="card overflow-x-auto p-4">
+          <table className="data-table">
+            <caption className="py-1 text-left text-sm font-semibold text-ink">Rise per hour by pump flow and pool size, at the start temperature</caption>
+            <thead>
+              <tr>
+                <th scope="col">Flow</th>
+                {res.riseTable.volumesM3.map((vol) => (
+                  <th key={vol} scope="col" className="text-right">
+                    {poolVolume.from(vol).toFixed(us ? 0 : 1)} {poolVolume.label}
+                  </th>
+                ))}
+              </tr>
+            </thead>
+            <tbody>
+              {res.riseTable.flowsM3PerS.map((q, i) => (
+                <tr key={q}>
+                  <th scope="row" className="num bg-white font-normal">
+                    {u.flow.from(q).toFixed(1)} {u.flow.label}
+                  </th>
+                  {res.riseTable!.risePerHourK[i].map((r, j) => (
+                    <td key={j} className="num text-right">
+                      {u.tempDiff.from(r).toFixed(2)} {u.tempDiff.label}/h
+                    </td>
+                  ))}
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      ) : null}
+    </>
+  );
+}
