@@ -8,6 +8,6 @@ export async function register() {
   if (process.env.NEXT_RUNTIME !== 'nodejs') return;
   (await import('./app/_lib/server/startup')).refuseUnsafeStart();
   if (process.env.EMBERLINE_JOB_WORKER === 'off') return;
-  const { startJobWorkers } = await import('./app/_lib/jobs/jobs');
+  const { startJobWorkers } = await import('./app/_lib/jobs/sensor-import-job');
   startJobWorkers().catch((e: unknown) => console.error('background jobs did not start:', e instanceof Error ? e.message : e));
 }

@@ -2,15 +2,17 @@ import { defineConfig } from '@mikro-orm/postgresql';
 import { Migrator } from '@mikro-orm/migrations';
 import { entities } from './entities';
 import { migrationsList } from './entities/migrations';
+import { databaseUrl } from './app/_lib/server/database-url';
 
 /**
  * The one MikroORM configuration, used by the app, the scripts and the CLI.
- * DATABASE_URL is set by scripts/start.mjs and scripts/test.mjs for the private cluster, or by
- * the operator in production. Migrations are listed statically so that they can run from inside
- * the Next bundle and from vitest; `schema:update` is never used at run time.
+ * The URL is DATABASE_URL (app/_lib/server/database-url.ts), set by scripts/start.mjs and
+ * scripts/test.mjs for the private cluster, or by the operator in production; it is read when the
+ * ORM starts, not when this file is loaded (`next build` loads it without a database). Migrations are listed
+ * statically so that they can run from inside the Next bundle and from vitest; `schema:update` is
+ * never used at run time.
  */
-export default defineConfig({
-  clientUrl: process.env.DATABASE_URL ?? 'postgres://emberline@127.0.0.1:54329/emberline',
+const config = defineConfig({
   entities,
   extensions: [Migrator],
   discovery: { disableDynamicFileAccess: true, requireEntitiesArray: true },
@@ -33,3 +35,8 @@ export default defineConfig({
     fileName: (timestamp: string, name?: string) => `Migration${timestamp}${name ? '_' + name : ''}`,
   },
 });
+
+// a getter on the finished object (defineConfig copies its argument): MikroORM.init reads it
+Object.defineProperty(config, 'clientUrl', { enumerable: true, get: () => databaseUrl() });
+
+export default config;

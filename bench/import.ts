@@ -76,7 +76,8 @@ const fmtCpu = (ms: number | null) => (ms === null ? 'n/a' : `${(ms / 1000).toFi
 async function main() {
   const { writeSensorLogCsv, SENSOR_LOG_MAPPING } = await import('./import-parse');
   const { getEm, getOrm } = await import('@/app/_lib/server/db');
-  const { copyPool, importSensorLog, logImportInput } = await import('@/app/_lib/imports/sensor-import');
+  const { importSensorLog, logImportInput } = await import('@/app/_lib/imports/sensor-import');
+  const { pgPool } = await import('@/app/_lib/server/pg-pool');
   const { listTrials, listQuery } = await import('@/app/_lib/rigs/trials');
   const { Lab, Rig, SourceFile } = await import('@/entities');
 
@@ -85,7 +86,7 @@ async function main() {
   const dir = mkdtempSync(path.join(os.tmpdir(), 'emberline-import-bench-'));
   const file = path.join(dir, 'sensor-log.csv');
   const scratch = `bench_copy_${process.pid}`;
-  const pool = copyPool();
+  const pool = pgPool();
   const em = await getEm();
   let rigId: string | null = null;
   let fileId: string | null = null;

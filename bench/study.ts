@@ -118,13 +118,13 @@ async function child() {
   const base = process.env.STUDY_BENCH_URL!;
   const rows = Number(process.argv[2] ?? 1_000_000);
   const { getEm, getOrm } = await import('@/app/_lib/server/db');
-  const { copyPool } = await import('@/app/_lib/imports/sensor-import');
+  const { pgPool } = await import('@/app/_lib/server/pg-pool');
   const { ensureSensorOverview } = await import('@/app/_lib/imports/sensor-overview');
   const { saveFit } = await import('@/app/_lib/fits/fits');
   const { openSession } = await import('@/app/_lib/accounts/session');
   const SESSION_COOKIE = (await import('@/app/_lib/server/config')).config.sessionCookie;
   const { Lab, Rig, SensorOverview, SourceFile, Study, User } = await import('@/entities');
-  const pool = copyPool();
+  const pool = pgPool();
   const em = await getEm();
   const created: { rig?: string; file?: string; study?: string; session?: string } = {};
   try {

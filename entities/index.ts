@@ -1,6 +1,6 @@
 /**
  * Every entity, listed explicitly: folder globs do not survive bundling. The `sensor_sample`
- * table is not an entity: it is written by COPY and read by SQL only (app/_lib/imports/sensor-import.ts,
+ * table is not an entity: it is written by COPY and read by SQL only (app/_lib/imports/copy-writer.ts,
  * migrations `trial_import`, `sensor_sample_storage` and `sensor_sample_brin`).
  */
 import { ApiToken } from './api-token';

@@ -12,8 +12,11 @@
 import pg from 'pg';
 import { afterAll, describe, expect, test } from 'vitest';
 import { getEm, getOrm } from '@/app/_lib/server/db';
-import { createImportJobRow, enqueueSensorImport, newBoss, recoverInterruptedJobs, startBoss, workSensorImports } from '@/app/_lib/jobs/jobs';
-import { ImportCancelled, copyPool, importSensorLog, logImportInput } from '@/app/_lib/imports/sensor-import';
+import { createImportJob as createImportJobRow } from '@/app/_lib/jobs/job-store';
+import { enqueueSensorImport, newBoss, startBoss } from '@/app/_lib/jobs/queue';
+import { recoverInterruptedJobs, workSensorImports } from '@/app/_lib/jobs/sensor-import-job';
+import { ImportCancelled, importSensorLog, logImportInput } from '@/app/_lib/imports/sensor-import';
+import { pgPool } from '@/app/_lib/server/pg-pool';
 import { ImportError } from '@/app/_lib/imports/import-error';
 import { Rig, SourceFile, User } from '@/entities';
 import { Client, createAccount, signedIn } from './support/client';
@@ -25,7 +28,7 @@ const logs = logFolder('sensor-test');
 afterAll(async () => {
   logs.remove();
   await db.end();
-  await copyPool().end();
+  await pgPool().end();
   await (await getOrm()).close(true);
 });
 

@@ -9,7 +9,7 @@ import ExcelJS from 'exceljs';
 import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { getOrm } from '@/app/_lib/server/db';
-import { copyPool } from '@/app/_lib/imports/sensor-import';
+import { pgPool } from '@/app/_lib/server/pg-pool';
 import { Client, STRONG_PASSWORD, baseUrl, createAccount, signedIn, uniqueEmail } from './support/client';
 import { importGeneratedLog } from './support/sensor-logs';
 
@@ -17,7 +17,7 @@ const db = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 2 });
 
 afterAll(async () => {
   await db.end();
-  await copyPool().end();
+  await pgPool().end();
   await (await getOrm()).close(true);
 });
 

@@ -16,7 +16,7 @@ import { openBrowser, resultsDir, screenshot, signInAs, visit } from './support/
 import { signedIn, type Client } from '../app/support/client';
 import { importGeneratedLog } from '../app/support/sensor-logs';
 import { getOrm } from '@/app/_lib/server/db';
-import { copyPool } from '@/app/_lib/imports/sensor-import';
+import { pgPool } from '@/app/_lib/server/pg-pool';
 
 /** The words of the marks and cautions, from analysis/safety (hazardBand, temperatureCautions). */
 const SECONDS = 'at or above 60 °C: burns in seconds';
@@ -75,7 +75,7 @@ describe('safety marks on hot temperatures in Chromium', () => {
   }, 180_000);
   afterAll(async () => {
     rmSync(dir, { recursive: true, force: true });
-    await copyPool().end();
+    await pgPool().end();
     await (await getOrm()).close(true);
   });
 

@@ -12,7 +12,7 @@ import { openBrowser, resultsDir, screenshot, signInAs, visit } from './support/
 import { signedIn, type Client } from '../app/support/client';
 import { importGeneratedLog } from '../app/support/sensor-logs';
 import { getOrm } from '@/app/_lib/server/db';
-import { copyPool } from '@/app/_lib/imports/sensor-import';
+import { pgPool } from '@/app/_lib/server/pg-pool';
 
 const PNG_SIGNATURE = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]; // PNG (ISO/IEC 15948) §5.2
 
@@ -47,7 +47,7 @@ describe('study blocks in Chromium', () => {
   }, 120_000);
   afterAll(async () => {
     await eng?.close();
-    await copyPool().end();
+    await pgPool().end();
     await (await getOrm()).close(true);
   });
 

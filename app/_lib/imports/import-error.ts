@@ -30,6 +30,7 @@ export type ImportErrorCode =
   | 'duplicate_column'
   | 'missing_column'
   | 'bad_mapping'
+  | 'bad_criteria'
   | 'bad_period'
   | 'unreadable';
 

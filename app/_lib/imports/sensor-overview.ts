@@ -7,13 +7,20 @@ import { setImmediate } from 'node:timers/promises';
 import { DISPLAY_MAX_POINTS, overviewIndices, overviewIndicesSteps } from '@/analysis/reduce';
 import { segmentLog, type PresetName, type SteadyCriteria } from '@/analysis/segment';
 import type { OverviewPoints, OverviewSegment } from '@/entities/sensor-overview';
+import { segmentChannels } from './log-reader';
 
 /**
  * The display overview of a sensor log (entities/sensor-overview.ts): at most 2,000 samples on one
  * time base chosen by LTTB with every channel's extremes and the endpoints, plus the steady
  * segments. It is built while the import's COPY finishes and stored in the import's transaction, so a study
  * page reads one row instead of a million samples; logs imported before it existed get theirs
- * built from `sensor_sample` on first read (`ensureSensorOverview`).
+ * built from `sensor_sample` on first read (`ensureSensorOverview`). The preview's plot series
+ * are the same display points (`displayPoints`), of the whole log or of the stretch zoomed into.
+ *
+ * Owns: the display points of a log (which samples, how rounded), the `sensor_overview` row and
+ * its backfill. May import: analysis/reduce, analysis/segment, log-reader (the segmentation
+ * channels), labs/load-in-lab (the UUID rule), entities/sensor-overview (types), `pg` (types) and
+ * pg-copy-streams; the caller's connection or pool.
  */
 
 /** The channels of a log as the import holds them: seconds from the first sample, SI values. */
@@ -43,12 +50,21 @@ const sig = (v: number): number | null => (Number.isFinite(v) ? Number(v.toPreci
 const ms = (s: number) => Math.round(s * 1000) / 1000;
 
 /**
+ * The display points of a log's channels: at most `maxPoints` samples on one time base, the
+ * union of each channel's LTTB-with-extremes indices (analysis/reduce `overviewIndices`), times to
+ * 1 ms and readings to 7 significant digits (null where a reading is missing).
+ * @throws as overviewIndices (a channel of another length, decreasing time).
+ */
+export function displayPoints(ch: OverviewChannels, maxPoints = DISPLAY_MAX_POINTS): OverviewPoints {
+  return pointsAt(ch, ch.timeS.length ? overviewIndices(ch.timeS, [ch.inletTempC, ch.outletTempC, ch.flowM3PerS], maxPoints) : new Uint32Array(0));
+}
+
+/**
  * The overview of a log's channels and segments.
  * @throws as overviewIndices (a channel of another length, decreasing time).
  */
 export function buildOverview(ch: OverviewChannels, seg: OverviewSegmentation, maxPoints = DISPLAY_MAX_POINTS): OverviewData {
-  const n = ch.timeS.length;
-  return overviewOf(ch, seg, maxPoints, n ? overviewIndices(ch.timeS, [ch.inletTempC, ch.outletTempC, ch.flowM3PerS], maxPoints) : new Uint32Array(0));
+  return overviewOf(ch, seg, maxPoints, displayPoints(ch, maxPoints));
 }
 
 /**
@@ -64,22 +80,26 @@ export async function buildOverviewAsync(ch: OverviewChannels, seg: OverviewSegm
       await setImmediate();
     }
   }
-  return overviewOf(ch, seg, maxPoints, idx);
+  return overviewOf(ch, seg, maxPoints, pointsAt(ch, idx));
 }
 
-function overviewOf(ch: OverviewChannels, seg: OverviewSegmentation, maxPoints: number, idx: ArrayLike<number>): OverviewData {
-  const n = ch.timeS.length;
+function pointsAt(ch: OverviewChannels, idx: ArrayLike<number>): OverviewPoints {
   const at = <T,>(f: (i: number) => T) => Array.from(idx, f);
+  return {
+    tS: at((i) => ms(ch.timeS[i])),
+    inletTempC: at((i) => sig(ch.inletTempC[i])),
+    outletTempC: at((i) => sig(ch.outletTempC[i])),
+    flowM3PerS: at((i) => sig(ch.flowM3PerS[i])),
+  };
+}
+
+function overviewOf(ch: OverviewChannels, seg: OverviewSegmentation, maxPoints: number, points: OverviewPoints): OverviewData {
+  const n = ch.timeS.length;
   return {
     samples: n,
     durationS: n ? ch.timeS[n - 1] - ch.timeS[0] : 0,
     maxPoints,
-    points: {
-      tS: at((i) => ms(ch.timeS[i])),
-      inletTempC: at((i) => sig(ch.inletTempC[i])),
-      outletTempC: at((i) => sig(ch.outletTempC[i])),
-      flowM3PerS: at((i) => sig(ch.flowM3PerS[i])),
-    },
+    points,
     segments: seg.segments.map((s) => ({
       startS: ms(s.startTimeS), endS: ms(s.endTimeS),
       inletTempC: sig(s.mean.inletTempC) ?? NaN, outletTempC: sig(s.mean.outletTempC) ?? NaN, flowM3PerS: sig(s.mean.flowM3PerS) ?? NaN,
@@ -177,7 +197,7 @@ async function importCriteria(client: pg.ClientBase, fileId: string): Promise<St
  * Makes sure a log has its overview, building it from `sensor_sample` when it was imported before
  * overviews existed. One builder per log at a time (an advisory lock), so two first readers never
  * do the work twice. Segments are found again with the criteria stored with the log's trials.
- * @param pool a plain `pg` pool (the import's copyPool): the samples are read with a binary COPY
+ * @param pool the plain `pg` pool (server/pg-pool.ts): the samples are read with a binary COPY
  * @returns false when the file has no samples (it is not an imported sensor log)
  */
 export async function ensureSensorOverview(pool: pg.Pool, fileId: string): Promise<boolean> {
@@ -196,7 +216,7 @@ export async function ensureSensorOverview(pool: pg.Pool, fileId: string): Promi
     const t0 = s.epoch[0];
     const timeS = s.epoch.map((e) => e - t0);
     // as at import: the ambient channel takes part in the segmentation only when every sample has one
-    const channels = { timeS, inletTempC: s.inlet, outletTempC: s.outlet, flowM3PerS: s.flow, ambientTempC: s.ambient.some(Number.isNaN) ? null : s.ambient };
+    const channels = segmentChannels({ timeS, inletTempC: s.inlet, outletTempC: s.outlet, flowM3PerS: s.flow, ambientTempC: s.ambient });
     let seg: OverviewSegmentation = { segments: [] };
     try {
       seg = segmentLog(channels, await importCriteria(client, fileId));

@@ -1,26 +1,32 @@
 import 'server-only';
 import { createHash } from 'node:crypto';
-import type { Readable } from 'node:stream';
 import { z } from 'zod';
-import { DISPLAY_MAX_POINTS, overviewIndices } from '@/analysis/reduce';
-import { resolveCriteria, segmentLog, segmentStats, type PresetName, type SegmentStats, type SteadyCriteria } from '@/analysis/segment';
+import { segmentLog, segmentStats, type SegmentStats, type SteadyCriteria } from '@/analysis/segment';
 import type { SourceFileRow } from '@/entities';
+import type { OverviewPoints } from '@/entities/sensor-overview';
 import { DomainError, HTTP_STATUS } from '../server/errors';
-import { ImportError, createSensorLogBuilder, openDelimited, type RowIssue, type SensorLog } from '.';
-import { logImportInput } from './sensor-import';
-import { getObjectStream } from '../server/storage';
+import { logCriteria, logReadInput, lowerBound, openLogReader, segmentChannels, type LogProgress, type SegmentChannels } from './log-reader';
+import type { RowIssue } from '../rigs/trial-rule';
+import { displayPoints } from './sensor-overview';
+import type { SensorLog } from './sensor-log';
 
 /**
  * The steady periods of a stored sensor log, found before anything is saved: the page shows them
  * on a time-series plot and the engineer accepts, adjusts or drops each one (or takes a rejected
  * run anyway), then starts the import with the periods chosen, as source lines.
  *
- * The whole file is read and checked here (the same row rules as the import), so row errors show
- * before the import starts. A parsed log is kept in memory for a few minutes per process (at most
- * two, about 48 bytes a sample), so changing thresholds or adjusting a period only segments again.
+ * The whole file is read and checked here by the import's own reader (log-reader.ts: the same
+ * row rules, criteria and segmentation channels), so row errors show before the import starts. A
+ * parsed log is kept in memory for a few minutes per process (at most two, about 48 bytes a
+ * sample), so changing thresholds or adjusting a period only segments again.
+ *
+ * Owns: the preview's input, the log cache, measuring the engineer's periods against the criteria,
+ * the preview's answer and its stream of JSON lines (a refusal in it carries its HTTP status).
+ * May import: log-reader, sensor-overview (the display points), analysis/segment, server/errors.
+ * Refusals are `DomainError`s (`ImportError` among them), as everywhere.
  */
 
-export const segmentPreviewInput = logImportInput.omit({ segments: true }).extend({
+export const segmentPreviewInput = logReadInput.extend({
   /** periods the engineer set, seconds from the log's first sample; each is measured and given its source lines */
   periods: z.array(z.object({ startS: z.number().finite().min(0), endS: z.number().finite().min(0) }).strict()).max(2000).optional(),
   /** the stretch of the log to plot, seconds from the first sample (default all of it) */
@@ -58,13 +64,8 @@ export interface SegmentPreview {
   gaps: { afterS: number; gapS: number; line: number }[];
   /** the engineer's periods, measured (when asked) */
   periods: PreviewPeriod[] | null;
-  /** the log reduced for display (LTTB keeping each bucket's extremes, per channel, merged) */
-  series: { tS: number[]; inletTempC: number[]; outletTempC: number[]; flowM3PerS: number[]; reduced: boolean };
-}
-
-export interface PreviewProgress {
-  bytesDone: number;
-  bytesTotal: number;
+  /** the log's display points (sensor-overview.ts `displayPoints`), and whether they are fewer than its samples */
+  series: OverviewPoints & { reduced: boolean };
 }
 
 interface Cached {
@@ -99,56 +100,33 @@ function remember(key: string, log: SensorLog) {
 /** A log being read: the header is checked and the mapping validated before `read()` is called. */
 export interface OpenedLog {
   /** reads the rest, reporting progress; resolves with the whole log (from the cache when it was read lately) */
-  read(onProgress?: (p: PreviewProgress) => void, signal?: AbortSignal): Promise<SensorLog>;
+  read(onProgress?: (p: LogProgress) => void, signal?: AbortSignal): Promise<SensorLog>;
   /** the log is in the cache: read() resolves at once */
   cached: boolean;
 }
 
 /**
  * Opens a stored log for the preview. Faults the engineer can fix (an unreadable file, a mapping
- * that does not fit the header) are thrown here as 422, before any response is sent.
+ * that does not fit the header: `ImportError`, 422) and a stored file that cannot be fetched
+ * (`StoredFileUnreadable`, 404) are thrown here, before any response is sent.
  */
 export async function openLog(file: SourceFileRow, input: SegmentPreviewInput): Promise<OpenedLog> {
   const key = cacheKey(file, input);
   const hit = cached(key);
   if (hit) return { cached: true, read: async () => hit };
-  let raw: Readable;
-  try {
-    raw = await getObjectStream(file.storageKey);
-  } catch {
-    throw new DomainError('not_found', 'not_found', 'The stored file could not be read; upload it again.');
-  }
-  let bytesDone = 0;
-  async function* counted() {
-    for await (const chunk of raw) { bytesDone += chunk.length; yield chunk as Uint8Array; }
-  }
-  const where = { file: file.filename };
-  let src: Awaited<ReturnType<typeof openDelimited>>;
-  let builder: ReturnType<typeof createSensorLogBuilder>;
-  try {
-    src = await openDelimited(counted(), { fileName: file.filename });
-    // the import's reading path: blocks of text through the fast row path, excluded lines skipped unread
-    builder = createSensorLogBuilder(input.mapping, src.header, where, { maxIssues: 200, excludedLines: new Set(input.excludedLines), text: src.dialect, sizeHintBytes: file.sizeBytes });
-  } catch (e) {
-    raw.destroy();
-    throw e;
-  }
+  // the import's reading path: blocks of text through the fast row path, excluded lines skipped unread
+  const reader = await openLogReader(file, input, { maxIssues: 200 });
   return {
     cached: false,
     async read(onProgress, signal) {
       let last = 0;
-      try {
-        for await (const block of src.blocks()) {
-          if (signal?.aborted) throw new DomainError('cancelled', 'cancelled', 'The preview was cancelled.');
-          builder.add(block);
-          const now = Date.now();
-          if (onProgress && now - last > 200) { last = now; onProgress({ bytesDone, bytesTotal: file.sizeBytes }); }
-        }
-      } catch (e) {
-        raw.destroy();
-        throw e;
+      // the reader closes the stored file when reading fails or stops early
+      for await (const _ of reader.blocks()) {
+        if (signal?.aborted) throw new DomainError('cancelled', 'cancelled', 'The preview was cancelled.');
+        const now = Date.now();
+        if (onProgress && now - last > 200) { last = now; onProgress(reader.progress()); }
       }
-      const log = builder.finish();
+      const log = reader.finish();
       onProgress?.({ bytesDone: file.sizeBytes, bytesTotal: file.sizeBytes });
       remember(key, log);
       return log;
@@ -156,34 +134,15 @@ export async function openLog(file: SourceFileRow, input: SegmentPreviewInput): 
   };
 }
 
-const round = (x: number, digits: number) => Number(x.toPrecision(digits));
-
-/**
- * Display series of samples `from`..`to` (exclusive): the channels' shared LTTB-with-extremes
- * indices (analysis/reduce overviewIndices), as the stored overview of an imported log.
- */
-function displaySeries(log: SensorLog, from = 0, to = log.n, maxPoints = DISPLAY_MAX_POINTS): SegmentPreview['series'] {
-  const n = to - from;
+/** Display series of samples `from`..`to` (exclusive): the display points of the stored overview of an imported log. */
+function displaySeries(log: SensorLog, from = 0, to = log.n): SegmentPreview['series'] {
   const part = (y: Float64Array) => y.subarray(from, to);
-  const idx = Array.from(overviewIndices(part(log.timeS), [part(log.inletTempC), part(log.outletTempC), part(log.flowM3PerS)], maxPoints), (i) => from + i);
-  return {
-    tS: idx.map((i) => round(log.timeS[i], 9)),
-    inletTempC: idx.map((i) => round(log.inletTempC[i], 6)),
-    outletTempC: idx.map((i) => round(log.outletTempC[i], 6)),
-    flowM3PerS: idx.map((i) => round(log.flowM3PerS[i], 6)),
-    reduced: idx.length < n,
-  };
+  const points = displayPoints({ timeS: part(log.timeS), inletTempC: part(log.inletTempC), outletTempC: part(log.outletTempC), flowM3PerS: part(log.flowM3PerS) });
+  return { ...points, reduced: points.tS.length < to - from };
 }
 
-/** First index with t[i] >= x. */
-function lowerBound(t: ArrayLike<number>, x: number): number {
-  let lo = 0, hi = t.length;
-  while (lo < hi) { const mid = (lo + hi) >>> 1; if (t[mid] < x) lo = mid + 1; else hi = mid; }
-  return lo;
-}
-
-function period(log: SensorLog, a: number, b: number, blockS: number, notes: string[]): PreviewPeriod {
-  const { blocks: _b, ...st } = segmentStats(log, a, b, blockS);
+function period(log: SensorLog, channels: SegmentChannels, a: number, b: number, blockS: number, notes: string[]): PreviewPeriod {
+  const { blocks: _b, ...st } = segmentStats(channels, a, b, blockS);
   void _b;
   return { ...st, startLine: log.lines[a], endLine: log.lines[b], startS: log.timeS[a], endS: log.timeS[b], durationS: log.timeS[b] - log.timeS[a], notes };
 }
@@ -191,16 +150,11 @@ function period(log: SensorLog, a: number, b: number, blockS: number, notes: str
 const fmt = (x: number, d = 2) => String(Math.round(x * 10 ** d) / 10 ** d);
 
 /**
- * The preset with the engineer's edits, checked.
- * @throws DomainError 422 naming the threshold out of range
+ * The preset with the engineer's edits, checked (log-reader `logCriteria`, as the import does).
+ * @throws ImportError `bad_criteria` (422) naming the threshold out of range
  */
 export function previewCriteria(input: Pick<SegmentPreviewInput, 'preset' | 'criteria'>): SteadyCriteria {
-  try {
-    return resolveCriteria(input.preset as PresetName, (input.criteria ?? {}) as Partial<SteadyCriteria>);
-  } catch (e) {
-    if (e instanceof RangeError) throw new DomainError('invalid', 'bad_criteria', `Steady-state criteria: ${e.message}.`);
-    throw e;
-  }
+  return logCriteria(input);
 }
 
 /**
@@ -211,9 +165,9 @@ export function previewCriteria(input: Pick<SegmentPreviewInput, 'preset' | 'cri
 export function previewSegments(log: SensorLog, input: SegmentPreviewInput): SegmentPreview {
   const criteria = previewCriteria(input);
   if (log.n === 0) throw new DomainError('invalid', 'empty_file', log.rejectedCount ? `No row of the log could be read: ${log.issues[0]?.message ?? 'every row fails'} (line ${log.issues[0]?.line}).` : 'The log holds no samples.');
-  const channels = { timeS: log.timeS, inletTempC: log.inletTempC, outletTempC: log.outletTempC, flowM3PerS: log.flowM3PerS, ambientTempC: log.ambientTempC };
+  const channels = segmentChannels(log);
   const seg = segmentLog(channels, criteria);
-  const segments = seg.segments.map((s) => period(log, s.startIndex, s.endIndex, criteria.blockS, []));
+  const segments = seg.segments.map((s) => period(log, channels, s.startIndex, s.endIndex, criteria.blockS, []));
   let periods: PreviewPeriod[] | null = null;
   if (input.periods) {
     const transit = criteria.transitTimeS ?? 0;
@@ -228,7 +182,7 @@ export function previewSegments(log: SensorLog, input: SegmentPreviewInput): Seg
       if (!inside) notes.push('not wholly inside a steady period found with these criteria');
       const dur = log.timeS[b] - log.timeS[a];
       if (dur < minDur) notes.push(`${fmt(dur / 60)} min long, shorter than the minimum ${fmt(minDur / 60)} min`);
-      const st = period(log, a, b, criteria.blockS, notes);
+      const st = period(log, channels, a, b, criteria.blockS, notes);
       if (criteria.maxOutletSlopeKPerS !== null && Math.abs(st.outletSlopeKPerS) > criteria.maxOutletSlopeKPerS) {
         notes.push(`the outlet drifts ${fmt(st.outletSlopeKPerS * 60, 3)} K/min (limit ${fmt(criteria.maxOutletSlopeKPerS * 60, 3)} K/min)`);
       }

@@ -17,7 +17,7 @@ import { plotToSvg } from '../plots/plot-svg';
 import { DISPLAY_MAX_POINTS, reduceForDisplay } from '@/analysis/reduce';
 import { fitCurveInputFromFits, fitCurvePlot, timeSeriesSegmentsPlot, type FitCurveTrial, type PlotFigure } from '../plots';
 import { isUuid } from '../labs/load-in-lab';
-import { copyPool } from '../imports/sensor-import';
+import { pgPool } from '../server/pg-pool';
 import { ensureSensorOverview } from '../imports/sensor-overview';
 
 /**
@@ -93,7 +93,7 @@ async function sensorLogBody(ctx: BlockContext, block: StudyBlock): Promise<Bloc
   const file = await ctx.em.findOne(SourceFile, { id: fileId, lab: ctx.lab }, { populate: ['rig'] });
   if (!file) return { type: 'note', tone: 'muted', message: 'The sensor log of this block no longer exists.' };
   let overview = await ctx.em.findOne(SensorOverview, { sourceFile: file.id }, { populate: ['rig'] });
-  if (!overview && (await ensureSensorOverview(copyPool(), file.id))) overview = await ctx.em.findOne(SensorOverview, { sourceFile: file.id }, { populate: ['rig'] });
+  if (!overview && (await ensureSensorOverview(pgPool(), file.id))) overview = await ctx.em.findOne(SensorOverview, { sourceFile: file.id }, { populate: ['rig'] });
   if (!overview) return { type: 'note', tone: 'muted', message: 'This file holds no logged samples (it was not imported as a sensor log).' };
   const p = overview.points;
   const points = p.tS.map((tS, i) => ({ tS, inletTempC: p.inletTempC[i], outletTempC: p.outletTempC[i], flowM3PerS: p.flowM3PerS[i] }));

@@ -1,5 +1,6 @@
 import { loadInLab } from '@/app/_lib/labs/load-in-lab';
-import { importJobDto, listRigJobs } from '@/app/_lib/jobs/jobs';
+import { importJobDto } from '@/app/_lib/jobs/job-dto';
+import { listRigJobs } from '@/app/_lib/jobs/job-store';
 import { json, route } from '@/app/_lib/server/route';
 
 /** GET: the rig's ten latest background imports with their state and progress (members of its lab). */

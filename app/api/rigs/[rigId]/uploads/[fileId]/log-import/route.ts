@@ -1,6 +1,7 @@
 import { loadInLab } from '@/app/_lib/labs/load-in-lab';
 import { loadFile, saveLogMapping } from '@/app/_lib/imports/trial-sheets';
-import { importJobDto, startSensorImport } from '@/app/_lib/jobs/jobs';
+import { importJobDto } from '@/app/_lib/jobs/job-dto';
+import { startSensorImport } from '@/app/_lib/jobs/sensor-import-job';
 import { json, route } from '@/app/_lib/server/route';
 import { logImportInput } from '@/app/_lib/imports/sensor-import';
 
