@@ -13,9 +13,9 @@ import type { LogImportInput, SensorImportResult } from '../imports/sensor-impor
  *   queued → running → completed | failed | cancelled      (queued → cancelled / failed, too)
  *
  * with its progress, result, error text, cancellation request and attempts. Every change of state
- * is one conditional UPDATE here, so two processes (a worker and a DELETE, or two workers after a
- * restart) never both win. Writes go through the plain pool, outside the import's own transaction,
- * so the page sees progress while the import runs.
+ * is one UPDATE here; those two processes can race on (a worker claiming a job a DELETE cancels,
+ * two workers after a restart) are conditional, so only one wins. Writes go through the plain
+ * pool, outside the import's own transaction, so the page sees progress while the import runs.
  *
  * Owns: the job's states and their transitions, progress, result, error texts, cancellation,
  * the lease and recovery of jobs whose process died. May import: entities, server/pg-pool,
