@@ -1,5 +1,4 @@
 import 'server-only';
-import { notFound as pageNotFound } from 'next/navigation';
 import { Fit, ImportJob, Rig, ShareLink, SourceFile, Study, Trial } from '@/entities';
 import type { FitRow, ImportJobRow, RigRow, ShareLinkRow, SourceFileRow, StudyRow, TrialRow } from '@/entities';
 import type { Viewer } from '../accounts/viewer';
@@ -52,7 +51,9 @@ export async function loadInLab<K extends LabRecord>(scope: Scope, kind: K, id: 
     if (!row) throw notFound();
     return { row, member: { lab: scope.current.lab, role: scope.current.role } };
   } catch (e) {
-    if (e instanceof DomainError && e.kind === 'not_found') pageNotFound();
+    // imported here, not at the top: modules that only need isUuid (sensor-overview.ts) are also
+    // loaded outside Next (bench/import.ts, bench/study.ts), where next/navigation cannot load
+    if (e instanceof DomainError && e.kind === 'not_found') (await import('next/navigation')).notFound();
     throw e;
   }
 }
