@@ -74,7 +74,7 @@ const cpuMs = () => { const u = process.cpuUsage(); return (u.user + u.system) /
 const fmtCpu = (ms: number | null) => (ms === null ? 'n/a' : `${(ms / 1000).toFixed(2)} s`);
 
 async function main() {
-  const { writeSensorLogCsv, SENSOR_LOG_MAPPING } = await import('./import-parse');
+  const { writeSensorLogCsv, SENSOR_LOG_MAPPING } = await import('../test/support/sensor-log-file');
   const { getEm, getOrm } = await import('@/app/_lib/server/db');
   const { importSensorLog, logImportInput } = await import('@/app/_lib/imports/sensor-import');
   const { pgPool } = await import('@/app/_lib/server/pg-pool');

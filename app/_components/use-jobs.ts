@@ -2,24 +2,11 @@
 
 import useSWR from 'swr';
 import { fetcher } from './api';
+import type { ImportJobDto } from '../_contracts/dto';
 
 /** A background import as the API gives it (GET /api/jobs/{id}). */
-export interface ImportJobDto {
-  id: string;
-  kind: 'sensor-import';
-  state: 'queued' | 'running' | 'completed' | 'failed' | 'cancelled';
-  rigId: string;
-  fileId: string;
-  filename: string | null;
-  progress: { bytesDone: number; bytesTotal: number; rowsDone: number; fraction: number };
-  attempts: number;
-  cancelRequested: boolean;
-  result: { samples?: number; trials?: number; excludedRows?: number; skippedRows?: number; notices?: string[] } | null;
-  error: string | null;
-  createdAt: string;
-  startedAt: string | null;
-  finishedAt: string | null;
-}
+
+export type { ImportJobDto };
 
 export const jobActive = (j: Pick<ImportJobDto, 'state'>) => j.state === 'queued' || j.state === 'running';
 

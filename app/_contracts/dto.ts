@@ -83,3 +83,21 @@ export interface TrialPageDto {
   pageSize: number;
   hottest?: { inletTempC: number | null; outletTempC: number | null };
 }
+
+/** A background job as the browser sees it (built by `app/_lib/jobs/job-dto.ts`). */
+export interface ImportJobDto {
+  id: string;
+  kind: 'sensor-import';
+  state: 'queued' | 'running' | 'completed' | 'failed' | 'cancelled';
+  rigId: string;
+  fileId: string;
+  filename: string | null;
+  progress: { bytesDone: number; bytesTotal: number; rowsDone: number; fraction: number };
+  attempts: number;
+  cancelRequested: boolean;
+  result: { samples?: number; trials?: number; excludedRows?: number; skippedRows?: number; notices?: string[] } | null;
+  error: string | null;
+  createdAt: string;
+  startedAt: string | null;
+  finishedAt: string | null;
+}

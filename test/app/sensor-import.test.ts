@@ -4,7 +4,7 @@
  * halfway through the COPY (or a cancellation) leaves nothing; a job sent while no worker runs is
  * finished by the worker of the next process.
  *
- * The logs come from `writeSensorLogCsv` (bench/import-parse.ts): 1 Hz plateaus of 1200 s whose
+ * The logs come from `writeSensorLogCsv` (test/support/sensor-log-file.ts): 1 Hz plateaus of 1200 s whose
  * set-points cycle through outlet 30 + 3k °C (k = 0…6) and flow 9 + 3k L/min (k = 0…4), with
  * ±0.02 K and ±0.2 % seeded noise — so every steady trial must sit on one of those set-points
  * (our generator, checked against its own definition).

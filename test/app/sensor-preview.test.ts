@@ -3,7 +3,7 @@
  * and importing exactly the periods the engineer kept — against the real PostgreSQL, the S3 fake
  * and pg-boss.
  *
- * The logs come from `writeSensorLogCsv` (bench/import-parse.ts): 1 Hz plateaus of 1200 s whose
+ * The logs come from `writeSensorLogCsv` (test/support/sensor-log-file.ts): 1 Hz plateaus of 1200 s whose
  * set-points cycle through outlet 30 + 3k °C (k = 0…6) and flow 9 + 3k L/min (k = 0…4), with
  * ±0.02 K and ±0.2 % seeded noise (our generator, checked against its own definition).
  */

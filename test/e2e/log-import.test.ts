@@ -3,7 +3,7 @@
  * bad row, drop one period and shorten another, import in the background with a progress bar, and
  * see the trials and the job on the rig page.
  *
- * The log comes from `writeSensorLogCsv` (bench/import-parse.ts): 1 Hz plateaus of 1200 s whose
+ * The log comes from `writeSensorLogCsv` (test/support/sensor-log-file.ts): 1 Hz plateaus of 1200 s whose
  * set-points cycle through outlet 30 + 3k °C and flow 9 + 3k L/min (our generator, checked against
  * its own definition), with one row broken by hand.
  */
@@ -11,7 +11,7 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import { writeSensorLogCsv } from '../../bench/import-parse';
+import { writeSensorLogCsv } from '../support/sensor-log-file';
 import { openBrowser, screenshot, signInAs } from './support/browser';
 
 describe('sensor-log import in Chromium', () => {
@@ -20,7 +20,7 @@ describe('sensor-log import in Chromium', () => {
   const file = path.join(tmp, 'burner-log.csv');
   beforeAll(async () => {
     b = await openBrowser({ viewport: { width: 1280, height: 900 } });
-    await writeSensorLogCsv(file, { rows: 6000, seed: Date.now() % 100_000 });
+    await writeSensorLogCsv(file, { rows: 6000, seed: 4242 });
     const lines = readFileSync(file, 'utf8').split('\n');
     lines[1500] = lines[1500].replace(/^([^,]+),([^,]+),([^,]+),/, '$1,$2,n/a,'); // line 1501: no outlet reading
     writeFileSync(file, lines.join('\n'));

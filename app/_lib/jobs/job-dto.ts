@@ -1,6 +1,7 @@
 import 'server-only';
 import { wrap } from '@mikro-orm/core';
 import type { ImportJobRow } from '@/entities';
+import type { ImportJobDto } from '@/app/_contracts/dto';
 
 /**
  * The plain data of a background job that reaches the browser (the rig page, GET /api/jobs/{id},
@@ -9,7 +10,7 @@ import type { ImportJobRow } from '@/entities';
  * Owns: which fields of an `import_job` row are shown, and the progress fraction. May import:
  * entities (types), @mikro-orm/core (`wrap`). Routes load the job with `loadInLab(ctx, 'job', …)`.
  */
-export const importJobDto = (j: ImportJobRow) => ({
+export const importJobDto = (j: ImportJobRow): ImportJobDto => ({
   id: j.id,
   kind: 'sensor-import' as const,
   state: j.state,

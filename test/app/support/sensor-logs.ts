@@ -1,5 +1,5 @@
 /**
- * Shared pieces of the sensor-log tests: the generator's mapping, generated logs (bench/import-parse.ts
+ * Shared pieces of the sensor-log tests: the generator's mapping, generated logs (test/support/sensor-log-file.ts
  * `writeSensorLogCsv`: 1 Hz plateaus of 1200 s, outlet 30 + 3k °C, flow 9 + 3k L/min, seeded
  * noise), a rig of one's own, raw uploads, waiting for a background job, and a log imported
  * directly by the real `importSensorLog` from a local file (as the import benchmark does).
@@ -9,7 +9,7 @@ import { createReadStream, mkdtempSync, readFileSync, rmSync, writeFileSync } fr
 import os from 'node:os';
 import path from 'node:path';
 import { expect } from 'vitest';
-import { writeSensorLogCsv, SENSOR_LOG_MAPPING } from '../../../bench/import-parse';
+import { writeSensorLogCsv, SENSOR_LOG_MAPPING } from '../../support/sensor-log-file';
 import { getEm } from '@/app/_lib/server/db';
 import { importSensorLog, logImportInput, type SensorImportResult } from '@/app/_lib/imports/sensor-import';
 import { Lab, Rig, SourceFile } from '@/entities';
@@ -22,11 +22,13 @@ export const LOG_MAPPING = SENSOR_LOG_MAPPING;
 export function logFolder(tag: string) {
   const dir = mkdtempSync(path.join(os.tmpdir(), `emberline-${tag}-`));
   let seq = 0;
+  // a fixed seed per folder and log: the same logs every run, new bytes for each log of a run
+  const tagSeed = [...tag].reduce((h, c) => (h * 31 + c.charCodeAt(0)) % 100_000, 17);
   return {
-    /** A generated 1 Hz log; the seed varies per call so that each upload is new bytes. */
+    /** A generated 1 Hz log; the seed is fixed per folder and call, so each upload is new bytes and every run the same. */
     async make(rows: number, edit?: (lines: string[]) => void): Promise<Buffer> {
       const file = path.join(dir, `log-${seq++}.csv`);
-      await writeSensorLogCsv(file, { rows, seed: (Date.now() % 100_000) + seq * 7919 });
+      await writeSensorLogCsv(file, { rows, seed: tagSeed + seq * 7919 });
       if (edit) {
         const lines = readFileSync(file, 'utf8').split('\n');
         edit(lines);
