@@ -3,7 +3,7 @@
 // migrations, demo data, local fakes of hosted services, a build when sources changed, then
 // the web server on http://127.0.0.1:3000. Ctrl-C stops everything it started.
 import path from 'node:path';
-import { root, step, portIsFree, spawn, fail, waitForHealth, stopper, runMain } from './lib/util.mjs';
+import { root, portIsFree, spawn, fail, waitForHealth, stopper, runMain } from './lib/util.mjs';
 import { bootstrap } from './lib/bootstrap.mjs';
 import { buildIfChanged } from './lib/build.mjs';
 import { startFakes } from './lib/fakes.mjs';

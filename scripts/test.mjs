@@ -5,7 +5,7 @@
 // summary and a plain "N passed, N failed" line; exits non-zero on any failure.
 import path from 'node:path';
 import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
-import { root, step, spawn, freePort, fail, waitForHealth, stopper, runMain } from './lib/util.mjs';
+import { root, step, spawn, freePort, waitForHealth, stopper, runMain, runVisible } from './lib/util.mjs';
 import { ensureNodeModules, ensureChromium } from './lib/install.mjs';
 import { bootstrap } from './lib/bootstrap.mjs';
 import { buildIfChanged } from './lib/build.mjs';
@@ -13,6 +13,8 @@ import { startFakes } from './lib/fakes.mjs';
 
 async function main() {
   ensureNodeModules();
+  step('lint (eslint: the Next.js and typescript-eslint rules)');
+  runVisible(process.execPath, [path.join(root, 'node_modules/eslint/bin/eslint.js'), '--max-warnings', '0', '--report-unused-disable-directives', '.'], 'lint found problems (see above): fix them, then run the tests again', { cwd: root });
   const chromium = ensureChromium();
   const db = await bootstrap({ database: 'emberline_test', fresh: true, demo: true });
   const { push, stopAll } = stopper(db.stop);

@@ -6,7 +6,7 @@
  */
 import { requireFinite, requirePositive } from '../units/guards';
 import { fastCpJPerKgK, fastDensityKgPerM3 } from '../water/property-table';
-import { MAX_SOURCE_TEMP_C, requireSourceTempC } from './coil-ntu';
+import { requireSourceTempC } from './coil-ntu';
 
 /** A heater as seen by the pool models. */
 export interface HeaterModel {

@@ -52,11 +52,6 @@ export function plainNumber(o: Fields, key: string, path = '', fallback?: number
   return v;
 }
 
-/** Converts typed arrays to plain arrays for JSON output. */
-export function toArray(a: ArrayLike<number>): number[] {
-  return Array.from(a);
-}
-
 /** One field as the user wrote it, and the name the analysis functions give it. */
 export interface FieldRead {
   /** the user's path, e.g. `losses.weather[3].airTemp` */

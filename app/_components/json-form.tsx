@@ -1,9 +1,12 @@
 'use client';
 
 import { useRouter } from 'next/navigation';
-import { useEffect, useId, useState, type ReactNode } from 'react';
+import { useId, useState, useSyncExternalStore, type ReactNode } from 'react';
 import { api, ApiError } from './api';
 import { safeNextPath } from '../_contracts/safe-next';
+
+/** Hydration has no event to subscribe to: the server snapshot says false, the client's true. */
+const noSubscribe = () => () => undefined;
 
 export interface Field {
   name: string;
@@ -46,8 +49,7 @@ export function JsonForm({
   const [result, setResult] = useState<Record<string, unknown> | null>(null);
   // Until React has hydrated, the button stays disabled: a native submit must never put a
   // password into the URL.
-  const [ready, setReady] = useState(false);
-  useEffect(() => setReady(true), []);
+  const ready = useSyncExternalStore(noSubscribe, () => true, () => false);
 
   async function submit(e: React.FormEvent<HTMLFormElement>) {
     e.preventDefault();

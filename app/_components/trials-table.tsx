@@ -20,8 +20,6 @@ export function TrialsTable({ rigId, units, canWrite }: { rigId: string; units: 
   const pages = data ? Math.max(1, Math.ceil(data.total / data.pageSize)) : 1;
   const set = (patch: Partial<TrialQuery>) => setQ((old) => ({ ...old, page: 1, ...patch }));
   const sortBy = (sort: TrialQuery['sort']) => set({ sort, dir: q.sort === sort && q.dir === 'asc' ? 'desc' : 'asc' });
-  const arrow = (s: TrialQuery['sort']) => (q.sort === s ? (q.dir === 'asc' ? ' ▲' : ' ▼') : '');
-  const ariaSort = (s: TrialQuery['sort']) => (q.sort === s ? (q.dir === 'asc' ? 'ascending' : 'descending') : 'none');
 
   async function bulk(excluded: boolean) {
     setError(null);
@@ -44,18 +42,7 @@ export function TrialsTable({ rigId, units, canWrite }: { rigId: string; units: 
     }
   }
 
-  const Th = ({ s, children, right }: { s?: TrialQuery['sort']; children: React.ReactNode; right?: boolean }) => (
-    <th scope="col" className={right ? 'text-right' : ''} aria-sort={s ? ariaSort(s) : undefined}>
-      {s ? (
-        <button type="button" className="font-semibold text-ink-soft hover:text-ink" onClick={() => sortBy(s)}>
-          {children}
-          {arrow(s)}
-        </button>
-      ) : (
-        children
-      )}
-    </th>
-  );
+  const sorting = { q, sortBy };
 
   return (
     <div className="space-y-3">
@@ -109,10 +96,10 @@ export function TrialsTable({ rigId, units, canWrite }: { rigId: string; units: 
                   />
                 </th>
               ) : null}
-              <Th s="startedAt">Started (UTC)</Th>
-              <Th s="flowM3PerS" right>Flow ({displayUnits(units).flow.label})</Th>
-              <Th s="inletTempC" right>Inlet ({displayUnits(units).temp.label})</Th>
-              <Th s="outletTempC" right>Outlet ({displayUnits(units).temp.label})</Th>
+              <Th sorting={sorting} s="startedAt">Started (UTC)</Th>
+              <Th sorting={sorting} s="flowM3PerS" right>Flow ({displayUnits(units).flow.label})</Th>
+              <Th sorting={sorting} s="inletTempC" right>Inlet ({displayUnits(units).temp.label})</Th>
+              <Th sorting={sorting} s="outletTempC" right>Outlet ({displayUnits(units).temp.label})</Th>
               <Th right>ΔT ({displayUnits(units).tempDiff.label})</Th>
               <Th>Notes</Th>
             </tr>
@@ -190,5 +177,22 @@ export function TrialsTable({ rigId, units, canWrite }: { rigId: string; units: 
         </span>
       </nav>
     </div>
+  );
+}
+
+/** A column head; a sortable one is a button that sorts by it (again: the other way). */
+function Th({ s, children, right, sorting }: { s?: TrialQuery['sort']; children: React.ReactNode; right?: boolean; sorting?: { q: TrialQuery; sortBy: (s: TrialQuery['sort']) => void } }) {
+  const active = s && sorting && sorting.q.sort === s;
+  return (
+    <th scope="col" className={right ? 'text-right' : ''} aria-sort={s && sorting ? (active ? (sorting.q.dir === 'asc' ? 'ascending' : 'descending') : 'none') : undefined}>
+      {s && sorting ? (
+        <button type="button" className="font-semibold text-ink-soft hover:text-ink" onClick={() => sorting.sortBy(s)}>
+          {children}
+          {active ? (sorting.q.dir === 'asc' ? ' ▲' : ' ▼') : ''}
+        </button>
+      ) : (
+        children
+      )}
+    </th>
   );
 }

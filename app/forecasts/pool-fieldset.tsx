@@ -1,6 +1,6 @@
 import { NumberField } from './forecast-fields';
 import type { UnitSystem } from '@/analysis/units/unit-system';
-import { displayUnit, displayUnits } from '@/app/_contracts/units';
+import { displayUnit } from '@/app/_contracts/units';
 
 /** The pool or tub: its shape and size, in the reader's length unit. */
 export function PoolFieldset({ units, shape, onShape }: { units: UnitSystem; shape: string; onShape: (shape: string) => void }) {

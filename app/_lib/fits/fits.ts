@@ -3,8 +3,6 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
 import { Fit, type FitRow, type LabRow, type RigRow, type UserRow } from '@/entities';
 import { compareModels, type FitSuccess } from '@/analysis/fit';
-import { chooseFlow } from '@/analysis/performance/choose-flow';
-import { performanceTable } from '@/analysis/performance/performance-table';
 import { DomainError } from '../server/errors';
 import { DEFAULT_MEASUREMENT_SD_K, MAX_FIT_TRIALS, SOFTWARE_VERSION, fitData, modelLabel, trialsForFit, trialsHash } from './fit-analysis';
 import { parseStoredFit, storedFitResult } from './stored-fit';

@@ -1,11 +1,10 @@
 import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
-import { Rig, SourceFile, Trial, type LabRow, type RigRow } from '@/entities';
+import { Rig, SourceFile, type LabRow, type RigRow } from '@/entities';
 import { HEAT_SOURCES } from '@/entities/rig';
-import { conflict, notFound } from '../server/errors';
-import type { Action } from '../labs/permissions';
-import type { Member, RouteContext } from '../server/route';
+import { conflict } from '../server/errors';
+import type { RouteContext } from '../server/route';
 
 /** The fields of a rig as the API takes them, without defaults (so that a patch leaves out what it does not name). */
 const rigFields = z.object({

@@ -7,9 +7,7 @@ import { BLOCK_KINDS, type StudyBlock } from '@/entities/study';
 import { UNIT_SYSTEMS, type UnitSystem } from '@/analysis/units/unit-system';
 import { costBlockData } from '../forecasts/cost-sheet';
 import { forecastWorkProblem } from '../forecasts/forecasts';
-import { conflict, DomainError, notFound } from '../server/errors';
-import type { Action } from '../labs/permissions';
-import type { Member, RouteContext } from '../server/route';
+import { conflict, DomainError } from '../server/errors';
 import { isUuid } from '../labs/load-in-lab';
 import { newSecret, sha256 } from '../server/secrets';
 

@@ -11,9 +11,9 @@
 import { createHash } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { baseUrl } from '../support/client';
-import { CALLERS, ROLES, SESSION_CALLERS, buildLab, repoFiles, useAddresses, type Caller, type LabFixture, type Role } from '../support/authz';
+import { CALLERS, ROLES, SESSION_CALLERS, buildLab, repoFiles, setAddressRange, type Caller, type LabFixture, type Role } from '../support/authz';
 
-useAddresses('192.0.2.');
+setAddressRange('192.0.2.');
 
 /** 200, 404, 'sign-in' (3xx to /sign-in?next=<path>) or a redirect elsewhere. */
 type Outcome = 200 | 404 | 'sign-in' | { to: string };

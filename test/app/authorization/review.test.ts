@@ -8,9 +8,9 @@
  */
 import { beforeAll, describe, expect, test } from 'vitest';
 import type { Client } from '../support/client';
-import { labA, rigWithTrials, useAddresses, type Role } from '../support/authz';
+import { labA, rigWithTrials, setAddressRange, type Role } from '../support/authz';
 
-useAddresses('203.0.113.');
+setAddressRange('203.0.113.');
 
 type Kind = 'fits' | 'studies';
 let labId: string;

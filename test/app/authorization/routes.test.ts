@@ -17,9 +17,9 @@ import { createHash } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { DEMO_PASSWORD } from '@/fixtures/demo-lab';
 import { STRONG_PASSWORD, uniqueEmail, type Client, type Reply } from '../support/client';
-import { CALLERS, ROLES, buildLab, emailOf, freshSession, repoFiles, useAddresses, type Caller, type LabFixture, type Role } from '../support/authz';
+import { CALLERS, ROLES, buildLab, emailOf, freshSession, repoFiles, setAddressRange, type Caller, type LabFixture, type Role } from '../support/authz';
 
-useAddresses('198.51.100.');
+setAddressRange('198.51.100.');
 
 const root = path.resolve(__dirname, '..', '..', '..');
 type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';

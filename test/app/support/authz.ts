@@ -47,7 +47,7 @@ let addressPrefix = '198.51.100.';
  * Client addresses of one test file (documentation ranges, RFC 5737), so that the per-address
  * rate limits of one file never spill into another's.
  */
-export function useAddresses(prefix: '198.51.100.' | '192.0.2.' | '203.0.113.') {
+export function setAddressRange(prefix: '198.51.100.' | '192.0.2.' | '203.0.113.') {
   addressPrefix = prefix;
 }
 export const newClient = () => new Client(`${addressPrefix}${(addressSeq++ % 250) + 1}`);

@@ -54,6 +54,8 @@ export function FitWorkbench({ rigId, rigName, labId, units, canSave }: { rigId:
     const planInletC = inlet.trim() ? displayUnits(units).temp.to(Number(inlet.replace(',', '.'))) : undefined;
     if (planInletC !== undefined && !Number.isFinite(planInletC)) return;
     let live = true;
+    // the analysis is fetched here, so its busy flag is set here (SWR would hide the request the page shows as busy)
+    // eslint-disable-next-line react-hooks/set-state-in-effect
     setBusy(true);
     api<Analysis>(`/api/rigs/${rigId}/analyze`, { body: { models, ...(planInletC !== undefined ? { planInletC } : {}) } })
       .then((r) => {
