@@ -15,16 +15,8 @@ import pkg from '@/package.json';
 
 export const SOFTWARE_VERSION = `emberline ${pkg.version}`;
 
-/** Models offered on the fit page (built-in names of analysis/fit). */
-export const MODEL_CHOICES = [
-  { id: 'coil', label: 'Constant-source coil (ε–NTU)' },
-  { id: 'exp-inlet', label: 'Exponential toward the inlet' },
-  { id: 'exp-approach', label: 'Exponential approach' },
-  { id: 'poly2', label: 'Quadratic' },
-  { id: 'poly3', label: 'Cubic' },
-  { id: 'power', label: 'Power law' },
-] as const;
-export const modelLabel = (id: string) => MODEL_CHOICES.find((m) => m.id === id)?.label ?? id;
+import { MODEL_CHOICES, modelLabel } from '@/app/_contracts/models';
+export { MODEL_CHOICES, modelLabel };
 
 /**
  * Default outlet-temperature uncertainty: a Type T thermocouple at standard limits, ±1.0 °C

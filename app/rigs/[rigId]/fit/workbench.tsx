@@ -10,6 +10,7 @@ import { CautionList } from '../../../_components/safety-notice';
 import type { CautionLike } from '@/analysis/safety/cautions';
 import { displayUnits } from '@/app/_contracts/units';
 import type { UnitSystem } from '@/analysis/units/unit-system';
+import { MODEL_CHOICES } from '../../../_contracts/models';
 
 interface Figure {
   title: string;
@@ -28,14 +29,7 @@ interface Analysis {
   plots: Record<string, Figure>;
 }
 
-const MODELS: { id: string; label: string }[] = [
-  { id: 'coil', label: 'Constant-source coil (ε–NTU)' },
-  { id: 'exp-inlet', label: 'Exponential toward the inlet' },
-  { id: 'exp-approach', label: 'Exponential approach' },
-  { id: 'poly2', label: 'Quadratic' },
-  { id: 'poly3', label: 'Cubic' },
-  { id: 'power', label: 'Power law' },
-];
+const MODELS = MODEL_CHOICES;
 
 /** Fit and compare models live on a rig's included trials; save the chosen fit as a record. */
 export function FitWorkbench({ rigId, rigName, labId, units, canSave }: { rigId: string; rigName: string; labId: string; units: UnitSystem; canSave: boolean }) {
