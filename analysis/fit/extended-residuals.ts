@@ -1,5 +1,6 @@
 import { parse, type MathNode } from 'mathjs';
-import { ddAdd as add, ddDiv as div, ddExp as exp, ddLog as log, ddMul as mul, ddNeg as neg, ddPow as pow, ddPowInt as powInt, ddSqrt as sqrt, type Dd } from './double-double';
+import { LruCache, MODEL_CACHE_CAPACITY } from './lru-cache';
+import { ddAddTo, ddDivTo, ddExpTo, ddLogTo, ddMulTo, ddPowIntTo, ddPowTo, ddSqrtTo } from './double-double';
 
 /*
  * Residuals y − f(x; p) evaluated in double-double arithmetic (about 32 digits) for the final
@@ -17,64 +18,143 @@ const DOUBLE_FUNCTIONS: Record<string, (...v: number[]) => number> = {
   log10: Math.log10, log2: Math.log2, cbrt: Math.cbrt, hypot: Math.hypot, expm1: Math.expm1, log1p: Math.log1p,
 };
 
-type Evaluator = (p: ArrayLike<number>, xi: number, ci: number[]) => Dd;
+/*
+ * The expression is compiled once into a tape: every node gets a register (a hi, lo pair in one
+ * Float64Array), parameters and constants are loaded once per call, and each point runs the
+ * point-dependent instructions in order through the allocation-free kernels of double-double.ts.
+ * The arithmetic is exactly that of a node-by-node evaluation (same operations, same order).
+ */
+const enum Op { X, Cov, Add, Sub, Mul, Div, Pow, Neg, Exp, Log, Sqrt, Square, Cube, LogBase, Double }
 
-function build(node: MathNode, parameters: string[], covariates: string[]): Evaluator {
-  const n = node as MathNode & { fn?: unknown; args?: MathNode[]; name?: string; value?: unknown; content?: MathNode };
-  switch (node.type) {
-    case 'ConstantNode': {
-      const v: Dd = [Number(n.value), 0];
-      return () => v;
+/** A compiled expression: instructions as (op, destination, a, b) quadruples, a, b register or index. */
+interface Tape {
+  code: Int32Array;
+  registers: number;
+  /** registers loaded with parameter k: [register, k] pairs */
+  params: number[];
+  /** registers holding constants: [register, hi, lo] triples */
+  constants: number[];
+  /** functions evaluated in double precision, with the registers of their arguments */
+  doubles: { fn: (...v: number[]) => number; args: number[] }[];
+  /** register of the result */
+  result: number;
+}
+
+function compileTape(root: MathNode, parameters: string[], covariates: string[]): Tape {
+  const code: number[] = [];
+  const params: number[] = [];
+  const constants: number[] = [];
+  const doubles: Tape['doubles'] = [];
+  const leaves = new Map<string, number>();
+  let registers = 0;
+  const emit = (op: Op, a = 0, b = 0): number => {
+    const d = registers++;
+    code.push(op, d, a, b);
+    return d;
+  };
+  const leaf = (key: string, make: (r: number) => void): number => {
+    let r = leaves.get(key);
+    if (r === undefined) {
+      r = registers++;
+      make(r);
+      leaves.set(key, r);
     }
-    case 'SymbolNode': {
-      const name = n.name as string;
-      if (name === 'x') return (_p, xi) => [xi, 0];
-      const c = covariates.indexOf(name);
-      if (c >= 0) return (_p, _x, ci) => [ci[c], 0];
-      const k = parameters.indexOf(name);
-      if (k >= 0) return (p) => [p[k], 0];
-      if (name === 'pi' || name === 'PI') return () => [Math.PI, 1.2246467991473532e-16];
-      if (name === 'e' || name === 'E') return () => [Math.E, 1.4456468917292502e-16];
-      if (name === 'tau') return () => [2 * Math.PI, 2.4492935982947064e-16];
-      throw new Error(`unknown symbol ${name}`);
+    return r;
+  };
+  const constant = (hi: number, lo: number): number => leaf(`c${Object.is(hi, -0) ? '-0' : hi},${lo}`, (r) => constants.push(r, hi, lo));
+  const visit = (node: MathNode): number => {
+    const n = node as MathNode & { fn?: unknown; args?: MathNode[]; name?: string; value?: unknown; content?: MathNode };
+    switch (node.type) {
+      case 'ConstantNode':
+        return constant(Number(n.value), 0);
+      case 'SymbolNode': {
+        const name = n.name as string;
+        if (name === 'x') return leaf('x', (r) => code.push(Op.X, r, 0, 0));
+        const c = covariates.indexOf(name);
+        if (c >= 0) return leaf(`v${c}`, (r) => code.push(Op.Cov, r, c, 0));
+        const k = parameters.indexOf(name);
+        if (k >= 0) return leaf(`p${k}`, (r) => params.push(r, k));
+        if (name === 'pi' || name === 'PI') return constant(Math.PI, 1.2246467991473532e-16);
+        if (name === 'e' || name === 'E') return constant(Math.E, 1.4456468917292502e-16);
+        if (name === 'tau') return constant(2 * Math.PI, 2.4492935982947064e-16);
+        throw new Error(`unknown symbol ${name}`);
+      }
+      case 'ParenthesisNode':
+        return visit(n.content as MathNode);
+      case 'OperatorNode': {
+        const [f, g] = (n.args as MathNode[]).map(visit);
+        switch (n.fn as string) {
+          case 'add': return emit(Op.Add, f, g);
+          case 'subtract': return emit(Op.Sub, f, g);
+          case 'multiply': return emit(Op.Mul, f, g);
+          case 'divide': return emit(Op.Div, f, g);
+          case 'pow': return emit(Op.Pow, f, g);
+          case 'unaryMinus': return emit(Op.Neg, f);
+          case 'unaryPlus': return f;
+          default: throw new Error(`operator ${String(n.fn)}`);
+        }
+      }
+      case 'FunctionNode': {
+        const name = (n.fn as { name?: string }).name ?? '';
+        const args = (n.args as MathNode[]).map(visit);
+        const [f, g] = args;
+        if (name === 'exp') return emit(Op.Exp, f);
+        if (name === 'log' && args.length === 1) return emit(Op.Log, f);
+        if (name === 'sqrt') return emit(Op.Sqrt, f);
+        if (name === 'pow') return emit(Op.Pow, f, g);
+        if (name === 'square') return emit(Op.Square, f);
+        if (name === 'cube') return emit(Op.Cube, f);
+        if (name === 'log') return emit(Op.LogBase, f, g);
+        const fn = DOUBLE_FUNCTIONS[name];
+        if (!fn) throw new Error(`function ${name}`);
+        doubles.push({ fn, args });
+        return emit(Op.Double, doubles.length - 1);
+      }
+      default:
+        throw new Error(`node ${node.type}`);
     }
-    case 'ParenthesisNode':
-      return build(n.content as MathNode, parameters, covariates);
-    case 'OperatorNode': {
-      const args = (n.args as MathNode[]).map((a) => build(a, parameters, covariates));
-      const [f, g] = args;
-      switch (n.fn as string) {
-        case 'add': return (p, x, c) => add(f(p, x, c), g(p, x, c));
-        case 'subtract': return (p, x, c) => add(f(p, x, c), neg(g(p, x, c)));
-        case 'multiply': return (p, x, c) => mul(f(p, x, c), g(p, x, c));
-        case 'divide': return (p, x, c) => div(f(p, x, c), g(p, x, c));
-        case 'pow': return (p, x, c) => pow(f(p, x, c), g(p, x, c));
-        case 'unaryMinus': return (p, x, c) => neg(f(p, x, c));
-        case 'unaryPlus': return f;
-        default: throw new Error(`operator ${String(n.fn)}`);
+  };
+  const result = visit(root);
+  return { code: Int32Array.from(code), registers, params, constants, doubles, result };
+}
+
+/** Runs the point-dependent instructions of a tape for point i (registers already hold parameters and constants). */
+function runTape(tape: Tape, r: Float64Array, xi: number, cov: ArrayLike<number>[], i: number): void {
+  const code = tape.code;
+  for (let q = 0; q < code.length; q += 4) {
+    const d = 2 * code[q + 1];
+    const a = 2 * code[q + 2];
+    const b = 2 * code[q + 3];
+    switch (code[q] as Op) {
+      case Op.X: r[d] = xi; r[d + 1] = 0; break;
+      case Op.Cov: r[d] = cov[code[q + 2]][i]; r[d + 1] = 0; break;
+      case Op.Add: ddAddTo(r[a], r[a + 1], r[b], r[b + 1], r, d); break;
+      case Op.Sub: ddAddTo(r[a], r[a + 1], -r[b], -r[b + 1], r, d); break;
+      case Op.Mul: ddMulTo(r[a], r[a + 1], r[b], r[b + 1], r, d); break;
+      case Op.Div: ddDivTo(r[a], r[a + 1], r[b], r[b + 1], r, d); break;
+      case Op.Pow: ddPowTo(r[a], r[a + 1], r[b], r[b + 1], r, d); break;
+      case Op.Neg: r[d] = -r[a]; r[d + 1] = -r[a + 1]; break;
+      case Op.Exp: ddExpTo(r[a], r[a + 1], r, d); break;
+      case Op.Log: ddLogTo(r[a], r[a + 1], r, d); break;
+      case Op.Sqrt: ddSqrtTo(r[a], r[a + 1], r, d); break;
+      case Op.Square: ddPowIntTo(r[a], r[a + 1], 2, r, d); break;
+      case Op.Cube: ddPowIntTo(r[a], r[a + 1], 3, r, d); break;
+      case Op.LogBase: r[d] = Math.log(r[a]) / Math.log(r[b]); r[d + 1] = 0; break;
+      case Op.Double: {
+        const { fn, args } = tape.doubles[code[q + 2]];
+        const u = 2 * args[0];
+        if (args.length === 1) r[d] = fn(r[u] + r[u + 1]);
+        else if (args.length === 2) r[d] = fn(r[u] + r[u + 1], r[2 * args[1]] + r[2 * args[1] + 1]);
+        else r[d] = fn(...args.map((k) => r[2 * k] + r[2 * k + 1]));
+        r[d + 1] = 0;
+        break;
       }
     }
-    case 'FunctionNode': {
-      const name = (n.fn as { name?: string }).name ?? '';
-      const args = (n.args as MathNode[]).map((a) => build(a, parameters, covariates));
-      const [f, g] = args;
-      if (name === 'exp') return (p, x, c) => exp(f(p, x, c));
-      if (name === 'log' && args.length === 1) return (p, x, c) => log(f(p, x, c));
-      if (name === 'sqrt') return (p, x, c) => sqrt(f(p, x, c));
-      if (name === 'pow') return (p, x, c) => pow(f(p, x, c), g(p, x, c));
-      if (name === 'square') return (p, x, c) => powInt(f(p, x, c), 2);
-      if (name === 'cube') return (p, x, c) => powInt(f(p, x, c), 3);
-      const dbl = DOUBLE_FUNCTIONS[name];
-      if (name === 'log') return (p, x, c) => [Math.log(f(p, x, c)[0]) / Math.log(g(p, x, c)[0]), 0];
-      if (!dbl) throw new Error(`function ${name}`);
-      return (p, x, c) => [dbl(...args.map((a) => { const v = a(p, x, c); return v[0] + v[1]; })), 0];
-    }
-    default:
-      throw new Error(`node ${node.type}`);
   }
 }
 
-const cache = new Map<string, Evaluator | null>();
+const cache = new LruCache<Tape | null>(MODEL_CACHE_CAPACITY);
+const RESIDUAL = new Float64Array(2);
 
 /**
  * Writes yᵢ − f(xᵢ; p) into `out`, evaluated in double-double and rounded once.
@@ -86,23 +166,26 @@ const cache = new Map<string, Evaluator | null>();
  */
 export function extendedResiduals(expression: string, parameters: string[], covariates: string[], p: ArrayLike<number>, x: ArrayLike<number>, cov: ArrayLike<number>[], y: ArrayLike<number>, out: Float64Array): boolean {
   const key = `${expression}\u0000${parameters.join(',')}\u0000${covariates.join(',')}`;
-  let ev = cache.get(key);
-  if (ev === undefined) {
+  const tape = cache.get(key, () => {
     try {
-      ev = build(parse(expression), parameters, covariates);
+      return compileTape(parse(expression), parameters, covariates);
     } catch {
-      ev = null;
+      return null;
     }
-    if (cache.size > 200) cache.clear();
-    cache.set(key, ev);
+  });
+  if (!tape) return false;
+  const r = new Float64Array(2 * tape.registers);
+  for (let q = 0; q < tape.params.length; q += 2) r[2 * tape.params[q]] = p[tape.params[q + 1]];
+  for (let q = 0; q < tape.constants.length; q += 3) {
+    r[2 * tape.constants[q]] = tape.constants[q + 1];
+    r[2 * tape.constants[q] + 1] = tape.constants[q + 2];
   }
-  if (!ev) return false;
-  const ci = new Array<number>(covariates.length);
+  const f = 2 * tape.result;
+  const e = RESIDUAL;
   for (let i = 0; i < x.length; i++) {
-    for (let c = 0; c < covariates.length; c++) ci[c] = cov[c][i];
-    const f = ev(p, x[i], ci);
-    const r = add([y[i], 0], neg(f));
-    out[i] = r[0] + r[1];
+    runTape(tape, r, x[i], cov, i);
+    ddAddTo(y[i], 0, -r[f], -r[f + 1], e, 0);
+    out[i] = e[0] + e[1];
     if (!Number.isFinite(out[i])) return false;
   }
   return true;

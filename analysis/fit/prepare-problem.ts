@@ -1,4 +1,5 @@
 import { BUILTIN_MODELS, type BuiltinModel } from './builtin-models';
+import { LruCache, MODEL_CACHE_CAPACITY } from './lru-cache';
 import { compileModel, type CompileResult, type CompiledModel } from './model-expression';
 import type { FitFailure, FitInput, FitWarning } from './types';
 
@@ -25,22 +26,17 @@ export interface Problem {
   warnings: FitWarning[];
 }
 
-const cache = new Map<string, CompileResult>();
+const cache = new LruCache<CompileResult>(MODEL_CACHE_CAPACITY);
 
 /**
- * {@link compileModel} memoised per (expression, parameters, covariates): symbolic differentiation
- * is the slow part, and predictions and bootstraps recompile the same model.
+ * {@link compileModel} memoised per (expression, parameters, covariates) in a bounded LRU cache:
+ * symbolic differentiation is the slow part, and every fit, prediction and bootstrap of the same
+ * model reuses it.
  * @example compileCached('a*exp(-k*x)', ['a', 'k'], [])
  */
 export function compileCached(expression: string, parameters: string[] | undefined, covariates: string[]): CompileResult {
   const key = `${expression}\u0000${parameters?.join(',') ?? '*'}\u0000${covariates.join(',')}`;
-  let hit = cache.get(key);
-  if (!hit) {
-    hit = compileModel(expression, { parameters, covariates });
-    if (cache.size > 200) cache.clear();
-    cache.set(key, hit);
-  }
-  return hit;
+  return cache.get(key, () => compileModel(expression, { parameters, covariates }));
 }
 
 const fail = (code: FitFailure['code'], reason: string): FitFailure => ({ ok: false, code, reason });
