@@ -77,7 +77,12 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
   let sol = solved;
   const m = x.length;
   const n = names.length;
-  if (sol.method === 'levenberg-marquardt') sol = { ...sol, p: polishSolution(problem, sol.p) };
+  let polishedResiduals: Float64Array | null = null;
+  if (sol.method === 'levenberg-marquardt') {
+    const polished = polishSolution(problem, sol.p);
+    sol = { ...sol, p: polished.p };
+    polishedResiduals = polished.residuals;
+  }
   const f = new Float64Array(m);
   const jac = new Float64Array(m * n);
   compiled.values(sol.p, x, problem.cov, f);
@@ -89,8 +94,9 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
   const ja = analyseJacobian(jac, m, n, names);
   if (!ja.ok) return { ok: false, code: 'singular', reason: ja.reason };
   const { inverse, leverage, conditionNumber } = ja.analysis;
-  const precise = new Float64Array(m);
-  const extended = extendedResiduals(problem.expression, names, compiled.covariates, sol.p, x, problem.cov, y, precise);
+  // the polish ends with the extended residuals at its result: the same evaluation, not repeated
+  const precise = polishedResiduals ?? new Float64Array(m);
+  const extended = polishedResiduals !== null || extendedResiduals(problem.expression, names, compiled.covariates, sol.p, x, problem.cov, y, precise);
   const residuals = Array.from(y, (v, i) => (extended ? precise[i] : v - f[i]));
   const wres = residuals.map((e, i) => sw[i] * e);
   const rss = compensatedSumOfSquares(wres);

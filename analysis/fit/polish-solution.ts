@@ -2,6 +2,14 @@ import { extendedResiduals } from './extended-residuals';
 import { linearLeastSquares } from './linear-least-squares';
 import type { Problem } from './prepare-problem';
 
+/** Polished parameters with the extended-precision residuals there. */
+export interface PolishedSolution {
+  /** the polished parameters (the converged ones when no extended evaluation is possible or no step helps) */
+  p: Float64Array;
+  /** y − f(x; p) at the returned p, evaluated in double-double; null when that evaluation is not possible */
+  residuals: Float64Array | null;
+}
+
 /**
  * Final Gauss–Newton corrections with residuals evaluated in double-double arithmetic: once LM has
  * converged in double precision, p ← p + δ with δ = argmin ‖J δ − √w·(y − f(p))‖ while the
@@ -13,10 +21,10 @@ import type { Problem } from './prepare-problem';
  *
  * @param problem - the prepared problem
  * @param p - converged parameters (not modified)
- * @returns the polished parameters (p itself when no extended evaluation is possible or no step helps)
- * @example sol.p = polishSolution(problem, sol.p)
+ * @returns the polished parameters and the extended residuals there (the statistics reuse them)
+ * @example const { p, residuals } = polishSolution(problem, sol.p)
  */
-export function polishSolution(problem: Problem, p: Float64Array): Float64Array {
+export function polishSolution(problem: Problem, p: Float64Array): PolishedSolution {
   const { x, y, sw, cov, compiled, parameters, expression } = problem;
   const m = x.length;
   const n = parameters.length;
@@ -29,14 +37,19 @@ export function polishSolution(problem: Problem, p: Float64Array): Float64Array 
   };
   let best = p;
   let bestRss = rss(p);
-  if (!Number.isFinite(bestRss)) return p;
+  if (!Number.isFinite(bestRss)) return { p, residuals: null };
   const jac = new Float64Array(m * n);
-  let bestR = Float64Array.from(r);
+  const bestR = Float64Array.from(r);
+  const target = new Float64Array(m);
+  const columns = Array.from({ length: n }, () => new Float64Array(m));
   let previousShift = Infinity;
   for (let it = 0; it < 10 && bestRss > 0; it++) {
-    const target = Float64Array.from(bestR, (v, i) => sw[i] * v);
+    for (let i = 0; i < m; i++) target[i] = sw[i] * bestR[i];
     compiled.gradient(best, x, cov, jac);
-    const columns = Array.from({ length: n }, (_, j) => Float64Array.from({ length: m }, (_, i) => sw[i] * jac[i + j * m]));
+    for (let j = 0; j < n; j++) {
+      const c = columns[j];
+      for (let i = 0; i < m; i++) c[i] = sw[i] * jac[i + j * m];
+    }
     const step = linearLeastSquares(columns, target, { maxSteps: 2 });
     if (!step.ok) break;
     // ‖J δ‖: how far the step moves the fitted values; a polish step must be tiny next to ‖r‖ and
@@ -49,16 +62,22 @@ export function polishSolution(problem: Problem, p: Float64Array): Float64Array 
     }
     shift = Math.sqrt(shift);
     if (!(shift <= 0.1 * Math.sqrt(bestRss)) || !(shift < previousShift)) break;
-    const next = Float64Array.from(best, (v, j) => v + step.coefficients[j]);
-    if (next.some((v, j) => !Number.isFinite(v) || v < problem.bounds[j][0] || v > problem.bounds[j][1])) break;
+    const next = new Float64Array(n);
+    let inside = true;
+    for (let j = 0; j < n; j++) {
+      const v = best[j] + step.coefficients[j];
+      next[j] = v;
+      if (!Number.isFinite(v) || v < problem.bounds[j][0] || v > problem.bounds[j][1]) inside = false;
+    }
+    if (!inside) break;
     // the sum of squares cannot resolve changes below ~1e-15 of itself: only refuse clear increases
     const nextRss = rss(next);
     if (!(nextRss <= bestRss * (1 + 1e-13))) break;
     best = next;
     bestRss = Math.min(bestRss, nextRss);
-    bestR = Float64Array.from(r);
+    bestR.set(r);
     previousShift = shift;
     if (shift === 0) break;
   }
-  return best;
+  return { p: best, residuals: bestR };
 }
