@@ -114,8 +114,11 @@ export function symbolPosition(text: string, name: string): number {
 
 class ModelError extends Error {}
 
-/** Emits JavaScript source for a mathjs node; symbols map through `sym`. */
-function toJs(node: MathNode, sym: (name: string) => string, text: string): string {
+/**
+ * Emits JavaScript source for a mathjs node; symbols map through `sym`. With `bind`, every compound
+ * subexpression is handed to it and replaced by what it returns (a variable: see {@link SharedCode}).
+ */
+function toJs(node: MathNode, sym: (name: string) => string, text: string, bind: (js: string) => string = (js) => js): string {
   const n = node as MathNode & { fn?: unknown; args?: MathNode[]; name?: string; value?: unknown; content?: MathNode; op?: string };
   switch (node.type) {
     case 'ConstantNode': {
@@ -126,27 +129,52 @@ function toJs(node: MathNode, sym: (name: string) => string, text: string): stri
     case 'SymbolNode':
       return sym(n.name as string);
     case 'ParenthesisNode':
-      return `(${toJs(n.content as MathNode, sym, text)})`;
+      return `(${toJs(n.content as MathNode, sym, text, bind)})`;
     case 'OperatorNode': {
       const fn = n.fn as string;
-      const args = (n.args as MathNode[]).map((a) => toJs(a, sym, text));
-      if (fn === 'unaryMinus') return `(-${args[0]})`;
-      if (fn === 'unaryPlus') return `(+${args[0]})`;
-      if (fn === 'pow') return `Math.pow(${args[0]},${args[1]})`;
-      if (BINARY[fn] && args.length === 2) return `(${args[0]}${BINARY[fn]}${args[1]})`;
+      const args = (n.args as MathNode[]).map((a) => toJs(a, sym, text, bind));
+      if (fn === 'unaryMinus') return bind(`(-${args[0]})`);
+      if (fn === 'unaryPlus') return bind(`(+${args[0]})`);
+      if (fn === 'pow') return bind(`Math.pow(${args[0]},${args[1]})`);
+      if (BINARY[fn] && args.length === 2) return bind(`(${args[0]}${BINARY[fn]}${args[1]})`);
       throw new ModelError(`operator "${n.op}" is not supported in a model expression`);
     }
     case 'FunctionNode': {
       const name = (n.fn as { name?: string }).name ?? '';
-      const args = (n.args as MathNode[]).map((a) => toJs(a, sym, text));
-      if (name === 'log') return args.length === 2 ? `(Math.log(${args[0]})/Math.log(${args[1]}))` : `Math.log(${args[0]})`;
+      const args = (n.args as MathNode[]).map((a) => toJs(a, sym, text, bind));
+      if (name === 'log') return bind(args.length === 2 ? `(Math.log(${args[0]})/Math.log(${args[1]}))` : `Math.log(${args[0]})`);
       const js = FUNCTIONS[name];
       if (!js) throw new ModelError(`unknown function "${name}" at position ${symbolPosition(text, name)} of the model expression`);
-      return `${js}(${args.join(',')})`;
+      return bind(`${js}(${args.join(',')})`);
     }
     default:
       throw new ModelError(`a ${node.type.replace('Node', '').toLowerCase()} is not allowed in a model expression`);
   }
+}
+
+/**
+ * Common subexpressions of generated code, each computed once: a subexpression that does not
+ * involve the point (x[i], c…[i]) becomes a constant before the loop over points (`u…`), any other
+ * one a constant inside it (`v…`), and a repeat of the same source reuses the first variable. The
+ * values are those of the expression written out in full: the same operations on the same operands
+ * (JavaScript evaluates every double operation exactly as written, with no reassociation or fused
+ * operations), only not repeated.
+ */
+class SharedCode {
+  readonly before: string[] = [];
+  readonly inside: string[] = [];
+  private readonly names = new Map<string, string>();
+
+  readonly bind = (js: string): string => {
+    let name = this.names.get(js);
+    if (name === undefined) {
+      const perPoint = /\[i\]|\bv\d+\b/.test(js);
+      name = `${perPoint ? 'v' : 'u'}${this.names.size}`;
+      (perPoint ? this.inside : this.before).push(`const ${name}=${js};`);
+      this.names.set(js, name);
+    }
+    return name;
+  };
 }
 
 /** Free symbols of a node (function names excluded), in order of first appearance. */
@@ -212,29 +240,31 @@ export function compileModel(expression: string, options: { parameters?: string[
   };
   try {
     const head = parameters.map((_, k) => `const p${k}=p[${k}];`).join('') + covariates.map((_, c) => `const c${c}=cov[${c}];`).join('');
-    const body = toJs(root, sym, expression);
+    toJs(root, sym, expression); // throws for what cannot be compiled
     const analytic: boolean[] = [];
-    const columns: string[] = [];
     const derivatives: (MathNode | null)[] = [];
-    parameters.forEach((name, k) => {
-      let js: string | null = null;
+    parameters.forEach((name) => {
       let d: MathNode | null = null;
       try {
         d = derivative(root, name);
-        js = toJs(d, sym, expression);
+        toJs(d, sym, expression);
       } catch {
-        js = null;
         d = null;
       }
-      analytic.push(js !== null);
-      derivatives.push(js !== null ? d : null);
-      if (js !== null) columns.push(`o=${k}*m;for(let i=0;i<m;i++)out[o+i]=${js};`);
+      analytic.push(d !== null);
+      derivatives.push(d);
     });
     let valuesFn: CompiledModel['values'];
     let analyticFn: CompiledModel['gradient'];
     if ((options.generatedCode ?? true) && canGenerateCode()) {
-      valuesFn = new Function('p', 'x', 'cov', 'out', `${head}const m=x.length;for(let i=0;i<m;i++)out[i]=${body};`) as CompiledModel['values'];
-      analyticFn = new Function('p', 'x', 'cov', 'out', `${head}const m=x.length;let o=0;${columns.join('')}`) as CompiledModel['gradient'];
+      // one loop over the points for the value and one for all analytic columns (which share most of
+      // their subexpressions), each subexpression computed once
+      const value = new SharedCode();
+      const body = toJs(root, sym, expression, value.bind);
+      valuesFn = new Function('p', 'x', 'cov', 'out', `${head}${value.before.join('')}const m=x.length;for(let i=0;i<m;i++){${value.inside.join('')}out[i]=${body};}`) as CompiledModel['values'];
+      const gradient = new SharedCode();
+      const columns = derivatives.map((d, k) => (d ? `out[i+${k}*m]=${toJs(d, sym, expression, gradient.bind)};` : ''));
+      analyticFn = new Function('p', 'x', 'cov', 'out', `${head}${gradient.before.join('')}const m=x.length;for(let i=0;i<m;i++){${gradient.inside.join('')}${columns.join('')}}`) as CompiledModel['gradient'];
     } else {
       const value = toClosure(root, parameters, covariates);
       const partials = derivatives.map((d) => (d ? toClosure(d, parameters, covariates) : null));
@@ -248,9 +278,10 @@ export function compileModel(expression: string, options: { parameters?: string[
         });
       };
     }
+    const allAnalytic = analytic.every(Boolean);
     const gradient: CompiledModel['gradient'] = (p, x, cov, out) => {
       analyticFn(p, x, cov, out);
-      if (analytic.every(Boolean)) return;
+      if (allAnalytic) return;
       numericColumns(valuesFn, analytic, p, x, cov, out);
     };
     return { ok: true, model: { expression, parameters, covariates, analytic, values: valuesFn, gradient } };
