@@ -97,8 +97,8 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
   // the polish ends with the extended residuals at its result: the same evaluation, not repeated
   const precise = polishedResiduals ?? new Float64Array(m);
   const extended = polishedResiduals !== null || extendedResiduals(problem.expression, names, compiled.covariates, sol.p, x, problem.cov, y, precise);
-  const residuals = Array.from(y, (v, i) => (extended ? precise[i] : v - f[i]));
-  const wres = residuals.map((e, i) => sw[i] * e);
+  const residuals = filled(m, (i) => (extended ? precise[i] : y[i] - f[i]));
+  const wres = filled(m, (i) => sw[i] * residuals[i]);
   const rss = compensatedSumOfSquares(wres);
   const df = m - n;
   const s2 = rss / df;
@@ -106,9 +106,9 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
   const t = studentTQuantile((1 + level) / 2, df);
   const warnings: FitWarning[] = [...problem.warnings];
 
-  const covariance = names.map((_, i) => names.map((__, j) => (s2 === 0 ? 0 : s2 * inverse[i * n + j])));
-  const se = names.map((_, j) => Math.sqrt(Math.max(0, covariance[j][j])));
-  const correlation = names.map((_, i) => names.map((__, j) => (i === j ? 1 : se[i] > 0 && se[j] > 0 ? covariance[i][j] / (se[i] * se[j]) : 0)));
+  const covariance = filled(n, (i) => filled(n, (j) => (s2 === 0 ? 0 : s2 * inverse[i * n + j])));
+  const se = filled(n, (j) => Math.sqrt(Math.max(0, covariance[j][j])));
+  const correlation = filled(n, (i) => filled(n, (j) => (i === j ? 1 : se[i] > 0 && se[j] > 0 ? covariance[i][j] / (se[i] * se[j]) : 0)));
   const params: Record<string, ParameterEstimate> = {};
   names.forEach((k, j) => {
     const v = sol.p[j];
@@ -187,7 +187,7 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
     y: Array.from(y),
     weights: weights ? Array.from(weights) : null,
     covariates: Object.fromEntries(Object.entries(problem.covariates).map(([k, v]) => [k, Array.from(v)])),
-    bounds: Object.fromEntries(names.map((k, j) => [k, problem.bounds[j].map((b) => (Number.isFinite(b) ? b : null)) as [number | null, number | null]])),
+    bounds: Object.fromEntries(names.map((k, j) => [k, finiteOrNull(problem.bounds[j])])),
     covariateMeans,
     predictionVarianceFactor: weights ? compensatedSum(Array.from(weights, (w) => 1 / w)) / m : 1,
   };
@@ -251,6 +251,22 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
     return { ok: false, code: 'out-of-range', reason: `the statistics overflow or underflow double precision (${bad}); rescale x or y (for example to other units) and fit again` };
   }
   return result;
+}
+
+/**
+ * [value(0), …, value(k − 1)] built by appending, so that every such array has the same packed
+ * layout (`Array.from` and `map` sometimes give holey ones, and code reading both kinds is
+ * repeatedly deoptimised by V8).
+ */
+function filled<T>(k: number, value: (i: number) => T): T[] {
+  const out: T[] = [];
+  for (let i = 0; i < k; i++) out.push(value(i));
+  return out;
+}
+
+/** A [low, high] bound pair with null for an infinite end (written out: a `map` here kept deoptimising summarise). */
+function finiteOrNull([lo, hi]: [number, number]): [number | null, number | null] {
+  return [Number.isFinite(lo) ? lo : null, Number.isFinite(hi) ? hi : null];
 }
 
 /** Physical sanity of the heater built-ins (DOMAIN.md §7 item 6). */

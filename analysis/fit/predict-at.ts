@@ -39,7 +39,7 @@ export function predictAt(fit: FitSuccess, x: number[], covariates: Record<strin
   const g = new Float64Array(m * n);
   model.values(p, x, cov, f);
   model.gradient(p, x, cov, g);
-  const t = studentTQuantile((1 + level) / 2, fit.df);
+  const t = level === fit.level ? fit.tQuantile : studentTQuantile((1 + level) / 2, fit.df); // the fit's own t at its own level
   const s2 = fit.residualSD ** 2;
   const [lo, hi] = fit.xRange;
   const slack = 1e-12 * Math.max(Math.abs(lo), Math.abs(hi));

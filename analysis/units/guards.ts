@@ -83,18 +83,37 @@ export function requireFiniteArray(value: unknown, field: string): number[] {
  * @example firstNonFinitePath({ a: [1, Infinity] }, 'result') // 'result.a[1]'
  */
 export function firstNonFinitePath(value: unknown, path: string): string | null {
+  // the common answer (all finite) without building a path string for every number of the value
+  return allFinite(value) ? null : pathOfNonFinite(value, path);
+}
+
+/** Whether every number in a plain-data value is finite (the same walk as {@link pathOfNonFinite}). */
+function allFinite(value: unknown): boolean {
+  if (typeof value === 'number') return Number.isFinite(value);
+  if (Array.isArray(value) || ArrayBuffer.isView(value)) {
+    const a = value as ArrayLike<unknown>;
+    for (let i = 0; i < a.length; i++) if (!allFinite(a[i])) return false;
+    return true;
+  }
+  if (value && typeof value === 'object') {
+    for (const k in value) if (Object.prototype.hasOwnProperty.call(value, k) && !allFinite((value as Record<string, unknown>)[k])) return false;
+  }
+  return true;
+}
+
+function pathOfNonFinite(value: unknown, path: string): string | null {
   if (typeof value === 'number') return Number.isFinite(value) ? null : path;
   if (Array.isArray(value) || ArrayBuffer.isView(value)) {
     const a = value as ArrayLike<unknown>;
     for (let i = 0; i < a.length; i++) {
-      const r = firstNonFinitePath(a[i], `${path}[${i}]`);
+      const r = pathOfNonFinite(a[i], `${path}[${i}]`);
       if (r) return r;
     }
     return null;
   }
   if (value && typeof value === 'object') {
     for (const [k, w] of Object.entries(value)) {
-      const r = firstNonFinitePath(w, `${path}.${k}`);
+      const r = pathOfNonFinite(w, `${path}.${k}`);
       if (r) return r;
     }
   }
