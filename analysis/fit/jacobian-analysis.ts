@@ -1,3 +1,4 @@
+import { powerOfTwoScale } from './euclidean-norm';
 import { applyQ, householderQr } from './householder-qr';
 import { singularValues } from './singular-values';
 
@@ -30,12 +31,10 @@ export function analyseJacobian(jac: ArrayLike<number>, m: number, n: number, na
   const a = new Float64Array(m * n);
   const d = new Float64Array(n);
   for (let j = 0; j < n; j++) {
-    let norm = 0;
-    for (let i = 0; i < m; i++) norm = Math.hypot(norm, jac[i + j * m]);
-    if (!(norm > 0) || !Number.isFinite(norm)) {
+    d[j] = powerOfTwoScale(jac, j * m, m);
+    if (!(d[j] > 0)) {
       return { ok: false, reason: `the model does not depend on parameter ${names[j] ?? j + 1} at the solution (zero or non-finite Jacobian column)` };
     }
-    d[j] = 2 ** -Math.round(Math.log2(norm));
     for (let i = 0; i < m; i++) a[i + j * m] = jac[i + j * m] * d[j];
   }
   const qr = householderQr(a, m, n, true);

@@ -7,9 +7,23 @@
  * (Å. Björck, "Iterative refinement of linear least squares solutions I", BIT 7 (1967) 257–278).
  */
 import { DotAccumulator, twoProduct } from './double-double';
+import { powerOfTwoScale } from './euclidean-norm';
 import { applyQ, applyQt, householderQr } from './householder-qr';
 
 const EPS = 2.220446049250313e-16;
+
+/** Work arrays reused from call to call up to this many entries each (bounded memory; a fresh
+ * typed array costs more than the solve of a small problem). The solver runs to its end without
+ * yielding and never calls itself, so one set serves every call. */
+const KEPT_ENTRIES = 1 << 16;
+const pool: Float64Array[] = [];
+/** A work array of exactly `length` entries (contents undefined). */
+function buffer(slot: number, length: number): Float64Array {
+  if (length > KEPT_ENTRIES) return new Float64Array(length);
+  let b = pool[slot];
+  if (b === undefined || b.length < length) pool[slot] = b = new Float64Array(Math.max(length, 64));
+  return b.length === length ? b : b.subarray(0, length);
+}
 
 /** Result of {@link linearLeastSquares}. */
 export type LinearLeastSquaresResult =
@@ -37,19 +51,19 @@ export function linearLeastSquares(columns: ArrayLike<number>[], y: ArrayLike<nu
   if (m < p) return { ok: false, reason: `${m} points cannot determine ${p} coefficients` };
   const lo = options.columnsLo;
   const scale = new Float64Array(p);
-  const aHi = new Float64Array(m * p);
-  const aLo = new Float64Array(m * p);
+  const aHi = buffer(0, m * p);
+  const aLo = buffer(1, m * p);
   for (let j = 0; j < p; j++) {
-    let norm = 0;
-    for (let i = 0; i < m; i++) norm = Math.hypot(norm, columns[j][i]);
-    if (norm === 0 || !Number.isFinite(norm)) return { ok: false, reason: `column ${j + 1} of the design is ${norm === 0 ? 'all zero' : 'not finite'}` };
-    scale[j] = 2 ** -Math.round(Math.log2(norm)); // exact: a power of two
+    scale[j] = powerOfTwoScale(columns[j], 0, m); // exact: a power of two
+    if (!(scale[j] > 0)) return { ok: false, reason: `column ${j + 1} of the design is ${scale[j] === 0 ? 'all zero' : 'not finite'}` };
     for (let i = 0; i < m; i++) {
       aHi[i + j * m] = columns[j][i] * scale[j];
       aLo[i + j * m] = lo ? lo[j][i] * scale[j] : 0;
     }
   }
-  const qr = householderQr(Float64Array.from(aHi), m, p, true);
+  const factored = buffer(2, m * p);
+  factored.set(aHi);
+  const qr = householderQr(factored, m, p, true);
   const rAbs0 = Math.abs(qr.rdiag[0]);
   for (let k = 0; k < p; k++) {
     if (!(Math.abs(qr.rdiag[k]) > EPS * Math.max(m, p) * rAbs0)) {
@@ -58,10 +72,11 @@ export function linearLeastSquares(columns: ArrayLike<number>[], y: ArrayLike<nu
   }
   const x = new Float64Array(p);
   const r = new Float64Array(m);
-  const f = new Float64Array(m);
+  const f = buffer(3, m);
   const g = new Float64Array(p);
-  const u = new Float64Array(m);
+  const u = buffer(4, m);
   const z = new Float64Array(p);
+  const d = buffer(5, m);
   const acc = new DotAccumulator();
   let steps = 0;
   const maxSteps = options.maxSteps ?? 20;
@@ -85,7 +100,7 @@ export function linearLeastSquares(columns: ArrayLike<number>[], y: ArrayLike<nu
       for (let i = 0; i < k; i++) s -= qr.a[i + k * m] * u[i];
       u[k] = s / qr.rdiag[k];
     }
-    const d = Float64Array.from(f);
+    d.set(f);
     applyQt(qr, d);
     for (let k = p - 1; k >= 0; k--) {
       let s = d[k] - u[k];

@@ -1,7 +1,9 @@
 import { describe, expect, test } from 'vitest';
 import { compileModel, levenbergMarquardt, linearLeastSquares, polynomialDesign } from '../../../analysis/fit';
 import { ddExp, ddLog, ddPow, ddSqrt } from '../../../analysis/fit/double-double';
-import { householderQr } from '../../../analysis/fit/householder-qr';
+import { powerOfTwoScale } from '../../../analysis/fit/euclidean-norm';
+import { applyQ, householderQr } from '../../../analysis/fit/householder-qr';
+import { mulberry32 } from '../../../analysis/fit/random';
 import { singularValues } from '../../../analysis/fit/singular-values';
 import { compensatedSum } from '../../../analysis/stats/compensated-sum';
 
@@ -54,6 +56,21 @@ describe('building blocks', () => {
     expect(qr.ipvt[0]).toBe(1);
   });
 
+  test.each([[9, 7], [30, 6], [12, 3], [40, 8]])('Householder QR of a random %i×%i matrix reproduces it: A·P = Q·R (definition of the factorization)', (m, n) => {
+    const rand = mulberry32(m * 100 + n);
+    const a0 = Float64Array.from({ length: m * n }, () => rand() - 0.5);
+    const qr = householderQr(Float64Array.from(a0), m, n, true);
+    for (let j = 0; j < n; j++) {
+      const col = new Float64Array(m);
+      for (let i = 0; i < j; i++) col[i] = qr.a[i + j * m];
+      col[j] = qr.rdiag[j];
+      applyQ(qr, col);
+      const original = qr.ipvt[j];
+      for (let i = 0; i < m; i++) expect(Math.abs(col[i] - a0[i + original * m])).toBeLessThan(1e-14);
+    }
+    for (let j = 1; j < n; j++) expect(Math.abs(qr.rdiag[j])).toBeLessThanOrEqual(Math.abs(qr.rdiag[j - 1]));
+  });
+
   test('Jacobi singular values of a diagonal and a rank-one matrix', () => {
     expect(singularValues(Float64Array.of(3, 0, 0, 4), 2, 2)).toEqual([4, 3]);
     const sv = singularValues(Float64Array.of(1, 2, 2, 4), 2, 2);
@@ -90,6 +107,48 @@ describe('building blocks', () => {
     expect(compileModel('a = 3*x').ok).toBe(false);
     expect(compileModel('[a, x]').ok).toBe(false);
     expect(compileModel('').ok).toBe(false);
+  });
+});
+
+describe('power-of-two column scaling', () => {
+  // Definition (common practice in MINPACK-style codes): the scale is 2^−round(log2 ‖v‖₂) with ‖v‖₂ the
+  // running Math.hypot over the entries; the quick sum-of-squares path must give exactly that scale.
+  const byDefinition = (v: number[]): number => {
+    let norm = 0;
+    for (const e of v) norm = Math.hypot(norm, e);
+    if (norm === 0) return 0;
+    if (!Number.isFinite(norm)) return Number.NaN;
+    return 2 ** -Math.round(Math.log2(norm));
+  };
+
+  test('(3, 4) has norm 5, so the scale is 1/4 (closed form)', () => {
+    expect(powerOfTwoScale(Float64Array.of(3, 4), 0, 2)).toBe(0.25);
+    expect(powerOfTwoScale(Float64Array.of(9, 3, 4, 9), 1, 2)).toBe(0.25);
+  });
+
+  test('agrees with the running-hypot definition on random columns of every magnitude, near rounding ties too', () => {
+    const rand = mulberry32(99);
+    for (let t = 0; t < 3000; t++) {
+      const m = 1 + Math.floor(rand() * 300);
+      const magnitude = 10 ** (640 * rand() - 320);
+      let v = Array.from({ length: m }, () => (rand() - 0.5) * magnitude);
+      if (t % 3 === 0) {
+        // scale the column so that log2 of its norm sits within 1e-9..1e-5 of a tie (k + 1/2)
+        const k = Math.round(40 * rand() - 20);
+        let norm = 0;
+        for (const e of v) norm = Math.hypot(norm, e);
+        const target = 2 ** (k + 0.5 + (rand() < 0.5 ? -1 : 1) * 10 ** (-9 + 4 * rand()));
+        v = v.map((e) => (e / norm) * target);
+      }
+      expect(powerOfTwoScale(Float64Array.from(v), 0, m), `column ${t}`).toBe(byDefinition(v));
+    }
+  });
+
+  test('gives 0 for an all-zero column and NaN for a non-finite entry', () => {
+    expect(powerOfTwoScale(new Float64Array(5), 0, 5)).toBe(0);
+    expect(powerOfTwoScale(Float64Array.of(1, Number.NaN), 0, 2)).toBeNaN();
+    expect(powerOfTwoScale(Float64Array.of(1, Infinity), 0, 2)).toBeNaN();
+    expect(powerOfTwoScale(Float64Array.of(1e-320, 0), 0, 2)).toBe(byDefinition([1e-320, 0]));
   });
 });
 
