@@ -141,6 +141,11 @@ for (let n = 1; n <= 9; n++) {
   INVERSE[2 * n + 1] = e - (s - q);
 }
 
+/** 2^k for every k the argument reduction of ddExpTo can give (made by `2 ** k` itself, once) */
+const POW2_LOW = -1080;
+const POW2 = Float64Array.from({ length: 2161 }, (_, i) => 2 ** (i + POW2_LOW));
+const pow2 = (k: number): number => (k >= POW2_LOW && k <= -POW2_LOW ? POW2[k - POW2_LOW] : 2 ** k);
+
 const EXP = new Float64Array(2);
 /**
  * e^(ah + al) in double-double: argument reduction by ln 2 and 2^10, Taylor series, ten squarings.
@@ -185,7 +190,7 @@ export function ddExpTo(ah: number, al: number, out: Float64Array, o: number): v
     sl = w[1];
   }
   ddAddTo(sh, sl, 1, 0, w, 0);
-  const scale = 2 ** k;
+  const scale = pow2(k);
   if (Number.isFinite(scale)) {
     out[o] = w[0] * scale;
     out[o + 1] = w[1] * scale;

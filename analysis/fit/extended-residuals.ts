@@ -38,6 +38,8 @@ interface Tape {
   doubles: { fn: (...v: number[]) => number; args: number[] }[];
   /** register of the result */
   result: number;
+  /** the registers, hi at 2r and lo at 2r + 1 (kept with the tape: a fresh typed array per call costs more than a small fit) */
+  r: Float64Array;
 }
 
 function compileTape(root: MathNode, parameters: string[], covariates: string[]): Tape {
@@ -115,7 +117,7 @@ function compileTape(root: MathNode, parameters: string[], covariates: string[])
     }
   };
   const result = visit(root);
-  return { code: Int32Array.from(code), registers, params, constants, doubles, result };
+  return { code: Int32Array.from(code), registers, params, constants, doubles, result, r: new Float64Array(2 * registers) };
 }
 
 /** Runs the point-dependent instructions of a tape for point i (registers already hold parameters and constants). */
@@ -174,7 +176,7 @@ export function extendedResiduals(expression: string, parameters: string[], cova
     }
   });
   if (!tape) return false;
-  const r = new Float64Array(2 * tape.registers);
+  const r = tape.r;
   for (let q = 0; q < tape.params.length; q += 2) r[2 * tape.params[q]] = p[tape.params[q + 1]];
   for (let q = 0; q < tape.constants.length; q += 3) {
     r[2 * tape.constants[q]] = tape.constants[q + 1];

@@ -7,7 +7,7 @@
  * Jacobian column norms, the exact LM parameter from `lmpar`, and QR with column pivoting.
  */
 import { euclideanNorm } from './euclidean-norm';
-import { householderQr } from './householder-qr';
+import { householderQr, type HouseholderQr } from './householder-qr';
 import { lmParameter } from './lm-parameter';
 
 const EPS = 2.220446049250313e-16;
@@ -109,6 +109,7 @@ export function levenbergMarquardt(problem: LeastSquaresProblem, start: ArrayLik
   });
   if (!Number.isFinite(fnorm)) return done(0, 0);
 
+  let qr: HouseholderQr | undefined;
   let par = 0;
   let iter = 1;
   let delta = 0;
@@ -116,7 +117,7 @@ export function levenbergMarquardt(problem: LeastSquaresProblem, start: ArrayLik
   for (;;) {
     problem.jacobian(x, fvec, fjac);
     for (let k = 0; k < m * n; k++) if (!Number.isFinite(fjac[k])) return done(0, iter);
-    const qr = householderQr(fjac, m, n, true);
+    qr = householderQr(fjac, m, n, true, qr);
     const { rdiag, acnorm, ipvt } = qr;
     if (iter === 1) {
       for (let j = 0; j < n; j++) diag[j] = acnorm[j] === 0 ? 1 : acnorm[j];

@@ -9,6 +9,8 @@ export const MODEL_CACHE_CAPACITY = 200;
  */
 export class LruCache<V> {
   private readonly entries = new Map<string, V>();
+  /** the key used last (already at the end of the order) */
+  private newest: string | null = null;
 
   /**
    * @param capacity - most entries kept, integer ≥ 1
@@ -32,14 +34,16 @@ export class LruCache<V> {
   get(key: string, make: () => V): V {
     if (this.entries.has(key)) {
       const hit = this.entries.get(key) as V;
-      if (this.entries.size > 1) {
+      if (key !== this.newest) {
         this.entries.delete(key);
         this.entries.set(key, hit);
+        this.newest = key;
       }
       return hit;
     }
     const value = make();
     this.entries.set(key, value);
+    this.newest = key;
     if (this.entries.size > this.capacity) this.entries.delete(this.entries.keys().next().value as string);
     return value;
   }
