@@ -176,8 +176,7 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
   }
 
   const [xMin, xMax] = extent(x);
-  const covariateMeans: Record<string, number> = {};
-  for (const [k, v] of Object.entries(problem.covariates)) covariateMeans[k] = compensatedSum(v) / m;
+  const covariateMeans: Record<string, number> = Object.fromEntries(Object.entries(problem.covariates).map(([k, v]) => [k, compensatedSum(v) / m]));
   const spec: FitSpec = {
     model: problem.modelName,
     expression: problem.expression,

@@ -137,7 +137,8 @@ export function prepareProblem(input: FitInput): { ok: true; problem: Problem } 
     if (missing.length === 0) userStart = model.parameters.map((k) => (input.start as Record<string, number>)[k]);
     else startOverrides = model.parameters.map((k) => (startNames!.includes(k) ? (input.start as Record<string, number>)[k] : null));
   }
-  const bounds: [number, number][] = model.parameters.map(() => [-Infinity, Infinity]);
+  const bounds: [number, number][] = []; // appended, not mapped: one array layout for the code that reads it
+  for (let j = 0; j < model.parameters.length; j++) bounds.push([-Infinity, Infinity]);
   if (input.bounds !== undefined && input.bounds !== null) {
     if (typeof input.bounds !== 'object') return fail('invalid-input', 'bounds must be an object of [low, high] pairs');
     for (const [k, b] of Object.entries(input.bounds)) {

@@ -25,7 +25,10 @@ export function groupReplicates(x: ArrayLike<number>, y: ArrayLike<number>, tole
     if (g && Math.abs(x[i] - x0) <= Math.max(abs, rel * Math.max(Math.abs(x[i]), Math.abs(x0)))) g.push(i);
     else groups.push([i]);
   }
-  return groups.map((indices) => {
+  // built by appending, not by map: the statistics read this array in hot code, and map gives a
+  // packed or a holey array depending on how far V8 has optimised the caller (a deoptimisation each time)
+  const out: ReplicateGroup[] = [];
+  for (const indices of groups) {
     const n = indices.length;
     let xm = 0;
     let ym = 0;
@@ -35,6 +38,7 @@ export function groupReplicates(x: ArrayLike<number>, y: ArrayLike<number>, tole
     }
     let ss = 0;
     for (const i of indices) ss += (y[i] - ym) ** 2;
-    return { indices, n, xMean: xm, yMean: ym, ySD: n > 1 ? Math.sqrt(ss / (n - 1)) : null };
-  });
+    out.push({ indices, n, xMean: xm, yMean: ym, ySD: n > 1 ? Math.sqrt(ss / (n - 1)) : null });
+  }
+  return out;
 }
