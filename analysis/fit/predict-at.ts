@@ -33,28 +33,32 @@ export function predictAt(fit: FitSuccess, x: number[], covariates: Record<strin
     if (given.length !== m || given.some((v) => !Number.isFinite(v))) throw new RangeError(`predictAt: covariate ${name} must have ${m} finite values`);
     return Float64Array.from(given);
   });
-  const p = spec.parameterNames.map((k) => fit.params[k].value);
+  // typed arrays, as everywhere else the compiled model is called (one kind of argument keeps it optimised)
+  const p = new Float64Array(spec.parameterNames.map((k) => fit.params[k].value));
   const n = p.length;
+  const xs = new Float64Array(x);
   const f = new Float64Array(m);
   const g = new Float64Array(m * n);
-  model.values(p, x, cov, f);
-  model.gradient(p, x, cov, g);
+  model.values(p, xs, cov, f);
+  model.gradient(p, xs, cov, g);
   const t = level === fit.level ? fit.tQuantile : studentTQuantile((1 + level) / 2, fit.df); // the fit's own t at its own level
   const s2 = fit.residualSD ** 2;
   const [lo, hi] = fit.xRange;
   const slack = 1e-12 * Math.max(Math.abs(lo), Math.abs(hi));
-  return Array.from({ length: m }, (_, i) => {
+  const band: BandPoint[] = [];
+  for (let i = 0; i < m; i++) {
     let v = 0;
     for (let a = 0; a < n; a++) for (let b = 0; b < n; b++) v += g[i + a * m] * fit.covariance[a][b] * g[i + b * m];
     const seMean = Math.sqrt(Math.max(0, v));
     const sePred = Math.sqrt(seMean * seMean + s2 * spec.predictionVarianceFactor);
     const y = f[i];
     if (!Number.isFinite(y) || !Number.isFinite(seMean)) throw new RangeError(`predictAt: the model cannot be evaluated at x = ${x[i]}`);
-    return {
+    band.push({
       x: x[i], y, seMean,
       ciLow: y - t * seMean, ciHigh: y + t * seMean,
       piLow: y - t * sePred, piHigh: y + t * sePred,
       extrapolated: x[i] < lo - slack || x[i] > hi + slack,
-    };
-  });
+    });
+  }
+  return band;
 }
