@@ -115,6 +115,15 @@ export function symbolPosition(text: string, name: string): number {
 class ModelError extends Error {}
 
 /**
+ * a^b as JavaScript. A square is written as a product: Math.pow(a, 2) is a·a bit for bit (V8's
+ * Math.pow is fdlibm's, whose e_pow.c returns x*x for y = 2 before anything else), and the product
+ * costs a multiplication instead of a library call. Every other power stays Math.pow.
+ */
+function power(base: string, exponent: string): string {
+  return exponent === '2' ? `(${base}*${base})` : `Math.pow(${base},${exponent})`;
+}
+
+/**
  * Emits JavaScript source for a mathjs node; symbols map through `sym`. With `bind`, every compound
  * subexpression is handed to it and replaced by what it returns (a variable: see {@link SharedCode}).
  */
@@ -135,7 +144,7 @@ function toJs(node: MathNode, sym: (name: string) => string, text: string, bind:
       const args = (n.args as MathNode[]).map((a) => toJs(a, sym, text, bind));
       if (fn === 'unaryMinus') return bind(`(-${args[0]})`);
       if (fn === 'unaryPlus') return bind(`(+${args[0]})`);
-      if (fn === 'pow') return bind(`Math.pow(${args[0]},${args[1]})`);
+      if (fn === 'pow') return bind(power(args[0], args[1]));
       if (BINARY[fn] && args.length === 2) return bind(`(${args[0]}${BINARY[fn]}${args[1]})`);
       throw new ModelError(`operator "${n.op}" is not supported in a model expression`);
     }
@@ -145,6 +154,7 @@ function toJs(node: MathNode, sym: (name: string) => string, text: string, bind:
       if (name === 'log') return bind(args.length === 2 ? `(Math.log(${args[0]})/Math.log(${args[1]}))` : `Math.log(${args[0]})`);
       const js = FUNCTIONS[name];
       if (!js) throw new ModelError(`unknown function "${name}" at position ${symbolPosition(text, name)} of the model expression`);
+      if (name === 'pow' && args.length === 2) return bind(power(args[0], args[1]));
       return bind(`${js}(${args.join(',')})`);
     }
     default:
