@@ -108,24 +108,62 @@ export function ddMulTo(ah: number, al: number, bh: number, bl: number, out: Flo
   out[o + 1] = u - (h - p);
 }
 
-const DIV = new Float64Array(2);
 /**
- * (ah + al)/(bh + bl) in double-double (three quotient digits).
+ * (ah + al)/(bh + bl) in double-double (three quotient digits): q1 = a/b, then two corrections from
+ * the remainders a − q1·b and r − q2·b (ddMulTo and ddAddTo written out on local variables, the
+ * same operations in the same order).
  * @example ddDivTo(1, 0, 3, 0, out, 0) // out ≈ 1/3 to 32 digits
  */
 export function ddDivTo(ah: number, al: number, bh: number, bl: number, out: Float64Array, o: number): void {
-  const w = DIV;
+  let c = SPLIT * bh;
+  const yh = c - (c - bh);
+  const yl = bh - yh;
+  // r = a − q1·b
   const q1 = ah / bh;
-  ddMulTo(q1, 0, bh, bl, w, 0);
-  ddAddTo(ah, al, -w[0], -w[1], w, 0);
-  const rh = w[0];
-  const rl = w[1];
+  let p = q1 * bh;
+  c = SPLIT * q1;
+  let xh = c - (c - q1);
+  let xl = q1 - xh;
+  let e = xh * yh - p + xh * yl + xl * yh + xl * yl;
+  let u = e + (q1 * bl + 0 * bh);
+  let h = p + u;
+  let mh = -h;
+  let ml = -(u - (h - p));
+  let s = ah + mh;
+  let sb = s - ah;
+  let se = ah - (s - sb) + (mh - sb);
+  let t = al + ml;
+  let tb = t - al;
+  let te = al - (t - tb) + (ml - tb);
+  u = se + t;
+  let q = s + u;
+  let v = u - (q - s) + te;
+  h = q + v;
+  const rh = h;
+  const rl = v - (h - q);
+  // r − q2·b
   const q2 = rh / bh;
-  ddMulTo(q2, 0, bh, bl, w, 0);
-  ddAddTo(rh, rl, -w[0], -w[1], w, 0);
-  const q3 = w[0] / bh;
-  const s = q1 + q2;
-  ddAddTo(s, q2 - (s - q1), q3, 0, out, o);
+  p = q2 * bh;
+  c = SPLIT * q2;
+  xh = c - (c - q2);
+  xl = q2 - xh;
+  e = xh * yh - p + xh * yl + xl * yh + xl * yl;
+  u = e + (q2 * bl + 0 * bh);
+  h = p + u;
+  mh = -h;
+  ml = -(u - (h - p));
+  s = rh + mh;
+  sb = s - rh;
+  se = rh - (s - sb) + (mh - sb);
+  t = rl + ml;
+  tb = t - rl;
+  te = rl - (t - tb) + (ml - tb);
+  u = se + t;
+  q = s + u;
+  v = u - (q - s) + te;
+  const q3 = (q + v) / bh;
+  const qs = q1 + q2;
+  ddAddTo(qs, q2 - (qs - q1), q3, 0, out, o);
 }
 
 const LN2_HI = 0.6931471805599453;
@@ -146,7 +184,6 @@ const POW2_LOW = -1080;
 const POW2 = Float64Array.from({ length: 2161 }, (_, i) => 2 ** (i + POW2_LOW));
 const pow2 = (k: number): number => (k >= POW2_LOW && k <= -POW2_LOW ? POW2[k - POW2_LOW] : 2 ** k);
 
-const EXP = new Float64Array(2);
 /**
  * e^(ah + al) in double-double: argument reduction by ln 2 and 2^10, Taylor series, ten squarings.
  * @example ddExpTo(1, 0, out, 0) // out = e to about 32 digits
@@ -162,12 +199,22 @@ export function ddExpTo(ah: number, al: number, out: Float64Array, o: number): v
     out[o + 1] = 0;
     return;
   }
-  const w = EXP;
+  // ddMulTo and ddAddTo written out on local variables (the same operations in the same order:
+  // test/analysis/fit/solvers.test.ts compares this with their composition bit for bit), so the
+  // 46 double-double operations of an exponential stay in registers
   const k = Math.round(ah / LN2_HI);
-  ddMulTo(k, 0, LN2_HI, LN2_LO, w, 0);
-  ddAddTo(ah, al, -w[0], -w[1], w, 0);
-  const rh = w[0] / 1024;
-  const rl = w[1] / 1024;
+  let p: number, c: number, xh: number, xl: number, yh: number, yl: number, e: number, u: number, h: number;
+  let s: number, sb: number, se: number, t: number, tb: number, te: number, q: number, qe: number, v: number;
+  // (k, 0)·ln 2
+  p = k * LN2_HI; c = SPLIT * k; xh = c - (c - k); xl = k - xh; c = SPLIT * LN2_HI; yh = c - (c - LN2_HI); yl = LN2_HI - yh;
+  e = xh * yh - p + xh * yl + xl * yh + xl * yl; u = e + (k * LN2_LO + 0 * LN2_HI); h = p + u;
+  const mh = h;
+  const ml = u - (h - p);
+  // a − k·ln 2
+  s = ah + -mh; sb = s - ah; se = ah - (s - sb) + (-mh - sb); t = al + -ml; tb = t - al; te = al - (t - tb) + (-ml - tb);
+  u = se + t; q = s + u; qe = u - (q - s); v = qe + te; h = q + v;
+  const rh = h / 1024;
+  const rl = (v - (h - q)) / 1024;
   // s = e^r − 1 by Taylor series (|r| < 3.4e-4, so nine terms reach 1e-32), then
   // (e^r − 1) → (e^{2r} − 1) = s(s + 2), ten times
   let th = rh;
@@ -175,27 +222,47 @@ export function ddExpTo(ah: number, al: number, out: Float64Array, o: number): v
   let sh = rh;
   let sl = rl;
   for (let n = 2; n <= 9; n++) {
-    ddMulTo(rh, rl, INVERSE[2 * n], INVERSE[2 * n + 1], w, 0);
-    ddMulTo(th, tl, w[0], w[1], w, 0);
-    th = w[0];
-    tl = w[1];
-    ddAddTo(sh, sl, th, tl, w, 0);
-    sh = w[0];
-    sl = w[1];
+    const ih = INVERSE[2 * n];
+    const il = INVERSE[2 * n + 1];
+    // f = r·(1/n)
+    p = rh * ih; c = SPLIT * rh; xh = c - (c - rh); xl = rh - xh; c = SPLIT * ih; yh = c - (c - ih); yl = ih - yh;
+    e = xh * yh - p + xh * yl + xl * yh + xl * yl; u = e + (rh * il + rl * ih); h = p + u;
+    const fh = h;
+    const fl = u - (h - p);
+    // term = term·f
+    p = th * fh; c = SPLIT * th; xh = c - (c - th); xl = th - xh; c = SPLIT * fh; yh = c - (c - fh); yl = fh - yh;
+    e = xh * yh - p + xh * yl + xl * yh + xl * yl; u = e + (th * fl + tl * fh); h = p + u;
+    th = h;
+    tl = u - (h - p);
+    // s = s + term
+    s = sh + th; sb = s - sh; se = sh - (s - sb) + (th - sb); t = sl + tl; tb = t - sl; te = sl - (t - tb) + (tl - tb);
+    u = se + t; q = s + u; qe = u - (q - s); v = qe + te; h = q + v;
+    sh = h;
+    sl = v - (h - q);
   }
   for (let i = 0; i < 10; i++) {
-    ddAddTo(sh, sl, 2, 0, w, 0);
-    ddMulTo(sh, sl, w[0], w[1], w, 0);
-    sh = w[0];
-    sl = w[1];
+    // g = s + 2
+    s = sh + 2; sb = s - sh; se = sh - (s - sb) + (2 - sb); t = sl + 0; tb = t - sl; te = sl - (t - tb) + (0 - tb);
+    u = se + t; q = s + u; qe = u - (q - s); v = qe + te; h = q + v;
+    const gh = h;
+    const gl = v - (h - q);
+    // s = s·g
+    p = sh * gh; c = SPLIT * sh; xh = c - (c - sh); xl = sh - xh; c = SPLIT * gh; yh = c - (c - gh); yl = gh - yh;
+    e = xh * yh - p + xh * yl + xl * yh + xl * yl; u = e + (sh * gl + sl * gh); h = p + u;
+    sh = h;
+    sl = u - (h - p);
   }
-  ddAddTo(sh, sl, 1, 0, w, 0);
+  // e^a = (s + 1)·2^k
+  s = sh + 1; sb = s - sh; se = sh - (s - sb) + (1 - sb); t = sl + 0; tb = t - sl; te = sl - (t - tb) + (0 - tb);
+  u = se + t; q = s + u; qe = u - (q - s); v = qe + te; h = q + v;
+  const oh = h;
+  const ol = v - (h - q);
   const scale = pow2(k);
   if (Number.isFinite(scale)) {
-    out[o] = w[0] * scale;
-    out[o + 1] = w[1] * scale;
+    out[o] = oh * scale;
+    out[o + 1] = ol * scale;
   } else {
-    out[o] = w[0] * 2 ** (k - 60) * 2 ** 60;
+    out[o] = oh * 2 ** (k - 60) * 2 ** 60;
     out[o + 1] = 0;
   }
 }

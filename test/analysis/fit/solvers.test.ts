@@ -1,6 +1,6 @@
 import { describe, expect, test } from 'vitest';
 import { compileModel, levenbergMarquardt, linearLeastSquares, polynomialDesign } from '../../../analysis/fit';
-import { ddExp, ddLog, ddPow, ddSqrt } from '../../../analysis/fit/double-double';
+import { ddAddTo, ddDivTo, ddExp, ddExpTo, ddLog, ddMulTo, ddPow, ddSqrt, twoProduct } from '../../../analysis/fit/double-double';
 import { powerOfTwoScale } from '../../../analysis/fit/euclidean-norm';
 import { applyQ, householderQr } from '../../../analysis/fit/householder-qr';
 import { mulberry32 } from '../../../analysis/fit/random';
@@ -211,5 +211,70 @@ describe('double-double arithmetic', () => {
     const [h, l] = f();
     expect(h).toBe(hi);
     expect(Math.abs(l - lo)).toBeLessThan(1e-30 * Math.abs(hi));
+  });
+
+  // ddExpTo and ddDivTo write the products and sums out on local variables; they must be exactly the
+  // composition of ddMulTo and ddAddTo they stand for (the algorithms as stated in their TSDoc).
+  const w = new Float64Array(2);
+  const composedDiv = (ah: number, al: number, bh: number, bl: number): number[] => {
+    const q1 = ah / bh;
+    ddMulTo(q1, 0, bh, bl, w, 0);
+    ddAddTo(ah, al, -w[0], -w[1], w, 0);
+    const [rh, rl] = w;
+    const q2 = rh / bh;
+    ddMulTo(q2, 0, bh, bl, w, 0);
+    ddAddTo(rh, rl, -w[0], -w[1], w, 0);
+    const q3 = w[0] / bh;
+    const s = q1 + q2;
+    ddAddTo(s, q2 - (s - q1), q3, 0, w, 0);
+    return [w[0], w[1]];
+  };
+  const inverse = (n: number): number[] => {
+    const q = 1 / n;
+    twoProduct(q, n, w); // q·n = 1 − e exactly
+    const e = (1 - w[0] - w[1]) / n;
+    const s = q + e;
+    return [s, e - (s - q)];
+  };
+  const composedExp = (ah: number, al: number): number[] => {
+    if (ah > 709.78) return [Infinity, 0];
+    if (ah < -745.2) return [0, 0];
+    const k = Math.round(ah / 0.6931471805599453);
+    ddMulTo(k, 0, 0.6931471805599453, 2.3190468138462996e-17, w, 0);
+    ddAddTo(ah, al, -w[0], -w[1], w, 0);
+    const rh = w[0] / 1024;
+    const rl = w[1] / 1024;
+    let [th, tl, sh, sl] = [rh, rl, rh, rl];
+    for (let n = 2; n <= 9; n++) {
+      const [ih, il] = inverse(n);
+      ddMulTo(rh, rl, ih, il, w, 0);
+      ddMulTo(th, tl, w[0], w[1], w, 0);
+      [th, tl] = w;
+      ddAddTo(sh, sl, th, tl, w, 0);
+      [sh, sl] = w;
+    }
+    for (let i = 0; i < 10; i++) {
+      ddAddTo(sh, sl, 2, 0, w, 0);
+      ddMulTo(sh, sl, w[0], w[1], w, 0);
+      [sh, sl] = w;
+    }
+    ddAddTo(sh, sl, 1, 0, w, 0);
+    const scale = 2 ** k;
+    return Number.isFinite(scale) ? [w[0] * scale, w[1] * scale] : [w[0] * 2 ** (k - 60) * 2 ** 60, 0];
+  };
+
+  test('the written-out exponential and quotient are bit for bit the compositions of ddMulTo and ddAddTo', () => {
+    const rand = mulberry32(5);
+    const out = new Float64Array(2);
+    for (let t = 0; t < 20000; t++) {
+      const ah = t < 10000 ? (rand() - 0.5) * 1500 : (rand() - 0.5) * 40;
+      const al = (rand() - 0.5) * 2.2e-16 * Math.abs(ah);
+      ddExpTo(ah, al, out, 0);
+      expect([out[0], out[1]], `exp(${ah} + ${al})`).toEqual(composedExp(ah, al));
+      const bh = (rand() - 0.5) * 10 ** (20 * rand() - 10);
+      const bl = (rand() - 0.5) * 2.2e-16 * Math.abs(bh);
+      ddDivTo(ah, al, bh, bl, out, 0);
+      expect([out[0], out[1]], `(${ah} + ${al})/(${bh} + ${bl})`).toEqual(composedDiv(ah, al, bh, bl));
+    }
   });
 });
