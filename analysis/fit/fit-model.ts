@@ -10,6 +10,7 @@ import { polishSolution } from './polish-solution';
 import { predictAt } from './predict-at';
 import { prepareProblem, type Problem } from './prepare-problem';
 import { groupReplicates } from './replicates';
+import { residualDiagnostics } from './residual-diagnostics';
 import { unidentifiedParameters } from './identifiability';
 import { solveProblem, type Solution } from './solve-problem';
 import type { FitFailure, FitInput, FitResult, FitSpec, FitSuccess, FitWarning, ParameterEstimate } from './types';
@@ -87,7 +88,7 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
   const jac = new Float64Array(m * n);
   compiled.values(sol.p, x, problem.cov, f);
   compiled.gradient(sol.p, x, problem.cov, jac);
-  for (let j = 0; j < n; j++) for (let i = 0; i < m; i++) jac[i + j * m] *= sw[i];
+  weightRows(jac, sw, m, n);
   if (!f.every(Number.isFinite) || !sol.p.every(Number.isFinite)) {
     return { ok: false, code: 'no-convergence', reason: 'the fit ended where the model is not finite' };
   }
@@ -154,26 +155,7 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
   const ic = informationCriteria(rss, m, n, sumLogW);
   if (rss === 0) warnings.push({ code: 'exact-fit', message: 'the model passes exactly through every point: residual-based statistics are zero and information criteria undefined' });
 
-  const standardizedResiduals: (number | null)[] = [];
-  const studentizedResiduals: (number | null)[] = [];
-  const cooksDistance: (number | null)[] = [];
-  const dffits: (number | null)[] = [];
-  const flags = { highLeverage: [] as number[], influential: [] as number[], outliers: [] as number[] };
-  for (let i = 0; i < m; i++) {
-    const h = leverage[i];
-    const ok = s > 0 && h < 1 - 1e-10;
-    const r = ok ? wres[i] / (s * Math.sqrt(1 - h)) : null;
-    standardizedResiduals.push(r);
-    const denom = r === null ? 0 : df - 1 > 0 ? df - r * r : 0;
-    const ti = r !== null && denom > 0 ? r * Math.sqrt((df - 1) / denom) : null;
-    studentizedResiduals.push(ti);
-    const d = r === null ? null : (r * r * h) / (n * (1 - h));
-    cooksDistance.push(d);
-    dffits.push(ti === null ? null : ti * Math.sqrt(h / (1 - h)));
-    if (h > (2 * n) / m) flags.highLeverage.push(i);
-    if (d !== null && d > 4 / m) flags.influential.push(i);
-    if (ti !== null && Math.abs(ti) > 3) flags.outliers.push(i);
-  }
+  const { standardizedResiduals, studentizedResiduals, cooksDistance, dffits, flags } = residualDiagnostics(wres, leverage, s, df, n);
 
   const [xMin, xMax] = extent(x);
   const covariateMeans: Record<string, number> = Object.fromEntries(Object.entries(problem.covariates).map(([k, v]) => [k, compensatedSum(v) / m]));
@@ -250,6 +232,11 @@ export function summarise(problem: Problem, solved: Solution, input: FitInput, l
     return { ok: false, code: 'out-of-range', reason: `the statistics overflow or underflow double precision (${bad}); rescale x or y (for example to other units) and fit again` };
   }
   return result;
+}
+
+/** jac[i + j·m] ·= sw[i] for every column j (in a function of its own: optimised while summarise is not yet). */
+function weightRows(jac: Float64Array, sw: Float64Array, m: number, n: number): void {
+  for (let j = 0; j < n; j++) for (let i = 0; i < m; i++) jac[i + j * m] *= sw[i];
 }
 
 /**
