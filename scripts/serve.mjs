@@ -40,6 +40,10 @@ const server = createServer((req, res) => {
 if (dev) server.on('upgrade', (req, socket, head) => app.getUpgradeHandler()(req, socket, head));
 // Longer than a typical load balancer's idle timeout, as `next start` sets it.
 server.keepAliveTimeout = 65_000;
+server.on('error', (e) => {
+  console.error(`web server: cannot serve on ${hostname}:${port}: ${e.message}`);
+  process.exit(1);
+});
 server.listen(port, hostname, () => console.log(`web server on http://${hostname}:${port}`));
 
 let stopping = false;
