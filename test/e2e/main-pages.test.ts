@@ -99,8 +99,16 @@ describe('the main pages in Chromium', () => {
     const p = phone.page;
     await visit(p, page.path());
     await page.ready?.(p);
-    const { scrollWidth, innerWidth } = await p.evaluate(() => ({ scrollWidth: document.documentElement.scrollWidth, innerWidth: window.innerWidth }));
-    expect(scrollWidth, `${page.name}: the page lays out ${scrollWidth} px wide in a ${innerWidth} px viewport`).toBeLessThanOrEqual(innerWidth);
+    const { scrollWidth, innerWidth, widest } = await p.evaluate(() => ({
+      scrollWidth: document.documentElement.scrollWidth,
+      innerWidth: window.innerWidth,
+      // the innermost elements that reach past the right edge, to say what makes the page too wide
+      widest: [...document.querySelectorAll('body *')]
+        .filter((el) => el.getBoundingClientRect().right > window.innerWidth + 0.5 && ![...el.children].some((c) => c.getBoundingClientRect().right > window.innerWidth + 0.5))
+        .slice(0, 4)
+        .map((el) => `${el.tagName.toLowerCase()}${el.id ? `#${el.id}` : ''}.${[...el.classList].slice(0, 3).join('.')} (${Math.round(el.getBoundingClientRect().right)} px)`),
+    }));
+    expect(scrollWidth, `${page.name}: the page lays out ${scrollWidth} px wide in a ${innerWidth} px viewport; past the edge: ${widest.join(', ')}`).toBeLessThanOrEqual(innerWidth);
     await screenshot(p, `phone-${page.name.replace(/ /g, '-')}`);
     expect(await axeFindings(p)).toEqual([]);
   });
