@@ -11,6 +11,7 @@ import { plotToSvg } from '../../_lib/plots/plot-svg';
 import { fitCurveInputFromFits, fitCurvePlot, heatInputFromFit, heatPlot, residualInputFromFit, residualPlots, type PlotFigure as Figure } from '../../_lib/plots';
 import { loadInLab } from '../../_lib/labs/load-in-lab';
 import { requireLabAction } from '../../_lib/accounts/viewer';
+import { SavedCollectorFit } from './collector-fit';
 
 export const metadata = { title: 'Saved fit' };
 export const dynamic = 'force-dynamic';
@@ -21,6 +22,7 @@ export default async function SavedFitPage({ params }: { params: Promise<{ fitId
   const { fitId } = await params;
   const v = await requireLabAction(`/fits/${fitId}`, 'lab:read');
   const { row } = await loadInLab(v, 'fit', fitId, 'lab:read');
+  if (row.kind === 'collector') return <SavedCollectorFit viewer={v} row={row} />;
   const rig = row.rig;
   const r = parseStoredFit(row.result, row.id);
   const u = v.user.unitSystem;
