@@ -261,6 +261,14 @@ const MATRIX: Record<string, Case[]> = {
     // exploring a fit stores nothing: any member may
     { method: 'POST', url: (f) => `/api/rigs/${f.rig.id}/analyze`, body: (f) => ({ models: ['poly1'], trialIds: f.trialIds }), expect: labA(200, MEMBERS) },
   ],
+  'app/api/rigs/[rigId]/collector/route.ts': [
+    // exploring stores nothing: any member may; the fixture's rig is a propane burner, so members meet the rule (422)
+    { method: 'POST', url: (f) => `/api/rigs/${f.rig.id}/collector`, body: () => ({ areaBasis: 'gross' }), expect: labA(422, MEMBERS) },
+  ],
+  'app/api/rigs/[rigId]/collector/fits/route.ts': [
+    // saving needs fit:write; the burner rig is not a collector, so writers meet the rule (422) and nothing is stored
+    { method: 'POST', url: (f) => `/api/rigs/${f.rig.id}/collector/fits`, body: () => ({ title: 'authz collector', areaBasis: 'gross' }), expect: labA(422, WRITERS) },
+  ],
   'app/api/labs/[labId]/fits/route.ts': [
     { method: 'GET', url: (f) => `/api/labs/${f.labId}/fits`, expect: labA(200, MEMBERS) },
     { method: 'POST', url: (f) => `/api/labs/${f.labId}/fits`, body: (f) => ({ rigId: f.rig.id, title: '', model: 'coil', trialIds: f.trialIds }), expect: labA(422, WRITERS) },
