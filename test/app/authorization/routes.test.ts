@@ -329,6 +329,20 @@ const MATRIX: Record<string, Case[]> = {
       expect: labA(200, WRITERS),
     },
   ],
+  'app/api/rigs/[rigId]/sessions/route.ts': [
+    { method: 'GET', url: (f) => `/api/rigs/${f.rig.id}/sessions`, expect: labA(200, MEMBERS) },
+    // too few runs: refused by the schema after the rig is authorized, nothing is planned
+    { method: 'POST', url: (f) => `/api/rigs/${f.rig.id}/sessions`, body: () => ({ prior: { Ts: '85 degC', UA: '400 W/K' }, inletTemp: '18 degC', flowRange: ['2 L/min', '20 L/min'], maxOutletTemp: '95 degC', trials: 3 }), expect: labA(422, WRITERS) },
+  ],
+  'app/api/sessions/[sessionId]/route.ts': [{ method: 'GET', url: (f) => `/api/sessions/${f.sessions.open}`, expect: labA(200, MEMBERS) }],
+  'app/api/sessions/[sessionId]/events/route.ts': [{ method: 'GET', url: (f) => `/api/sessions/${f.sessions.open}/events?once=1`, expect: labA(200, MEMBERS) }],
+  // a run the session does not have: nothing changes
+  'app/api/sessions/[sessionId]/runs/route.ts': [{ method: 'POST', url: (f) => `/api/sessions/${f.sessions.open}/runs`, body: () => ({ action: 'skip', runKey: 'r999' }), expect: labA(422, WRITERS) }],
+  'app/api/sessions/[sessionId]/readings/route.ts': [{ method: 'POST', url: (f) => `/api/sessions/${f.sessions.open}/readings`, body: () => ({ runKey: 'r1', inlet: 'warm' }), expect: labA(422, WRITERS) }],
+  'app/api/sessions/[sessionId]/samples/route.ts': [{ method: 'POST', url: (f) => `/api/sessions/${f.sessions.open}/samples`, body: () => ({ samples: [] }), expect: labA(422, WRITERS) }],
+  // closing a closed session answers its stored verdict; a study of a session without a fit is refused
+  'app/api/sessions/[sessionId]/close/route.ts': [{ method: 'POST', url: (f) => `/api/sessions/${f.sessions.closed}/close`, expect: labA(200, WRITERS) }],
+  'app/api/sessions/[sessionId]/study/route.ts': [{ method: 'POST', url: (f) => `/api/sessions/${f.sessions.closed}/study`, expect: labA(409, WRITERS) }],
   'app/api/rigs/[rigId]/jobs/route.ts': [
     {
       method: 'GET',
