@@ -11,6 +11,9 @@ export interface RigDetails {
   tubeInnerDiameterM?: number;
   tubeMaterial?: string;
   collectorAreaM2?: number;
+  /** what the rig cost to build, in `buildCostCurrency` (a code such as "USD") */
+  buildCost?: number;
+  buildCostCurrency?: string;
   [key: string]: unknown;
 }
 

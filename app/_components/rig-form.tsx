@@ -12,7 +12,7 @@ interface RigValues {
   heatSource: string;
   description: string;
   notes: string;
-  details: { coilLengthM?: number; tubeInnerDiameterM?: number; tubeMaterial?: string; collectorAreaM2?: number; burnerRatingW?: number };
+  details: { coilLengthM?: number; tubeInnerDiameterM?: number; tubeMaterial?: string; collectorAreaM2?: number; burnerRatingW?: number; buildCost?: number; buildCostCurrency?: string };
 }
 
 /** Create or edit a rig. Coil details are entered in m and mm and stored in SI. */
@@ -36,6 +36,8 @@ export function RigForm({ labId, rig }: { labId: string; rig?: RigValues }) {
         tubeMaterial: String(f.get('tubeMaterial') ?? '').trim() || undefined,
         collectorAreaM2: n('collectorAreaM2'),
         burnerRatingW: n('burnerRatingKw', 1000),
+        buildCost: n('buildCost'),
+        buildCostCurrency: String(f.get('buildCostCurrency') ?? '').trim().toUpperCase() || undefined,
       }).filter(([, v]) => v !== undefined),
     );
     const body = { name: f.get('name'), heatSource: f.get('heatSource'), description: f.get('description'), notes: f.get('notes'), details };
@@ -99,6 +101,16 @@ export function RigForm({ labId, rig }: { labId: string; rig?: RigValues }) {
         <label>
           <span className="text-xs text-ink-muted">Burner rating (kW)</span>
           <input name="burnerRatingKw" inputMode="decimal" className="field-input num" defaultValue={d.burnerRatingW ? d.burnerRatingW / 1000 : ''} />
+        </label>
+        <label>
+          <span className="text-xs text-ink-muted">Build cost (for heat per unit of cost)</span>
+          <input name="buildCost" inputMode="decimal" className="field-input num" defaultValue={d.buildCost} />
+          {fe('details.buildCost')}
+        </label>
+        <label>
+          <span className="text-xs text-ink-muted">Currency of the build cost</span>
+          <input name="buildCostCurrency" maxLength={3} className="field-input" placeholder="USD" defaultValue={d.buildCostCurrency} />
+          {fe('details.buildCostCurrency')}
         </label>
       </fieldset>
       <label className="block">

@@ -14,6 +14,7 @@ import type { Payback } from '@/analysis/cost/payback';
 import type { FuelKind } from '@/analysis/cost/fuels';
 import type { CellValue } from './cells';
 import type { UnitSystem } from '@/analysis/units/unit-system';
+import type { DesignComparisonView } from '@/app/_contracts/design-comparison';
 
 /** Where the numbers come from: the Summary sheet's Provenance section (DOMAIN.md §7, reproducibility). */
 export interface ExportProvenance {
@@ -136,6 +137,8 @@ export interface StudyExport {
   performance?: PerformanceExport[];
   forecasts?: ForecastExport[];
   costs?: CostExport;
+  /** design comparisons (a study's design-comparison blocks, or one comparison's export) */
+  comparisons?: DesignComparisonView[];
   /** extra lines under the Summary table (cautions, the reviewer's sign-off…) */
   notes?: string[];
 }

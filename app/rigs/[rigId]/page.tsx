@@ -29,6 +29,7 @@ export default async function RigPage({ params, searchParams }: { params: Promis
     d.tubeMaterial ? String(d.tubeMaterial) : null,
     d.collectorAreaM2 ? `${d.collectorAreaM2} m² collector` : null,
     d.burnerRatingW ? `${Number(d.burnerRatingW) / 1000} kW burner` : null,
+    d.buildCost ? `built for ${Number(d.buildCost)} ${String(d.buildCostCurrency ?? 'USD')}` : null,
   ].filter(Boolean);
   return (
     <AppPage
