@@ -1,4 +1,4 @@
-import 'server-only';
+// No `server-only` here: the analysis worker threads render plots too (app/_lib/analysis-worker).
 import * as Plot from '@observablehq/plot';
 import { parseHTML } from 'linkedom';
 import { accessiblePlot } from '@/app/_contracts/plot-a11y';

@@ -4,8 +4,8 @@
  * extrapolated region shaded, and reference lines for the inlet, scalding and boiling.
  */
 import * as Plot from '@observablehq/plot';
-import { predictAt, type BandPoint, type FitSuccess } from '../../../analysis/fit';
-import { CAUTION_THRESHOLDS_C, HAZARD_BANDS, hottestCautions } from '../../../analysis/safety/cautions';
+import type { BandPoint } from '@/analysis/fit';
+import { CAUTION_THRESHOLDS_C, HAZARD_BANDS, hottestCautions } from '@/analysis/safety/cautions';
 import { baseOptions, COLORS, DASHES, MODEL_STROKES, type PlotFigure } from './theme';
 import { placeLabels, textBox, type Box } from './label-placement';
 
@@ -37,8 +37,8 @@ export interface FitCurveReplicate {
 /** One fitted model's curve over the plotted flows (the first model is the primary one). */
 export interface FitCurveModel {
   label: string;
-  /** predictions with intervals (units of the fit: m³/s, °C), increasing in flow */
-  points: BandPoint[];
+  /** predictions with intervals (units of the fit: m³/s, °C), increasing in flow (predictAt's BandPoints, or their numbers as JSON carries them) */
+  points: Pick<BandPoint, 'x' | 'y' | 'ciLow' | 'ciHigh' | 'piLow' | 'piHigh'>[];
 }
 
 /** Everything fitCurvePlot draws, SI. */
@@ -53,61 +53,6 @@ export interface FitCurveInput {
   inletTempC: number | null;
   /** confidence level of the bands, e.g. 0.95 */
   level: number;
-}
-
-/** Options of the adapter {@link fitCurveInputFromFits}. */
-export interface FitCurveFromFitsOptions {
-  /** trials left out of the fit, SI (drawn hollow) */
-  excluded?: { flowM3PerS: number; outletTempC: number; label?: string }[];
-  /** labels of the fitted trials, in the fit's point order */
-  labels?: string[];
-  /** inlet temperature for the curves and the rule, °C (default: the primary fit's mean Tin) */
-  inletTempC?: number;
-  /** flows to draw over, m³/s (default: the tested range widened by 10 % below and 25 % above) */
-  flowRange?: [number, number];
-  /** grid points per curve (default 121) */
-  points?: number;
-}
-
-/**
- * Adapter from fitting results to {@link FitCurveInput}: curves and bands from `predictAt` over a
- * grid wider than the tested range (so the extrapolated part shows), replicates from the fit.
- * @param fits - successful fits to the same trials, primary first, each with a label
- * @throws RangeError when no fit is given
- * @example fitCurveInputFromFits([{ label: 'coil', fit }], { excluded })
- */
-export function fitCurveInputFromFits(fits: { label: string; fit: FitSuccess }[], options: FitCurveFromFitsOptions = {}): FitCurveInput {
-  if (fits.length === 0) throw new RangeError('fitCurveInputFromFits: give at least one fit');
-  const primary = fits[0].fit;
-  const [lo, hi] = primary.xRange;
-  const span = hi - lo || Math.abs(hi) || 1;
-  const range = options.flowRange ?? [Math.max(lo - 0.1 * span, lo / 2), hi + 0.25 * span];
-  const m = Math.max(2, Math.round(options.points ?? 121));
-  const grid = Array.from({ length: m }, (_, i) => range[0] + ((range[1] - range[0]) * i) / (m - 1));
-  const tinMean = primary.spec.covariateMeans.Tin;
-  const inletTempC = options.inletTempC ?? (typeof tinMean === 'number' ? tinMean : null);
-  const models = fits.map(({ label, fit }) => ({ label, points: curveOf(fit, grid, inletTempC) }));
-  const trials: FitCurveTrial[] = primary.spec.x.map((x, i) => ({ flowM3PerS: x, outletTempC: primary.spec.y[i], label: options.labels?.[i] }));
-  for (const e of options.excluded ?? []) trials.push({ ...e, excluded: true });
-  const replicates = primary.replicates.map((g) => ({ flowM3PerS: g.xMean, meanC: g.yMean, sdK: g.ySD, n: g.n }));
-  return { trials, replicates, models, testedRange: [lo, hi], inletTempC, level: primary.level };
-}
-
-/** predictAt over the grid; where the model cannot be evaluated (e.g. x ≤ 0 for the coil), those points are left out. */
-function curveOf(fit: FitSuccess, grid: number[], inletTempC: number | null): BandPoint[] {
-  const needsTin = fit.spec.covariateNames.includes('Tin') && inletTempC !== null;
-  const at = (xs: number[]) => predictAt(fit, xs, needsTin ? { Tin: xs.map(() => inletTempC as number) } : {}, fit.level);
-  try {
-    return at(grid);
-  } catch {
-    return grid.flatMap((x) => {
-      try {
-        return at([x]);
-      } catch {
-        return [];
-      }
-    });
-  }
 }
 
 /** Boiling at 1 atm, °C (common practice; analysis uses the IF97 saturation temperature 99.97 °C). */
@@ -197,7 +142,7 @@ export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { wi
       x: 'x', y: 'y', stroke: MODEL_STROKES[i % MODEL_STROKES.length], strokeWidth: i === 0 ? 2.5 : 1.75,
       strokeDasharray: DASHES[i % DASHES.length], ariaDescription: `model ${input.models[i].label}`,
     })),
-    // each model's name beside its own curve, where it overlaps no data, line or other label (placeModelLabels)
+    // each model's name beside its own curve, where it overlaps no data, line or other label (placePlotLabels)
     Plot.text(modelLabels, {
       x: 'x', y: 'y', text: 'label', fill: 'color', textAnchor: 'middle', lineAnchor: 'middle',
       stroke: 'white', strokeWidth: 3, paintOrder: 'stroke', ariaDescription: 'model labels',
