@@ -2,17 +2,37 @@
 // `npm start`: packages, PostgreSQL (installed and started privately unless DATABASE_URL is set),
 // migrations, demo data, local fakes of hosted services, a build when sources changed, then
 // the web server on http://127.0.0.1:3000. Ctrl-C stops everything it started.
+//
+//   npm start -- --instances N [--worker]
+// runs N web instances (each on a free loopback port, with its own job worker) behind a small
+// loopback load balancer on the same address (scripts/lib/proxy.mjs), as a deployment of N
+// instances would run; with --worker the web instances run no job worker and one worker-only
+// process (scripts/worker.ts) takes the jobs.
 import path from 'node:path';
-import { root, portIsFree, spawn, fail, waitForHealth, stopper, runMain } from './lib/util.mjs';
+import { root, portIsFree, freePort, spawn, fail, waitForHealth, stopper, runMain } from './lib/util.mjs';
 import { bootstrap } from './lib/bootstrap.mjs';
 import { buildIfChanged } from './lib/build.mjs';
 import { startFakes } from './lib/fakes.mjs';
+import { startProxy } from './lib/proxy.mjs';
 
 const port = Number(process.env.PORT ?? 3000);
 const host = '127.0.0.1';
 const t0 = Date.now();
+const args = process.argv.slice(2);
+const flag = (name) => {
+  const i = args.indexOf(name);
+  return i >= 0 ? (args[i + 1] ?? '') : undefined;
+};
+const instancesArg = flag('--instances');
+const instances = instancesArg === undefined ? 1 : Number(instancesArg);
+const separateWorker = args.includes('--worker');
+// the private cluster allows 60 connections; each instance holds up to DATABASE_POOL_MAX for the
+// ORM, 4 for imports and 3 for pg-boss
+const MAX_INSTANCES = 6;
 
 async function main() {
+  if (!Number.isInteger(instances) || instances < 1 || instances > MAX_INSTANCES) fail(`--instances takes a whole number from 1 to ${MAX_INSTANCES} (got "${instancesArg}")`);
+  if (separateWorker && instances === 1 && instancesArg === undefined) fail('--worker goes with --instances N (a separate job worker beside N web instances)');
   if (!(await portIsFree(port, host))) fail(`port ${port} on ${host} is already taken; stop whatever uses it or set PORT`);
   // Demo mode (demo lab, captured mail) is the default with the private cluster, never with DATABASE_URL.
   const demo = (process.env.EMBERLINE_DEMO ?? (process.env.DATABASE_URL ? 'false' : 'true')) === 'true';
@@ -32,25 +52,57 @@ async function main() {
       // Links in e-mail and the same-origin check use this origin, never a request header.
       APP_URL: process.env.APP_URL ?? `http://${host}:${port}`,
     };
-    const web = spawn(process.execPath, [path.join(root, 'scripts/serve.mjs'), '-H', host, '-p', String(port)], {
-      cwd: root,
-      env,
-      stdio: ['ignore', 'inherit', 'inherit'],
+    const many = instances > 1 || separateWorker;
+    const ports = many ? await Promise.all(Array.from({ length: instances }, () => freePort())) : [port];
+    const webEnv = many
+      ? {
+          ...env,
+          // behind our proxy: one hop of X-Forwarded-For is believed (the proxy adds the client's address)
+          TRUST_PROXY_HOPS: '1',
+          DATABASE_POOL_MAX: process.env.DATABASE_POOL_MAX ?? String(Math.max(2, Math.floor(48 / instances) - 7)),
+          ...(separateWorker ? { EMBERLINE_JOB_WORKER: 'off' } : {}),
+        }
+      : env;
+    const children = ports.map((p, i) => {
+      const web = spawn(process.execPath, [path.join(root, 'scripts/serve.mjs'), '-H', host, '-p', String(p)], {
+        cwd: root,
+        env: webEnv,
+        stdio: ['ignore', many ? 'ignore' : 'inherit', 'inherit'],
+      });
+      return { name: many ? `web instance ${i + 1} (port ${p})` : 'the web server', child: web };
     });
-    push(() => web.exitCode === null && web.kill('SIGTERM'));
+    if (separateWorker) {
+      // tsx runs the script in a child node: the condition goes through NODE_OPTIONS
+      const worker = spawn(process.execPath, [path.join(root, 'node_modules/tsx/dist/cli.mjs'), path.join(root, 'scripts/worker.ts')], {
+        cwd: root,
+        env: { ...env, NODE_OPTIONS: `${process.env.NODE_OPTIONS ?? ''} --conditions=react-server`.trim() },
+        stdio: ['ignore', 'inherit', 'inherit'],
+      });
+      children.push({ name: 'the job worker', child: worker });
+    }
+    for (const { child } of children) push(() => child.exitCode === null && child.kill('SIGTERM'));
     const shutdown = (signal) => {
-      console.log(`\n${signal}: stopping the web server and the database`);
+      console.log(`\n${signal}: stopping the web server${many ? 's' : ''} and the database`);
       stopAll();
       process.exit(0);
     };
     process.on('SIGINT', () => shutdown('SIGINT'));
     process.on('SIGTERM', () => shutdown('SIGTERM'));
-    web.on('exit', (code) => {
-      if (code !== null && code !== 0) console.error(`the web server exited with code ${code}`);
-      stopAll();
-      process.exit(code ?? 0);
-    });
-    await waitForHealth(`http://${host}:${port}/api/health`, web);
+    for (const { name, child } of children) {
+      child.on('exit', (code, signal) => {
+        if (code !== 0) console.error(`${name} exited with ${signal ?? `code ${code}`}`);
+        // with several instances the balancer routes around one that has gone; the last one ends it all
+        if (many && children.some((c) => c.child.exitCode === null && c.child.signalCode === null && c.name.startsWith('web'))) return;
+        stopAll();
+        process.exit(code ?? 0);
+      });
+    }
+    await Promise.all(ports.map((p, i) => waitForHealth(`http://${host}:${p}/api/health`, children[i].child)));
+    if (many) {
+      const proxy = await startProxy({ host, port, targets: ports.map((p) => ({ host, port: p })) });
+      push(() => proxy.close());
+      console.log(`${instances} web instance${instances > 1 ? 's' : ''} on ${ports.map((p) => `${host}:${p}`).join(', ')}${separateWorker ? ' (no job worker: a separate worker process takes the jobs)' : ', each with a job worker'}, behind a loopback load balancer on ${host}:${port}`);
+    }
     const { printDemoSignIns } = await import('./lib/demo-accounts.mjs');
     console.log(`\n\x1b[1mEmberline is ready at http://${host}:${port}\x1b[0m  (${((Date.now() - t0) / 1000).toFixed(1)} s)`);
     if (env.EMBERLINE_DEMO === 'true') printDemoSignIns();
