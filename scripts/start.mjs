@@ -9,7 +9,7 @@
 // instances would run; with --worker the web instances run no job worker and one worker-only
 // process (scripts/worker.ts) takes the jobs.
 import path from 'node:path';
-import { root, portIsFree, freePort, spawn, fail, waitForHealth, stopper, runMain } from './lib/util.mjs';
+import { root, portIsFree, freePort, spawn, fail, waitForHealth, stopper, runMain, watchWebServer } from './lib/util.mjs';
 import { bootstrap } from './lib/bootstrap.mjs';
 import { buildIfChanged } from './lib/build.mjs';
 import { startFakes } from './lib/fakes.mjs';
@@ -53,34 +53,69 @@ async function main() {
       APP_URL: process.env.APP_URL ?? `http://${host}:${port}`,
     };
     const many = instances > 1 || separateWorker;
-    const ports = many ? await Promise.all(Array.from({ length: instances }, () => freePort())) : [port];
-    const webEnv = many
-      ? {
-          ...env,
-          // behind our proxy: one hop of X-Forwarded-For is believed (the proxy adds the client's address)
-          TRUST_PROXY_HOPS: '1',
-          DATABASE_POOL_MAX: process.env.DATABASE_POOL_MAX ?? String(Math.max(2, Math.floor(48 / instances) - 7)),
-          ...(separateWorker ? { EMBERLINE_JOB_WORKER: 'off' } : {}),
-        }
-      : env;
-    const children = ports.map((p, i) => {
-      const web = spawn(process.execPath, [path.join(root, 'scripts/serve.mjs'), '-H', host, '-p', String(p)], {
+    /** resolves when every web server answers its health check (and the balancer is listening) */
+    let up;
+    if (!many) {
+      const web = spawn(process.execPath, [path.join(root, 'scripts/serve.mjs'), '-H', host, '-p', String(port)], {
         cwd: root,
-        env: webEnv,
-        stdio: ['ignore', many ? 'ignore' : 'inherit', 'inherit'],
+        env,
+        // piped (and passed on) so that its last lines can be shown if it dies
+        stdio: ['ignore', 'pipe', 'pipe'],
       });
-      return { name: many ? `web instance ${i + 1} (port ${p})` : 'the web server', child: web };
-    });
-    if (separateWorker) {
-      // tsx runs the script in a child node: the condition goes through NODE_OPTIONS
-      const worker = spawn(process.execPath, [path.join(root, 'node_modules/tsx/dist/cli.mjs'), path.join(root, 'scripts/worker.ts')], {
-        cwd: root,
-        env: { ...env, NODE_OPTIONS: `${process.env.NODE_OPTIONS ?? ''} --conditions=react-server`.trim() },
-        stdio: ['ignore', 'inherit', 'inherit'],
+      // when it ends by itself: why (exit code or signal) and what it printed last, then stop the rest
+      const watch = watchWebServer(web, (status) => {
+        stopAll();
+        process.exit(status);
       });
-      children.push({ name: 'the job worker', child: worker });
+      push(() => {
+        watch.expectExit();
+        if (web.exitCode === null && web.signalCode === null) web.kill('SIGTERM');
+      });
+      up = () => waitForHealth(`http://${host}:${port}/api/health`, web);
+    } else {
+      const ports = await Promise.all(Array.from({ length: instances }, () => freePort()));
+      const webEnv = {
+        ...env,
+        // behind our balancer: one hop of X-Forwarded-For is believed (it adds the client's address)
+        TRUST_PROXY_HOPS: '1',
+        DATABASE_POOL_MAX: process.env.DATABASE_POOL_MAX ?? String(Math.max(2, Math.floor(48 / instances) - 7)),
+        ...(separateWorker ? { EMBERLINE_JOB_WORKER: 'off' } : {}),
+      };
+      const children = ports.map((p, i) => ({
+        name: `web instance ${i + 1} (port ${p})`,
+        child: spawn(process.execPath, [path.join(root, 'scripts/serve.mjs'), '-H', host, '-p', String(p)], { cwd: root, env: webEnv, stdio: ['ignore', 'ignore', 'inherit'] }),
+      }));
+      if (separateWorker) {
+        // tsx runs the script in a child node: the condition goes through NODE_OPTIONS
+        const worker = spawn(process.execPath, [path.join(root, 'node_modules/tsx/dist/cli.mjs'), path.join(root, 'scripts/worker.ts')], {
+          cwd: root,
+          env: { ...env, NODE_OPTIONS: `${process.env.NODE_OPTIONS ?? ''} --conditions=react-server`.trim() },
+          stdio: ['ignore', 'inherit', 'inherit'],
+        });
+        children.push({ name: 'the job worker', child: worker });
+      }
+      let stopping = false;
+      push(() => {
+        stopping = true;
+        for (const { child } of children) if (child.exitCode === null && child.signalCode === null) child.kill('SIGTERM');
+      });
+      for (const { name, child } of children) {
+        child.on('exit', (code, signal) => {
+          if (stopping) return;
+          console.error(`\x1b[31m✖ ${name} exited with ${signal ?? `code ${code}`}\x1b[0m`);
+          // the balancer routes around an instance that has gone; the last one ends it all
+          if (children.some((c) => c.child.exitCode === null && c.child.signalCode === null && c.name.startsWith('web'))) return;
+          stopAll();
+          process.exit(code || 1);
+        });
+      }
+      up = async () => {
+        await Promise.all(ports.map((p, i) => waitForHealth(`http://${host}:${p}/api/health`, children[i].child)));
+        const proxy = await startProxy({ host, port, targets: ports.map((p) => ({ host, port: p })) });
+        push(() => proxy.close());
+        console.log(`${instances} web instance${instances > 1 ? 's' : ''} on ${ports.map((p) => `${host}:${p}`).join(', ')}${separateWorker ? ' (no job worker: a separate worker process takes the jobs)' : ', each with a job worker'}, behind a loopback load balancer on ${host}:${port}`);
+      };
     }
-    for (const { child } of children) push(() => child.exitCode === null && child.kill('SIGTERM'));
     const shutdown = (signal) => {
       console.log(`\n${signal}: stopping the web server${many ? 's' : ''} and the database`);
       stopAll();
@@ -88,21 +123,7 @@ async function main() {
     };
     process.on('SIGINT', () => shutdown('SIGINT'));
     process.on('SIGTERM', () => shutdown('SIGTERM'));
-    for (const { name, child } of children) {
-      child.on('exit', (code, signal) => {
-        if (code !== 0) console.error(`${name} exited with ${signal ?? `code ${code}`}`);
-        // with several instances the balancer routes around one that has gone; the last one ends it all
-        if (many && children.some((c) => c.child.exitCode === null && c.child.signalCode === null && c.name.startsWith('web'))) return;
-        stopAll();
-        process.exit(code ?? 0);
-      });
-    }
-    await Promise.all(ports.map((p, i) => waitForHealth(`http://${host}:${p}/api/health`, children[i].child)));
-    if (many) {
-      const proxy = await startProxy({ host, port, targets: ports.map((p) => ({ host, port: p })) });
-      push(() => proxy.close());
-      console.log(`${instances} web instance${instances > 1 ? 's' : ''} on ${ports.map((p) => `${host}:${p}`).join(', ')}${separateWorker ? ' (no job worker: a separate worker process takes the jobs)' : ', each with a job worker'}, behind a loopback load balancer on ${host}:${port}`);
-    }
+    await up();
     const { printDemoSignIns } = await import('./lib/demo-accounts.mjs');
     console.log(`\n\x1b[1mEmberline is ready at http://${host}:${port}\x1b[0m  (${((Date.now() - t0) / 1000).toFixed(1)} s)`);
     if (env.EMBERLINE_DEMO === 'true') printDemoSignIns();
