@@ -8,6 +8,7 @@
 // loopback load balancer on the same address (scripts/lib/proxy.mjs), as a deployment of N
 // instances would run; with --worker the web instances run no job worker and one worker-only
 // process (scripts/worker.ts) takes the jobs.
+import os from 'node:os';
 import path from 'node:path';
 import { root, portIsFree, freePort, spawn, fail, waitForHealth, stopper, runMain, watchWebServer } from './lib/util.mjs';
 import { bootstrap } from './lib/bootstrap.mjs';
@@ -79,6 +80,8 @@ async function main() {
         // behind our balancer: one hop of X-Forwarded-For is believed (it adds the client's address)
         TRUST_PROXY_HOPS: '1',
         DATABASE_POOL_MAX: process.env.DATABASE_POOL_MAX ?? String(Math.max(2, Math.floor(48 / instances) - 7)),
+        // the cores shared out between the instances' analysis threads (app/_lib/server/analysis-pool.ts)
+        EMBERLINE_ANALYSIS_THREADS: process.env.EMBERLINE_ANALYSIS_THREADS ?? String(Math.max(1, Math.floor(os.availableParallelism() / instances))),
         ...(separateWorker ? { EMBERLINE_JOB_WORKER: 'off' } : {}),
       };
       const children = ports.map((p, i) => ({
