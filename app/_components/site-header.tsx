@@ -6,6 +6,7 @@ export const AREAS = [
   { href: '/rigs', label: 'Rigs' },
   { href: '/trials', label: 'Trials' },
   { href: '/fits', label: 'Fits' },
+  { href: '/comparisons', label: 'Compare' },
   { href: '/forecasts', label: 'Forecasts' },
   { href: '/studies', label: 'Studies' },
 ] as const;

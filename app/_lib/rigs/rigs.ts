@@ -38,6 +38,8 @@ const rigFields = z.object({
       collectorAreaM2: z.number().positive().max(10000).optional(),
       burnerRatingW: z.number().positive().max(1e7).optional(),
       ...collectorDetails.shape,
+      buildCost: z.number().positive().max(1e9).optional(),
+      buildCostCurrency: z.string().trim().regex(/^[A-Z]{3}$/, 'a three-letter currency code such as USD').optional(),
     })
     .strict()
     .superRefine((d, ctx) => {

@@ -37,6 +37,7 @@ export default async function RigPage({ params, searchParams }: { params: Promis
     d.azimuthDeg !== undefined ? `azimuth ${d.azimuthDeg}°` : null,
     d.fluid ? String(d.fluid) : null,
     d.burnerRatingW ? `${Number(d.burnerRatingW) / 1000} kW burner` : null,
+    d.buildCost ? `built for ${Number(d.buildCost)} ${String(d.buildCostCurrency ?? 'USD')}` : null,
   ].filter(Boolean);
   return (
     <AppPage

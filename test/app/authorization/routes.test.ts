@@ -375,6 +375,17 @@ const MATRIX: Record<string, Case[]> = {
     { method: 'GET', url: (f) => `/api/labs/${f.labId}/studies`, expect: labA(200, MEMBERS) },
     { method: 'POST', url: (f) => `/api/labs/${f.labId}/studies`, body: () => ({ title: '' }), expect: labA(422, WRITERS, { session: true }) },
   ],
+  'app/api/labs/[labId]/comparisons/route.ts': [
+    { method: 'GET', url: (f) => `/api/labs/${f.labId}/comparisons`, expect: labA(200, MEMBERS) },
+    // a body the schema refuses (no title, one design): nothing is stored
+    { method: 'POST', url: (f) => `/api/labs/${f.labId}/comparisons`, body: (f) => ({ title: '', subjects: [{ kind: 'rig', id: f.rig.id }] }), expect: labA(422, WRITERS, { session: true }) },
+  ],
+  'app/api/comparisons/[comparisonId]/route.ts': [{ method: 'GET', url: (f) => `/api/comparisons/${f.comparison.id}`, expect: labA(200, MEMBERS) }],
+  'app/api/comparisons/[comparisonId]/comments/route.ts': [
+    { method: 'GET', url: (f) => `/api/comparisons/${f.comparison.id}/comments`, expect: labA(200, MEMBERS) },
+    { method: 'POST', url: (f) => `/api/comparisons/${f.comparison.id}/comments`, body: () => ({ body: '' }), expect: labA(422, COMMENTERS, { session: true }) },
+  ],
+  'app/api/comparisons/[comparisonId]/export/route.ts': [{ method: 'GET', url: (f) => `/api/comparisons/${f.comparison.id}/export?format=csv&table=Comparison`, expect: labA(200, MEMBERS) }],
   'app/api/studies/[studyId]/route.ts': [
     { method: 'GET', url: (f) => `/api/studies/${f.study.id}`, expect: labA(200, MEMBERS) },
     {

@@ -1,12 +1,13 @@
 /**
- * Label placement (app/_lib/plots/label-placement.ts) and the fit plot's labels as drawn: no two
+ * Label placement (app/_plots/label-placement.ts) and the fit plot's labels as drawn: no two
  * label boxes overlap, and no model label covers a trial, at a desktop and at a phone's width.
  * Boxes are measured with the same estimate as the placement (0.6 em a glyph, 1.2 em a line:
  * common practice for a proportional sans-serif), from the positions Plot wrote into the SVG.
  */
 import { describe, expect, test } from 'vitest';
-import { overlapArea, placeLabels, textBox, type Box } from '../../../app/_lib/plots/label-placement';
-import { fitCurveInputFromFits, fitCurvePlot } from '../../../app/_lib/plots/fit-curve';
+import { overlapArea, placeLabels, textBox, type Box } from '../../../app/_plots/label-placement';
+import { fitCurvePlot } from '../../../app/_plots/fit-curve';
+import { fitCurveInputFromFits } from '../../../app/_lib/plots/adapters';
 import { coilTrials, fitOrThrow, LPM, parseSvg, renderSvg } from './support';
 
 const frame: Box = { x: 0, y: 0, width: 640, height: 360 };
