@@ -6,7 +6,11 @@ import { sampleCoilData } from './_lib/plots/sample-curve';
 import { HAZARD_BANDS } from '@/analysis/safety/cautions';
 import { TemperatureCautions } from './_components/safety-notice';
 
-function SamplePlot() {
+/** The sample's SVG: the same for every visitor, so drawn once per process (not on every request). */
+let sampleSvg: { svg: string; lines: { y: number; text: string; stroke: string }[]; points: { q: number; t: number }[] } | null = null;
+
+function samplePlotSvg() {
+  if (sampleSvg) return sampleSvg;
   const { curve, points, tin } = sampleCoilData();
   // the caution thresholds inside the plotted range, with their words (analysis/safety)
   const lines = HAZARD_BANDS.filter((b) => b.thresholdC >= 10 && b.thresholdC <= 90)
@@ -31,6 +35,12 @@ function SamplePlot() {
       Plot.dot(points, { x: 'q', y: 't', r: 4.5, fill: '#241E1B', stroke: 'white', strokeWidth: 1.5 }),
     ],
   });
+  sampleSvg = { svg, lines, points };
+  return sampleSvg;
+}
+
+function SamplePlot() {
+  const { svg, lines, points } = samplePlotSvg();
   return (
     <figure className="card p-4">
       <div className="overflow-x-auto [&_svg]:h-auto [&_svg]:max-w-full" aria-label="Sample plot: outlet temperature falls with flow along a fitted coil curve" dangerouslySetInnerHTML={{ __html: svg }} />
