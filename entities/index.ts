@@ -25,10 +25,11 @@ import { ShareLink } from './share-link';
 import { User } from './user';
 import { ImportJob } from './import-job';
 import { SensorOverview } from './sensor-overview';
+import { BlockCache } from './block-cache';
 import { PendingSignUp } from './pending-sign-up';
 
-export { Comment, Fit, Notice, ReviewEvent, ShareLink, Study, ColumnMapping, SourceFile, TrialChange, ApiToken, AuditEvent, Invitation, Lab, Membership, PasswordReset, RateLimit, Rig, Session, Trial, User, ImportJob, SensorOverview, PendingSignUp };
-export const entities = [Lab, User, Membership, Rig, Trial, Session, Invitation, PasswordReset, ApiToken, AuditEvent, RateLimit, SourceFile, ColumnMapping, TrialChange, Fit, Study, Comment, ReviewEvent, Notice, ShareLink, ImportJob, SensorOverview, PendingSignUp];
+export { Comment, Fit, Notice, ReviewEvent, ShareLink, Study, ColumnMapping, SourceFile, TrialChange, ApiToken, AuditEvent, Invitation, Lab, Membership, PasswordReset, RateLimit, Rig, Session, Trial, User, ImportJob, SensorOverview, PendingSignUp, BlockCache };
+export const entities = [Lab, User, Membership, Rig, Trial, Session, Invitation, PasswordReset, ApiToken, AuditEvent, RateLimit, SourceFile, ColumnMapping, TrialChange, Fit, Study, Comment, ReviewEvent, Notice, ShareLink, ImportJob, SensorOverview, PendingSignUp, BlockCache];
 
 import type { InferEntity } from '@mikro-orm/core';
 /** Row types of the entities, for code that handles loaded records. */
@@ -53,4 +54,5 @@ export type NoticeRow = InferEntity<typeof Notice>;
 export type ShareLinkRow = InferEntity<typeof ShareLink>;
 export type ImportJobRow = InferEntity<typeof ImportJob>;
 export type SensorOverviewRow = InferEntity<typeof SensorOverview>;
+export type BlockCacheRow = InferEntity<typeof BlockCache>;
 export type PendingSignUpRow = InferEntity<typeof PendingSignUp>;
