@@ -3,6 +3,7 @@
 import type { PlotOptions } from '@observablehq/plot';
 import { useEffect, useId, useRef, useState } from 'react';
 import type { CautionLike } from '@/analysis/safety/cautions';
+import { accessiblePlot } from '@/app/_contracts/plot-a11y';
 import { CautionList } from './safety-notice';
 
 /** Props of {@link PlotFigure}. */
@@ -106,9 +107,7 @@ export function PlotFigure({ svg, summary, title, filename, options, className, 
     import('@observablehq/plot').then((Plot) => {
       if (cancelled) return;
       el = Plot.plot(options);
-      const root = el.tagName.toLowerCase() === 'svg' ? el : el.querySelector('svg');
-      root?.setAttribute('xmlns', SVG_NS);
-      root?.setAttribute('role', 'img');
+      accessiblePlot(el);
       host.replaceChildren(el);
       setLive(true);
     }).catch(() => {

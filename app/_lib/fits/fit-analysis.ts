@@ -60,7 +60,7 @@ export function trialsHash(trials: TrialRow[]): string {
  * outlet temperature: the bucket holds outlet water, DOMAIN.md §1.1) and cp (J/(kg·K), IAPWS-IF97
  * at the mean of inlet and outlet).
  */
-export function fitData(trials: TrialRow[]): FitData {
+export function fitData(trials: readonly Pick<TrialRow, 'flowM3PerS' | 'inletTempC' | 'outletTempC'>[]): FitData {
   // the water rule of analysis/water/trial-water.ts, on temperatures kept inside liquid water (a
   // trial may record up to 150 °C: the property tables stop at 100 °C)
   const clamp = (t: number) => Math.min(Math.max(t, 0.01), 99.9);

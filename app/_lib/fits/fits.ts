@@ -3,9 +3,11 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { Fit, type FitRow, type LabRow, type RigRow, type UserRow } from '@/entities';
+import type { FitKind } from '@/entities/fit';
 import { DomainError } from '../server/errors';
 import { DEFAULT_MEASUREMENT_SD_K, MAX_FIT_TRIALS, SOFTWARE_VERSION, fitData, modelLabel, trialsForFit, trialsHash } from './fit-analysis';
 import { parseStoredFit } from './stored-fit';
+import { collectorModelLabel, parseStoredCollectorFit } from './collector-analysis';
 import { runAnalysis } from '../server/analysis-pool';
 
 export const saveFitInput = z
@@ -61,18 +63,23 @@ export const fitListDto = (f: FitRow) => ({
   rigId: f.rig.id,
   title: f.title,
   version: f.version,
+  kind: f.kind,
   model: f.model,
-  modelLabel: modelLabel(f.model),
+  modelLabel: f.kind === 'collector' ? collectorModelLabel(f.model) : modelLabel(f.model),
   n: f.trialIds.length,
   reviewState: f.reviewState,
   createdAt: f.createdAt.toISOString(),
   createdBy: f.createdBy?.name ?? null,
 });
 
-export const fitDto = (f: FitRow) => ({ ...fitListDto(f), trialIds: f.trialIds, trialsHash: f.trialsHash, settings: f.settings, result: parseStoredFit(f.result, f.id), softwareVersion: f.softwareVersion });
+export const fitDto = (f: FitRow) => ({
+  ...fitListDto(f), trialIds: f.trialIds, trialsHash: f.trialsHash, settings: f.settings,
+  result: f.kind === 'collector' ? parseStoredCollectorFit(f.result, f.id) : parseStoredFit(f.result, f.id), softwareVersion: f.softwareVersion,
+});
 
-export const fitsOfLab = (em: EntityManager, lab: LabRow, opts: { limit?: number; model?: string } = {}) =>
-  em.find(Fit, { lab, ...(opts.model ? { model: opts.model } : {}) }, { populate: ['rig', 'createdBy'], orderBy: { createdAt: 'desc' }, limit: opts.limit ?? 200 });
+/** A lab's saved fits, newest first; `kind` keeps heater or collector fits only, `model` one model. */
+export const fitsOfLab = (em: EntityManager, lab: LabRow, opts: { limit?: number; model?: string; kind?: FitKind } = {}) =>
+  em.find(Fit, { lab, ...(opts.model ? { model: opts.model } : {}), ...(opts.kind ? { kind: opts.kind } : {}) }, { populate: ['rig', 'createdBy'], orderBy: { createdAt: 'desc' }, limit: opts.limit ?? 200 });
 
 
 /**

@@ -17,6 +17,7 @@ import { isUuid } from '../labs/load-in-lab';
 import { pgPool } from '../server/pg-pool';
 import { ensureSensorOverview } from '../imports/sensor-overview';
 import { blockCacheKey, cachedBlockData, jsonHash } from './block-cache';
+import { comparisonInLab, readComparison } from '../comparisons/comparisons';
 
 /**
  * One study block as plain JSON for the page's first paint (the SWR fallback) and the block-data
@@ -123,6 +124,18 @@ async function forecastBody(ctx: BlockContext, block: StudyBlock): Promise<Block
   });
 }
 
+/** A saved design comparison of the study's lab, recomputed (app/_lib/comparisons). */
+async function designComparisonBody(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
+  const c = isUuid(block.data.comparisonId) ? await comparisonInLab(ctx.em, ctx.lab, block.data.comparisonId) : null;
+  if (!c) return { type: 'note', tone: 'muted', message: isUuid(block.data.comparisonId) ? 'The design comparison of this block no longer exists.' : 'No design comparison chosen for this block yet.' };
+  try {
+    return { type: 'design-comparison', comparisonId: ctx.publicView ? null : c.id, view: await readComparison(ctx.em, c, ctx.units, { publicView: ctx.publicView }) };
+  } catch (e) {
+    if (e instanceof DomainError && e.kind === 'invalid') return { type: 'note', tone: 'danger', message: `This comparison cannot be computed: ${e.message}` };
+    throw e;
+  }
+}
+
 async function body(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
   const d = block.data;
   switch (block.kind) {
@@ -146,6 +159,8 @@ async function body(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
       }
     case 'sensor-log':
       return sensorLogBody(ctx, block);
+    case 'design-comparison':
+      return designComparisonBody(ctx, block);
     default: {
       if (!FIT_KINDS.has(block.kind)) return { type: 'note', tone: 'muted', message: 'This block kind is not shown yet.' };
       const fitId = typeof d.fitId === 'string' ? d.fitId : null;

@@ -10,6 +10,7 @@ import { parseStoredFit } from '../../_lib/fits/stored-fit';
 import { savedFitPageFigures } from '../../_lib/fits/fits';
 import { loadInLab } from '../../_lib/labs/load-in-lab';
 import { requireLabAction } from '../../_lib/accounts/viewer';
+import { SavedCollectorFit } from './collector-fit';
 
 export const metadata = { title: 'Saved fit' };
 export const dynamic = 'force-dynamic';
@@ -18,6 +19,7 @@ export default async function SavedFitPage({ params }: { params: Promise<{ fitId
   const { fitId } = await params;
   const v = await requireLabAction(`/fits/${fitId}`, 'lab:read');
   const { row } = await loadInLab(v, 'fit', fitId, 'lab:read');
+  if (row.kind === 'collector') return <SavedCollectorFit viewer={v} row={row} />;
   const rig = row.rig;
   const r = parseStoredFit(row.result, row.id);
   const u = v.user.unitSystem;

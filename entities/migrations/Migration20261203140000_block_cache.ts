@@ -5,7 +5,7 @@ import { Migration } from '@mikro-orm/migrations';
  * sensor log's plots), shared by every app instance: the key says what each entry was computed
  * from; entries go with their lab and their fit.
  */
-export class Migration20261203130000_block_cache extends Migration {
+export class Migration20261203140000_block_cache extends Migration {
 
   override async up(): Promise<void> {
     this.addSql(`create table "block_cache" ("id" uuid not null, "created_at" timestamptz not null, "updated_at" timestamptz not null, "key" varchar(400) not null, "lab_id" uuid not null, "fit_id" uuid null, "value" jsonb not null, constraint "block_cache_pkey" primary key ("id"));`);
