@@ -8,6 +8,7 @@ import { DomainError } from '../server/errors';
 import { forecastForExport } from '../forecasts/forecasts';
 import { modelLabel, SOFTWARE_VERSION } from '../fits/fit-analysis';
 import { parseStoredFit } from '../fits/stored-fit';
+import { cachedFile } from '../server/http-cache';
 import { comparisonInLab, readComparison } from '../comparisons/comparisons';
 import type { DesignComparisonView } from '@/app/_contracts/design-comparison';
 import { isUuid } from '../labs/load-in-lab';
@@ -93,9 +94,12 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
 
 /**
  * The export response: XLSX by default; `?format=csv&table=Trials` (or Fit, Residuals,
- * Performance, Summary) gives one table as CSV, units in the header names.
+ * Performance, Summary) gives one table as CSV, units in the header names. Given the request, it
+ * answers with an ETag (private, revalidated) and 304 when the reader already has this file.
  */
-export async function exportResponse(data: StudyExport, title: string, search: URLSearchParams): Promise<Response> {
+export async function exportResponse(data: StudyExport, title: string, search: URLSearchParams, req?: { headers: Headers }): Promise<Response> {
+  // the file follows from its data, format and table: with the request, it carries an ETag of those and a 304 skips building it
+  if (req) return cachedFile(req, { data, title, format: search.get('format'), table: search.get('table') }, () => exportResponse(data, title, search));
   if (search.get('format') !== 'csv') return xlsxResponse(await studyWorkbook(data), title);
   const table = search.get('table') ?? 'Trials';
   if (!(STUDY_SHEETS as readonly string[]).includes(table)) throw new DomainError('invalid', 'invalid', `No table "${table}": choose one of ${STUDY_SHEETS.join(', ')}.`);
