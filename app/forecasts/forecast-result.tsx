@@ -2,6 +2,8 @@ import type { UnitSystem } from '@/analysis/units/unit-system';
 import { displayUnit, displayUnits } from '@/app/_contracts/units';
 import { CautionList, TempValue } from '../_components/safety-notice';
 import { PlotFigure } from '../_components/plot-figure';
+import { MeasuredDay } from '../_components/measured-day';
+import type { MeasuredDayView } from '../_contracts/study-blocks';
 
 /** What POST /api/labs/:id/forecast answers (SI; the names carry the unit). */
 export interface ForecastResult {
@@ -10,6 +12,9 @@ export interface ForecastResult {
   hoursToTarget_h: number | null;
   equilibriumTemp_degC: number | null;
   equilibriumNote?: string;
+  /** heater hours per day that hold the target under the mean weather and cover (null: cannot, or no target) */
+  holdHoursPerDay_h?: number | null;
+  holdNote?: string | null;
   evaporated_kg: number;
   fitNote: string | null;
   pool: { volume_m3: number; area_m2: number } | null;
@@ -17,6 +22,8 @@ export interface ForecastResult {
   riseTable: { flowsM3PerS: number[]; volumesM3: number[]; risePerHourK: number[][] } | null;
   cost: { perUsefulTherm: number; perDegF: number; perK: number; forecastHeatCost: number } | null;
   plots: Record<'trajectory' | 'budget', { title: string; summary: string; svg: string }>;
+  /** the measured day, when one was given */
+  measuredDay?: MeasuredDayView | null;
 }
 
 /** A forecast's result: final temperature, hours to target, equilibrium, the pool, cautions, both plots, the cost and the rise table. */
@@ -26,11 +33,12 @@ export function ForecastResultView({ res, units }: { res: ForecastResult; units:
   const poolVolume = displayUnit('poolVolume', units), area = displayUnit('area', units);
   return (
     <>
-      <dl className="grid gap-3 sm:grid-cols-3">
+      <dl className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
         {[
           ['Final temperature', <TempValue key="f" tempC={res.finalTemp_degC} units={units} withUnit />],
           ['Hours to target', res.hoursToTarget_h == null ? 'not reached' : `${res.hoursToTarget_h.toFixed(1)} h`],
           ['Equilibrium', res.equilibriumTemp_degC == null ? '—' : <TempValue key="e" tempC={res.equilibriumTemp_degC} units={units} withUnit />],
+          ['Heater hours a day to hold the target', res.holdNote == null ? 'no target' : res.holdHoursPerDay_h == null ? 'cannot hold' : `${res.holdHoursPerDay_h.toFixed(1)} h`],
         ].map(([k, val]) => (
           <div key={String(k)} className="card p-4">
             <dt className="text-sm text-ink-soft">{k}</dt>
@@ -38,6 +46,8 @@ export function ForecastResultView({ res, units }: { res: ForecastResult; units:
           </div>
         ))}
       </dl>
+      {res.equilibriumNote ? <p className="text-sm text-ink-soft">{res.equilibriumNote}</p> : null}
+      {res.holdNote ? <p className="text-sm text-ink-soft">{res.holdNote}</p> : null}
       {res.fitNote ? <p className="text-sm text-ink-soft">{res.fitNote}</p> : null}
       {res.pool ? (
         <p className="text-sm text-ink-soft">
@@ -46,6 +56,7 @@ export function ForecastResultView({ res, units }: { res: ForecastResult; units:
         </p>
       ) : null}
       <CautionList cautions={res.cautions} />
+      {res.measuredDay ? <MeasuredDay day={res.measuredDay} units={units} /> : null}
       <PlotFigure {...res.plots.trajectory} filename="forecast" />
       <PlotFigure {...res.plots.budget} filename="energy-budget" />
       {res.cost ? (

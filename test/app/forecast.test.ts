@@ -39,6 +39,34 @@ describe('forecast API', () => {
     expect(r.body.finalTemp_degC).toBeGreaterThan(20);
   });
 
+  test('a measured day: the residual against the loss-free exact solution (check value #13), the unmodelled gain r·M·cp and its uncertainty, and a verdict', async () => {
+    const v = await signedIn('viewer@cinder-hollow.test');
+    const lab = (await v.get('/api/me')).body.labs[0];
+    const body = { poolMass: '56588 kg', startTemp: '20 degC', hours: 24, flow: `${0.2 / 998.2} m^3/s`, heater: { model: 'coil', sourceTemp: '90 degC', UA: '500 W/K' }, losses: false };
+    // DOMAIN.md §8 #13: the forecast ends at 28.98 °C; the pool was measured at 30.0 °C
+    const r = await v.post(`/api/labs/${lab.id}/forecast`, { ...body, measured: { endTemp: '30 degC', thermometerU: '0.2 K', volumeRelativeU: 0.01 } });
+    expect(r.status, r.text).toBe(200);
+    const d = r.body.measuredDay;
+    expect(d.predictedEndTemp_degC).toBeCloseTo(28.98, 1);
+    expect(d.residual_K).toBeCloseTo(30 - d.predictedEndTemp_degC, 9);
+    // G = r·M·cp with cp of water near 29.5 °C, 4,178 J/(kg·K) within 0.1 % (IAPWS-IF97, from memory)
+    expect(d.unmodelledGain_J / (d.residual_K * 56588 * 4178)).toBeCloseTo(1, 2);
+    expect(d.unmodelledGainU_J).toBeGreaterThan(0);
+    expect(d.significant).toBe(true);
+    expect(d.verdict).toMatch(/more than the forecast/);
+    // the pool's volume carries the prediction too: at ±5 % (the heat spread over more or less water,
+    // ∂Tpred/∂M = −(Ts − T0)·e^(−t/τ)·(t/τ)/M for the exact solution) the same 1 K is within the measurement
+    const loose = await v.post(`/api/labs/${lab.id}/forecast`, { ...body, measured: { endTemp: '30 degC', thermometerU: '0.2 K', volumeRelativeU: 0.05 } });
+    expect(loose.body.measuredDay.significant).toBe(false);
+    expect(loose.body.measuredDay.verdict).toMatch(/^Within the measurement uncertainty/);
+    // with the target given, the hours a day that hold it: no losses, so none
+    const held = await v.post(`/api/labs/${lab.id}/forecast`, { ...body, targetTemp: '28 degC' });
+    expect(held.body.holdHoursPerDay_h).toBe(0);
+    const bad = await v.post(`/api/labs/${lab.id}/forecast`, { ...body, measured: { endTemp: '30 degC', volumeRelativeU: 2 } });
+    expect(bad.status).toBe(422);
+    expect(bad.body.message).toMatch(/volume uncertainty is at most 50 %/);
+  });
+
   test('a unit that does not fit the quantity is refused with the field named', async () => {
     const v = await signedIn('viewer@cinder-hollow.test');
     const lab = (await v.get('/api/me')).body.labs[0];

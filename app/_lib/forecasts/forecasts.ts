@@ -1,7 +1,11 @@
 import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
-import { Fit, type LabRow } from '@/entities';
+import { Fit, type FitRow, type LabRow } from '@/entities';
+import { solarCollectorHeater } from '@/analysis/performance/collector-efficiency';
+import type { HeaterModel } from '@/analysis/performance/heater-model';
+import { measuredDayCheck } from '@/analysis/forecast/measured-day-check';
+import { collectorParameters } from '../fits/collector-analysis';
 import { costPerDegree, usefulHeatCost, USEFUL_THERM_J } from '@/analysis/cost/useful-heat-cost';
 import type { FuelKind } from '@/analysis/cost/fuels';
 import { checkForecastWork, FORECAST_LIMITS } from '@/analysis/forecast/forecast-limits';
@@ -40,6 +44,7 @@ interface Prepared {
  */
 export async function forecast(em: EntityManager, lab: LabRow, body: Record<string, unknown>, units: UnitSystem) {
   const { input, result: r, pool, fitNote, costInput } = await prepareForecast(em, lab, body);
+  const measured = body.measured === undefined ? null : measuredDayOf(input, body.measured);
   // Long series (a season sampled hourly and finer) are reduced for display, keeping extremes and endpoints.
   const shown = reduceForDisplay(r.timeH, r.tempC);
   const pick = (a: Float64Array) => Array.from(shown.indices, (i) => a[i]);
@@ -62,6 +67,7 @@ export async function forecast(em: EntityManager, lab: LabRow, body: Record<stri
     fitNote,
     pool: pool && { volume_m3: pool.volumeM3, area_m2: pool.areaM2 },
     ...forecastExtras(input, r, costInput),
+    measuredDay: measured,
     plots: {
       trajectory: { title: trajectory.title, summary: trajectory.summary, svg: plotToSvg(trajectory.options), cautions: trajectory.cautions },
       budget: { title: budget.title, summary: budget.summary, svg: plotToSvg(budget.options) },
@@ -97,22 +103,31 @@ export function forecastWorkProblem(body: Record<string, unknown>): string | nul
  * the surface of the loss terms), read by the same reader as the command line.
  */
 async function prepareForecast(em: EntityManager, lab: LabRow, body: Record<string, unknown>): Promise<Prepared> {
-  const { fitId, cost: costInput, pool: poolBody, ...rest } = body;
+  const { fitId, cost: costInput, pool: poolBody, measured: _measured, sun, ...rest } = body;
+  void _measured;
   let fitNote: string | null = null;
+  let collector: { heater: HeaterModel; note: string } | null = null;
   const input: Record<string, unknown> = { ...rest };
   if (fitId !== undefined) {
     const fit = isUuid(fitId) ? await em.findOne(Fit, { id: fitId, lab }) : null;
     if (!fit) throw notFound('No such saved fit in this lab.');
-    if (fit.model !== 'coil') throw invalid('Forecasts take a saved coil fit (its Ts and UA carry over to any inlet temperature).', { fitId: 'Pick a coil fit.' });
-    const p = parseStoredFit(fit.result, fit.id).fit.params;
-    input.heater = { model: 'coil', sourceTemp: `${p.Ts.value} degC`, UA: `${p.UA.value} W/K` };
-    fitNote = `Heater: saved fit "${fit.title}" v${fit.version} (Ts ${p.Ts.value.toFixed(1)} °C, UA ${p.UA.value.toFixed(0)} W/K).`;
+    if (fit.kind === 'collector') {
+      collector = collectorHeaterOf(fit, sun);
+      input.heater = { model: 'fixed-rise', rise: '0 K' }; // replaced by the collector below, once the input is read
+      fitNote = collector.note;
+    } else {
+      if (fit.model !== 'coil') throw invalid('Forecasts take a saved coil fit (its Ts and UA carry over to any inlet temperature) or a collector fit.', { fitId: 'Pick a coil or collector fit.' });
+      const p = parseStoredFit(fit.result, fit.id).fit.params;
+      input.heater = { model: 'coil', sourceTemp: `${p.Ts.value} degC`, UA: `${p.UA.value} W/K` };
+      fitNote = `Heater: saved fit "${fit.title}" v${fit.version} (Ts ${p.Ts.value.toFixed(1)} °C, UA ${p.UA.value.toFixed(0)} W/K).`;
+    }
   }
   return readingInput((read) => {
     const pool = poolBody === undefined ? null : poolGeometry(readPoolDimensions(read, poolBody, 'pool'));
     if (pool && input.losses && typeof input.losses === 'object') input.losses = { ...(input.losses as object), surfaceArea: `${pool.areaM2} m^2` };
     const typed = readForecastInput(read, input);
     if (pool) typed.poolVolumeM3 = pool.volumeM3;
+    if (collector) typed.heater = collector.heater;
     return { input: typed, result: recirculatingForecast(typed), pool, fitNote, costInput };
   });
 }
@@ -124,6 +139,49 @@ async function prepareForecast(em: EntityManager, lab: LabRow, body: Record<stri
 export async function forecastForExport(em: EntityManager, lab: LabRow, body: Record<string, unknown>, label: string): Promise<ForecastExport> {
   return { label, result: (await prepareForecast(em, lab, body)).result };
 }
+
+/** The sun on a collector heater during the forecast: irradiance in its plane and the air around it. */
+const sunSchema = z.object({
+  irradiance: z.string().trim().min(1).max(40),
+  ambientTemp: z.string().trim().min(1).max(40),
+  modules: z.number().int().min(1).max(200).optional(),
+}).strict();
+
+/** A saved collector fit as the heater of a forecast (`solarCollectorHeater` at a steady sun). */
+function collectorHeaterOf(fit: FitRow, sun: unknown): { heater: HeaterModel; note: string } {
+  const p = collectorParameters(fit);
+  if (!p) throw invalid(`The collector fit "${fit.title}" has unphysical coefficients (η0 outside (0, 1] or a negative loss): it cannot heat a forecast.`, { fitId: 'Pick another collector fit.' });
+  const s = sunSchema.safeParse(sun);
+  if (!s.success) throw invalid('A collector heater needs the sun of the forecast: sun.irradiance in its plane (e.g. "800 W/m^2") and sun.ambientTemp (e.g. "25 degC").', { sun: s.error.issues[0]?.message ?? 'missing' });
+  const G = parseQuantity(s.data.irradiance, 'irradiance', 'sun.irradiance');
+  const Ta = parseQuantity(s.data.ambientTemp, 'temperature', 'sun.ambientTemp');
+  if (!(G >= 0 && G <= 1500)) throw invalid(`sun.irradiance ${G.toFixed(0)} W/m² is outside 0–1,500 W/m².`, { sun: 'irradiance 0–1,500 W/m²' });
+  const heater = solarCollectorHeater({ collector: p, irradianceWPerM2: G, ambientTempC: Ta, modules: s.data.modules });
+  return { heater, note: `Heater: collector fit "${fit.title}" v${fit.version} (η0 ${p.eta0?.toFixed(3) ?? '–'}, a1 ${p.a1WPerM2K.toFixed(2)} W/(m²·K) on ${p.areaM2} m² ${p.areaBasis}) at ${G.toFixed(0)} W/m² and ${Ta.toFixed(1)} °C air during the heater hours.` };
+}
+
+const measuredSchema = z.object({
+  endTemp: z.string().trim().min(1, 'give the measured end temperature').max(40),
+  thermometerU: z.string().trim().min(1).max(40).default('0.3 K'),
+  volumeRelativeU: z.number().min(0).max(0.5, 'the volume uncertainty is at most 50 %').default(0.05),
+}).strict();
+
+/** The measured day of a forecast: its end against the measured end, the unmodelled gain and its uncertainty. */
+function measuredDayOf(input: ForecastInput, body: unknown) {
+  const m = measuredSchema.safeParse(body);
+  if (!m.success) throw invalid(`measured: ${m.error.issues[0]?.message ?? 'invalid'}`, { measured: m.error.issues[0]?.message ?? 'invalid' });
+  const endC = parseQuantity(m.data.endTemp, 'temperature', 'measured.endTemp');
+  const uT = parseQuantity(m.data.thermometerU, 'temperatureDifference', 'measured.thermometerU');
+  if (!(endC > -40 && endC < 100)) throw invalid(`measured.endTemp ${endC.toFixed(1)} °C is outside the water range 0–100 °C.`, { measured: 'end temperature 0–100 °C' });
+  if (!(uT >= 0 && uT <= 5)) throw invalid('measured.thermometerU must be within 0–5 K.', { measured: 'thermometer uncertainty 0–5 K' });
+  const c = measuredDayCheck(input, endC, { thermometerK: uT, volumeRelative: m.data.volumeRelativeU });
+  return {
+    startTemp_degC: input.startTempC, observedEndTemp_degC: c.observedEndC, predictedEndTemp_degC: c.predictedEndC, residual_K: c.residualK, residualU_K: c.residualUK,
+    unmodelledGain_J: c.unmodelledGainJ, unmodelledGainU_J: c.gainUJ, unmodelledGain_W: c.unmodelledGainW, unmodelledGainU_W: c.gainUW,
+    unmodelledGain_W_per_m2: c.unmodelledGainWPerM2, significant: c.significant, verdict: c.verdict, heaterHours: input.heaterHours ?? null, hours: input.hours,
+  };
+}
+export type MeasuredDayView = ReturnType<typeof measuredDayOf>;
 
 const costSchema = z.object({ fuel: z.enum(['natural-gas', 'propane', 'electric-resistance', 'heat-pump', 'wood']), pricePerUnit: z.number().positive(), efficiency: z.number().positive().max(10).optional() }).strict();
 

@@ -9,6 +9,7 @@ import type { FitView } from '@/app/_contracts/fit-report';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { costView } from '../forecasts/cost-sheet';
 import { modelLabel } from '../fits/fit-analysis';
+import { collectorModelLabel, savedCollectorView } from '../fits/collector-analysis';
 import { parseStoredFit } from '../fits/stored-fit';
 import { forecast } from '../forecasts/forecasts';
 import { renderMarkdown } from './markdown';
@@ -40,7 +41,7 @@ export interface BlockContext {
   fits?: Map<string, FitRow>;
 }
 
-const FIT_KINDS = new Set(['fit', 'comparison', 'performance', 'trials']);
+const FIT_KINDS = new Set(['fit', 'comparison', 'performance', 'trials', 'collector']);
 const plotView = (f: PlotFigure): PlotView => ({ title: f.title, summary: f.summary, svg: plotToSvg(f.options), ...(f.cautions?.length ? { cautions: f.cautions } : {}) });
 
 /** The saved fits the given blocks point at (lab-scoped), by id. */
@@ -67,6 +68,12 @@ function fitView(fit: FitSuccess, label: string): FitView {
 }
 
 function fitBody(kind: string, fit: FitRow, publicView: boolean, units: UnitSystem): BlockBody {
+  if (fit.kind === 'collector' || kind === 'collector') {
+    if (fit.kind !== 'collector') return { type: 'note', tone: 'muted', message: 'A collector block shows a saved collector fit: choose one.' };
+    if (kind !== 'collector') return { type: 'note', tone: 'muted', message: 'This saved fit is a collector efficiency curve: show it in a collector block.' };
+    const head: FitHead = { fitId: publicView ? null : fit.id, title: fit.title, version: fit.version, label: collectorModelLabel(fit.model), reviewState: fit.reviewState };
+    return { type: 'collector', head, view: savedCollectorView(fit) };
+  }
   const r = parseStoredFit(fit.result, fit.id);
   const label = modelLabel(fit.model);
   const head: FitHead = { fitId: publicView ? null : fit.id, title: fit.title, version: fit.version, label, reviewState: fit.reviewState };
@@ -124,7 +131,10 @@ async function body(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
     case 'forecast':
       try {
         const f = await forecast(ctx.em, ctx.lab, { ...d }, ctx.units);
-        return { type: 'forecast', finalTempC: f.finalTemp_degC, hoursToTarget: f.hoursToTarget_h, fitNote: f.fitNote, cautions: f.cautions, plot: f.plots.trajectory };
+        return {
+          type: 'forecast', finalTempC: f.finalTemp_degC, hoursToTarget: f.hoursToTarget_h, fitNote: f.fitNote, cautions: f.cautions, plot: f.plots.trajectory,
+          equilibriumTempC: f.equilibriumTemp_degC, holdHoursPerDay: f.holdHoursPerDay_h, holdNote: f.holdNote, measuredDay: f.measuredDay,
+        };
       } catch (e) {
         return { type: 'note', tone: 'danger', message: `This forecast cannot be computed: ${(e as Error).message}` };
       }
