@@ -20,6 +20,9 @@ export interface RigDetails {
   fluidCpJPerKgK?: number;
   fluidDensityKgPerM3?: number;
   flowPerAreaM3PerSM2?: number;
+  /** what the rig cost to build, in `buildCostCurrency` (a code such as "USD") */
+  buildCost?: number;
+  buildCostCurrency?: string;
   [key: string]: unknown;
 }
 

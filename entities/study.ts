@@ -5,7 +5,7 @@ import { REVIEW_STATES, type ReviewState } from './review';
 import { User } from './user';
 
 export const BLOCK_KINDS = [
-  'text', 'trials', 'fit', 'comparison', 'performance', 'forecast', 'costs', 'sensor-log', 'caution',
+  'text', 'trials', 'fit', 'comparison', 'performance', 'forecast', 'costs', 'sensor-log', 'caution', 'design-comparison',
   // solar collectors
   'collector',
 ] as const;

@@ -49,6 +49,8 @@ export function RigForm({ labId, rig }: { labId: string; rig?: RigValues }) {
         fluidCpJPerKgK: n('fluidCpJPerKgK'),
         fluidDensityKgPerM3: n('fluidDensityKgPerM3'),
         flowPerAreaM3PerSM2: n('flowPerAreaLpmM2', LPM_PER_M2),
+        buildCost: n('buildCost'),
+        buildCostCurrency: String(f.get('buildCostCurrency') ?? '').trim().toUpperCase() || undefined,
       }).filter(([, v]) => v !== undefined),
     );
     const body = { name: f.get('name'), heatSource: f.get('heatSource'), description: f.get('description'), notes: f.get('notes'), details };
@@ -108,6 +110,16 @@ export function RigForm({ labId, rig }: { labId: string; rig?: RigValues }) {
         <label>
           <span className="text-xs text-ink-muted">Burner rating (kW)</span>
           <input name="burnerRatingKw" inputMode="decimal" className="field-input num" defaultValue={d.burnerRatingW ? d.burnerRatingW / 1000 : ''} />
+        </label>
+        <label>
+          <span className="text-xs text-ink-muted">Build cost (for heat per unit of cost)</span>
+          <input name="buildCost" inputMode="decimal" className="field-input num" defaultValue={d.buildCost} />
+          {fe('details.buildCost')}
+        </label>
+        <label>
+          <span className="text-xs text-ink-muted">Currency of the build cost</span>
+          <input name="buildCostCurrency" maxLength={3} className="field-input" placeholder="USD" defaultValue={d.buildCostCurrency} />
+          {fe('details.buildCostCurrency')}
         </label>
       </fieldset>
       {source === 'solar-collector' ? (

@@ -15,6 +15,7 @@ import type { FuelKind } from '@/analysis/cost/fuels';
 import type { CollectorTestResult } from '@/analysis/performance/collector-test';
 import type { CellValue } from './cells';
 import type { UnitSystem } from '@/analysis/units/unit-system';
+import type { DesignComparisonView } from '@/app/_contracts/design-comparison';
 
 /** Where the numbers come from: the Summary sheet's Provenance section (DOMAIN.md §7, reproducibility). */
 export interface ExportProvenance {
@@ -146,6 +147,8 @@ export interface StudyExport {
   forecasts?: ForecastExport[];
   costs?: CostExport;
   collectors?: CollectorExport[];
+  /** design comparisons (a study's design-comparison blocks, or one comparison's export) */
+  comparisons?: DesignComparisonView[];
   /** extra lines under the Summary table (cautions, the reviewer's sign-off…) */
   notes?: string[];
 }

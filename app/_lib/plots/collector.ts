@@ -8,8 +8,8 @@
 import * as Plot from '@observablehq/plot';
 import type { CollectorTestResult } from '../../../analysis/performance/collector-test';
 import { fmt } from '@/app/_contracts/units';
-import { baseOptions, COLORS, type PlotFigure } from './theme';
-import { sentences } from './words';
+import { baseOptions, COLORS, type PlotFigure } from '@/app/_plots/theme';
+import { sentences } from '@/app/_plots/words';
 
 /** A point left out by the steadiness limits, with its η and x (null when they cannot be formed). */
 export interface CollectorExcludedPoint { label: string; efficiency: number | null; xM2KPerW: number | null; reasons: string[] }

@@ -38,6 +38,8 @@ const rigFields = z.object({
       collectorAreaM2: z.number().positive().max(10000).optional(),
       burnerRatingW: z.number().positive().max(1e7).optional(),
       ...collectorDetails.shape,
+      buildCost: z.number().positive().max(1e9).optional(),
+      buildCostCurrency: z.string().trim().regex(/^[A-Z]{3}$/, 'a three-letter currency code such as USD').optional(),
     })
     .strict()
     .superRefine((d, ctx) => {
@@ -88,7 +90,8 @@ export async function rigsOfLab(em: EntityManager, lab: LabRow): Promise<{ rigs:
 
 /** The rig page's files: the latest trial sheets and the photos. */
 export async function rigFiles(em: EntityManager, rig: RigRow) {
-  const files = await em.find(SourceFile, { rig, purpose: 'trials' }, { orderBy: { createdAt: 'desc' }, limit: 10 });
+  // a test session's logger samples are a source file with no stored object (storage key `session:<id>`): the session page shows them
+  const files = await em.find(SourceFile, { rig, purpose: 'trials', storageKey: { $not: { $like: 'session:%' } } }, { orderBy: { createdAt: 'desc' }, limit: 10 });
   const photos = await em.find(SourceFile, { rig, purpose: 'photo' }, { orderBy: { createdAt: 'desc' }, limit: 24 });
   return { files, photos };
 }

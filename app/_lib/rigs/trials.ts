@@ -9,7 +9,7 @@ import { checkTrialRow, plausibilityWarnings, trialFields, TRIAL_LIMITS, type Ch
 import { isUuid } from '../labs/load-in-lab';
 
 /** A quantity given as a number in the SI unit named by the key, or as a string with its unit ("4.5 gpm"). */
-const quantity = (kind: QuantityKind, field: string) =>
+export const quantity = (kind: QuantityKind, field: string) =>
   z.union([z.number(), z.string().trim().min(1)]).transform((v, ctx) => {
     if (typeof v === 'number') return v;
     try {

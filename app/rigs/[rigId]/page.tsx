@@ -11,6 +11,8 @@ import { rigDto } from '../../_lib/server/dto';
 import { rigFiles } from '../../_lib/rigs/rigs';
 import { loadInLab } from '../../_lib/labs/load-in-lab';
 import { requireLabAction } from '../../_lib/accounts/viewer';
+import { SessionPlanner } from './session-plan';
+import { rigSessionsPanel } from '../../_lib/sessions/sessions';
 
 export const dynamic = 'force-dynamic';
 
@@ -22,6 +24,7 @@ export default async function RigPage({ params, searchParams }: { params: Promis
   const { files, photos } = await rigFiles(v.em, rig);
   const jobs = (await listRigJobs(v.em, rig)).map(importJobDto);
   const write = v.can('trial:write');
+  const sessions = await rigSessionsPanel(v.em, rig);
   const d = rig.details ?? {};
   const facts = [
     d.coilLengthM ? `${d.coilLengthM} m of tube` : null,
@@ -34,6 +37,7 @@ export default async function RigPage({ params, searchParams }: { params: Promis
     d.azimuthDeg !== undefined ? `azimuth ${d.azimuthDeg}°` : null,
     d.fluid ? String(d.fluid) : null,
     d.burnerRatingW ? `${Number(d.burnerRatingW) / 1000} kW burner` : null,
+    d.buildCost ? `built for ${Number(d.buildCost)} ${String(d.buildCostCurrency ?? 'USD')}` : null,
   ].filter(Boolean);
   return (
     <AppPage
@@ -82,6 +86,7 @@ export default async function RigPage({ params, searchParams }: { params: Promis
       ) : null}
       <RigJobs rigId={rig.id} initial={jobs} canCancel={write} />
       <TrialsTable rigId={rig.id} units={v.user.unitSystem} canWrite={write} />
+      <SessionPlanner rigId={rig.id} units={v.user.unitSystem} sessions={sessions.sessions} fits={sessions.fits} canWrite={write} />
       {rig.notes ? (
         <section className="card mt-6 p-5">
           <h2 className="text-lg">Notes</h2>

@@ -4,7 +4,7 @@
  */
 import type { UnitSystem } from '@/analysis/units/unit-system';
 
-export type Kind = 'text' | 'trials' | 'fit' | 'comparison' | 'performance' | 'forecast' | 'costs' | 'sensor-log' | 'caution'
+export type Kind = 'text' | 'trials' | 'fit' | 'comparison' | 'performance' | 'forecast' | 'costs' | 'sensor-log' | 'caution' | 'design-comparison'
   // solar collectors
   | 'collector';
 export interface Block {
@@ -22,6 +22,8 @@ export interface StudyState {
 export interface EditorChoices {
   fits: { id: string; label: string; coil: boolean; collector?: boolean }[];
   logs: { id: string; label: string }[];
+  /** the lab's saved design comparisons */
+  comparisons: { id: string; label: string }[];
 }
 
 export const KINDS: { kind: Kind; label: string }[] = [
@@ -34,6 +36,7 @@ export const KINDS: { kind: Kind; label: string }[] = [
   { kind: 'costs', label: 'Cost sheet' },
   { kind: 'sensor-log', label: 'Sensor log' },
   { kind: 'caution', label: 'Caution box' },
+  { kind: 'design-comparison', label: 'Design comparison' },
   // solar collectors
   { kind: 'collector', label: 'Collector efficiency' },
 ];
@@ -84,7 +87,7 @@ function forecastDefaults(units: UnitSystem, fits: EditorChoices['fits']): Recor
 }
 
 /** The settings a new block of `kind` starts with, after the blocks there are. */
-export function newBlockData(kind: Kind, units: UnitSystem, { fits, logs }: EditorChoices, blocks: readonly Block[]): Record<string, unknown> {
+export function newBlockData(kind: Kind, units: UnitSystem, { fits, logs, comparisons }: EditorChoices, blocks: readonly Block[]): Record<string, unknown> {
   switch (kind) {
     case 'forecast':
       return forecastDefaults(units, fits);
@@ -96,6 +99,8 @@ export function newBlockData(kind: Kind, units: UnitSystem, { fits, logs }: Edit
       return costDefaults(units, [...blocks].reverse().find((b) => b.kind === 'forecast')?.id ?? null);
     case 'sensor-log':
       return logs[0] ? { sourceFileId: logs[0].id } : {};
+    case 'design-comparison':
+      return comparisons[0] ? { comparisonId: comparisons[0].id } : {};
     case 'collector': {
       const c = fits.find((f) => f.collector);
       return c ? { fitId: c.id } : {};

@@ -329,6 +329,20 @@ const MATRIX: Record<string, Case[]> = {
       expect: labA(200, WRITERS),
     },
   ],
+  'app/api/rigs/[rigId]/sessions/route.ts': [
+    { method: 'GET', url: (f) => `/api/rigs/${f.rig.id}/sessions`, expect: labA(200, MEMBERS) },
+    // too few runs: refused by the schema after the rig is authorized, nothing is planned
+    { method: 'POST', url: (f) => `/api/rigs/${f.rig.id}/sessions`, body: () => ({ prior: { Ts: '85 degC', UA: '400 W/K' }, inletTemp: '18 degC', flowRange: ['2 L/min', '20 L/min'], maxOutletTemp: '95 degC', trials: 3 }), expect: labA(422, WRITERS) },
+  ],
+  'app/api/sessions/[sessionId]/route.ts': [{ method: 'GET', url: (f) => `/api/sessions/${f.sessions.open}`, expect: labA(200, MEMBERS) }],
+  'app/api/sessions/[sessionId]/events/route.ts': [{ method: 'GET', url: (f) => `/api/sessions/${f.sessions.open}/events?once=1`, expect: labA(200, MEMBERS) }],
+  // a run the session does not have: nothing changes
+  'app/api/sessions/[sessionId]/runs/route.ts': [{ method: 'POST', url: (f) => `/api/sessions/${f.sessions.open}/runs`, body: () => ({ action: 'skip', runKey: 'r999' }), expect: labA(422, WRITERS) }],
+  'app/api/sessions/[sessionId]/readings/route.ts': [{ method: 'POST', url: (f) => `/api/sessions/${f.sessions.open}/readings`, body: () => ({ runKey: 'r1', inlet: 'warm' }), expect: labA(422, WRITERS) }],
+  'app/api/sessions/[sessionId]/samples/route.ts': [{ method: 'POST', url: (f) => `/api/sessions/${f.sessions.open}/samples`, body: () => ({ samples: [] }), expect: labA(422, WRITERS) }],
+  // closing a closed session answers its stored verdict; a study of a session without a fit is refused
+  'app/api/sessions/[sessionId]/close/route.ts': [{ method: 'POST', url: (f) => `/api/sessions/${f.sessions.closed}/close`, expect: labA(200, WRITERS) }],
+  'app/api/sessions/[sessionId]/study/route.ts': [{ method: 'POST', url: (f) => `/api/sessions/${f.sessions.closed}/study`, expect: labA(409, WRITERS) }],
   'app/api/rigs/[rigId]/jobs/route.ts': [
     {
       method: 'GET',
@@ -361,6 +375,17 @@ const MATRIX: Record<string, Case[]> = {
     { method: 'GET', url: (f) => `/api/labs/${f.labId}/studies`, expect: labA(200, MEMBERS) },
     { method: 'POST', url: (f) => `/api/labs/${f.labId}/studies`, body: () => ({ title: '' }), expect: labA(422, WRITERS, { session: true }) },
   ],
+  'app/api/labs/[labId]/comparisons/route.ts': [
+    { method: 'GET', url: (f) => `/api/labs/${f.labId}/comparisons`, expect: labA(200, MEMBERS) },
+    // a body the schema refuses (no title, one design): nothing is stored
+    { method: 'POST', url: (f) => `/api/labs/${f.labId}/comparisons`, body: (f) => ({ title: '', subjects: [{ kind: 'rig', id: f.rig.id }] }), expect: labA(422, WRITERS, { session: true }) },
+  ],
+  'app/api/comparisons/[comparisonId]/route.ts': [{ method: 'GET', url: (f) => `/api/comparisons/${f.comparison.id}`, expect: labA(200, MEMBERS) }],
+  'app/api/comparisons/[comparisonId]/comments/route.ts': [
+    { method: 'GET', url: (f) => `/api/comparisons/${f.comparison.id}/comments`, expect: labA(200, MEMBERS) },
+    { method: 'POST', url: (f) => `/api/comparisons/${f.comparison.id}/comments`, body: () => ({ body: '' }), expect: labA(422, COMMENTERS, { session: true }) },
+  ],
+  'app/api/comparisons/[comparisonId]/export/route.ts': [{ method: 'GET', url: (f) => `/api/comparisons/${f.comparison.id}/export?format=csv&table=Comparison`, expect: labA(200, MEMBERS) }],
   'app/api/studies/[studyId]/route.ts': [
     { method: 'GET', url: (f) => `/api/studies/${f.study.id}`, expect: labA(200, MEMBERS) },
     {
