@@ -123,3 +123,25 @@ describe('long forecasts', () => {
     expect(trajectorySvg(r.body)).not.toMatch(/NaN/);
   });
 });
+
+describe('filling a tub in one pass through the heater', () => {
+  // DOMAIN.md §1.2 worked table (ε-NTU, Cr → 0, computed): Ts 90 °C, Tin 20 °C, UA 500 W/K, ṁ 0.1 kg/s → Tout 68.80 °C
+  // (cp 4,186); at 6 L/min of water the app's IF97 cp and density move it by under 0.1 K.
+  test('fill time V/Q, the final temperature of the outlet water, the flow for a 38 °C tub, and the spa cautions above 40 °C', async () => {
+    const v = await signedIn('viewer@cinder-hollow.test');
+    const lab = (await v.get('/api/me')).body.labs[0];
+    const r = await v.post(`/api/labs/${lab.id}/tub-fill`, { heater: { sourceTemp: '90 degC', UA: '500 W/K' }, tubVolume: '1200 L', flow: '6 L/min', supplyTemp: '20 degC', targetTemp: '38 degC' });
+    expect(r.status, r.text).toBe(200);
+    expect(r.body.fillTimeS).toBeCloseTo(1200 / 6 * 60, 6);
+    expect(r.body.outletTempC).toBeCloseTo(68.8, 0);
+    expect(r.body.finalTempC).toBeCloseTo(r.body.outletTempC, 9); // an empty tub ends at the outlet temperature
+    // a 69 °C tub is far above the 40 °C limit for tubs (DOMAIN.md §5): the tub's own caution is there
+    expect(r.body.cautions.some((c: { where: string; level: string }) => c.where === 'tub' && c.level === 'danger')).toBe(true);
+    // the flow for 38 °C: UA/(ρ·cp·ln((Ts − Tin)/(Ts − T))) (DOMAIN.md §1.6, the minimum-flow formula for a limit)
+    const expected = 500 / (998 * 4180 * Math.log(70 / 52));
+    expect(r.body.target.flowM3PerS / expected).toBeCloseTo(1, 2);
+    const dead = await v.post(`/api/labs/${lab.id}/tub-fill`, { heater: { sourceTemp: '90 degC', UA: '500 W/K' }, tubVolume: '1200 L', flow: '0 L/min', supplyTemp: '20 degC' });
+    expect(dead.status).toBe(422);
+    expect(dead.body.fields.flow).toMatch(/more than 0/);
+  });
+});
