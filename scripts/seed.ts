@@ -4,6 +4,7 @@ import { hash } from '@node-rs/argon2';
 import { Lab, Membership, Rig, Trial, User } from '../entities';
 import { DEMO_PASSWORD, demoLab, demoUsers, generateTrials, rigPlans } from '../fixtures/demo-lab';
 import { ARGON2_OPTIONS } from '../app/_lib/accounts/password-options';
+import { seedSolarDemo } from './seed-solar';
 
 export async function seedDemoLab(em: EntityManager): Promise<boolean> {
   if (await em.findOne(Lab, { slug: demoLab.slug })) return false;
@@ -18,6 +19,7 @@ export async function seedDemoLab(em: EntityManager): Promise<boolean> {
       const rig = tx.create(Rig, { lab, name: plan.name, heatSource: plan.heatSource, description: plan.description, details: plan.details });
       for (const t of generateTrials(plan)) tx.create(Trial, { lab, rig, origin: 'demo', ...t });
     }
+    seedSolarDemo(tx, lab);
   });
   return true;
 }
