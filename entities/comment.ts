@@ -3,7 +3,7 @@ import { baseProperties } from './base';
 import { Lab } from './lab';
 import { User } from './user';
 
-/** A reviewer's (or author's) comment on a fit or on one block of a study. */
+/** A reviewer's (or author's) comment on a fit, a design comparison or one block of a study. */
 export const Comment = defineEntity({
   name: 'Comment',
   tableName: 'comment',
@@ -12,7 +12,7 @@ export const Comment = defineEntity({
     ...baseProperties(),
     lab: () => p.manyToOne(Lab).deleteRule('cascade'),
     author: () => p.manyToOne(User).nullable().deleteRule('set null'),
-    targetKind: p.enum(() => ['fit', 'study'] as const).$type<'fit' | 'study'>(),
+    targetKind: p.enum(() => ['fit', 'study', 'comparison'] as const).$type<'fit' | 'study' | 'comparison'>(),
     targetId: p.uuid(),
     blockId: p.string().length(40).nullable(),
     body: p.text(),

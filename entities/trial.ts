@@ -28,6 +28,10 @@ export const Trial = defineEntity({
     inletTempC: num().fieldName('inlet_c'),
     outletTempC: num().fieldName('outlet_c'),
     ambientTempC: num().fieldName('ambient_c').nullable(),
+    /** Irradiance in the collector plane, W/m² (solar-collector trials). */
+    irradianceWPerM2: num().fieldName('irradiance_w_per_m2').nullable(),
+    /** Wind over the collector, m/s. */
+    windMPerS: num().fieldName('wind_m_per_s').nullable(),
     /** Marks a repeated reference flow used to detect drift. */
     isReference: p.boolean().default(false),
     excluded: p.boolean().default(false),

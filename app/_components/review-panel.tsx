@@ -18,7 +18,8 @@ export function StateBadge({ state }: { state: string }) {
 
 /** Review state, actions by role, comments and history of a fit or study. */
 export function ReviewPanel(props: {
-  kind: 'fit' | 'study';
+  /** a comparison takes comments only (no review decisions) */
+  kind: 'fit' | 'study' | 'comparison';
   id: string;
   state: string;
   canSubmit: boolean;
@@ -32,7 +33,7 @@ export function ReviewPanel(props: {
   const router = useRouter();
   const [note, setNote] = useState('');
   const [error, setError] = useState<string | null>(null);
-  const base = props.kind === 'fit' ? `/api/fits/${props.id}` : `/api/studies/${props.id}`;
+  const base = props.kind === 'fit' ? `/api/fits/${props.id}` : props.kind === 'comparison' ? `/api/comparisons/${props.id}` : `/api/studies/${props.id}`;
   const act = async (url: string, body: unknown) => {
     setError(null);
     try {
@@ -45,10 +46,10 @@ export function ReviewPanel(props: {
   };
   const s = props.state;
   return (
-    <aside className="card h-fit space-y-4 p-4" aria-label="Review">
+    <aside className="card h-fit space-y-4 p-4" aria-label={props.kind === 'comparison' ? 'Comments' : 'Review'}>
       <div className="flex items-center justify-between">
-        <h2 className="text-lg">Review</h2>
-        <StateBadge state={s} />
+        <h2 className="text-lg">{props.kind === 'comparison' ? 'Comments' : 'Review'}</h2>
+        {props.kind === 'comparison' ? null : <StateBadge state={s} />}
       </div>
       <div className="flex flex-wrap gap-2">
         {props.canSubmit && (s === 'draft' || s === 'changes-requested') ? (

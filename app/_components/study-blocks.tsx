@@ -4,6 +4,7 @@ import type { ReactNode } from 'react';
 import { ApiError } from './api';
 import { ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTableView } from './fit-report';
 import { PlotFigure } from './plot-figure';
+import { DesignComparison } from './design-comparison';
 import { CautionList, TempValue, TemperatureCautions } from './safety-notice';
 import { StateBadge } from './review-panel';
 import type { BlockBody, BlockData, CostView, FitHead } from '../_contracts/study-blocks';
@@ -156,6 +157,15 @@ export function BlockView({ block }: { block: BlockData }) {
       );
     case 'costs':
       return <CostSheet cost={b.cost} units={units} />;
+    case 'design-comparison':
+      return (
+        <div className="space-y-3">
+          <p className="text-sm text-ink-soft">
+            <strong className="text-ink">{b.view.title}</strong> {b.comparisonId ? <a href={`/comparisons/${b.comparisonId}`}>open the comparison</a> : null}
+          </p>
+          <DesignComparison view={b.view} units={units} links={!!b.comparisonId} filename={`comparison-${block.id}`} />
+        </div>
+      );
     case 'sensor-log':
       return (
         <div className="space-y-4">

@@ -5,6 +5,7 @@
  * study-keys.ts beside this file.
  */
 import type { ChoiceView, ComparisonView, FitView, PerformanceView } from './fit-report';
+import type { DesignComparisonView } from './design-comparison';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import type { CautionLike } from '@/analysis/safety/cautions';
 
@@ -90,6 +91,8 @@ export type BlockBody =
       segmentCount: number;
       plots: PlotView[];
     }
+  /** a saved design comparison; `comparisonId` is null on the public share view */
+  | { type: 'design-comparison'; comparisonId: string | null; view: DesignComparisonView }
   | { type: 'note'; tone: 'muted' | 'danger'; message: string };
 
 /** One block, ready to show. */

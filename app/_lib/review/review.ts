@@ -67,16 +67,17 @@ export async function review(
 /** A lab's latest saved fits (at most `limit`), newest first, with their rigs. */
 export const commentInput = z.object({ body: z.string().trim().min(1, 'Write something.').max(8000), blockId: z.string().max(40).optional() }).strict();
 
-export async function addComment(em: EntityManager, lab: LabRow, author: UserRow, targetKind: 'fit' | 'study', targetId: string, input: z.infer<typeof commentInput>) {
+export async function addComment(em: EntityManager, lab: LabRow, author: UserRow, targetKind: 'fit' | 'study' | 'comparison', targetId: string, input: z.infer<typeof commentInput>) {
   const c = em.create(Comment, { lab, author, targetKind, targetId, blockId: input.blockId ?? null, body: input.body });
   await em.flush();
   return c;
 }
 
-export async function reviewTrail(em: EntityManager, targetKind: 'fit' | 'study', targetId: string) {
+export async function reviewTrail(em: EntityManager, targetKind: 'fit' | 'study' | 'comparison', targetId: string) {
   const [comments, events] = await Promise.all([
     em.find(Comment, { targetKind, targetId }, { populate: ['author'], orderBy: { createdAt: 'asc' } }),
-    em.find(ReviewEvent, { targetKind, targetId }, { populate: ['actor'], orderBy: { createdAt: 'asc' } }),
+    // comparisons take comments, not review decisions
+    targetKind === 'comparison' ? [] : em.find(ReviewEvent, { targetKind, targetId }, { populate: ['actor'], orderBy: { createdAt: 'asc' } }),
   ]);
   return {
     comments: comments.map((c) => ({ id: c.id, at: c.createdAt.toISOString(), by: c.author?.name ?? null, blockId: c.blockId ?? null, body: c.body })),
@@ -90,3 +91,4 @@ export async function takeNotices(em: EntityManager, user: UserRow, limit = 100)
   await em.nativeUpdate(Notice, { user, readAt: null }, { readAt: new Date() });
   return notices;
 }
+

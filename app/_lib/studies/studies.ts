@@ -23,6 +23,9 @@ export const blockSchema = z
     if (['fit', 'comparison', 'performance', 'trials'].includes(b.kind) && b.data.fitId !== undefined && (!isUuid(b.data.fitId))) {
       ctx.addIssue({ code: 'custom', path: ['data', 'fitId'], message: 'Pick a saved fit.' });
     }
+    if (b.kind === 'design-comparison' && b.data.comparisonId !== undefined && !isUuid(b.data.comparisonId)) {
+      ctx.addIssue({ code: 'custom', path: ['data', 'comparisonId'], message: 'Pick a saved design comparison.' });
+    }
     if (b.kind === 'sensor-log' && b.data.sourceFileId !== undefined && (!isUuid(b.data.sourceFileId))) {
       ctx.addIssue({ code: 'custom', path: ['data', 'sourceFileId'], message: 'Pick an imported sensor log.' });
     }

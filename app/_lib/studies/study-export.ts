@@ -8,6 +8,9 @@ import { DomainError } from '../server/errors';
 import { forecastForExport } from '../forecasts/forecasts';
 import { modelLabel, SOFTWARE_VERSION } from '../fits/fit-analysis';
 import { parseStoredFit } from '../fits/stored-fit';
+import { comparisonInLab, readComparison } from '../comparisons/comparisons';
+import type { DesignComparisonView } from '@/app/_contracts/design-comparison';
+import { isUuid } from '../labs/load-in-lab';
 
 /** The saved fits a study's blocks point at, in block order, once each (lab-scoped). */
 export async function studyFits(em: EntityManager, study: StudyRow) {
@@ -16,7 +19,7 @@ export async function studyFits(em: EntityManager, study: StudyRow) {
   return ids.map((id) => rows.find((r) => r.id === id)).filter((r): r is NonNullable<typeof r> => !!r);
 }
 
-/** The study's tables (Summary with provenance, Trials, Fit, Residuals, Performance, Forecast series of its forecast blocks, Costs of its cost-sheet blocks) as export data. */
+/** The study's tables (Summary with provenance, Trials, Fit, Residuals, Performance, Forecast series of its forecast blocks, Costs of its cost-sheet blocks, Comparison of its design-comparison blocks) as export data. */
 export async function studyExportData(em: EntityManager, study: StudyRow, labName: string, unitSystem: UnitSystem): Promise<StudyExport> {
   const fits = await studyFits(em, study);
   const rigs = fits.length ? await em.find(Rig, { id: { $in: fits.map((f) => f.rig.id) } }) : [];
@@ -55,6 +58,18 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
       notes.push(`${label} cannot be computed: ${e.message}`);
     }
   });
+  const comparisons: DesignComparisonView[] = [];
+  for (const [i, b] of study.blocks.entries()) {
+    if (b.kind !== 'design-comparison' || !isUuid(b.data.comparisonId)) continue;
+    const c = await comparisonInLab(em, study.lab, b.data.comparisonId);
+    if (!c) continue;
+    try {
+      comparisons.push(await readComparison(em, c, unitSystem));
+    } catch (e) {
+      if (!(e instanceof DomainError && e.kind === 'invalid')) throw e;
+      notes.push(`Design comparison (block ${i + 1}) cannot be computed: ${e.message}`);
+    }
+  }
   return {
     unitSystem,
     provenance: {
@@ -71,6 +86,7 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
     performance,
     forecasts,
     ...(running.length ? { costs: { currency: running[0].currency, running } } : {}),
+    ...(comparisons.length ? { comparisons } : {}),
     notes,
   };
 }

@@ -31,7 +31,13 @@ export default async function RigPage({ params, searchParams }: { params: Promis
     d.tubeInnerDiameterM ? `${(Number(d.tubeInnerDiameterM) * 1000).toFixed(1)} mm bore` : null,
     d.tubeMaterial ? String(d.tubeMaterial) : null,
     d.collectorAreaM2 ? `${d.collectorAreaM2} m² collector` : null,
+    d.grossAreaM2 ? `${d.grossAreaM2} m² gross` : null,
+    d.apertureAreaM2 ? `${d.apertureAreaM2} m² aperture` : null,
+    d.tiltDeg !== undefined ? `tilt ${d.tiltDeg}°` : null,
+    d.azimuthDeg !== undefined ? `azimuth ${d.azimuthDeg}°` : null,
+    d.fluid ? String(d.fluid) : null,
     d.burnerRatingW ? `${Number(d.burnerRatingW) / 1000} kW burner` : null,
+    d.buildCost ? `built for ${Number(d.buildCost)} ${String(d.buildCostCurrency ?? 'USD')}` : null,
   ].filter(Boolean);
   return (
     <AppPage
@@ -46,9 +52,15 @@ export default async function RigPage({ params, searchParams }: { params: Promis
       }
       actions={
         <>
-          <Link className={write ? 'btn-quiet' : 'btn-primary'} href={`/rigs/${rig.id}/fit`}>
-            Fit models
-          </Link>
+          {rig.heatSource === 'solar-collector' ? (
+            <Link className={write ? 'btn-quiet' : 'btn-primary'} href={`/rigs/${rig.id}/collector`}>
+              Collector efficiency
+            </Link>
+          ) : (
+            <Link className={write ? 'btn-quiet' : 'btn-primary'} href={`/rigs/${rig.id}/fit`}>
+              Fit models
+            </Link>
+          )}
           {write ? (
           <>
             <Link className="btn-primary" href={`/rigs/${rig.id}/entry`}>

@@ -9,6 +9,7 @@ import { reviewTrail } from '../../_lib/review/review';
 import { modelLabel } from '../../_lib/fits/fit-analysis';
 import { loadInLab } from '../../_lib/labs/load-in-lab';
 import { sensorLogsOf, studyBlocksData } from '../../_lib/studies/study-blocks';
+import { comparisonsOfLab } from '../../_lib/comparisons/comparisons';
 import { shareDto, sharesOfStudy, studyDto, studyOwners } from '../../_lib/studies/studies';
 import { requireLabAction } from '../../_lib/accounts/viewer';
 import { StudyEditor } from './editor';
@@ -27,6 +28,7 @@ export default async function StudyPage({ params, searchParams }: { params: Prom
   const editing = !!edit && canEdit;
   const fits = editing ? await fitsOfLab(v.em, v.current.lab) : [];
   const logs = editing ? await sensorLogsOf(v.em, v.current.lab) : [];
+  const comparisons = editing ? await comparisonsOfLab(v.em, v.current.lab) : [];
   const trail = await reviewTrail(v.em, 'study', study.id);
   const shares = v.can('share:manage') ? await sharesOfStudy(v.em, study) : [];
   // The first paint is complete: the study and every block's data go to the client as the SWR
@@ -67,6 +69,7 @@ export default async function StudyPage({ params, searchParams }: { params: Prom
               fits={fits.map((f) => ({ id: f.id, label: `${f.rig.name}: ${f.title} v${f.version} (${modelLabel(f.model)})`, coil: f.model === 'coil' }))}
               initialReviewState={study.reviewState}
               logs={logs}
+              comparisons={comparisons.map((c) => ({ id: c.id, label: `${c.title} (${c.subjects.length} designs)` }))}
               units={v.user.unitSystem}
             />
           ) : null}

@@ -4,7 +4,7 @@
  */
 import type { UnitSystem } from '@/analysis/units/unit-system';
 
-export type Kind = 'text' | 'trials' | 'fit' | 'comparison' | 'performance' | 'forecast' | 'costs' | 'sensor-log' | 'caution';
+export type Kind = 'text' | 'trials' | 'fit' | 'comparison' | 'performance' | 'forecast' | 'costs' | 'sensor-log' | 'caution' | 'design-comparison';
 export interface Block {
   id: string;
   kind: Kind;
@@ -20,6 +20,8 @@ export interface StudyState {
 export interface EditorChoices {
   fits: { id: string; label: string; coil: boolean }[];
   logs: { id: string; label: string }[];
+  /** the lab's saved design comparisons */
+  comparisons: { id: string; label: string }[];
 }
 
 export const KINDS: { kind: Kind; label: string }[] = [
@@ -32,6 +34,7 @@ export const KINDS: { kind: Kind; label: string }[] = [
   { kind: 'costs', label: 'Cost sheet' },
   { kind: 'sensor-log', label: 'Sensor log' },
   { kind: 'caution', label: 'Caution box' },
+  { kind: 'design-comparison', label: 'Design comparison' },
 ];
 export const kindLabel = (k: Kind) => KINDS.find((x) => x.kind === k)?.label ?? k;
 export const newBlockId = () => Math.random().toString(36).slice(2, 10);
@@ -80,7 +83,7 @@ function forecastDefaults(units: UnitSystem, fits: EditorChoices['fits']): Recor
 }
 
 /** The settings a new block of `kind` starts with, after the blocks there are. */
-export function newBlockData(kind: Kind, units: UnitSystem, { fits, logs }: EditorChoices, blocks: readonly Block[]): Record<string, unknown> {
+export function newBlockData(kind: Kind, units: UnitSystem, { fits, logs, comparisons }: EditorChoices, blocks: readonly Block[]): Record<string, unknown> {
   switch (kind) {
     case 'forecast':
       return forecastDefaults(units, fits);
@@ -92,6 +95,8 @@ export function newBlockData(kind: Kind, units: UnitSystem, { fits, logs }: Edit
       return costDefaults(units, [...blocks].reverse().find((b) => b.kind === 'forecast')?.id ?? null);
     case 'sensor-log':
       return logs[0] ? { sourceFileId: logs[0].id } : {};
+    case 'design-comparison':
+      return comparisons[0] ? { comparisonId: comparisons[0].id } : {};
     default:
       return fits[0] ? { fitId: fits[0].id } : {};
   }

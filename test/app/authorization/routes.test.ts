@@ -261,6 +261,14 @@ const MATRIX: Record<string, Case[]> = {
     // exploring a fit stores nothing: any member may
     { method: 'POST', url: (f) => `/api/rigs/${f.rig.id}/analyze`, body: (f) => ({ models: ['poly1'], trialIds: f.trialIds }), expect: labA(200, MEMBERS) },
   ],
+  'app/api/rigs/[rigId]/collector/route.ts': [
+    // exploring stores nothing: any member may; the fixture's rig is a propane burner, so members meet the rule (422)
+    { method: 'POST', url: (f) => `/api/rigs/${f.rig.id}/collector`, body: () => ({ areaBasis: 'gross' }), expect: labA(422, MEMBERS) },
+  ],
+  'app/api/rigs/[rigId]/collector/fits/route.ts': [
+    // saving needs fit:write; the burner rig is not a collector, so writers meet the rule (422) and nothing is stored
+    { method: 'POST', url: (f) => `/api/rigs/${f.rig.id}/collector/fits`, body: () => ({ title: 'authz collector', areaBasis: 'gross' }), expect: labA(422, WRITERS) },
+  ],
   'app/api/labs/[labId]/fits/route.ts': [
     { method: 'GET', url: (f) => `/api/labs/${f.labId}/fits`, expect: labA(200, MEMBERS) },
     { method: 'POST', url: (f) => `/api/labs/${f.labId}/fits`, body: (f) => ({ rigId: f.rig.id, title: '', model: 'coil', trialIds: f.trialIds }), expect: labA(422, WRITERS) },
@@ -367,6 +375,17 @@ const MATRIX: Record<string, Case[]> = {
     { method: 'GET', url: (f) => `/api/labs/${f.labId}/studies`, expect: labA(200, MEMBERS) },
     { method: 'POST', url: (f) => `/api/labs/${f.labId}/studies`, body: () => ({ title: '' }), expect: labA(422, WRITERS, { session: true }) },
   ],
+  'app/api/labs/[labId]/comparisons/route.ts': [
+    { method: 'GET', url: (f) => `/api/labs/${f.labId}/comparisons`, expect: labA(200, MEMBERS) },
+    // a body the schema refuses (no title, one design): nothing is stored
+    { method: 'POST', url: (f) => `/api/labs/${f.labId}/comparisons`, body: (f) => ({ title: '', subjects: [{ kind: 'rig', id: f.rig.id }] }), expect: labA(422, WRITERS, { session: true }) },
+  ],
+  'app/api/comparisons/[comparisonId]/route.ts': [{ method: 'GET', url: (f) => `/api/comparisons/${f.comparison.id}`, expect: labA(200, MEMBERS) }],
+  'app/api/comparisons/[comparisonId]/comments/route.ts': [
+    { method: 'GET', url: (f) => `/api/comparisons/${f.comparison.id}/comments`, expect: labA(200, MEMBERS) },
+    { method: 'POST', url: (f) => `/api/comparisons/${f.comparison.id}/comments`, body: () => ({ body: '' }), expect: labA(422, COMMENTERS, { session: true }) },
+  ],
+  'app/api/comparisons/[comparisonId]/export/route.ts': [{ method: 'GET', url: (f) => `/api/comparisons/${f.comparison.id}/export?format=csv&table=Comparison`, expect: labA(200, MEMBERS) }],
   'app/api/studies/[studyId]/route.ts': [
     { method: 'GET', url: (f) => `/api/studies/${f.study.id}`, expect: labA(200, MEMBERS) },
     {

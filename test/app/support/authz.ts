@@ -119,6 +119,8 @@ export interface LabFixture {
   rig: { id: string; name: string };
   trialIds: string[];
   fit: { id: string; title: string };
+  /** a design comparison of the rig against its saved fit, with a reviewer's comment */
+  comparison: { id: string; title: string };
   study: { id: string; title: string; revision: number; blockIds: { text: string; caution: string; fit: string } };
   /** test sessions of the rig: one planned, one closed (with no trials) */
   sessions: { open: string; closed: string };
@@ -179,6 +181,9 @@ export async function buildLab(opts: { files?: boolean } = {}): Promise<LabFixtu
   const fitTitle = `Authz fit ${run}`;
   const fit = ok(await eng.post(`/api/labs/${labId}/fits`, { rigId: rig.id, title: fitTitle, model: 'coil', trialIds }), 201, 'fit').fit;
   ok(await reviewer.post(`/api/fits/${fit.id}/comments`, { body: 'Residuals look even across the flows.' }), 201, 'fit comment');
+  const comparisonTitle = `Authz comparison ${run}`;
+  const comparison = ok(await eng.post(`/api/labs/${labId}/comparisons`, { title: comparisonTitle, subjects: [{ kind: 'rig', id: rig.id }, { kind: 'fit', id: fit.id }] }), 201, 'comparison').comparison;
+  ok(await reviewer.post(`/api/comparisons/${comparison.id}/comments`, { body: 'The same trials on both sides: no difference expected.' }), 201, 'comparison comment');
 
   const sessionPlan = { prior: { Ts: '85 degC', UA: '400 W/K' }, inletTemp: '18 degC', flowRange: ['2 L/min', '20 L/min'], maxOutletTemp: '95 degC', trials: 8, seed: 1 };
   const openSession = ok(await eng.post(`/api/rigs/${rig.id}/sessions`, { ...sessionPlan, title: `Authz session ${run}` }), 201, 'session').session.id as string;
@@ -274,6 +279,7 @@ export async function buildLab(opts: { files?: boolean } = {}): Promise<LabFixtu
     rig: { id: rig.id, name: rig.name },
     trialIds,
     fit: { id: fit.id, title: fitTitle },
+    comparison: { id: comparison.id as string, title: comparisonTitle },
     study: { id: created.id, title: studyTitle, revision: saved.revision, blockIds: { text: blockId('text'), caution: blockId('caution'), fit: blockId('fit') } },
     share,
     sessions: { open: openSession, closed: closedSession },
