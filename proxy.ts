@@ -13,10 +13,17 @@ import { newNonce, pageCsp, setSecurityHeaders } from '@/app/_lib/server/securit
  * route runs, which would defeat the streamed body limits of the route wrapper. The wrapper sets
  * the same headers on API responses.
  */
+/**
+ * The files of public/ (icons, robots.txt, the manifest) sit at the top level and have an
+ * extension; no page has one. They are served to anyone: nothing in this proxy signs in.
+ */
+const PUBLIC_FILE = /^\/[\w.-]+\.(?:ico|png|svg|txt|webmanifest)$/;
+const isPublicFile = (pathname: string) => PUBLIC_FILE.test(pathname);
+
 export function proxy(request: NextRequest) {
   const appUrl = appConfig.appUrl;
-  if (request.nextUrl.pathname.startsWith('/_next/')) {
-    // scripts, styles, fonts and images of the build: a policy that loads nothing
+  if (request.nextUrl.pathname.startsWith('/_next/') || isPublicFile(request.nextUrl.pathname)) {
+    // scripts, styles, fonts and images of the build, and the files of public/: a policy that loads nothing
     const res = NextResponse.next();
     setSecurityHeaders(res.headers, appUrl);
     return res;

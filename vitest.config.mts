@@ -18,7 +18,8 @@ export default defineConfig({
     maxWorkers: 2,
     testTimeout: 20_000,
     hookTimeout: 60_000,
-    env: { TZ: 'UTC' },
+    // EMBERLINE_ANALYSIS_THREADS=0: app/_lib code called inside a test runs its analysis tasks in-process (tests only; see app/_lib/server/analysis-pool.ts)
+    env: { TZ: 'UTC', EMBERLINE_ANALYSIS_THREADS: '0' },
     projects: [
       {
         extends: true,

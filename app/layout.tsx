@@ -13,6 +13,15 @@ import { SafetyNotice } from './_components/safety-notice';
 export const metadata: Metadata = {
   title: { default: 'Emberline', template: '%s · Emberline' },
   description: 'A workbench for testing water heaters: import trials, fit physical models, forecast pool warm-up.',
+  // public/: icon.svg is the one drawing; the PNGs and favicon.ico are made from it by `npm run icons`
+  icons: {
+    icon: [
+      { url: '/favicon.ico', sizes: '16x16 32x32 48x48' },
+      { url: '/icon.svg', type: 'image/svg+xml' },
+    ],
+    apple: [{ url: '/apple-touch-icon.png', sizes: '180x180', type: 'image/png' }],
+  },
+  manifest: '/manifest.webmanifest',
 };
 
 // Every page is rendered per request: its scripts carry the nonce of that request's

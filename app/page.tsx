@@ -6,6 +6,10 @@ import { sampleCoilData } from './_lib/plots/sample-curve';
 import { HAZARD_BANDS } from '@/analysis/safety/cautions';
 import { TemperatureCautions } from './_components/safety-notice';
 
+const SAMPLE_LABEL = 'Sample plot: outlet temperature against flow for an invented coil';
+const SAMPLE_DESCRIPTION =
+  'Eleven invented trials from 2 to 21 L/min lie along the fitted curve, inside its narrow prediction band: the outlet falls from about 82 °C at 2 L/min to about 36 °C at 21 L/min, toward the 18 °C inlet.';
+
 function SamplePlot() {
   const { curve, points, tin } = sampleCoilData();
   // the caution thresholds inside the plotted range, with their words (analysis/safety)
@@ -17,6 +21,8 @@ function SamplePlot() {
     marginLeft: 52,
     marginBottom: 44,
     style: { fontFamily: 'Inter, sans-serif', fontSize: '12px', color: '#4A403A', background: 'transparent' },
+    ariaLabel: SAMPLE_LABEL,
+    ariaDescription: SAMPLE_DESCRIPTION,
     x: { label: 'Flow (L/min) →', domain: [0, 24], grid: true },
     y: { label: '↑ Outlet temperature (°C)', domain: [10, 90], grid: true },
     marks: [
@@ -33,7 +39,7 @@ function SamplePlot() {
   });
   return (
     <figure className="card p-4">
-      <div className="overflow-x-auto [&_svg]:h-auto [&_svg]:max-w-full" aria-label="Sample plot: outlet temperature falls with flow along a fitted coil curve" dangerouslySetInnerHTML={{ __html: svg }} />
+      <div className="overflow-x-auto [&_svg]:h-auto [&_svg]:max-w-full" dangerouslySetInnerHTML={{ __html: svg }} />
       <figcaption className="mt-2 text-sm text-ink-muted">
         Invented sample: eleven bucket trials of a coil over a fire, the fitted constant-source model and its 95 %
         prediction band. Heat delivered keeps rising with flow toward a ceiling of UA·(Ts − Tin) — no false optimum.

@@ -11,6 +11,15 @@ export interface RigDetails {
   tubeInnerDiameterM?: number;
   tubeMaterial?: string;
   collectorAreaM2?: number;
+  /** solar collectors (app/_lib/rigs/rigs.ts `collectorDetails`) */
+  grossAreaM2?: number;
+  apertureAreaM2?: number;
+  tiltDeg?: number;
+  azimuthDeg?: number;
+  fluid?: string;
+  fluidCpJPerKgK?: number;
+  fluidDensityKgPerM3?: number;
+  flowPerAreaM3PerSM2?: number;
   /** what the rig cost to build, in `buildCostCurrency` (a code such as "USD") */
   buildCost?: number;
   buildCostCurrency?: string;

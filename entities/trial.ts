@@ -3,6 +3,7 @@ import { baseProperties, num } from './base';
 import { Lab } from './lab';
 import { Rig } from './rig';
 import { SourceFile } from './source-file';
+import { TestSession } from './test-session';
 
 /**
  * One steady trial of a rig: a flow and the inlet and outlet temperatures it produced.
@@ -12,7 +13,7 @@ import { SourceFile } from './source-file';
 export const Trial = defineEntity({
   name: 'Trial',
   tableName: 'trial',
-  indexes: [{ properties: ['rig', 'startedAt'] }],
+  indexes: [{ properties: ['rig', 'startedAt'] }, { properties: ['session'] }],
   properties: {
     ...baseProperties(),
     lab: () => p.manyToOne(Lab).deleteRule('cascade'),
@@ -27,6 +28,10 @@ export const Trial = defineEntity({
     inletTempC: num().fieldName('inlet_c'),
     outletTempC: num().fieldName('outlet_c'),
     ambientTempC: num().fieldName('ambient_c').nullable(),
+    /** Irradiance in the collector plane, W/m² (solar-collector trials). */
+    irradianceWPerM2: num().fieldName('irradiance_w_per_m2').nullable(),
+    /** Wind over the collector, m/s. */
+    windMPerS: num().fieldName('wind_m_per_s').nullable(),
     /** Marks a repeated reference flow used to detect drift. */
     isReference: p.boolean().default(false),
     excluded: p.boolean().default(false),
@@ -38,5 +43,7 @@ export const Trial = defineEntity({
     sourceLine: p.integer().nullable(),
     /** Steady-state criteria and statistics used when the trial was cut from a log. */
     segment: p.json<Record<string, unknown>>().nullable(),
+    /** The test session whose reading or steady period this trial is. */
+    session: () => p.manyToOne(TestSession).nullable().deleteRule('set null'),
   },
 });

@@ -3,7 +3,7 @@
 // migrations, demo data, local fakes of hosted services, a build when sources changed, then
 // the web server on http://127.0.0.1:3000. Ctrl-C stops everything it started.
 import path from 'node:path';
-import { root, portIsFree, spawn, fail, waitForHealth, stopper, runMain } from './lib/util.mjs';
+import { root, portIsFree, spawn, fail, waitForHealth, stopper, runMain, watchWebServer } from './lib/util.mjs';
 import { bootstrap } from './lib/bootstrap.mjs';
 import { buildIfChanged } from './lib/build.mjs';
 import { startFakes } from './lib/fakes.mjs';
@@ -35,9 +35,18 @@ async function main() {
     const web = spawn(process.execPath, [path.join(root, 'scripts/serve.mjs'), '-H', host, '-p', String(port)], {
       cwd: root,
       env,
-      stdio: ['ignore', 'inherit', 'inherit'],
+      // piped (and passed on) so that its last lines can be shown if it dies
+      stdio: ['ignore', 'pipe', 'pipe'],
     });
-    push(() => web.exitCode === null && web.kill('SIGTERM'));
+    // when it ends by itself: why (exit code or signal) and what it printed last, then stop the rest
+    const watch = watchWebServer(web, (status) => {
+      stopAll();
+      process.exit(status);
+    });
+    push(() => {
+      watch.expectExit();
+      if (web.exitCode === null && web.signalCode === null) web.kill('SIGTERM');
+    });
     const shutdown = (signal) => {
       console.log(`\n${signal}: stopping the web server and the database`);
       stopAll();
@@ -45,11 +54,6 @@ async function main() {
     };
     process.on('SIGINT', () => shutdown('SIGINT'));
     process.on('SIGTERM', () => shutdown('SIGTERM'));
-    web.on('exit', (code) => {
-      if (code !== null && code !== 0) console.error(`the web server exited with code ${code}`);
-      stopAll();
-      process.exit(code ?? 0);
-    });
     await waitForHealth(`http://${host}:${port}/api/health`, web);
     const { printDemoSignIns } = await import('./lib/demo-accounts.mjs');
     console.log(`\n\x1b[1mEmberline is ready at http://${host}:${port}\x1b[0m  (${((Date.now() - t0) / 1000).toFixed(1)} s)`);

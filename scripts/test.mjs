@@ -5,7 +5,7 @@
 // summary and a plain "N passed, N failed" line; exits non-zero on any failure.
 import path from 'node:path';
 import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
-import { root, step, spawn, freePort, waitForHealth, stopper, runMain, runVisible } from './lib/util.mjs';
+import { root, step, spawn, freePort, waitForHealth, stopper, runMain, runVisible, watchWebServer } from './lib/util.mjs';
 import { ensureNodeModules, ensureChromium } from './lib/install.mjs';
 import { bootstrap } from './lib/bootstrap.mjs';
 import { buildIfChanged } from './lib/build.mjs';
@@ -42,9 +42,14 @@ async function main() {
     const web = spawn(process.execPath, [path.join(root, 'scripts/serve.mjs'), '-H', '127.0.0.1', '-p', String(port)], {
       cwd: root,
       env: { ...env, NODE_ENV: 'production', TRUST_PROXY_HOPS: '1' },
-      stdio: ['ignore', 'ignore', 'inherit'],
+      stdio: ['ignore', 'pipe', 'pipe'],
     });
-    push(() => web.exitCode === null && web.kill('SIGTERM'));
+    // a web server that dies during the run says why (the tests then fail on their own)
+    const watch = watchWebServer(web, () => {}, { quiet: true });
+    push(() => {
+      watch.expectExit();
+      if (web.exitCode === null && web.signalCode === null) web.kill('SIGTERM');
+    });
     await waitForHealth(`${baseUrl}/api/health`, web);
     const resultsDir = path.join(root, 'test-results');
     mkdirSync(resultsDir, { recursive: true });

@@ -283,3 +283,40 @@ export function planSession(input: SessionPlanInput): SessionPlan | { ok: false;
 function fmtLpm(m3PerS: number): string {
   return `${(m3PerS * 60000).toFixed(2)} L/min`;
 }
+
+/** The prediction of one run at a prior: the outlet, its prediction interval, and its sensitivity to the inlet. */
+export interface RunPredictionAt {
+  flowM3PerS: number;
+  predictedOutletTempC: number;
+  piLowC: number;
+  piHighC: number;
+  /** ∂(outlet)/∂(inlet) at this flow (central difference over ±0.5 K) */
+  inletSlope: number;
+}
+
+/**
+ * Predictions at a prior for any flows — the runs added to a session, and the inlet sensitivity
+ * of planned ones — with the prediction interval of {@link planSession} (Σ of the prior, or the
+ * guess's default uncertainty; Student t at the prior's df, else normal).
+ * @throws TypeError / RangeError as planSession for the model, prior, inlet, u and level; RangeError for a flow that is not positive
+ * @example predictRuns({ model: 'coil', prior: { values: { Ts: 90, UA: 400 } }, inletTempC: 15 }, [1e-4])[0].predictedOutletTempC
+ */
+export function predictRuns(
+  input: Pick<SessionPlanInput, 'model' | 'prior' | 'inletTempC' | 'measurementUK' | 'level'>,
+  flowsM3PerS: number[],
+): RunPredictionAt[] {
+  const model = builtinResponseModel(input?.model);
+  const prior = readPrior(model, input.prior);
+  const tin = requireFinite(input.inletTempC, 'inletTempC');
+  const u = requirePositive(input.measurementUK ?? DEFAULT_OUTLET_U_K, 'measurementUK');
+  const level = requireInRange(input.level ?? 0.95, 'level', 0.5, 0.9999);
+  flowsM3PerS.forEach((f, i) => requirePositive(f, `flowsM3PerS[${i}]`));
+  const q = prior.df === null ? normalQuantile((1 + level) / 2) : studentTQuantile((1 + level) / 2, prior.df);
+  const r = responseAt(model, tin)(prior.theta, flowsM3PerS);
+  const up = responseAt(model, tin + 0.5)(prior.theta, flowsM3PerS).y;
+  const down = responseAt(model, tin - 0.5)(prior.theta, flowsM3PerS).y;
+  return flowsM3PerS.map((f, i) => {
+    const half = q * Math.sqrt(quadraticForm(prior.sigma, r.rows[i]) + u * u);
+    return { flowM3PerS: f, predictedOutletTempC: r.y[i], piLowC: r.y[i] - half, piHighC: r.y[i] + half, inletSlope: up[i] - down[i] };
+  });
+}

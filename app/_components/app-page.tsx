@@ -12,7 +12,7 @@ export function AppPage({ viewer, title, lead, actions, children }: { viewer: Vi
   return (
     <>
       <SiteHeader
-        right={
+        menu={
           <>
             <LabSwitcher labs={labs} currentId={viewer.current?.lab.id ?? null} />
             <Link href="/notices" className="rounded-md px-2 py-1.5 text-sm text-paper-deep no-underline hover:bg-coal-raised hover:text-white hover:no-underline" aria-label={`Notices, ${viewer.unreadNotices} unread`}>

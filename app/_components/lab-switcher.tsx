@@ -10,10 +10,10 @@ export function LabSwitcher({ labs, currentId }: { labs: { id: string; name: str
   const [busy, setBusy] = useState(false);
   if (!labs.length) return null;
   return (
-    <label className="flex items-center gap-2 text-paper-deep">
+    <label className="flex items-center gap-2 text-paper-deep max-md:mb-1 max-md:w-full">
       <span className="sr-only">Current lab</span>
       <select
-        className="max-w-[14rem] rounded-md border border-coal-line bg-coal-raised px-2 py-1.5 text-sm text-white"
+        className="w-full rounded-md border md:w-auto md:max-w-[14rem] border-coal-line bg-coal-raised px-2 py-1.5 text-sm text-white"
         value={currentId ?? ''}
         disabled={busy}
         onChange={async (e) => {
@@ -47,7 +47,7 @@ export function SignOutButton({ everywhere = false, className = '' }: { everywhe
   return (
     <button
       type="button"
-      className={className || 'rounded-md px-2 py-1.5 text-sm text-paper-deep hover:bg-coal-raised hover:text-white'}
+      className={className || 'rounded-md px-2 py-1.5 text-left text-sm text-paper-deep hover:bg-coal-raised hover:text-white'}
       onClick={async () => {
         await api(everywhere ? '/api/auth/sign-out-everywhere' : '/api/auth/sign-out', { body: {} });
         router.push('/sign-in');

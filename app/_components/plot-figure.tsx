@@ -3,12 +3,16 @@
 import type { PlotOptions } from '@observablehq/plot';
 import { useEffect, useId, useRef, useState } from 'react';
 import type { CautionLike } from '@/analysis/safety/cautions';
+import { accessiblePlot } from '@/app/_contracts/plot-a11y';
 import { CautionList } from './safety-notice';
 
 /** Props of {@link PlotFigure}. */
 export interface PlotFigureProps {
-  /** the plot rendered on the server (plotToSvg), shown at first paint and without JavaScript */
-  svg: string;
+  /**
+   * the plot rendered on the server (plotToSvg), shown at first paint and without JavaScript;
+   * absent when the browser draws it from `options` (the fit and forecast pages)
+   */
+  svg?: string;
   /** the figcaption text (the plot function's `summary`) */
   summary: string;
   /** a short title shown before the summary */
@@ -88,13 +92,13 @@ function saveBlob(blob: Blob, name: string) {
  */
 export function PlotFigure({ svg, summary, title, filename, options, className, cautions }: PlotFigureProps) {
   const liveRef = useRef<HTMLDivElement>(null);
-  const [liveSvg, setLiveSvg] = useState<string | null>(null);
+  const [live, setLive] = useState(false);
   const captionId = useId();
 
   useEffect(() => {
     const host = liveRef.current;
     if (!options || !host) {
-      setLiveSvg(null);
+      setLive(false);
       return;
     }
     let cancelled = false;
@@ -103,13 +107,11 @@ export function PlotFigure({ svg, summary, title, filename, options, className, 
     import('@observablehq/plot').then((Plot) => {
       if (cancelled) return;
       el = Plot.plot(options);
-      const root = el.tagName.toLowerCase() === 'svg' ? el : el.querySelector('svg');
-      root?.setAttribute('xmlns', SVG_NS);
-      root?.setAttribute('role', 'img');
+      accessiblePlot(el);
       host.replaceChildren(el);
-      setLiveSvg(el.outerHTML);
+      setLive(true);
     }).catch(() => {
-      if (!cancelled) setLiveSvg(null); // keep the server SVG
+      if (!cancelled) setLive(false); // keep the server SVG
     });
     return () => {
       cancelled = true;
@@ -117,7 +119,8 @@ export function PlotFigure({ svg, summary, title, filename, options, className, 
     };
   }, [options]);
 
-  const current = liveSvg ?? svg;
+  // the markup of what is shown, read when a download is asked for (not at every redraw)
+  const current = () => (live && liveRef.current ? liveRef.current.innerHTML : svg ?? '');
   const base = filename.replace(/\.(svg|png)$/i, '');
   const download = `${base}.svg`;
   const [pngError, setPngError] = useState<string | null>(null);
@@ -126,7 +129,7 @@ export function PlotFigure({ svg, summary, title, filename, options, className, 
     setPngError(null);
     setBusy(true);
     try {
-      saveBlob(await svgToPngBlob(current), `${base}.png`);
+      saveBlob(await svgToPngBlob(current()), `${base}.png`);
     } catch (e) {
       setPngError(`The PNG could not be made (${(e as Error).message}); the SVG download still works.`);
     } finally {
@@ -135,12 +138,14 @@ export function PlotFigure({ svg, summary, title, filename, options, className, 
   };
   return (
     <figure className={className ?? 'card p-4'} aria-describedby={captionId}>
-      <div
-        className="overflow-x-auto [&_svg]:h-auto [&_svg]:max-w-full"
-        hidden={liveSvg !== null}
-        dangerouslySetInnerHTML={{ __html: svg }}
-      />
-      <div ref={liveRef} className="overflow-x-auto [&_svg]:h-auto [&_svg]:max-w-full" hidden={liveSvg === null} />
+      {svg !== undefined ? (
+        <div
+          className="overflow-x-auto [&_svg]:h-auto [&_svg]:max-w-full"
+          hidden={live}
+          dangerouslySetInnerHTML={{ __html: svg }}
+        />
+      ) : null}
+      <div ref={liveRef} className="overflow-x-auto [&_svg]:h-auto [&_svg]:max-w-full" hidden={!live && svg !== undefined} />
       <figcaption id={captionId} className="mt-2 text-sm text-ink-muted">
         <span className="font-semibold text-ink">{title}.</span> {summary}
       </figcaption>
@@ -151,7 +156,7 @@ export function PlotFigure({ svg, summary, title, filename, options, className, 
       ) : null}
       <p className="mt-2 flex flex-wrap gap-2 print:hidden">
         {/* made on click: a data URL in the page would carry the whole SVG a second time (URL-encoded) */}
-        <button type="button" className="btn-quiet" onClick={() => saveBlob(new Blob([current], { type: 'image/svg+xml;charset=utf-8' }), download)}>
+        <button type="button" className="btn-quiet" onClick={() => saveBlob(new Blob([current()], { type: 'image/svg+xml;charset=utf-8' }), download)}>
           Download SVG
         </button>
         <button type="button" className="btn-quiet" onClick={() => void downloadPng()} disabled={busy}>

@@ -3,6 +3,7 @@
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { HEAT_SOURCE_LABELS } from '../_lib/rigs/labels';
+import type { RigDetailsDto } from '../_contracts/dto';
 import { api, ApiError } from './api';
 
 
@@ -12,8 +13,11 @@ interface RigValues {
   heatSource: string;
   description: string;
   notes: string;
-  details: { coilLengthM?: number; tubeInnerDiameterM?: number; tubeMaterial?: string; collectorAreaM2?: number; burnerRatingW?: number; buildCost?: number; buildCostCurrency?: string };
+  details: RigDetailsDto;
 }
+
+/** L/(min·m²) in m³/(s·m²) */
+const LPM_PER_M2 = 1e-3 / 60;
 
 /** Create or edit a rig. Coil details are entered in m and mm and stored in SI. */
 export function RigForm({ labId, rig }: { labId: string; rig?: RigValues }) {
@@ -21,6 +25,7 @@ export function RigForm({ labId, rig }: { labId: string; rig?: RigValues }) {
   const [error, setError] = useState<string | null>(null);
   const [fields, setFields] = useState<Record<string, string>>({});
   const [busy, setBusy] = useState(false);
+  const [source, setSource] = useState(rig?.heatSource ?? 'wood-fire');
   const d = rig?.details ?? {};
   async function submit(e: React.FormEvent<HTMLFormElement>) {
     e.preventDefault();
@@ -34,8 +39,16 @@ export function RigForm({ labId, rig }: { labId: string; rig?: RigValues }) {
         coilLengthM: n('coilLengthM'),
         tubeInnerDiameterM: n('tubeInnerDiameterMm', 0.001),
         tubeMaterial: String(f.get('tubeMaterial') ?? '').trim() || undefined,
-        collectorAreaM2: n('collectorAreaM2'),
+        collectorAreaM2: d.collectorAreaM2,
         burnerRatingW: n('burnerRatingKw', 1000),
+        grossAreaM2: n('grossAreaM2'),
+        apertureAreaM2: n('apertureAreaM2'),
+        tiltDeg: n('tiltDeg'),
+        azimuthDeg: n('azimuthDeg'),
+        fluid: String(f.get('fluid') ?? '').trim() || undefined,
+        fluidCpJPerKgK: n('fluidCpJPerKgK'),
+        fluidDensityKgPerM3: n('fluidDensityKgPerM3'),
+        flowPerAreaM3PerSM2: n('flowPerAreaLpmM2', LPM_PER_M2),
         buildCost: n('buildCost'),
         buildCostCurrency: String(f.get('buildCostCurrency') ?? '').trim().toUpperCase() || undefined,
       }).filter(([, v]) => v !== undefined),
@@ -66,7 +79,7 @@ export function RigForm({ labId, rig }: { labId: string; rig?: RigValues }) {
       </label>
       <label className="block">
         <span className="field-label">Heat source</span>
-        <select name="heatSource" className="field-input" defaultValue={rig?.heatSource ?? 'wood-fire'}>
+        <select name="heatSource" className="field-input" value={source} onChange={(e) => setSource(e.target.value)}>
           {Object.entries(HEAT_SOURCE_LABELS).map(([v, l]) => (
             <option key={v} value={v}>
               {l}
@@ -95,10 +108,6 @@ export function RigForm({ labId, rig }: { labId: string; rig?: RigValues }) {
           <input name="tubeMaterial" className="field-input" defaultValue={d.tubeMaterial} />
         </label>
         <label>
-          <span className="text-xs text-ink-muted">Collector area (m²)</span>
-          <input name="collectorAreaM2" inputMode="decimal" className="field-input num" defaultValue={d.collectorAreaM2} />
-        </label>
-        <label>
           <span className="text-xs text-ink-muted">Burner rating (kW)</span>
           <input name="burnerRatingKw" inputMode="decimal" className="field-input num" defaultValue={d.burnerRatingW ? d.burnerRatingW / 1000 : ''} />
         </label>
@@ -113,6 +122,32 @@ export function RigForm({ labId, rig }: { labId: string; rig?: RigValues }) {
           {fe('details.buildCostCurrency')}
         </label>
       </fieldset>
+      {source === 'solar-collector' ? (
+        <fieldset className="grid gap-4 sm:grid-cols-2">
+          <legend className="field-label mb-1">Solar collector</legend>
+          <p className="text-xs text-ink-muted sm:col-span-2">The efficiency curve is stated per gross or aperture area: give the one your test refers to (or both).</p>
+          {[
+            ['grossAreaM2', 'Gross area (m²)', d.grossAreaM2 ?? d.collectorAreaM2],
+            ['apertureAreaM2', 'Aperture area (m²)', d.apertureAreaM2],
+            ['tiltDeg', 'Tilt from horizontal (°)', d.tiltDeg],
+            ['azimuthDeg', 'Azimuth, clockwise from north (°)', d.azimuthDeg],
+            ['flowPerAreaLpmM2', 'Flow per gross area (L/(min·m²))', d.flowPerAreaM3PerSM2 === undefined ? undefined : +(d.flowPerAreaM3PerSM2 / LPM_PER_M2).toPrecision(6)],
+            ['fluidCpJPerKgK', 'Fluid cp (J/(kg·K)), blank for water', d.fluidCpJPerKgK],
+            ['fluidDensityKgPerM3', 'Fluid density (kg/m³), blank for water', d.fluidDensityKgPerM3],
+          ].map(([name, label, value]) => (
+            <label key={name as string}>
+              <span className="text-xs text-ink-muted">{label}</span>
+              <input name={name as string} inputMode="decimal" className="field-input num" defaultValue={value as number | undefined} />
+              {fe(`details.${name === 'flowPerAreaLpmM2' ? 'flowPerAreaM3PerSM2' : name}`)}
+            </label>
+          ))}
+          <label>
+            <span className="text-xs text-ink-muted">Fluid</span>
+            <input name="fluid" className="field-input" placeholder="water" defaultValue={d.fluid} />
+            {fe('details.fluid')}
+          </label>
+        </fieldset>
+      ) : null}
       <label className="block">
         <span className="field-label">Notes</span>
         <textarea name="notes" rows={3} className="field-input" defaultValue={rig?.notes} />

@@ -1,5 +1,6 @@
 import Link from 'next/link';
 import type { ReactNode } from 'react';
+import { HeaderMenu } from './header-menu';
 
 export const AREAS = [
   { href: '/rigs', label: 'Rigs' },
@@ -23,10 +24,13 @@ export function Brand() {
   );
 }
 
-/** The top bar: brand, the work areas, and whatever the caller puts on the right (sign-in, lab switcher). */
-export function SiteHeader({ right }: { right?: ReactNode }) {
+/**
+ * The top bar: brand, the work areas, whatever the caller puts on the right (sign-in), and the
+ * account and lab controls (`menu`), which fold behind a Menu button on a phone (HeaderMenu).
+ */
+export function SiteHeader({ right, menu }: { right?: ReactNode; menu?: ReactNode }) {
   return (
-    <header className="bg-coal text-white">
+    <header className="relative bg-coal text-white">
       <div className="mx-auto flex max-w-page flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3">
         <Brand />
         <nav aria-label="Work areas" className="order-3 -mx-1 flex w-full gap-1 overflow-x-auto sm:order-none sm:w-auto">
@@ -34,13 +38,16 @@ export function SiteHeader({ right }: { right?: ReactNode }) {
             <Link
               key={a.href}
               href={a.href}
-              className="rounded-md px-3 py-1.5 text-sm font-medium text-paper-deep no-underline hover:bg-coal-raised hover:text-white hover:no-underline"
+              className="shrink-0 rounded-md px-3 py-1.5 text-sm font-medium text-paper-deep no-underline hover:bg-coal-raised hover:text-white hover:no-underline"
             >
               {a.label}
             </Link>
           ))}
         </nav>
-        <div className="ml-auto flex items-center gap-3 text-sm">{right}</div>
+        <div className="ml-auto flex min-w-0 items-center gap-3 text-sm">
+          {right}
+          {menu ? <HeaderMenu>{menu}</HeaderMenu> : null}
+        </div>
       </div>
     </header>
   );

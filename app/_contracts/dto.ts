@@ -40,6 +40,18 @@ export interface RigDetailsDto {
   tubeMaterial?: string;
   collectorAreaM2?: number;
   burnerRatingW?: number;
+  /** solar collectors: areas m², tilt and azimuth in degrees, the fluid, flow per gross area m³/(s·m²) */
+  grossAreaM2?: number;
+  apertureAreaM2?: number;
+  tiltDeg?: number;
+  azimuthDeg?: number;
+  fluid?: string;
+  fluidCpJPerKgK?: number;
+  fluidDensityKgPerM3?: number;
+  flowPerAreaM3PerSM2?: number;
+  /** what the rig cost to build, in `buildCostCurrency` (a code such as "USD") */
+  buildCost?: number;
+  buildCostCurrency?: string;
   [key: string]: unknown;
 }
 
@@ -66,6 +78,10 @@ export interface TrialDto {
   inletTempC: number;
   outletTempC: number;
   ambientTempC: number | null;
+  /** irradiance in the collector plane, W/m² (solar-collector trials) */
+  irradianceWPerM2: number | null;
+  /** wind over the collector, m/s */
+  windMPerS: number | null;
   isReference: boolean;
   excluded: boolean;
   notes: string;

@@ -1,5 +1,9 @@
+'use client';
+
+import { useMemo } from 'react';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { displayUnit, displayUnits } from '@/app/_contracts/units';
+import { energyBudgetPlot, forecastPlot, type EnergyBudgetInput, type ForecastPlotInput } from '../_plots';
 import { CautionList, TempValue } from '../_components/safety-notice';
 import { PlotFigure } from '../_components/plot-figure';
 
@@ -16,7 +20,8 @@ export interface ForecastResult {
   cautions: { code: string; level: string; message: string }[];
   riseTable: { flowsM3PerS: number[]; volumesM3: number[]; risePerHourK: number[][] } | null;
   cost: { perUsefulTherm: number; perDegF: number; perK: number; forecastHeatCost: number } | null;
-  plots: Record<'trajectory' | 'budget', { title: string; summary: string; svg: string }>;
+  /** the plot builders' inputs (app/_plots), reduced for display: the page draws them in the reader's units */
+  plots: { trajectory: { input: ForecastPlotInput }; budget: { input: EnergyBudgetInput } };
 }
 
 /** A forecast's result: final temperature, hours to target, equilibrium, the pool, cautions, both plots, the cost and the rise table. */
@@ -24,6 +29,9 @@ export function ForecastResultView({ res, units }: { res: ForecastResult; units:
   const us = units === 'us';
   const u = displayUnits(units);
   const poolVolume = displayUnit('poolVolume', units), area = displayUnit('area', units);
+  // drawn here from the numbers, with the same builders as the server's SVG of a study's forecast block
+  const trajectory = useMemo(() => forecastPlot(res.plots.trajectory.input, units), [res, units]);
+  const budget = useMemo(() => energyBudgetPlot(res.plots.budget.input, units), [res, units]);
   return (
     <>
       <dl className="grid gap-3 sm:grid-cols-3">
@@ -46,8 +54,8 @@ export function ForecastResultView({ res, units }: { res: ForecastResult; units:
         </p>
       ) : null}
       <CautionList cautions={res.cautions} />
-      <PlotFigure {...res.plots.trajectory} filename="forecast" />
-      <PlotFigure {...res.plots.budget} filename="energy-budget" />
+      <PlotFigure title={trajectory.title} summary={trajectory.summary} cautions={trajectory.cautions} options={trajectory.options} filename="forecast" />
+      <PlotFigure title={budget.title} summary={budget.summary} options={budget.options} filename="energy-budget" />
       {res.cost ? (
         <dl className="grid gap-3 sm:grid-cols-3">
           {[

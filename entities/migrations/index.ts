@@ -12,7 +12,9 @@ import { Migration20261202063741_sensor_sample_storage } from './Migration202612
 import { Migration20261202064527_sensor_overview } from './Migration20261202064527_sensor_overview';
 import { Migration20261202090000_sensor_sample_brin } from './Migration20261202090000_sensor_sample_brin';
 import { Migration20261203082759_security } from './Migration20261203082759_security';
+import { Migration20261203120000_test_sessions } from './Migration20261203120000_test_sessions';
 import { Migration20261203123000_comparisons } from './Migration20261203123000_comparisons';
+import { Migration20261203130000_solar_collector } from './Migration20261203130000_solar_collector';
 
 export const migrationsList: MigrationObject[] = [
   { name: 'Migration20261201222811', class: Migration20261201222811 },
@@ -24,5 +26,7 @@ export const migrationsList: MigrationObject[] = [
   { name: 'Migration20261202064527_sensor_overview', class: Migration20261202064527_sensor_overview },
   { name: 'Migration20261202090000_sensor_sample_brin', class: Migration20261202090000_sensor_sample_brin },
   { name: 'Migration20261203082759_security', class: Migration20261203082759_security },
+  { name: 'Migration20261203120000_test_sessions', class: Migration20261203120000_test_sessions },
   { name: 'Migration20261203123000_comparisons', class: Migration20261203123000_comparisons },
+  { name: 'Migration20261203130000_solar_collector', class: Migration20261203130000_solar_collector },
 ];

@@ -1,5 +1,7 @@
 import { describe, expect, test } from 'vitest';
 import { signedIn, mailTo } from './support/client';
+import { fitCurvePlot } from '../../app/_plots';
+import { plotToSvg } from '../../app/_lib/plots/plot-svg';
 
 describe('fitting on the server and saved fits', () => {
   test('the demo coil rig: the coil model wins and the exponential shows patterned residuals', async () => {
@@ -19,11 +21,37 @@ describe('fitting on the server and saved fits', () => {
     expect(coil.params.UA.ciLow).toBeLessThan(260);
     expect(coil.params.UA.ciHigh).toBeGreaterThan(260);
     expect(r.body.comparison.ranking[0].model).toBe('coil');
-    expect(r.body.plots.curve.svg).toMatch(/^<svg/);
-    expect(r.body.plots.curve.svg).not.toMatch(/NaN/);
+    // the page draws the curve from the answer's numbers with the one builder (app/_plots); rendered here as the server would
+    const svg = plotToSvg(fitCurvePlot(r.body.plots.curve, 'si').options);
+    expect(svg).toMatch(/^<svg/);
+    expect(svg).not.toMatch(/NaN/);
+    expect(r.body.plots.curve.trials).toHaveLength(trialIds.length);
     // the coil model has no interior optimum (DOMAIN.md §1.2): a ceiling-fraction flow instead
     expect(r.body.choice.optimum).toBeNull();
     expect(r.body.choice.ceiling.fraction).toBe(0.9);
+  });
+
+  test('the analysis answers what the page draws; every point\'s diagnostics only with ?detail=full', async () => {
+    const eng = await signedIn('engineer@cinder-hollow.test');
+    const lab = (await eng.get('/api/me')).body.labs[0];
+    const rig = (await eng.get(`/api/labs/${lab.id}/rigs`)).body.rigs.find((r: { name: string }) => r.name === 'Blue Ring Burner Loop');
+    const all = (await eng.get(`/api/rigs/${rig.id}/trials?pageSize=500`)).body.trials as { id: string; origin: string }[];
+    const trialIds = all.filter((t) => t.origin === 'demo').map((t) => t.id);
+    const lean = await eng.post(`/api/rigs/${rig.id}/analyze`, { models: ['coil'], trialIds });
+    expect(lean.status, lean.text).toBe(200);
+    expect(lean.body.detail).toBe('display');
+    expect(lean.body.fits[0]).not.toHaveProperty('residuals');
+    expect(lean.body.fits[0]).not.toHaveProperty('leverage');
+    const full = await eng.post(`/api/rigs/${rig.id}/analyze?detail=full`, { models: ['coil'], trialIds });
+    expect(full.status, full.text).toBe(200);
+    expect(full.body.fits[0].residuals).toHaveLength(trialIds.length);
+    expect(full.body.fits[0].leverage).toHaveLength(trialIds.length);
+    // the same fit either way
+    expect(full.body.fits[0].params).toEqual(lean.body.fits[0].params);
+    expect(JSON.stringify(lean.body).length).toBeLessThan(JSON.stringify(full.body).length);
+    const bad = await eng.post(`/api/rigs/${rig.id}/analyze?detail=everything`, { models: ['coil'], trialIds });
+    expect(bad.status).toBe(422);
+    expect(bad.body.fields.detail).toBeDefined();
   });
 
   test('a saved fit is recomputed from stored trials, versioned by title, reviewed, and the author is told', async () => {

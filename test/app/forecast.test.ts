@@ -1,5 +1,10 @@
 import { describe, expect, test } from 'vitest';
 import { signedIn } from './support/client';
+import { forecastPlot } from '../../app/_plots';
+import { plotToSvg } from '../../app/_lib/plots/plot-svg';
+
+/** The trajectory as the page draws it: the answer's numbers through the one builder (app/_plots), rendered as the server would. */
+const trajectorySvg = (body: { plots: { trajectory: { input: Parameters<typeof forecastPlot>[0] } } }) => plotToSvg(forecastPlot(body.plots.trajectory.input, 'si').options);
 
 describe('forecast API', () => {
   test('the loss-free recirculating case matches the exact solution of DOMAIN.md §3.3 (check value #13)', async () => {
@@ -16,7 +21,9 @@ describe('forecast API', () => {
     });
     expect(r.status, r.text).toBe(200);
     expect(r.body.finalTemp_degC).toBeCloseTo(28.98, 1);
-    expect(r.body.plots.trajectory.svg).toMatch(/^<svg/);
+    expect(trajectorySvg(r.body)).toMatch(/^<svg/);
+    // the page draws it: the answer carries numbers, not server SVG
+    expect(r.body.plots.trajectory).not.toHaveProperty('svg');
     // the outlet of a 90 °C source is above the scald limits: the result says so (DOMAIN.md §5)
     expect(r.body.cautions.map((c: { code: string }) => c.code)).toContain('scald');
   });
@@ -84,6 +91,7 @@ describe('long forecasts', () => {
     expect(r.status, r.text).toBe(200);
     expect(r.body.samples).toBeGreaterThan(2000);
     expect(r.body.shownSamples).toBeLessThanOrEqual(2000);
-    expect(r.body.plots.trajectory.svg).not.toMatch(/NaN/);
+    expect(r.body.plots.trajectory.input.timeH.length).toBe(r.body.shownSamples);
+    expect(trajectorySvg(r.body)).not.toMatch(/NaN/);
   });
 });

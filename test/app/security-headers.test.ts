@@ -81,4 +81,31 @@ describe('security headers', () => {
     expectCommon(res.headers);
     expectNoContentPolicy(res.headers);
   });
+
+  test('the files of public/ are served without sign-in, with their types and a policy that loads nothing', async () => {
+    // the page names them in its <head> (Next.js metadata), and a browser asks for /favicon.ico on its own
+    const head = await (await fetch(`${baseUrl}/`)).text();
+    for (const href of ['/favicon.ico', '/icon.svg', '/apple-touch-icon.png', '/manifest.webmanifest']) expect(head).toContain(`href="${href}"`);
+    const files: [string, RegExp][] = [
+      ['/favicon.ico', /^image\/(x-icon|vnd\.microsoft\.icon)/],
+      ['/icon.svg', /^image\/svg\+xml/],
+      ['/apple-touch-icon.png', /^image\/png/],
+      ['/icon-192.png', /^image\/png/],
+      ['/icon-512.png', /^image\/png/],
+      ['/robots.txt', /^text\/plain/],
+      ['/manifest.webmanifest', /^application\/manifest\+json/],
+    ];
+    for (const [file, type] of files) {
+      const res = await fetch(baseUrl + file, { redirect: 'manual' });
+      expect(res.status, file).toBe(200);
+      expect(res.headers.get('content-type'), file).toMatch(type);
+      expectCommon(res.headers);
+      expectNoContentPolicy(res.headers);
+    }
+    // robots.txt keeps share links and the labs' pages out of search engines (RFC 9309)
+    const robots = await (await fetch(`${baseUrl}/robots.txt`)).text();
+    expect(robots).toMatch(/^Disallow: \/share\/$/m);
+    expect(robots).toMatch(/^Disallow: \/$/m);
+    expect(robots).toMatch(/^Allow: \/\$$/m);
+  });
 });

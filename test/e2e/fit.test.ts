@@ -17,6 +17,8 @@ describe('fit page in Chromium', () => {
     await p.getByRole('link', { name: 'Fit models' }).click();
     await p.getByRole('heading', { name: 'Model comparison' }).waitFor();
     await expect(p.getByRole('note').innerText()).resolves.toMatch(/coil is the best|Constant-source coil/);
+    // the six plots are drawn in the browser from the answer's numbers
+    await p.locator('figure svg').nth(5).waitFor();
     expect(await p.locator('figure svg').count()).toBeGreaterThanOrEqual(6);
     await screenshot(p, 'fit-workbench');
     await p.getByLabel('Title').fill('Stovepipe coil, June session');

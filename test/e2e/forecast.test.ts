@@ -33,6 +33,8 @@ describe('forecast page in Chromium', () => {
       await b.page.getByText('Rise per hour by pump flow').waitFor();
       await expect(b.page.getByText('Hours to target').count()).resolves.toBe(1);
       await expect(b.page.getByRole('list', { name: 'Cautions' }).innerText()).resolves.toMatch(/scald/);
+      // both plots are drawn in the browser from the answer's numbers
+      await b.page.locator('figure svg').nth(1).waitFor();
       expect(await b.page.locator('figure svg').count()).toBe(2);
       await screenshot(b.page, 'forecast-us');
     } finally {
@@ -65,6 +67,7 @@ describe('forecast page in Chromium', () => {
     await p.getByText('typical-day.csv: 24 hourly rows').waitFor();
     await p.getByRole('button', { name: 'Forecast' }).click();
     await p.getByText('Rise per hour by pump flow').waitFor();
+    await p.locator('figure svg').nth(1).waitFor();
     expect(await p.locator('figure svg').count()).toBe(2);
     await screenshot(p, 'forecast-hourly-weather');
   });

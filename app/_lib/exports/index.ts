@@ -11,6 +11,7 @@ export { quantityColumn } from './quantity-columns';
 export { trialsSheet, trialExportRow } from './trial-sheet';
 export { fitSheet, residualsSheet, fitSummaryItems, parameterUnits } from './fit-sheets';
 export { performanceSheet, forecastSheet, forecastSummaryItems, costsSheet } from './result-sheets';
+export { collectorSheet, collectorSummaryItems } from './collector-sheet';
 export { comparisonSheet } from './comparison-sheet';
 export {
   studyWorkbook, fitWorkbook, studyWorkbookSpec, studyCsv, sheetCsv, provenanceItems, ANALYSIS_AID_NOTICE, STUDY_SHEETS,

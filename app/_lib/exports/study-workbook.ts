@@ -8,6 +8,7 @@ import { toCsv, type CsvOptions } from './csv';
 import { fitSheet, fitSummaryItems, residualsSheet } from './fit-sheets';
 import { costsSheet, forecastSheet, forecastSummaryItems, performanceSheet } from './result-sheets';
 import { trialsSheet } from './trial-sheet';
+import { collectorSheet, collectorSummaryItems } from './collector-sheet';
 import { comparisonSheet } from './comparison-sheet';
 import type { ExportProvenance, FitWorkbookInput, StudyExport } from './types';
 import { buildWorkbook, summarySheet, type SheetSpec, type SummaryItem, type WorkbookSpec } from './xlsx';
@@ -18,7 +19,7 @@ export const ANALYSIS_AID_NOTICE =
   'Emberline is an analysis aid: its results defer to local codes and licensed practice.';
 
 /** Sheet names of a full study workbook, in order. */
-export const STUDY_SHEETS = ['Summary', 'Trials', 'Fit', 'Residuals', 'Performance', 'Forecast', 'Costs', 'Comparison'] as const;
+export const STUDY_SHEETS = ['Summary', 'Trials', 'Fit', 'Residuals', 'Performance', 'Forecast', 'Costs', 'Collector', 'Comparison'] as const;
 export type StudySheetName = (typeof STUDY_SHEETS)[number];
 
 /** Provenance lines of the Summary sheet. */
@@ -59,9 +60,10 @@ export function studyWorkbookSpec(s: StudyExport): WorkbookSpec {
   if (s.performance?.length) sheets.push(performanceSheet(s.performance, sys));
   if (forecasts.length) sheets.push(forecastSheet(forecasts, sys));
   if (s.costs) sheets.push(costsSheet(s.costs, sys));
+  if (s.collectors?.length) sheets.push(collectorSheet(s.collectors, sys));
   if (s.comparisons?.length) sheets.push(comparisonSheet(s.comparisons, sys));
   return {
-    summary: [...provenanceItems(s.provenance, sys), ...limitItems(sys), ...fitSummaryItems(fits, sys), ...forecastSummaryItems(forecasts, sys)],
+    summary: [...provenanceItems(s.provenance, sys), ...limitItems(sys), ...fitSummaryItems(fits, sys), ...forecastSummaryItems(forecasts, sys), ...collectorSummaryItems(s.collectors ?? [])],
     summaryNotice: sheetNotice(sys, forecasts.flatMap((f, k) => [
       { where: `pool of ${f.label ?? `Forecast ${k + 1}`}`, valuesC: [f.result.maxTempC] },
       { where: `heater outlet of ${f.label ?? `Forecast ${k + 1}`}`, valuesC: [f.result.maxOutletTempC] },

@@ -12,6 +12,7 @@ import type { BuildCostSheet } from '@/analysis/cost/build-cost';
 import type { UsefulHeatCost } from '@/analysis/cost/useful-heat-cost';
 import type { Payback } from '@/analysis/cost/payback';
 import type { FuelKind } from '@/analysis/cost/fuels';
+import type { CollectorTestResult } from '@/analysis/performance/collector-test';
 import type { CellValue } from './cells';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import type { DesignComparisonView } from '@/app/_contracts/design-comparison';
@@ -128,6 +129,14 @@ export interface RunningCostExport {
   heatBasis: string;
 }
 
+/** A collector efficiency test (analysis/performance/collector-test.ts `collectorTest`) with a label. */
+export interface CollectorExport {
+  label: string;
+  test: Pick<CollectorTestResult, 'areaBasis' | 'areaM2' | 'eta0' | 'a1WPerM2K' | 'a2WPerM2K2' | 'n' | 'residualSD' | 'points' | 'excluded' | 'warnings'>;
+  /** a label per point (the trial's time) */
+  trialLabels?: string[];
+}
+
 /** Everything a study export can hold; each part gives its sheet when present. */
 export interface StudyExport {
   unitSystem: UnitSystem;
@@ -137,6 +146,7 @@ export interface StudyExport {
   performance?: PerformanceExport[];
   forecasts?: ForecastExport[];
   costs?: CostExport;
+  collectors?: CollectorExport[];
   /** design comparisons (a study's design-comparison blocks, or one comparison's export) */
   comparisons?: DesignComparisonView[];
   /** extra lines under the Summary table (cautions, the reviewer's sign-off…) */
@@ -144,4 +154,4 @@ export interface StudyExport {
 }
 
 /** What a fit export holds: the trials, the fitted model(s) and optionally their performance table. */
-export type FitWorkbookInput = Pick<StudyExport, 'unitSystem' | 'provenance' | 'trials' | 'fits' | 'performance' | 'notes'>;
+export type FitWorkbookInput = Pick<StudyExport, 'unitSystem' | 'provenance' | 'trials' | 'fits' | 'performance' | 'notes' | 'collectors'>;

@@ -113,11 +113,46 @@ function addTable(ws: ExcelJS.Worksheet, sheet: SheetSpec): void {
   }
   if (sheet.notes?.length) {
     ws.addRow([]);
+    const span = Math.max(1, columns.length);
+    const chars = columns.reduce((sum, _c, j) => sum + (ws.getColumn(j + 1).width ?? WIDTH_MIN), 0);
     for (const note of sheet.notes) {
       const r = ws.addRow([neutraliseCell(note, `${sheet.name}: note`)]);
       r.font = { italic: true };
+      // over the table's width and wrapped, so that a long note prints inside the print area
+      if (span > 1) ws.mergeCells(r.number, 1, r.number, span);
+      r.getCell(1).alignment = { vertical: 'top', wrapText: true };
+      r.height = 15 * Math.max(1, Math.ceil(note.length / Math.max(chars, 1)));
     }
   }
+  setPrintLayout(ws, headerRow, Math.max(1, columns.length));
+}
+
+/**
+ * Above this sum of column widths (characters of the default font) a sheet prints in landscape:
+ * a portrait A4 or Letter page holds about 95 at 100 % (common practice: ~7 in of printable width
+ * at 7 px per character and 96 px per inch).
+ */
+export const PORTRAIT_MAX_CHARS = 95;
+
+/**
+ * How a sheet prints: everything written (notice, table, notes) as the print area, scaled to one
+ * page wide and as many pages long as it needs, the header row repeated on every page,
+ * landscape when the columns are wider than a portrait page, and the sheet name and page
+ * number in the footer.
+ */
+function setPrintLayout(ws: ExcelJS.Worksheet, headerRow: number, lastColumn: number): void {
+  const chars = Array.from({ length: lastColumn }, (_, j) => ws.getColumn(j + 1).width ?? WIDTH_MIN).reduce((a, b) => a + b, 0);
+  ws.pageSetup = {
+    ...ws.pageSetup,
+    orientation: chars > PORTRAIT_MAX_CHARS ? 'landscape' : 'portrait',
+    fitToPage: true,
+    fitToWidth: 1,
+    fitToHeight: 0,
+    printArea: `A1:${ws.getColumn(lastColumn).letter}${Math.max(ws.rowCount, headerRow)}`,
+    printTitlesRow: `${headerRow}:${headerRow}`,
+    margins: { left: 0.5, right: 0.5, top: 0.6, bottom: 0.6, header: 0.3, footer: 0.3 },
+  };
+  ws.headerFooter = { ...ws.headerFooter, oddFooter: '&L&A&RPage &P of &N' };
 }
 
 /** The columns of the Summary sheet. */
@@ -165,8 +200,9 @@ export function workbookDocument(spec: WorkbookSpec): ExcelJS.Workbook {
 /**
  * An XLSX file through exceljs: a Summary sheet of key/value provenance first, then one sheet per
  * table, each with a bold frozen header row carrying the units ("Flow (L/min)"), the columns'
- * number formats, widths from the content (6–60 characters), an auto-filter, and every text cell
- * neutralised against formula injection (OWASP "CSV Injection"; see cells.ts).
+ * number formats, widths from the content (6–60 characters), an auto-filter, a print layout (one
+ * page wide, the header row on every page, landscape when wide), and every text cell neutralised
+ * against formula injection (OWASP "CSV Injection"; see cells.ts).
  * @returns the .xlsx bytes
  * @throws TypeError naming sheet, row and column for NaN, Infinity, an invalid date or an object.
  * @example await buildWorkbook({ summary: [{ key: 'Lab', value: 'Demo lab' }], sheets: [trialsSheet] })

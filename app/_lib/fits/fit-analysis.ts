@@ -3,15 +3,11 @@ import { createHash } from 'node:crypto';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
 import { Trial, type RigRow, type TrialRow } from '@/entities';
-import { compareModels, type FitSuccess } from '@/analysis/fit';
-import { chooseFlow } from '@/analysis/performance/choose-flow';
-import { performanceTable } from '@/analysis/performance/performance-table';
 import { trialWaterProperties } from '@/analysis/water/trial-water';
-import { plotToSvg } from '../plots/plot-svg';
-import { fitCurveInputFromFits, fitCurvePlot, heatInputFromFit, heatPlot, residualInputFromFit, residualPlots, type PlotFigure } from '../plots';
-import type { UnitSystem } from '@/analysis/units/unit-system';
+import { runAnalysis } from '../server/analysis-pool';
 import { DomainError } from '../server/errors';
 import pkg from '@/package.json';
+import type { FitData } from './fit-compute';
 
 export const SOFTWARE_VERSION = `emberline ${pkg.version}`;
 
@@ -64,7 +60,7 @@ export function trialsHash(trials: TrialRow[]): string {
  * outlet temperature: the bucket holds outlet water, DOMAIN.md §1.1) and cp (J/(kg·K), IAPWS-IF97
  * at the mean of inlet and outlet).
  */
-export function fitData(trials: readonly Pick<TrialRow, 'flowM3PerS' | 'inletTempC' | 'outletTempC'>[]) {
+export function fitData(trials: readonly Pick<TrialRow, 'flowM3PerS' | 'inletTempC' | 'outletTempC'>[]): FitData {
   // the water rule of analysis/water/trial-water.ts, on temperatures kept inside liquid water (a
   // trial may record up to 150 °C: the property tables stop at 100 °C)
   const clamp = (t: number) => Math.min(Math.max(t, 0.01), 99.9);
@@ -80,100 +76,42 @@ export function fitData(trials: readonly Pick<TrialRow, 'flowM3PerS' | 'inletTem
   };
 }
 
-const svgOf = (f: PlotFigure) => ({ title: f.title, summary: f.summary, svg: plotToSvg(f.options), ...(f.cautions?.length ? { cautions: f.cautions } : {}) });
+/** The detail of an analysis: what the page draws ('display') or every point's diagnostics too ('full'). */
+export type AnalyzeDetail = 'display' | 'full';
 
-/** Everything the fit page shows, computed on the server from the stored trials. */
-export async function analyze(em: EntityManager, rig: RigRow, input: AnalyzeInput, units: UnitSystem) {
+/**
+ * The `?detail=` of the analyze route: absent or `display`, or `full`.
+ * @throws DomainError invalid naming the parameter for anything else
+ */
+export function analyzeDetail(q: string | null): AnalyzeDetail {
+  if (q === null || q === 'display') return 'display';
+  if (q === 'full') return 'full';
+  throw new DomainError('invalid', 'invalid', 'detail must be "display" or "full".', { fields: { detail: 'display or full' } });
+}
+
+/**
+ * Everything the fit page shows, computed in the analysis pool (fit-compute.ts) from the stored
+ * trials: the comparison, the fitted models' tables, the flow choice and performance table at the
+ * planning inlet, and the plot builders' inputs, reduced for display, for the browser to draw.
+ * @throws DomainError invalid (fewer than two trials, too many), not_found (trials of another rig), unavailable (the pool is full)
+ */
+export async function analyze(em: EntityManager, rig: RigRow, input: AnalyzeInput, detail: AnalyzeDetail = 'display') {
   const used = await trialsForFit(em, rig, input.trialIds);
   if (used.length < 2) throw new DomainError('invalid', 'too_few', 'Pick at least two included trials to fit.');
-  const excluded = input.trialIds ? [] : await em.find(Trial, { rig, excluded: true });
+  const excluded = input.trialIds ? [] : await em.find(Trial, { rig, excluded: true }, { fields: ['flowM3PerS', 'outletTempC'], limit: MAX_FIT_TRIALS });
   const data = fitData(used);
-  const comparison = compareModels({ ...data, measurementSD: input.measurementSdK }, input.models.map((m) => ({ label: modelLabel(m), model: m })));
-  const okFits = comparison.ranking.filter((r) => r.ok && r.fit) as (typeof comparison.ranking[number] & { fit: FitSuccess })[];
   const meanTin = data.covariates.Tin.reduce((a, b) => a + b, 0) / data.covariates.Tin.length;
   const planInletC = input.planInletC ?? Math.round(meanTin * 10) / 10;
-  const labels = used.map((t) => t.startedAt.toISOString().slice(0, 16).replace('T', ' '));
-  const excludedPts = excluded.map((t) => ({ flowM3PerS: t.flowM3PerS, outletTempC: t.outletTempC, label: 'excluded' }));
-  let plots: Record<string, { title: string; summary: string; svg: string; cautions?: PlotFigure['cautions'] }> = {};
-  let choice = null;
-  let performance = null;
-  const primary = okFits[0]?.fit;
-  if (primary) {
-    choice = chooseFlow(primary, planInletC);
-    const [lo, hi] = primary.xRange;
-    const steps = Array.from({ length: 8 }, (_, i) => lo + ((hi * 1.25 - lo) * i) / 7);
-    performance = performanceTable(primary, steps, planInletC);
-    const curve = fitCurvePlot(fitCurveInputFromFits(okFits.map((r) => ({ label: r.label, fit: r.fit })), { excluded: excludedPts, labels, inletTempC: planInletC }), units);
-    const res = residualPlots(residualInputFromFit(primary, { labels, times: used.map((t) => t.startedAt) }), units);
-    const heat = heatPlot(heatInputFromFit(primary, { inletTempC: planInletC, choice, excluded: excludedPts, labels }), units);
-    plots = { curve: svgOf(curve), heat: svgOf(heat), resFlow: svgOf(res.vsFlow), resFitted: svgOf(res.vsFitted), resOrder: svgOf(res.vsOrder), qq: svgOf(res.qq) };
-  }
-  return {
-    trialIds: used.map((t) => t.id),
-    trialsHash: trialsHash(used),
-    n: used.length,
-    planInletC,
+  const computed = await runAnalysis('analyze', {
+    data,
+    models: input.models,
     measurementSdK: input.measurementSdK,
-    comparison: {
-      best: comparison.best,
-      verdict: comparison.verdict,
-      ranking: comparison.ranking.map((r) => ({
-        label: r.label,
-        model: r.model,
-        ok: r.ok,
-        reason: r.reason,
-        aicc: r.aicc,
-        deltaAicc: r.deltaAicc,
-        akaikeWeight: r.akaikeWeight,
-        residualSD: r.residualSD,
-        sdRatio: r.sdRatio,
-        runsP: r.runs?.pValue ?? null,
-        patterned: r.patterned,
-        verdict: r.verdict,
-      })),
-    },
-    fits: okFits.map((r) => summarizeFit(r.model, r.label, r.fit)),
-    choice,
-    performance,
-    plots,
-  };
+    planInletC,
+    labels: used.map((t) => t.startedAt.toISOString().slice(0, 16).replace('T', ' ')),
+    times: used.map((t) => t.startedAt.toISOString()),
+    excluded: excluded.map((t) => ({ flowM3PerS: t.flowM3PerS, outletTempC: t.outletTempC, label: 'excluded' })),
+    detail,
+  });
+  return { trialIds: used.map((t) => t.id), trialsHash: trialsHash(used), ...computed };
 }
-
-/** The parts of a fit a page, a saved record and an export need (no internal solver data). */
-export function summarizeFit(model: string, label: string, f: FitSuccess) {
-  return {
-    model,
-    label,
-    expression: f.expression,
-    params: f.params,
-    parameterNames: f.parameterNames,
-    covariance: f.covariance,
-    correlation: f.correlation,
-    n: f.n,
-    p: f.p,
-    df: f.df,
-    rss: f.rss,
-    residualSD: f.residualSD,
-    r2: f.r2,
-    adjustedR2: f.adjustedR2,
-    rmse: f.rmse,
-    aic: f.aic,
-    aicc: f.aicc,
-    bic: f.bic,
-    level: f.level,
-    fitted: f.fitted,
-    residuals: f.residuals,
-    studentizedResiduals: f.studentizedResiduals,
-    leverage: f.leverage,
-    cooksDistance: f.cooksDistance,
-    flags: f.flags,
-    iterations: f.iterations,
-    converged: f.converged,
-    stoppingReason: f.stoppingReason,
-    xRange: f.xRange,
-    lackOfFit: f.lackOfFit,
-    warnings: f.warnings,
-  };
-}
-export type FitSummary = ReturnType<typeof summarizeFit>;
 export type Analysis = Awaited<ReturnType<typeof analyze>>;

@@ -1,10 +1,10 @@
-import 'server-only';
 /**
  * What a saved fit keeps in `Fit.result` (a JSON column), in one place: `storedFitResult` writes
  * it (saveFit) and `parseStoredFit` reads it for every reader — the fit page, study blocks,
  * forecasts, exports and the fit API — with one zod schema. The schema checks what the readers
  * use (parameters, statistics, residuals, the flow choice, the performance rows, the trials); the
- * rest is the analysis result as it was written (analysis/fit, analysis/performance).
+ * rest is the analysis result as it was written (analysis/fit, analysis/performance). Free of
+ * `server-only`: the analysis worker writes it (fits/fit-compute.ts).
  */
 import { z } from 'zod';
 import type { FitSuccess, ModelComparison } from '@/analysis/fit';

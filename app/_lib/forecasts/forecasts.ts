@@ -1,72 +1,43 @@
 import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { z } from 'zod';
 import { Fit, type LabRow } from '@/entities';
-import { costPerDegree, usefulHeatCost, USEFUL_THERM_J } from '@/analysis/cost/useful-heat-cost';
-import type { FuelKind } from '@/analysis/cost/fuels';
 import { checkForecastWork, FORECAST_LIMITS } from '@/analysis/forecast/forecast-limits';
-import { forecastJson } from '@/analysis/forecast/forecast-json';
-import { readForecastInput } from '@/analysis/forecast/read-forecast-input';
-import { recirculatingForecast, type ForecastInput, type ForecastResult } from '@/analysis/forecast/recirculating-forecast';
-import { risePerHourTable } from '@/analysis/pool/mixing';
-import { poolGeometry, type PoolGeometry } from '@/analysis/pool/pool-geometry';
-import { readPoolDimensions } from '@/analysis/pool/read-pool-dimensions';
-import { reduceForDisplay } from '@/analysis/reduce';
 import { parseQuantity } from '@/analysis/units/parse-quantity';
-import { readingInput } from '@/analysis/units/reading-input';
-import { waterDensityKgPerM3 } from '@/analysis/water/water-properties';
 import { invalid, notFound } from '../server/errors';
-import { plotToSvg } from '../plots/plot-svg';
-import { energyBudgetInput, energyBudgetPlot, forecastPlot } from '../plots';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { isUuid } from '../labs/load-in-lab';
 import { parseStoredFit } from '../fits/stored-fit';
+import { runAnalysis } from '../server/analysis-pool';
 import type { ForecastExport } from '../exports';
 
-/** A forecast as the app runs it: the typed input, its result, and what the page adds. */
-interface Prepared {
-  input: ForecastInput;
-  result: ForecastResult;
-  pool: PoolGeometry | null;
-  fitNote: string | null;
-  costInput: unknown;
+/**
+ * The heater of a saved coil fit named by `fitId` (its Ts and UA as unit strings) and the note
+ * the page shows about it; nothing when the body names no fit.
+ * @throws DomainError not_found (no such fit in this lab), invalid (not a coil fit)
+ */
+async function fitHeater(em: EntityManager, lab: LabRow, fitId: unknown): Promise<{ heater?: Record<string, unknown>; fitNote: string | null }> {
+  if (fitId === undefined) return { fitNote: null };
+  const fit = isUuid(fitId) ? await em.findOne(Fit, { id: fitId, lab }) : null;
+  if (!fit) throw notFound('No such saved fit in this lab.');
+  if (fit.model !== 'coil') throw invalid('Forecasts take a saved coil fit (its Ts and UA carry over to any inlet temperature).', { fitId: 'Pick a coil fit.' });
+  const p = parseStoredFit(fit.result, fit.id).fit.params;
+  return {
+    heater: { model: 'coil', sourceTemp: `${p.Ts.value} degC`, UA: `${p.UA.value} W/K` },
+    fitNote: `Heater: saved fit "${fit.title}" v${fit.version} (Ts ${p.Ts.value.toFixed(1)} °C, UA ${p.UA.value.toFixed(0)} W/K).`,
+  };
 }
 
 /**
  * Runs the recirculating forecast of a request body (the same fields as `npm run analysis --
  * forecast`, quantities as unit strings; `pool` by its shape instead of a volume; `fitId` for a
- * saved coil fit as the heater) and renders its plots.
- * @throws DomainError not_found (no such fit); InputError (422) naming the field the user wrote
+ * saved coil fit as the heater) in the analysis pool (forecast-compute.ts). Its plots come as the
+ * builders' inputs for the browser to draw, and as server SVG too when `render` is 'svg' (study
+ * blocks).
+ * @throws DomainError not_found (no such fit), unavailable (the pool is full); InputError (422) naming the field the user wrote
  */
-export async function forecast(em: EntityManager, lab: LabRow, body: Record<string, unknown>, units: UnitSystem) {
-  const { input, result: r, pool, fitNote, costInput } = await prepareForecast(em, lab, body);
-  // Long series (a season sampled hourly and finer) are reduced for display, keeping extremes and endpoints.
-  const shown = reduceForDisplay(r.timeH, r.tempC);
-  const pick = (a: Float64Array) => Array.from(shown.indices, (i) => a[i]);
-  const trajectory = forecastPlot(
-    {
-      timeH: pick(r.timeH),
-      poolC: pick(r.tempC),
-      outletTempC: pick(r.outletTempC),
-      targetC: input.targetTempC ?? null,
-      hoursToTarget: r.hoursToTarget,
-      cautions: r.cautions.filter((c) => c.thresholdC !== null).map((c) => ({ thresholdC: c.thresholdC!, level: c.level, message: c.message })),
-    },
-    units,
-  );
-  const budget = energyBudgetPlot(energyBudgetInput(r.energy, input.hours), units);
-  return {
-    ...forecastJson(r),
-    samples: r.timeH.length,
-    shownSamples: shown.indices.length,
-    fitNote,
-    pool: pool && { volume_m3: pool.volumeM3, area_m2: pool.areaM2 },
-    ...forecastExtras(input, r, costInput),
-    plots: {
-      trajectory: { title: trajectory.title, summary: trajectory.summary, svg: plotToSvg(trajectory.options), cautions: trajectory.cautions },
-      budget: { title: budget.title, summary: budget.summary, svg: plotToSvg(budget.options) },
-    },
-  };
+export async function forecast(em: EntityManager, lab: LabRow, body: Record<string, unknown>, units: UnitSystem, render: 'svg' | 'data' = 'svg') {
+  const { heater, fitNote } = await fitHeater(em, lab, body.fitId);
+  return runAnalysis('forecast', { body, heater, fitNote, units, render });
 }
 
 /**
@@ -93,61 +64,10 @@ export function forecastWorkProblem(body: Record<string, unknown>): string | nul
 }
 
 /**
- * The typed forecast of a request body: the saved fit as heater, the pool by its shape (its area
- * the surface of the loss terms), read by the same reader as the command line.
- */
-async function prepareForecast(em: EntityManager, lab: LabRow, body: Record<string, unknown>): Promise<Prepared> {
-  const { fitId, cost: costInput, pool: poolBody, ...rest } = body;
-  let fitNote: string | null = null;
-  const input: Record<string, unknown> = { ...rest };
-  if (fitId !== undefined) {
-    const fit = isUuid(fitId) ? await em.findOne(Fit, { id: fitId, lab }) : null;
-    if (!fit) throw notFound('No such saved fit in this lab.');
-    if (fit.model !== 'coil') throw invalid('Forecasts take a saved coil fit (its Ts and UA carry over to any inlet temperature).', { fitId: 'Pick a coil fit.' });
-    const p = parseStoredFit(fit.result, fit.id).fit.params;
-    input.heater = { model: 'coil', sourceTemp: `${p.Ts.value} degC`, UA: `${p.UA.value} W/K` };
-    fitNote = `Heater: saved fit "${fit.title}" v${fit.version} (Ts ${p.Ts.value.toFixed(1)} °C, UA ${p.UA.value.toFixed(0)} W/K).`;
-  }
-  return readingInput((read) => {
-    const pool = poolBody === undefined ? null : poolGeometry(readPoolDimensions(read, poolBody, 'pool'));
-    if (pool && input.losses && typeof input.losses === 'object') input.losses = { ...(input.losses as object), surfaceArea: `${pool.areaM2} m^2` };
-    const typed = readForecastInput(read, input);
-    if (pool) typed.poolVolumeM3 = pool.volumeM3;
-    return { input: typed, result: recirculatingForecast(typed), pool, fitNote, costInput };
-  });
-}
-
-/**
  * A forecast block's results for the spreadsheet export (Forecast sheet and Summary items).
  * @throws as {@link forecast}
  */
 export async function forecastForExport(em: EntityManager, lab: LabRow, body: Record<string, unknown>, label: string): Promise<ForecastExport> {
-  return { label, result: (await prepareForecast(em, lab, body)).result };
-}
-
-const costSchema = z.object({ fuel: z.enum(['natural-gas', 'propane', 'electric-resistance', 'heat-pump', 'wood']), pricePerUnit: z.number().positive(), efficiency: z.number().positive().max(10).optional() }).strict();
-
-/**
- * The rise per hour by flow × pool size (a heater with a source temperature, at the start temperature) and, with a fuel
- * price, the cost of a useful therm, of one degree and of this forecast's heat.
- */
-function forecastExtras(input: ForecastInput, r: ForecastResult, costInput: unknown) {
-  let riseTable: { flowsM3PerS: number[]; volumesM3: number[]; risePerHourK: number[][] } | null = null;
-  const volumeM3 = input.poolVolumeM3 ?? r.poolMassKg / waterDensityKgPerM3(input.startTempC);
-  const q = input.flowM3PerS ?? 0;
-  if (input.heater.sourceTempC !== null && q > 0) {
-    const flowsM3PerS = [0.5, 1, 1.5, 2].map((k) => q * k);
-    const volumesM3 = [0.5, 1, 2].map((k) => volumeM3 * k);
-    riseTable = { flowsM3PerS, volumesM3, risePerHourK: risePerHourTable(input.heater, flowsM3PerS, volumesM3, input.startTempC) };
-  }
-  let cost: { perUsefulTherm: number; perDegF: number; perK: number; forecastHeatCost: number; basis: string } | null = null;
-  if (costInput !== undefined) {
-    const c = costSchema.safeParse(costInput);
-    if (!c.success) throw invalid('cost: give a fuel, a price per unit and optionally an efficiency (COP for a heat pump).', { cost: c.error.issues[0]?.message ?? 'invalid' });
-    const u = usefulHeatCost({ fuel: c.data.fuel as FuelKind, pricePerUnit: c.data.pricePerUnit, efficiency: c.data.efficiency });
-    const d = volumeM3 ? costPerDegree(volumeM3, u.perUsefulTherm) : { perDegF: NaN, perK: NaN };
-    cost = { perUsefulTherm: u.perUsefulTherm, perDegF: d.perDegF, perK: d.perK, forecastHeatCost: (r.energy.heaterJ / USEFUL_THERM_J) * u.perUsefulTherm, basis: 'HHV' };
-    if (!Number.isFinite(cost.perK)) cost = { ...cost, perDegF: 0, perK: 0 };
-  }
-  return { riseTable, cost };
+  const { heater } = await fitHeater(em, lab, body.fitId);
+  return { label, result: await runAnalysis('forecastResult', { body, heater }) };
 }

@@ -48,6 +48,8 @@ export const ROW_FIELD: Record<Exclude<TrialField, 'fillTime' | 'time' | 'notes'
   inletTemp: 'inletTempC',
   outletTemp: 'outletTempC',
   ambientTemp: 'ambientTempC',
+  irradiance: 'irradianceWPerM2',
+  wind: 'windMPerS',
 };
 
 /**
@@ -119,6 +121,8 @@ export interface MappedTrialRow {
   inletTempC?: number;
   outletTempC?: number;
   ambientTempC?: number;
+  irradianceWPerM2?: number;
+  windMPerS?: number;
   notes?: string;
 }
 

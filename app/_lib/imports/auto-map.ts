@@ -67,6 +67,8 @@ const RULES: Rule[] = [
   { field: 'fillTime', words: ['fill', 'fills', 'filling', 'fuellzeit', 'fuelldauer', 'fuellen', 'stopwatch', 'stoppuhr'], pattern: /bucket ?time|time ?to ?fill|fuell ?zeit/, strength: 0.9 },
   { field: 'flow', words: ['flow', 'flowrate', 'durchfluss', 'volumenstrom', 'debit', 'caudal', 'q', 'gpm', 'lpm', 'discharge'], strength: 0.9 },
   { field: 'bucketVolume', words: ['bucket', 'container', 'eimer', 'gefaess', 'behaelter', 'vessel', 'jug', 'volume', 'vol', 'volumen', 'messbecher'], strength: 0.85 },
+  { field: 'irradiance', words: ['irradiance', 'irradiation', 'radiation', 'solar', 'sun', 'pyranometer', 'insolation', 'poa', 'ghi', 'strahlung', 'einstrahlung', 'globalstrahlung'], strength: 0.9 },
+  { field: 'wind', words: ['wind', 'windspeed', 'anemometer', 'windgeschwindigkeit'], strength: 0.9 },
   { field: 'ambientTemp', words: ['ambient', 'amb', 'tamb', 'air', 'outside', 'outdoor', 'umgebung', 'aussen', 'luft', 'room', 'environment', 'tair', 'tu'], strength: 0.9 },
   { field: 'inletTemp', words: ['inlet', 'tin', 'supply', 'cold', 'entering', 'entry', 'eintritt', 'eingang', 'zulauf', 'ein', 'tein', 'intake'], strength: 0.9 },
   { field: 'outletTemp', words: ['outlet', 'tout', 'hot', 'leaving', 'exit', 'austritt', 'ausgang', 'ablauf', 'aus', 'taus'], strength: 0.9 },

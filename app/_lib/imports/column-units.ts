@@ -16,14 +16,16 @@ export type TrialField =
   | 'inletTemp'
   | 'outletTemp'
   | 'ambientTemp'
+  | 'irradiance'
+  | 'wind'
   | 'notes';
 
 export const TRIAL_FIELDS: readonly TrialField[] = [
-  'time', 'bucketVolume', 'fillTime', 'flow', 'inletTemp', 'outletTemp', 'ambientTemp', 'notes',
+  'time', 'bucketVolume', 'fillTime', 'flow', 'inletTemp', 'outletTemp', 'ambientTemp', 'irradiance', 'wind', 'notes',
 ];
 
 /** The dimension of each field's numbers (`time` may also hold dates: unit `datetime`). */
-export const FIELD_KIND: Record<TrialField, 'temperature' | 'volume' | 'time' | 'volumeFlow' | 'text'> = {
+export const FIELD_KIND: Record<TrialField, 'temperature' | 'volume' | 'time' | 'volumeFlow' | 'irradiance' | 'speed' | 'text'> = {
   time: 'time',
   bucketVolume: 'volume',
   fillTime: 'time',
@@ -31,6 +33,8 @@ export const FIELD_KIND: Record<TrialField, 'temperature' | 'volume' | 'time' | 
   inletTemp: 'temperature',
   outletTemp: 'temperature',
   ambientTemp: 'temperature',
+  irradiance: 'irradiance',
+  wind: 'speed',
   notes: 'text',
 };
 
@@ -40,13 +44,17 @@ export const UNITS_BY_KIND = {
   volume: ['L', 'mL', 'gal', 'm^3', 'ft^3'],
   time: ['s', 'min', 'h', 'ms', 'datetime'],
   volumeFlow: ['L/min', 'L/s', 'L/h', 'gpm', 'gph', 'm^3/h', 'm^3/s', 'mL/s', 'mL/min'],
+  irradiance: ['W/m^2', 'kW/m^2'],
+  speed: ['m/s', 'km/h', 'mph'],
 } as const;
 
 export type ColumnUnit =
   | (typeof UNITS_BY_KIND)['temperature'][number]
   | (typeof UNITS_BY_KIND)['volume'][number]
   | (typeof UNITS_BY_KIND)['time'][number]
-  | (typeof UNITS_BY_KIND)['volumeFlow'][number];
+  | (typeof UNITS_BY_KIND)['volumeFlow'][number]
+  | (typeof UNITS_BY_KIND)['irradiance'][number]
+  | (typeof UNITS_BY_KIND)['speed'][number];
 
 /** Human labels for the units (for the mapping screen). */
 export const UNIT_LABEL: Record<ColumnUnit, string> = {
@@ -55,6 +63,8 @@ export const UNIT_LABEL: Record<ColumnUnit, string> = {
   s: 's', min: 'min', h: 'h', ms: 'ms', datetime: 'date/time',
   'L/min': 'L/min', 'L/s': 'L/s', 'L/h': 'L/h', gpm: 'US gpm', gph: 'US gph', 'm^3/h': 'm³/h', 'm^3/s': 'm³/s',
   'mL/s': 'mL/s', 'mL/min': 'mL/min',
+  'W/m^2': 'W/m²', 'kW/m^2': 'kW/m²',
+  'm/s': 'm/s', 'km/h': 'km/h', mph: 'mph',
 };
 
 // Spellings (lower case, spaces removed, superscripts folded) → canonical unit.
@@ -80,6 +90,8 @@ const ALIASES: Record<string, ColumnUnit> = {
   'm3/h': 'm^3/h', 'm^3/h': 'm^3/h', 'm3/hr': 'm^3/h',
   'm3/s': 'm^3/s', 'm^3/s': 'm^3/s',
   'ml/s': 'mL/s', 'ml/min': 'mL/min',
+  'w/m2': 'W/m^2', 'w/m^2': 'W/m^2', 'wm-2': 'W/m^2', 'w·m-2': 'W/m^2', 'kw/m2': 'kW/m^2', 'kw/m^2': 'kW/m^2',
+  'm/s': 'm/s', mps: 'm/s', 'm·s-1': 'm/s', 'km/h': 'km/h', kmh: 'km/h', kph: 'km/h', mph: 'mph',
 };
 
 /** Lower case, no spaces, ³ → 3, ⁻¹ → -1, × / · kept. */
@@ -153,6 +165,8 @@ export const DEFAULT_UNIT: Record<Exclude<TrialField, 'notes'>, ColumnUnit> = {
   inletTemp: 'degC',
   outletTemp: 'degC',
   ambientTemp: 'degC',
+  irradiance: 'W/m^2',
+  wind: 'm/s',
 };
 
 /** True when `unit` measures what `field` holds. */

@@ -61,10 +61,10 @@ export function logCriteria(input: Pick<LogReadInput, 'preset' | 'criteria'>, fi
 }
 
 /** The channels a log is segmented on: ambient takes part only when every sample has one. */
-export function segmentChannels<T extends ArrayLike<number>>(log: { timeS: T; inletTempC: T; outletTempC: T; flowM3PerS: T; ambientTempC: T | null }) {
+export function segmentChannels<T extends ArrayLike<number>>(log: { timeS: T; inletTempC: T; outletTempC: T; flowM3PerS: T; ambientTempC: T | null; irradianceWPerM2?: T | null; windMPerS?: T | null }) {
   let ambientTempC = log.ambientTempC;
   if (ambientTempC) for (let i = 0; i < ambientTempC.length; i++) if (Number.isNaN(ambientTempC[i])) { ambientTempC = null; break; }
-  return { timeS: log.timeS, inletTempC: log.inletTempC, outletTempC: log.outletTempC, flowM3PerS: log.flowM3PerS, ambientTempC };
+  return { timeS: log.timeS, inletTempC: log.inletTempC, outletTempC: log.outletTempC, flowM3PerS: log.flowM3PerS, ambientTempC, collector: { irradianceWPerM2: log.irradianceWPerM2 ?? null, windMPerS: log.windMPerS ?? null } };
 }
 export type SegmentChannels = ReturnType<typeof segmentChannels<Float64Array>>;
 

@@ -18,6 +18,45 @@ import { lowerBound, type SegmentChannels } from './log-reader';
  * log-reader (the channel type, lowerBound); `pg` (types) for the caller's connection.
  */
 
+/** Mean of x[a..b], or undefined when any value is missing (NaN) or there is no channel. */
+function meanOf(x: ArrayLike<number> | null | undefined, a: number, b: number): number | undefined {
+  if (!x || x.length === 0) return undefined;
+  let s = 0;
+  for (let i = a; i <= b; i++) { if (x[i] !== x[i]) return undefined; s += x[i]; }
+  return s / (b - a + 1);
+}
+
+/** Largest |x − mean| over a..b (the spread the collector test's steadiness limits check). */
+function maxDeviation(x: ArrayLike<number> | null | undefined, a: number, b: number, mean: number | undefined): number | undefined {
+  if (!x || x.length === 0 || mean === undefined) return undefined;
+  let d = 0;
+  for (let i = a; i <= b; i++) d = Math.max(d, Math.abs(x[i] - mean));
+  return d;
+}
+
+/**
+ * A collector log's period: the means of irradiance and wind (for the trial) and the largest
+ * deviations from the period means of irradiance, ambient, inlet and flow (stored in the trial's
+ * `segment.collectorSpread`, read by the collector test's steadiness check).
+ */
+export function collectorPeriod(channels: SegmentChannels, a: number, b: number, mean: SegmentStats['mean']) {
+  const c = channels.collector;
+  const irradianceWPerM2 = meanOf(c?.irradianceWPerM2, a, b);
+  const windMPerS = meanOf(c?.windMPerS, a, b);
+  if (irradianceWPerM2 === undefined) return { irradianceWPerM2, windMPerS, spread: undefined };
+  const flowDev = maxDeviation(channels.flowM3PerS, a, b, mean.flowM3PerS);
+  return {
+    irradianceWPerM2,
+    windMPerS,
+    spread: {
+      irradianceWPerM2: maxDeviation(c!.irradianceWPerM2, a, b, irradianceWPerM2),
+      ambientTempK: maxDeviation(channels.ambientTempC, a, b, mean.ambientTempC ?? undefined),
+      inletTempK: maxDeviation(channels.inletTempC, a, b, mean.inletTempC),
+      flowRelative: flowDev === undefined || !(mean.flowM3PerS > 0) ? undefined : flowDev / mean.flowM3PerS,
+    },
+  };
+}
+
 /** A period of the log that becomes a trial: samples a..b (inclusive) and their statistics. */
 export interface LogPeriod {
   a: number;
@@ -48,7 +87,8 @@ export function trialPeriods(
   const periods: LogPeriod[] = [];
   const ruled = (p: LogPeriod, explicit: boolean) => {
     const m = p.st.mean;
-    const r = checkTrialRow({ flowM3PerS: m.flowM3PerS, inletTempC: m.inletTempC, outletTempC: m.outletTempC, ambientTempC: m.ambientTempC ?? undefined }, lines[p.a]);
+    const sun = collectorPeriod(channels, p.a, p.b, m);
+    const r = checkTrialRow({ flowM3PerS: m.flowM3PerS, inletTempC: m.inletTempC, outletTempC: m.outletTempC, ambientTempC: m.ambientTempC ?? undefined, irradianceWPerM2: sun.irradianceWPerM2, windMPerS: sun.windMPerS }, lines[p.a]);
     if (r.ok) return periods.push(p);
     const why = `the period from line ${lines[p.a]} to ${lines[p.b]} cannot be a trial: ${r.issues.map((i) => i.message).join('; ')}`;
     if (explicit) throw new ImportError('bad_period', why, { file, line: lines[p.a] });
@@ -79,21 +119,23 @@ export async function insertLogTrials(
 ): Promise<void> {
   if (!periods.length) return;
   const t = channels.timeS;
-  const cols: unknown[][] = Array.from({ length: 8 }, () => []);
+  const cols: unknown[][] = Array.from({ length: 10 }, () => []);
   for (const { a, b, st, extra } of periods) {
+    const sun = collectorPeriod(channels, a, b, st.mean);
     const segment = {
       criteria, startLine: lines[a], endLine: lines[b], startTimeS: t[a], endTimeS: t[b],
       durationS: t[b] - t[a], n: st.n, mean: st.mean, sd: st.sd, blockStdError: st.blockStdError,
-      blocks: st.blocks, outletSlopeKPerS: st.outletSlopeKPerS, inletSlopeKPerS: st.inletSlopeKPerS, ...extra,
+      blocks: st.blocks, outletSlopeKPerS: st.outletSlopeKPerS, inletSlopeKPerS: st.inletSlopeKPerS,
+      ...(sun.spread ? { collectorSpread: sun.spread } : {}), ...extra,
     };
-    const values = [randomUUID(), new Date(Math.round((t0Epoch + t[a]) * 1000)), st.mean.flowM3PerS, st.mean.inletTempC, st.mean.outletTempC, st.mean.ambientTempC, lines[a], JSON.stringify(segment)];
+    const values = [randomUUID(), new Date(Math.round((t0Epoch + t[a]) * 1000)), st.mean.flowM3PerS, st.mean.inletTempC, st.mean.outletTempC, st.mean.ambientTempC, lines[a], JSON.stringify(segment), sun.irradianceWPerM2 ?? null, sun.windMPerS ?? null];
     values.forEach((v, c) => cols[c].push(v));
   }
   await client.query(
-    `INSERT INTO trial (id, lab_id, rig_id, started_at, flow_m3_per_s, inlet_c, outlet_c, ambient_c, source_file_id, source_line, segment, created_at, updated_at, origin)
-     SELECT id, $9, $10, started_at, flow, inlet, outlet, ambient, $11, line, segment, now(), now(), 'log-segment'
-     FROM unnest($1::uuid[], $2::timestamptz[], $3::float8[], $4::float8[], $5::float8[], $6::float8[], $7::int[], $8::jsonb[])
-       AS t (id, started_at, flow, inlet, outlet, ambient, line, segment)`,
+    `INSERT INTO trial (id, lab_id, rig_id, started_at, flow_m3_per_s, inlet_c, outlet_c, ambient_c, source_file_id, source_line, segment, irradiance_w_per_m2, wind_m_per_s, created_at, updated_at, origin)
+     SELECT id, $11, $12, started_at, flow, inlet, outlet, ambient, $13, line, segment, irradiance, wind, now(), now(), 'log-segment'
+     FROM unnest($1::uuid[], $2::timestamptz[], $3::float8[], $4::float8[], $5::float8[], $6::float8[], $7::int[], $8::jsonb[], $9::float8[], $10::float8[])
+       AS t (id, started_at, flow, inlet, outlet, ambient, line, segment, irradiance, wind)`,
     [...cols, ids.labId, ids.rigId, ids.fileId],
   );
 }

@@ -25,6 +25,8 @@ export const sensorSampleSchema = z.object({
   outletTempC: temp('outlet temperature'),
   flowM3PerS: z.number({ error: 'flow is missing or not a number' }).finite(),
   ambientTempC: temp('ambient temperature').optional(),
+  irradianceWPerM2: z.number({ error: 'irradiance is not a number' }).finite().optional(),
+  windMPerS: z.number({ error: 'wind is not a number' }).finite().optional(),
 });
 export type SensorSample = z.infer<typeof sensorSampleSchema>;
 
@@ -40,6 +42,9 @@ export interface SensorLog {
   outletTempC: Float64Array;
   flowM3PerS: Float64Array;
   ambientTempC: Float64Array | null;
+  /** irradiance in the collector plane (W/m²) and wind (m/s) when mapped (collector logs) */
+  irradianceWPerM2: Float64Array | null;
+  windMPerS: Float64Array | null;
   /** 1-based source line of each sample */
   lines: Int32Array;
   /** what time zero is: an instant (ISO, epoch s) for dated logs, or the log's own zero */
@@ -100,10 +105,11 @@ export interface SensorLogBuilderOptions {
 /** The accepted samples' columns, grown by doubling; `reserve` before a block spares a check per value. */
 class Columns {
   n = 0;
-  t: Float64Array; tin: Float64Array; tout: Float64Array; q: Float64Array; amb: Float64Array; lines: Int32Array;
-  constructor(cap: number, private readonly ambient: boolean) {
+  t: Float64Array; tin: Float64Array; tout: Float64Array; q: Float64Array; amb: Float64Array; irr: Float64Array; wind: Float64Array; lines: Int32Array;
+  constructor(cap: number, private readonly ambient: boolean, private readonly solar: { irradiance: boolean; wind: boolean } = { irradiance: false, wind: false }) {
     this.t = new Float64Array(cap); this.tin = new Float64Array(cap); this.tout = new Float64Array(cap); this.q = new Float64Array(cap);
     this.amb = new Float64Array(ambient ? cap : 0); this.lines = new Int32Array(cap);
+    this.irr = new Float64Array(solar.irradiance ? cap : 0); this.wind = new Float64Array(solar.wind ? cap : 0);
   }
   reserve(k: number) {
     const need = this.n + k;
@@ -114,6 +120,8 @@ class Columns {
     const f = (n: number) => new Float64Array(n);
     this.t = grow(this.t, f); this.tin = grow(this.tin, f); this.tout = grow(this.tout, f); this.q = grow(this.q, f);
     if (this.ambient) this.amb = grow(this.amb, f);
+    if (this.solar.irradiance) this.irr = grow(this.irr, f);
+    if (this.solar.wind) this.wind = grow(this.wind, f);
     this.lines = grow(this.lines, (n) => new Int32Array(n));
   }
   /** a view of the first n values, or a trimmed copy when the array is much larger */
@@ -144,7 +152,9 @@ export function createSensorLogBuilder(mapping: unknown, header: readonly string
   const maxT = options.maxWaterTempC ?? 100;
   const excluded = options.excludedLines && options.excludedLines.size ? options.excludedLines : null;
   const cap = Math.max(16, Math.min(options.expectedRows ?? 1 << 16, 1 << 27));
-  const col = new Columns(cap, hasAmbient);
+  // irradiance and wind (collector logs) go the general path: the fast reader takes the four channels only
+  const solar = { irradiance: m.columns.some((c) => c.field === 'irradiance'), wind: m.columns.some((c) => c.field === 'wind') };
+  const col = new Columns(cap, hasAmbient, solar);
   const sizeHint = Math.min(options.sizeHintBytes ?? 0, 4e9);
   const issues: RowIssue[] = [];
   let rejected = 0;
@@ -158,7 +168,7 @@ export function createSensorLogBuilder(mapping: unknown, header: readonly string
   const fs: FastSample = { time: 0, inletTempC: 0, outletTempC: 0, flowM3PerS: 0, ambientTempC: 0 };
 
   /** A sample that passed the schema: the time check, then into the arrays. */
-  const accept = (line: number, timeS: number, ti: number, to: number, qi: number, a: number | undefined) => {
+  const accept = (line: number, timeS: number, ti: number, to: number, qi: number, a: number | undefined, g?: number, u?: number) => {
     if (!(timeS > prev)) {
       reject({ line, severity: 'error', code: 'time_not_increasing', field: 'timeS', column: mapper.columnOf.time, message: `time does not increase (${timeS} s after ${prev} s); the sample is left out` });
       return;
@@ -167,6 +177,8 @@ export function createSensorLogBuilder(mapping: unknown, header: readonly string
     const i = col.n++; // room was reserved for the block or batch
     col.t[i] = timeS; col.tin[i] = ti; col.tout[i] = to; col.q[i] = qi;
     if (hasAmbient) col.amb[i] = a ?? NaN;
+    if (solar.irradiance) col.irr[i] = g ?? NaN;
+    if (solar.wind) col.wind[i] = u ?? NaN;
     col.lines[i] = line;
     if (to < ti) pl.outletBelowInlet++;
     if (to > maxT || ti > maxT) pl.aboveBoiling++;
@@ -190,7 +202,7 @@ export function createSensorLogBuilder(mapping: unknown, header: readonly string
         timeS = s;
       }
     }
-    const sample = { timeS, inletTempC: row.inletTempC, outletTempC: row.outletTempC, flowM3PerS: row.flowM3PerS, ambientTempC: row.ambientTempC };
+    const sample = { timeS, inletTempC: row.inletTempC, outletTempC: row.outletTempC, flowM3PerS: row.flowM3PerS, ambientTempC: row.ambientTempC, irradianceWPerM2: row.irradianceWPerM2, windMPerS: row.windMPerS };
     const r = sensorSampleSchema.safeParse(sample);
     if (!r.success) {
       const is = r.error.issues[0];
@@ -203,7 +215,11 @@ export function createSensorLogBuilder(mapping: unknown, header: readonly string
       reject({ line, severity: 'error', code: 'invalid', field: 'ambientTempC', column: mapper.columnOf.ambientTempC, message: 'ambient temperature is missing' });
       return;
     }
-    accept(line, s.timeS, s.inletTempC, s.outletTempC, s.flowM3PerS, s.ambientTempC);
+    if (solar.irradiance && s.irradianceWPerM2 === undefined) {
+      reject({ line, severity: 'error', code: 'invalid', field: 'irradianceWPerM2', column: mapper.columnOf.irradianceWPerM2, message: 'irradiance is missing' });
+      return;
+    }
+    accept(line, s.timeS, s.inletTempC, s.outletTempC, s.flowM3PerS, s.ambientTempC, s.irradianceWPerM2, s.windMPerS);
   };
 
   /**
@@ -282,6 +298,7 @@ export function createSensorLogBuilder(mapping: unknown, header: readonly string
       return {
         n, timeS: col.take(col.t), inletTempC: col.take(col.tin), outletTempC: col.take(col.tout), flowM3PerS: col.take(col.q),
         ambientTempC: hasAmbient ? col.take(col.amb) : null, lines: col.take(col.lines),
+        irradianceWPerM2: solar.irradiance ? col.take(col.irr) : null, windMPerS: solar.wind ? col.take(col.wind) : null,
         timeOrigin: origin ?? { kind: 'elapsed', seconds: 0 }, issues, rejectedCount: rejected, excludedCount, plausibility: pl,
         mixedUnits, notices: mixedUnits.map(describeMixedUnits),
       };

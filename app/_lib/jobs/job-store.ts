@@ -24,6 +24,18 @@ import type { LogImportInput, SensorImportResult } from '../imports/sensor-impor
  */
 
 const TERMINAL: readonly ImportJobState[] = ['completed', 'failed', 'cancelled'];
+
+/**
+ * The lease of a running job: its worker touches the row at least every `JOB_HEARTBEAT_S`
+ * (`heartbeat`, besides every progress report), and a `running` job whose row has not been touched
+ * for `JOB_LEASE_S` — and whose source file no live transaction holds — is taken for interrupted
+ * (`requeueInterruptedJobs`). Every worker process looks for such jobs every `JOB_RECOVERY_SWEEP_S`,
+ * so a job whose process was killed is handed back to the queue within lease + sweep (20 s) and
+ * run again by another worker a few seconds later (the queue's retry delay and polling).
+ */
+export const JOB_HEARTBEAT_S = 5;
+export const JOB_LEASE_S = 15;
+export const JOB_RECOVERY_SWEEP_S = 5;
 const sql = (text: string, values: unknown[]) => pgPool().query(text, values);
 
 /**
@@ -72,6 +84,11 @@ export async function recordProgress(id: string, p: { bytesDone: number; rowsDon
   return r.rows[0]?.cancel_requested === true;
 }
 
+/** The worker's sign of life for a running job (renews its lease); a job that is no longer running is left alone. */
+export async function heartbeat(id: string): Promise<void> {
+  await sql(`UPDATE import_job SET updated_at = now() WHERE id = $1 AND state = 'running'`, [id]);
+}
+
 /** A job that has imported its file: `completed`, with the import's result. */
 export async function completeImportJob(id: string, result: SensorImportResult): Promise<void> {
   await sql(`UPDATE import_job SET state = 'completed', result = $2, rows_done = $3, bytes_done = bytes_total, finished_at = now(), updated_at = now() WHERE id = $1`, [id, JSON.stringify(result), result.samples]);
@@ -110,12 +127,13 @@ export async function requestCancel(job: ImportJobRow): Promise<ImportJobState> 
 
 /**
  * The lease: finds jobs that were running in a process that has gone (a restart of the web
- * server) and sets them `queued` again. A live import holds a row lock on its source file for its
- * whole transaction, so a `running` job whose file row can be locked, and whose progress has not
- * moved for `staleS`, has no process left. `leased(ids)` names those of them the queue still
+ * server, a killed process) and sets them `queued` again. A live import holds a row lock on its
+ * source file for its whole transaction and its worker renews the row every `JOB_HEARTBEAT_S`, so a
+ * `running` job whose file row can be locked, and whose row has not been touched for `staleS`
+ * (`JOB_LEASE_S` by default), has no process left. `leased(ids)` names those of them the queue still
  * holds as taken (the caller then hands them back to it). Returns their ids.
  */
-export async function requeueInterruptedJobs(staleS: number, leased: (ids: string[]) => Promise<string[]>): Promise<string[]> {
+export async function requeueInterruptedJobs(staleS: number = JOB_LEASE_S, leased: (ids: string[]) => Promise<string[]>): Promise<string[]> {
   const client = await pgPool().connect();
   try {
     await client.query('BEGIN');

@@ -6,16 +6,18 @@ import { getEm } from '../server/db';
 import { ImportError } from '../imports/import-error';
 import { AlreadyImported, ImportCancelled, importSensorLog, type LogImportInput } from '../imports/sensor-import';
 import {
-  claimImportJob, completeImportJob, createImportJob, endImportJob, giveUpInterruptedJob, recordProgress, requestCancel, requeueInterruptedJobs, retryImportJob,
+  JOB_HEARTBEAT_S, JOB_LEASE_S, JOB_RECOVERY_SWEEP_S, claimImportJob, completeImportJob, createImportJob, endImportJob, giveUpInterruptedJob, heartbeat, recordProgress,
+  requestCancel, requeueInterruptedJobs, retryImportJob,
 } from './job-store';
 import { SENSOR_IMPORT_QUEUE, activeJobIds, cancelQueued, enqueueSensorImport, getBoss, handBack, workQueue, type JobAttempt } from './queue';
 
 /**
  * The sensor-log import as a background job: started by POST …/log-import, run by the worker that
  * starts with the web server (instrumentation.ts), followed by the page through GET /api/jobs/{id}.
- * A job that was running when its process died is found by the next worker
- * (`recoverInterruptedJobs`) and run again — or, at the latest, retried when pg-boss sees it
- * expire. The import is one transaction, so a half-done attempt left nothing to clean up.
+ * A job that was running when its process died (a restart, a SIGKILL, a lost machine) is found by
+ * any live worker (`recoverInterruptedJobs`, every `JOB_RECOVERY_SWEEP_S` = 5 s, once its lease of
+ * `JOB_LEASE_S` = 15 s has run out: the running worker renews it every `JOB_HEARTBEAT_S` = 5 s) and run
+ * again — or, at the latest, retried when pg-boss sees it expire. The import is one transaction, so a half-done attempt left nothing to clean up.
  *
  * Owns: what starting, running, cancelling and recovering an import job means, in terms of the
  * job store and the queue. May import: jobs/job-store, jobs/queue, imports/sensor-import,
@@ -47,6 +49,7 @@ export async function runSensorImportJob(importJobId: string, attempt: JobAttemp
   const job = await claimImportJob(await getEm(), importJobId);
   if (!job) return;
   const file = job.sourceFile;
+  const beat = setInterval(() => void heartbeat(job.id).catch(() => undefined), JOB_HEARTBEAT_S * 1000);
   try {
     const result = await importSensorLog(
       { fileId: file.id, rigId: job.rig.id, labId: job.lab.id, filename: file.filename, storageKey: file.storageKey, sizeBytes: file.sizeBytes, uploadedAt: file.createdAt },
@@ -61,6 +64,8 @@ export async function runSensorImportJob(importJobId: string, attempt: JobAttemp
     console.error(`sensor import ${job.id} failed${last ? '' : ' (will retry)'}:`, e);
     await retryImportJob(job.id, last);
     throw e;
+  } finally {
+    clearInterval(beat);
   }
 }
 
@@ -74,7 +79,7 @@ export function workSensorImports(boss: PgBoss, queue = SENSOR_IMPORT_QUEUE): Pr
  * and hands them back to pg-boss at once, instead of waiting for their expiry; a job pg-boss will
  * not retry any more ends `failed`. Returns their ids.
  */
-export async function recoverInterruptedJobs(boss: PgBoss, queue = SENSOR_IMPORT_QUEUE, staleS = 60): Promise<string[]> {
+export async function recoverInterruptedJobs(boss: PgBoss, queue = SENSOR_IMPORT_QUEUE, staleS = JOB_LEASE_S): Promise<string[]> {
   const ids = await requeueInterruptedJobs(staleS, (candidates) => activeJobIds(boss, queue, candidates));
   for (const id of ids) if (!(await handBack(boss, queue, id))) await giveUpInterruptedJob(id);
   return ids;
@@ -98,9 +103,12 @@ export async function startJobWorkers(): Promise<void> {
   g.__emberlineWorkers ??= new Map();
   if (g.__emberlineWorkers.has(SENSOR_IMPORT_QUEUE)) return void (await g.__emberlineWorkers.get(SENSOR_IMPORT_QUEUE));
   const w = getBoss().then(async (boss) => {
-    const recover = () => recoverInterruptedJobs(boss).catch((e: unknown) => console.error('jobs: recovery failed:', e instanceof Error ? e.message : e));
+    let sweeping: Promise<unknown> | null = null; // one sweep at a time, however slow the database is
+    const recover = () => (sweeping ??= recoverInterruptedJobs(boss)
+      .catch((e: unknown) => console.error('jobs: recovery failed:', e instanceof Error ? e.message : e))
+      .finally(() => (sweeping = null)));
     await recover();
-    setInterval(recover, 60_000).unref();
+    setInterval(recover, JOB_RECOVERY_SWEEP_S * 1000).unref();
     return workSensorImports(boss);
   });
   g.__emberlineWorkers.set(SENSOR_IMPORT_QUEUE, w);

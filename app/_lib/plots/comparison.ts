@@ -8,10 +8,10 @@ import * as Plot from '@observablehq/plot';
 import type { FitSuccess } from '../../../analysis/fit';
 import { heatPerKelvinWPerK, performanceTable } from '../../../analysis/performance/performance-table';
 import { hottestCautions } from '../../../analysis/safety/cautions';
-import { baseOptions, COLORS, DASHES, type PlotFigure } from './theme';
+import { baseOptions, COLORS, DASHES, type PlotFigure } from '@/app/_plots/theme';
 import { displayUnits, fmt, withUnit } from '@/app/_contracts/units';
 import type { UnitSystem } from '@/analysis/units/unit-system';
-import { sentences } from './words';
+import { sentences } from '@/app/_plots/words';
 
 /** Stroke of each design, reference first (told apart by dash and dot symbol too, not by colour alone). */
 export const DESIGN_STROKES = [COLORS.heat, COLORS.water, COLORS.heatDeep, COLORS.inkSoft] as const;

@@ -1,6 +1,7 @@
-import 'server-only';
+// No `server-only` here: the analysis worker threads render plots too (app/_lib/analysis-worker).
 import * as Plot from '@observablehq/plot';
 import { parseHTML } from 'linkedom';
+import { accessiblePlot } from '@/app/_contracts/plot-a11y';
 
 /** Attributes that hold positions and sizes in CSS pixels. */
 const GEOMETRY = ['d', 'x', 'y', 'x1', 'x2', 'y1', 'y2', 'cx', 'cy', 'r', 'width', 'height', 'transform', 'points'];
@@ -23,16 +24,13 @@ function roundGeometry(root: Element): void {
 
 /**
  * Renders an Observable Plot to an SVG string on the server (first paint without JavaScript,
- * and the source of SVG/PNG exports). linkedom supplies the DOM that Plot draws into.
+ * and the source of SVG/PNG exports). linkedom supplies the DOM that Plot draws into; the result
+ * is one accessible image (`accessiblePlot`: role img, title and desc, no ARIA on inner groups).
  */
 export function plotToSvg(options: Plot.PlotOptions): string {
   const { document } = parseHTML('<!doctype html><html><body></body></html>');
   const el = Plot.plot({ ...options, document: document as unknown as Document });
   roundGeometry(el);
-  const svg = el.tagName.toLowerCase() === 'svg' ? el : el.querySelector('svg');
-  if (svg) {
-    svg.setAttribute('xmlns', 'http://www.w3.org/2000/svg');
-    svg.setAttribute('role', 'img');
-  }
+  accessiblePlot(el);
   return (el as unknown as { outerHTML: string }).outerHTML;
 }

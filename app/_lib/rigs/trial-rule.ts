@@ -14,6 +14,9 @@
  * - temperatures between −40 and 150 °C (a reading outside is a sensor or unit mistake); flows,
  *   bucket volumes and fill times above zero (zero flow through a heated coil is a dead-headed
  *   coil); notes of at most 4,000 characters;
+ * - a solar-collector trial may also carry the irradiance in the collector plane, 0…1,500 W/m²
+ *   (the solar constant is about 1,361 W/m² above the air, so more on the ground is a sensor or
+ *   unit mistake; common practice), and the wind over the collector, 0…60 m/s;
  * - warnings, which never block: outlet below inlet, water at or above 100 °C, a fill under 3 s,
  *   a flow reading that disagrees with the bucket.
  */
@@ -21,7 +24,7 @@ import { z } from 'zod';
 import { bucketFlow } from '@/analysis/trial/bucket-flow';
 
 /** Limits of the rule (ours, stated in the README). */
-export const TRIAL_LIMITS = { minTempC: -40, maxTempC: 150, maxFillTimes: 50, maxNotes: 4000 } as const;
+export const TRIAL_LIMITS = { minTempC: -40, maxTempC: 150, maxFillTimes: 50, maxNotes: 4000, maxIrradianceWPerM2: 1500, maxWindMPerS: 60 } as const;
 
 /** When the trial was run: a date-time, a clock time of an undated sheet, or seconds since the start. */
 export const trialTimeSchema = z.discriminatedUnion('kind', [
@@ -56,6 +59,18 @@ export const trialRowSchema = z
     inletTempC: temperature('inlet temperature'),
     outletTempC: temperature('outlet temperature'),
     ambientTempC: temperature('ambient temperature').optional(),
+    irradianceWPerM2: z
+      .number({ error: 'irradiance is not a number' })
+      .finite({ error: 'irradiance is not a finite number' })
+      .min(0, { error: (i) => `irradiance ${fmt(i.input as number)} W/m² is below 0` })
+      .max(TRIAL_LIMITS.maxIrradianceWPerM2, { error: (i) => `irradiance ${fmt(i.input as number)} W/m² is above ${TRIAL_LIMITS.maxIrradianceWPerM2} W/m² (more than the sun gives on the ground: check the unit)` })
+      .optional(),
+    windMPerS: z
+      .number({ error: 'wind is not a number' })
+      .finite({ error: 'wind is not a finite number' })
+      .min(0, { error: (i) => `wind ${fmt(i.input as number)} m/s is below 0` })
+      .max(TRIAL_LIMITS.maxWindMPerS, { error: (i) => `wind ${fmt(i.input as number)} m/s is above ${TRIAL_LIMITS.maxWindMPerS} m/s` })
+      .optional(),
     isReference: z.boolean().optional(),
     notes: z.string().max(TRIAL_LIMITS.maxNotes, { error: `notes are longer than ${TRIAL_LIMITS.maxNotes} characters` }).optional(),
   })
@@ -166,6 +181,8 @@ export function trialFields(row: CheckedTrialRow, startedAt: Date) {
     inletTempC: row.inletTempC,
     outletTempC: row.outletTempC,
     ambientTempC: row.ambientTempC ?? null,
+    irradianceWPerM2: row.irradianceWPerM2 ?? null,
+    windMPerS: row.windMPerS ?? null,
     isReference: row.isReference ?? false,
     notes: row.notes ?? '',
   };

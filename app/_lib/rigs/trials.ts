@@ -9,7 +9,7 @@ import { checkTrialRow, plausibilityWarnings, trialFields, TRIAL_LIMITS, type Ch
 import { isUuid } from '../labs/load-in-lab';
 
 /** A quantity given as a number in the SI unit named by the key, or as a string with its unit ("4.5 gpm"). */
-const quantity = (kind: QuantityKind, field: string) =>
+export const quantity = (kind: QuantityKind, field: string) =>
   z.union([z.number(), z.string().trim().min(1)]).transform((v, ctx) => {
     if (typeof v === 'number') return v;
     try {
@@ -34,6 +34,8 @@ export const trialInput = z
     inlet: quantity('temperature', 'inlet').optional(),
     outlet: quantity('temperature', 'outlet').optional(),
     ambient: quantity('temperature', 'ambient').optional(),
+    irradiance: quantity('irradiance', 'irradiance').optional(),
+    wind: quantity('speed', 'wind').optional(),
     isReference: z.boolean().optional(),
     notes: z.string().max(TRIAL_LIMITS.maxNotes).optional(),
   })
@@ -43,7 +45,7 @@ export type TrialInput = z.infer<typeof trialInput>;
 /** The API's field for each field of the trial rule (its messages name what the caller sent). */
 const API_FIELD: Record<string, string> = {
   bucketVolumeM3: 'bucketVolume', fillTimesS: 'fillTimesS', flowM3PerS: 'flow', inletTempC: 'inlet', outletTempC: 'outlet',
-  ambientTempC: 'ambient', isReference: 'isReference', notes: 'notes',
+  ambientTempC: 'ambient', irradianceWPerM2: 'irradiance', windMPerS: 'wind', isReference: 'isReference', notes: 'notes',
 };
 
 /**
@@ -56,7 +58,7 @@ export function apiTrialsToRows(inputs: TrialInput[], batch: boolean): { row: Ch
   const out = inputs.map((t, i) => {
     const r = checkTrialRow({
       bucketVolumeM3: t.bucketVolume, fillTimesS: t.fillTimesS, flowM3PerS: t.flow, inletTempC: t.inlet, outletTempC: t.outlet,
-      ambientTempC: t.ambient, isReference: t.isReference, notes: t.notes,
+      ambientTempC: t.ambient, irradianceWPerM2: t.irradiance, windMPerS: t.wind, isReference: t.isReference, notes: t.notes,
     }, i, API_FIELD);
     if (!r.ok) {
       for (const issue of r.issues) fields[`${batch ? `trials.${i}.` : ''}${API_FIELD[issue.field ?? ''] ?? issue.field ?? '_'}`] ??= issue.message;
@@ -150,6 +152,8 @@ export const trialDto = (t: TrialRow): TrialDto => ({
   inletTempC: t.inletTempC,
   outletTempC: t.outletTempC,
   ambientTempC: t.ambientTempC ?? null,
+  irradianceWPerM2: t.irradianceWPerM2 ?? null,
+  windMPerS: t.windMPerS ?? null,
   isReference: t.isReference,
   excluded: t.excluded,
   notes: t.notes,

@@ -7,7 +7,7 @@
  * knows about HTTP or Next.js, so any module may throw these.
  */
 export type ErrorKind =
-  | 'bad_request' | 'unauthorized' | 'forbidden' | 'not_found' | 'conflict' | 'gone' | 'too_large' | 'invalid' | 'rate_limited' | 'cancelled';
+  | 'bad_request' | 'unauthorized' | 'forbidden' | 'not_found' | 'conflict' | 'gone' | 'too_large' | 'invalid' | 'rate_limited' | 'cancelled' | 'unavailable';
 
 export class DomainError extends Error {
   constructor(
@@ -34,11 +34,13 @@ export const invalid = (message: string, fields?: Record<string, string>, code =
   new DomainError('invalid', code, message, { ...(fields ? { fields } : {}), ...details });
 export const rateLimited = (retryAfterS: number, message: string) => new DomainError('rate_limited', 'rate_limited', message, { retryAfter: retryAfterS });
 export const cancelled = (message: string) => new DomainError('cancelled', 'cancelled', message);
+/** The server cannot take this work now (a full analysis queue); `retryAfter` says when to ask again. */
+export const unavailable = (message: string, retryAfterS: number, code = 'unavailable') => new DomainError('unavailable', code, message, { retryAfter: retryAfterS });
 
 /** The HTTP status of each kind (the only place that knows it). */
 export const HTTP_STATUS: Record<ErrorKind, number> = {
   bad_request: 400, unauthorized: 401, forbidden: 403, not_found: 404, conflict: 409, gone: 410, too_large: 413, invalid: 422,
-  rate_limited: 429, cancelled: 499,
+  rate_limited: 429, cancelled: 499, unavailable: 503,
 };
 
 /** What a server action returns for a failure: `{ ok: false, error, message, fields? }` (unknown errors are rethrown). */

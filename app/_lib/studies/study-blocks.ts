@@ -3,9 +3,7 @@ import { DomainError } from '../server/errors';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { Fit, SensorOverview, SourceFile, type FitRow, type LabRow, type StudyRow } from '@/entities';
 import type { StudyBlock } from '@/entities/study';
-import type { FitSuccess } from '@/analysis/fit';
-import { SEGMENT_ROWS, type BlockBody, type BlockData, type FitHead, type PlotView } from '@/app/_contracts/study-blocks';
-import type { FitView } from '@/app/_contracts/fit-report';
+import { SEGMENT_ROWS, type BlockBody, type BlockData, type FitHead } from '@/app/_contracts/study-blocks';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { costView } from '../forecasts/cost-sheet';
 import { modelLabel } from '../fits/fit-analysis';
@@ -13,9 +11,8 @@ import { parseStoredFit } from '../fits/stored-fit';
 import { forecast } from '../forecasts/forecasts';
 import { renderMarkdown } from './markdown';
 import { STANDING_NOTICE } from '@/analysis/safety/standing-notice';
-import { plotToSvg } from '../plots/plot-svg';
-import { DISPLAY_MAX_POINTS, reduceForDisplay } from '@/analysis/reduce';
-import { fitCurveInputFromFits, fitCurvePlot, timeSeriesSegmentsPlot, type FitCurveTrial, type PlotFigure } from '../plots';
+import { fitView } from '../fits/fit-compute';
+import { runAnalysis } from '../server/analysis-pool';
 import { isUuid } from '../labs/load-in-lab';
 import { pgPool } from '../server/pg-pool';
 import { ensureSensorOverview } from '../imports/sensor-overview';
@@ -42,7 +39,6 @@ export interface BlockContext {
 }
 
 const FIT_KINDS = new Set(['fit', 'comparison', 'performance', 'trials']);
-const plotView = (f: PlotFigure): PlotView => ({ title: f.title, summary: f.summary, svg: plotToSvg(f.options), ...(f.cautions?.length ? { cautions: f.cautions } : {}) });
 
 /** The saved fits the given blocks point at (lab-scoped), by id. */
 export async function blockFits(em: EntityManager, lab: LabRow, blocks: readonly StudyBlock[]): Promise<Map<string, FitRow>> {
@@ -51,33 +47,14 @@ export async function blockFits(em: EntityManager, lab: LabRow, blocks: readonly
   return new Map(rows.map((f) => [f.id, f]));
 }
 
-/**
- * More trials than the display limit (a fit over thousands of log segments): ordered by flow and
- * reduced with LTTB keeping each bucket's extreme outlets (analysis/reduce), so outliers stay visible.
- */
-function reduceTrials(trials: FitCurveTrial[]): FitCurveTrial[] {
-  const sorted = [...trials].sort((a, b) => a.flowM3PerS - b.flowM3PerS);
-  const { indices } = reduceForDisplay(sorted.map((t) => t.flowM3PerS), sorted.map((t) => t.outletTempC));
-  return Array.from(indices, (i) => sorted[i]);
-}
-
-/** Only what the fit tables show: no residual arrays, Jacobian or data. */
-function fitView(fit: FitSuccess, label: string): FitView {
-  const { model, params, parameterNames, correlation, n, df, rss, residualSD, r2, adjustedR2, aicc, bic, level, iterations, stoppingReason, flags, lackOfFit, warnings } = fit;
-  return { label, model, params, parameterNames, correlation, n, df, rss, residualSD, r2, adjustedR2, aicc, bic, level, iterations, stoppingReason, flags, lackOfFit: lackOfFit as FitView['lackOfFit'], warnings };
-}
-
-function fitBody(kind: string, fit: FitRow, publicView: boolean, units: UnitSystem): BlockBody {
+async function fitBody(kind: string, fit: FitRow, publicView: boolean, units: UnitSystem): Promise<BlockBody> {
   const r = parseStoredFit(fit.result, fit.id);
   const label = modelLabel(fit.model);
   const head: FitHead = { fitId: publicView ? null : fit.id, title: fit.title, version: fit.version, label, reviewState: fit.reviewState };
   switch (kind) {
     case 'fit': {
-      const input = fitCurveInputFromFits([{ label, fit: r.fit }], { inletTempC: r.choice.inletTempC });
-      const n = input.trials.length;
-      let fig = fitCurvePlot(n > DISPLAY_MAX_POINTS ? { ...input, trials: reduceTrials(input.trials) } : input, units);
-      if (n > DISPLAY_MAX_POINTS) fig = { ...fig, summary: fig.summary.replace(/^\d[\d,]* trials? fitted/, `${n.toLocaleString('en-US')} trials fitted (${DISPLAY_MAX_POINTS.toLocaleString('en-US')} or fewer drawn, reduced for display keeping the extremes)`) };
-      return { type: 'fit', head, plot: plotView(fig), fit: fitView(r.fit, label), choice: r.choice };
+      const plot = await runAnalysis('fitBlockFigure', { fit: r.fit, label, inletTempC: r.choice.inletTempC, units });
+      return { type: 'fit', head, plot, fit: fitView(r.fit, label), choice: r.choice };
     }
     case 'comparison':
       return { type: 'comparison', head, comparison: r.comparison };
@@ -96,22 +73,18 @@ async function sensorLogBody(ctx: BlockContext, block: StudyBlock): Promise<Bloc
   let overview = await ctx.em.findOne(SensorOverview, { sourceFile: file.id }, { populate: ['rig'] });
   if (!overview && (await ensureSensorOverview(pgPool(), file.id))) overview = await ctx.em.findOne(SensorOverview, { sourceFile: file.id }, { populate: ['rig'] });
   if (!overview) return { type: 'note', tone: 'muted', message: 'This file holds no logged samples (it was not imported as a sensor log).' };
-  const p = overview.points;
-  const points = p.tS.map((tS, i) => ({ tS, inletTempC: p.inletTempC[i], outletTempC: p.outletTempC[i], flowM3PerS: p.flowM3PerS[i] }));
-  const figs = timeSeriesSegmentsPlot({ points, segments: overview.segments.map((s) => ({ startS: s.startS, endS: s.endS })), origin: overview.startedAt }, ctx.units);
-  const samples = `${overview.samples.toLocaleString('en-US')} samples logged, ${points.length.toLocaleString('en-US')} shown (reduced for display, keeping every channel's extremes and the endpoints)`;
-  const note = (f: PlotFigure): PlotFigure => ({ ...f, summary: overview.samples > points.length ? f.summary.replace(/^\d[\d,]* samples/, samples) : f.summary });
+  const plots = await runAnalysis('sensorLogFigures', { points: overview.points, segments: overview.segments.map((s) => ({ startS: s.startS, endS: s.endS })), origin: overview.startedAt, samples: overview.samples, units: ctx.units });
   return {
     type: 'sensor-log',
     rigName: overview.rig.name,
     filename: ctx.publicView ? null : file.filename,
     startedAt: overview.startedAt.toISOString(),
     samples: overview.samples,
-    shownPoints: points.length,
+    shownPoints: overview.points.tS.length,
     durationS: overview.durationS,
     segments: overview.segments.slice(0, SEGMENT_ROWS),
     segmentCount: overview.segments.length,
-    plots: [plotView(note(figs.temperatures)), plotView(note(figs.flow))],
+    plots,
   };
 }
 
@@ -136,9 +109,11 @@ async function body(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
       return { type: 'caution', items: [...(typeof d.text === 'string' && d.text.trim() ? [d.text.trim()] : []), ...STANDING_CAUTIONS] };
     case 'forecast':
       try {
-        const f = await forecast(ctx.em, ctx.lab, { ...d }, ctx.units);
-        return { type: 'forecast', finalTempC: f.finalTemp_degC, hoursToTarget: f.hoursToTarget_h, fitNote: f.fitNote, cautions: f.cautions, plot: f.plots.trajectory };
+        const f = await forecast(ctx.em, ctx.lab, { ...d }, ctx.units, 'svg');
+        const { title, summary, svg, cautions } = f.plots.trajectory;
+        return { type: 'forecast', finalTempC: f.finalTemp_degC, hoursToTarget: f.hoursToTarget_h, fitNote: f.fitNote, cautions: f.cautions, plot: { title, summary, svg: svg ?? '', ...(cautions?.length ? { cautions } : {}) } };
       } catch (e) {
+        if (e instanceof DomainError && e.kind === 'unavailable') throw e;
         return { type: 'note', tone: 'danger', message: `This forecast cannot be computed: ${(e as Error).message}` };
       }
     case 'costs':

@@ -7,29 +7,24 @@ import { ReviewPanel } from '../../_components/review-panel';
 import { modelLabel } from '../../_lib/fits/fit-analysis';
 import { reviewTrail } from '../../_lib/review/review';
 import { parseStoredFit } from '../../_lib/fits/stored-fit';
-import { plotToSvg } from '../../_lib/plots/plot-svg';
-import { fitCurveInputFromFits, fitCurvePlot, heatInputFromFit, heatPlot, residualInputFromFit, residualPlots, type PlotFigure as Figure } from '../../_lib/plots';
+import { savedFitPageFigures } from '../../_lib/fits/fits';
 import { loadInLab } from '../../_lib/labs/load-in-lab';
 import { requireLabAction } from '../../_lib/accounts/viewer';
+import { SavedCollectorFit } from './collector-fit';
 
 export const metadata = { title: 'Saved fit' };
 export const dynamic = 'force-dynamic';
-
-const svg = (f: Figure) => ({ title: f.title, summary: f.summary, svg: plotToSvg(f.options), cautions: f.cautions });
 
 export default async function SavedFitPage({ params }: { params: Promise<{ fitId: string }> }) {
   const { fitId } = await params;
   const v = await requireLabAction(`/fits/${fitId}`, 'lab:read');
   const { row } = await loadInLab(v, 'fit', fitId, 'lab:read');
+  if (row.kind === 'collector') return <SavedCollectorFit viewer={v} row={row} />;
   const rig = row.rig;
   const r = parseStoredFit(row.result, row.id);
   const u = v.user.unitSystem;
   const label = modelLabel(row.model);
-  const labels = r.trials.map((t) => t.startedAt.slice(0, 16).replace('T', ' '));
-  const inletTempC = r.choice.inletTempC;
-  const curve = svg(fitCurvePlot(fitCurveInputFromFits([{ label, fit: r.fit }], { labels, inletTempC }), u));
-  const heat = svg(heatPlot(heatInputFromFit(r.fit, { inletTempC, choice: r.choice, labels }), u));
-  const res = residualPlots(residualInputFromFit(r.fit, { labels, times: r.trials.map((t) => new Date(t.startedAt)) }), u);
+  const { curve, heat, residuals } = await savedFitPageFigures(row, u);
   const trail = await reviewTrail(v.em, 'fit', row.id);
   return (
     <AppPage
@@ -72,8 +67,8 @@ export default async function SavedFitPage({ params }: { params: Promise<{ fitId
             <ComparisonTable comparison={r.comparison} units={u} />
           </section>
           <div className="grid gap-4 lg:grid-cols-2">
-            {[res.vsFlow, res.vsFitted, res.vsOrder, res.qq].map((f, i) => (
-              <PlotFigure key={i} {...svg(f)} filename={`residuals-${i}`} />
+            {residuals.map((f, i) => (
+              <PlotFigure key={i} {...f} filename={`residuals-${i}`} />
             ))}
           </div>
           <PlotFigure {...heat} filename="heat-vs-flow" />

@@ -11,6 +11,8 @@ import { rigDto } from '../../_lib/server/dto';
 import { rigFiles } from '../../_lib/rigs/rigs';
 import { loadInLab } from '../../_lib/labs/load-in-lab';
 import { requireLabAction } from '../../_lib/accounts/viewer';
+import { SessionPlanner } from './session-plan';
+import { rigSessionsPanel } from '../../_lib/sessions/sessions';
 
 export const dynamic = 'force-dynamic';
 
@@ -22,12 +24,18 @@ export default async function RigPage({ params, searchParams }: { params: Promis
   const { files, photos } = await rigFiles(v.em, rig);
   const jobs = (await listRigJobs(v.em, rig)).map(importJobDto);
   const write = v.can('trial:write');
+  const sessions = await rigSessionsPanel(v.em, rig);
   const d = rig.details ?? {};
   const facts = [
     d.coilLengthM ? `${d.coilLengthM} m of tube` : null,
     d.tubeInnerDiameterM ? `${(Number(d.tubeInnerDiameterM) * 1000).toFixed(1)} mm bore` : null,
     d.tubeMaterial ? String(d.tubeMaterial) : null,
     d.collectorAreaM2 ? `${d.collectorAreaM2} m² collector` : null,
+    d.grossAreaM2 ? `${d.grossAreaM2} m² gross` : null,
+    d.apertureAreaM2 ? `${d.apertureAreaM2} m² aperture` : null,
+    d.tiltDeg !== undefined ? `tilt ${d.tiltDeg}°` : null,
+    d.azimuthDeg !== undefined ? `azimuth ${d.azimuthDeg}°` : null,
+    d.fluid ? String(d.fluid) : null,
     d.burnerRatingW ? `${Number(d.burnerRatingW) / 1000} kW burner` : null,
     d.buildCost ? `built for ${Number(d.buildCost)} ${String(d.buildCostCurrency ?? 'USD')}` : null,
   ].filter(Boolean);
@@ -44,9 +52,15 @@ export default async function RigPage({ params, searchParams }: { params: Promis
       }
       actions={
         <>
-          <Link className={write ? 'btn-quiet' : 'btn-primary'} href={`/rigs/${rig.id}/fit`}>
-            Fit models
-          </Link>
+          {rig.heatSource === 'solar-collector' ? (
+            <Link className={write ? 'btn-quiet' : 'btn-primary'} href={`/rigs/${rig.id}/collector`}>
+              Collector efficiency
+            </Link>
+          ) : (
+            <Link className={write ? 'btn-quiet' : 'btn-primary'} href={`/rigs/${rig.id}/fit`}>
+              Fit models
+            </Link>
+          )}
           {write ? (
           <>
             <Link className="btn-primary" href={`/rigs/${rig.id}/entry`}>
@@ -72,6 +86,7 @@ export default async function RigPage({ params, searchParams }: { params: Promis
       ) : null}
       <RigJobs rigId={rig.id} initial={jobs} canCancel={write} />
       <TrialsTable rigId={rig.id} units={v.user.unitSystem} canWrite={write} />
+      <SessionPlanner rigId={rig.id} units={v.user.unitSystem} sessions={sessions.sessions} fits={sessions.fits} canWrite={write} />
       {rig.notes ? (
         <section className="card mt-6 p-5">
           <h2 className="text-lg">Notes</h2>

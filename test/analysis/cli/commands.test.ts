@@ -156,7 +156,8 @@ describe('cost command', () => {
 import { spawnSync } from 'node:child_process';
 import path from 'node:path';
 
-describe('the command line itself', () => {
+// Each case starts Node with tsx; on a loaded machine that takes seconds. The timeout is a hang guard, not a timing.
+describe('the command line itself', { timeout: 90_000 }, () => {
   const root = path.resolve(__dirname, '..', '..', '..');
   const cli = (cmd: string, input: unknown) =>
     spawnSync(process.execPath, [path.join(root, 'node_modules/tsx/dist/cli.mjs'), path.join(root, 'analysis/cli.ts'), cmd], { input: JSON.stringify(input), encoding: 'utf8' });

@@ -9,7 +9,8 @@ const root = path.resolve(__dirname, '..', '..', '..');
 const cli = (cmd: string, input: unknown) =>
   spawnSync(process.execPath, [path.join(root, 'node_modules/tsx/dist/cli.mjs'), path.join(root, 'analysis/cli.ts'), cmd], { input: JSON.stringify(input), encoding: 'utf8' });
 
-describe('the new commands on the command line', () => {
+// Each case starts Node with tsx; on a loaded machine that takes seconds. The timeout is a hang guard, not a timing.
+describe('the new commands on the command line', { timeout: 90_000 }, () => {
   test('collector prints a result and exits 0', () => {
     const trial = (tin: number, tout: number, g: number) => ({ irradiance: `${g} W/m^2`, inletTemp: `${tin} degC`, outletTemp: `${tout} degC`, ambientTemp: '22 degC', flow: '2.4 L/min' });
     const r = cli('collector', { grossArea: '2 m^2', trials: [trial(22.5, 30.1, 950), trial(40, 46.9, 960), trial(60, 66.1, 940), trial(80, 84.8, 970), trial(41, 47.6, 990)] });

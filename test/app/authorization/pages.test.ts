@@ -61,6 +61,7 @@ const PAGES: Record<string, PageCase> = {
   'app/rigs/[rigId]/page.tsx': { path: (f) => `/rigs/${f.rig.id}`, expect: labPage(ROLES, 404), marker: (f) => f.rig.name },
   'app/rigs/[rigId]/entry/page.tsx': { path: (f) => `/rigs/${f.rig.id}/entry`, expect: labPage(WRITERS, 404), marker: (f) => f.rig.name },
   'app/rigs/[rigId]/fit/page.tsx': { path: (f) => `/rigs/${f.rig.id}/fit`, expect: labPage(ROLES, 404), marker: (f) => f.rig.name },
+  'app/rigs/[rigId]/collector/page.tsx': { path: (f) => `/rigs/${f.rig.id}/collector`, expect: labPage(ROLES, 404), marker: (f) => f.rig.name },
   'app/rigs/[rigId]/import/page.tsx': { path: (f) => `/rigs/${f.rig.id}/import`, expect: labPage(WRITERS, 404), marker: (f) => f.rig.name },
   // lab A's rig named in the query: lab B's owner gets the page of their own lab, without it
   'app/trials/page.tsx': { path: (f) => `/trials?rig=${f.rig.id}`, expect: labPage(ROLES, 200), marker: (f) => f.rig.name, listsLab: true },

@@ -261,6 +261,14 @@ const MATRIX: Record<string, Case[]> = {
     // exploring a fit stores nothing: any member may
     { method: 'POST', url: (f) => `/api/rigs/${f.rig.id}/analyze`, body: (f) => ({ models: ['poly1'], trialIds: f.trialIds }), expect: labA(200, MEMBERS) },
   ],
+  'app/api/rigs/[rigId]/collector/route.ts': [
+    // exploring stores nothing: any member may; the fixture's rig is a propane burner, so members meet the rule (422)
+    { method: 'POST', url: (f) => `/api/rigs/${f.rig.id}/collector`, body: () => ({ areaBasis: 'gross' }), expect: labA(422, MEMBERS) },
+  ],
+  'app/api/rigs/[rigId]/collector/fits/route.ts': [
+    // saving needs fit:write; the burner rig is not a collector, so writers meet the rule (422) and nothing is stored
+    { method: 'POST', url: (f) => `/api/rigs/${f.rig.id}/collector/fits`, body: () => ({ title: 'authz collector', areaBasis: 'gross' }), expect: labA(422, WRITERS) },
+  ],
   'app/api/labs/[labId]/fits/route.ts': [
     { method: 'GET', url: (f) => `/api/labs/${f.labId}/fits`, expect: labA(200, MEMBERS) },
     { method: 'POST', url: (f) => `/api/labs/${f.labId}/fits`, body: (f) => ({ rigId: f.rig.id, title: '', model: 'coil', trialIds: f.trialIds }), expect: labA(422, WRITERS) },
@@ -321,6 +329,20 @@ const MATRIX: Record<string, Case[]> = {
       expect: labA(200, WRITERS),
     },
   ],
+  'app/api/rigs/[rigId]/sessions/route.ts': [
+    { method: 'GET', url: (f) => `/api/rigs/${f.rig.id}/sessions`, expect: labA(200, MEMBERS) },
+    // too few runs: refused by the schema after the rig is authorized, nothing is planned
+    { method: 'POST', url: (f) => `/api/rigs/${f.rig.id}/sessions`, body: () => ({ prior: { Ts: '85 degC', UA: '400 W/K' }, inletTemp: '18 degC', flowRange: ['2 L/min', '20 L/min'], maxOutletTemp: '95 degC', trials: 3 }), expect: labA(422, WRITERS) },
+  ],
+  'app/api/sessions/[sessionId]/route.ts': [{ method: 'GET', url: (f) => `/api/sessions/${f.sessions.open}`, expect: labA(200, MEMBERS) }],
+  'app/api/sessions/[sessionId]/events/route.ts': [{ method: 'GET', url: (f) => `/api/sessions/${f.sessions.open}/events?once=1`, expect: labA(200, MEMBERS) }],
+  // a run the session does not have: nothing changes
+  'app/api/sessions/[sessionId]/runs/route.ts': [{ method: 'POST', url: (f) => `/api/sessions/${f.sessions.open}/runs`, body: () => ({ action: 'skip', runKey: 'r999' }), expect: labA(422, WRITERS) }],
+  'app/api/sessions/[sessionId]/readings/route.ts': [{ method: 'POST', url: (f) => `/api/sessions/${f.sessions.open}/readings`, body: () => ({ runKey: 'r1', inlet: 'warm' }), expect: labA(422, WRITERS) }],
+  'app/api/sessions/[sessionId]/samples/route.ts': [{ method: 'POST', url: (f) => `/api/sessions/${f.sessions.open}/samples`, body: () => ({ samples: [] }), expect: labA(422, WRITERS) }],
+  // closing a closed session answers its stored verdict; a study of a session without a fit is refused
+  'app/api/sessions/[sessionId]/close/route.ts': [{ method: 'POST', url: (f) => `/api/sessions/${f.sessions.closed}/close`, expect: labA(200, WRITERS) }],
+  'app/api/sessions/[sessionId]/study/route.ts': [{ method: 'POST', url: (f) => `/api/sessions/${f.sessions.closed}/study`, expect: labA(409, WRITERS) }],
   'app/api/rigs/[rigId]/jobs/route.ts': [
     {
       method: 'GET',

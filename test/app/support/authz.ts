@@ -122,6 +122,8 @@ export interface LabFixture {
   /** a design comparison of the rig against its saved fit, with a reviewer's comment */
   comparison: { id: string; title: string };
   study: { id: string; title: string; revision: number; blockIds: { text: string; caution: string; fit: string } };
+  /** test sessions of the rig: one planned, one closed (with no trials) */
+  sessions: { open: string; closed: string };
   share: { id: string; token: string };
   revokedShareId: string;
   invitation: { email: string; token: string; id: string };
@@ -182,6 +184,11 @@ export async function buildLab(opts: { files?: boolean } = {}): Promise<LabFixtu
   const comparisonTitle = `Authz comparison ${run}`;
   const comparison = ok(await eng.post(`/api/labs/${labId}/comparisons`, { title: comparisonTitle, subjects: [{ kind: 'rig', id: rig.id }, { kind: 'fit', id: fit.id }] }), 201, 'comparison').comparison;
   ok(await reviewer.post(`/api/comparisons/${comparison.id}/comments`, { body: 'The same trials on both sides: no difference expected.' }), 201, 'comparison comment');
+
+  const sessionPlan = { prior: { Ts: '85 degC', UA: '400 W/K' }, inletTemp: '18 degC', flowRange: ['2 L/min', '20 L/min'], maxOutletTemp: '95 degC', trials: 8, seed: 1 };
+  const openSession = ok(await eng.post(`/api/rigs/${rig.id}/sessions`, { ...sessionPlan, title: `Authz session ${run}` }), 201, 'session').session.id as string;
+  const closedSession = ok(await eng.post(`/api/rigs/${rig.id}/sessions`, { ...sessionPlan, title: `Authz closed session ${run}` }), 201, 'session to close').session.id as string;
+  ok(await eng.post(`/api/sessions/${closedSession}/close`, {}), 200, 'close session');
 
   const studyTitle = `Authz study ${run}`;
   const created = ok(await eng.post(`/api/labs/${labId}/studies`, { title: studyTitle }), 201, 'study').study;
@@ -275,6 +282,7 @@ export async function buildLab(opts: { files?: boolean } = {}): Promise<LabFixtu
     comparison: { id: comparison.id as string, title: comparisonTitle },
     study: { id: created.id, title: studyTitle, revision: saved.revision, blockIds: { text: blockId('text'), caution: blockId('caution'), fit: blockId('fit') } },
     share,
+    sessions: { open: openSession, closed: closedSession },
     revokedShareId,
     invitation,
     tokens,

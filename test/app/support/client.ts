@@ -27,10 +27,14 @@ export class Client {
   cookies = new Map<string, string>();
   bearer?: string;
   readonly ip: string;
-  origin: string | null = baseUrl;
+  origin: string | null;
+  /** the server this client talks to (the app of `npm test` unless another is given) */
+  readonly base: string;
 
-  constructor(ip?: string) {
+  constructor(ip?: string, base = baseUrl, origin: string | null = baseUrl) {
     this.ip = ip ?? `${addressPrefix}::${(nextAddress++).toString(16)}`;
+    this.base = base;
+    this.origin = origin;
   }
 
   async request(method: string, url: string, body?: unknown, headers: Record<string, string> = {}): Promise<Reply> {
@@ -47,7 +51,7 @@ export class Client {
       payload = typeof body === 'string' ? body : JSON.stringify(body);
       h['Content-Type'] ??= 'application/json';
     }
-    const res = await fetch(baseUrl + url, { method, headers: h, body: payload, redirect: 'manual' });
+    const res = await fetch(this.base + url, { method, headers: h, body: payload, redirect: 'manual' });
     for (const c of res.headers.getSetCookie()) {
       const [pair] = c.split(';');
       const i = pair.indexOf('=');

@@ -52,9 +52,9 @@ export async function engineerWithRig(tag: string, heatSource = 'propane-burner'
 
 /** Uploads raw bytes as the browser does (POST …/uploads?filename=). */
 export async function uploadRaw(c: Client, rigId: string, name: string, body: Buffer) {
-  const res = await fetch(`${baseUrl}/api/rigs/${rigId}/uploads?filename=${encodeURIComponent(name)}`, {
+  const res = await fetch(`${c.base}/api/rigs/${rigId}/uploads?filename=${encodeURIComponent(name)}`, {
     method: 'POST',
-    headers: { Origin: baseUrl, Cookie: [...c.cookies].map(([k, v]) => `${k}=${v}`).join('; '), 'Content-Type': 'text/csv', 'X-Forwarded-For': c.ip },
+    headers: { Origin: c.origin ?? baseUrl, Cookie: [...c.cookies].map(([k, v]) => `${k}=${v}`).join('; '), 'Content-Type': 'text/csv', 'X-Forwarded-For': c.ip },
     body: new Uint8Array(body),
   });
   const json = await res.json();

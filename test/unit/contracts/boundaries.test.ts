@@ -44,3 +44,17 @@ describe('app/_contracts is isomorphic: types and small pure helpers only', () =
     expect(text).not.toMatch(/^['"]use (client|server)['"]/m);
   });
 });
+
+describe('app/_plots is isomorphic: the plot builders both sides draw with', () => {
+  const plots = files('app/_plots');
+  test('the scan sees the builders', () => expect(plots.length).toBeGreaterThan(5));
+  test.each(plots)('%s', (file) => {
+    // no server code, no React, and nothing that pulls in mathjs (the fitting engine, the units parser):
+    // client components import these. `import type` lines ship nothing and are left out of the scan.
+    const text = readFileSync(path.join(root, file), 'utf8');
+    const shipped = [...text.matchAll(/^import (?!type )[^'"]*['"]([^'"]+)['"]/gm)].map((m) => (m[1].startsWith('.') ? path.normalize(path.join(path.dirname(file), m[1])) : m[1].replace(/^@\//, '')));
+    const bad = shipped.filter((s) => /^(react|react-dom|next|server-only|swr|linkedom|mathjs)(\/|$)/.test(s) || /^(entities|app\/_lib|app\/_components)(\/|$)/.test(s) || /^analysis\/(fit|units\/(math|parse-quantity))(\/|$)/.test(s));
+    expect(bad).toEqual([]);
+    expect(text).not.toMatch(/^['"]use (client|server)['"]/m);
+  });
+});

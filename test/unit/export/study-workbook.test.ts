@@ -52,6 +52,17 @@ describe('studyWorkbook, SI', async () => {
     }
   });
 
+  test('every sheet prints one page wide, with its header row repeated and all its rows in the print area', () => {
+    for (const ws of wb.worksheets) {
+      const h = headerRow(ws);
+      expect(ws.pageSetup, ws.name).toMatchObject({ fitToPage: true, fitToWidth: 1, fitToHeight: 0 });
+      expect(ws.pageSetup.printTitlesRow, ws.name).toBe(`${h}:${h}`);
+      expect(ws.pageSetup.printArea, ws.name).toMatch(new RegExp(`^A1:[A-Z]+${ws.rowCount}$`));
+      // every sheet of this study is wider than a portrait page (the narrow case is in xlsx.test.ts)
+      expect(ws.pageSetup.orientation, ws.name).toBe('landscape');
+    }
+  });
+
   // Thresholds (DOMAIN.md §5, §3.7): 40 °C spa limit (CPSC 79-071 / UL 1563), 49 °C scald and 60 °C
   // burns in seconds (scald-time table [39]), 95 °C steam (common practice).
   test('every sheet that shows temperatures has the safety notice in its header rows, with one caution per hazard reached', () => {

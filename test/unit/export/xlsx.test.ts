@@ -98,4 +98,36 @@ describe('buildWorkbook', () => {
   test('refuses NaN, naming sheet, row and column (STYLE.md §10)', async () => {
     await expect(buildWorkbook({ sheets: [{ ...trials, rows: [{ flow: Number.NaN }] }] })).rejects.toThrow(/Trials: row 1, column flow/);
   });
+
+  test('prints one page wide with the header row on every page, landscape only when wide (ECMA-376 pageSetup; issue 17)', async () => {
+    const wide: SheetSpec = {
+      name: 'Wide',
+      notice: ['Caution: hot water.'],
+      columns: Array.from({ length: 14 }, (_, i) => ({ key: `c${i}`, header: `Column number ${i + 1}`, numFmt: '0.000' })),
+      rows: Array.from({ length: 300 }, (_, r) => Object.fromEntries(Array.from({ length: 14 }, (_, i) => [`c${i}`, r + i / 10]))),
+    };
+    const wb = await readBack(await buildWorkbook({ sheets: [trials, wide] }));
+    const t = wb.getWorksheet('Trials')!;
+    // 5 columns (Trial 6, Time 21, Flow 14, Outlet 13, Notes 60 = 114 characters): wider than a portrait page
+    expect(t.pageSetup).toMatchObject({ fitToPage: true, fitToWidth: 1, fitToHeight: 0, orientation: 'landscape' });
+    expect(t.pageSetup.printArea).toBe('A1:E7'); // header, 3 rows, an empty row, 2 notes
+    expect(t.pageSetup.printTitlesRow).toBe('1:1');
+    const w = wb.getWorksheet('Wide')!;
+    expect(w.pageSetup).toMatchObject({ fitToPage: true, fitToWidth: 1, fitToHeight: 0, orientation: 'landscape' });
+    expect(w.pageSetup.printArea).toBe('A1:N302'); // notice row, header, 300 rows
+    expect(w.pageSetup.printTitlesRow).toBe('2:2'); // the header under the notice row
+    expect(w.views[0]).toMatchObject({ state: 'frozen', ySplit: 2 });
+    expect(w.headerFooter.oddFooter).toBe('&L&A&RPage &P of &N');
+    // a narrow table stays portrait
+    const narrow = (await readBack(await buildWorkbook({ sheets: [{ name: 'N', columns: [{ key: 'a', header: 'A' }, { key: 'b', header: 'B' }], rows: [{ a: 1, b: 2 }] }] }))).getWorksheet('N')!;
+    expect(narrow.pageSetup).toMatchObject({ fitToPage: true, fitToWidth: 1, fitToHeight: 0, orientation: 'portrait' });
+    expect(narrow.pageSetup.printArea).toBe('A1:B2');
+  });
+
+  test('merges and wraps notes over the table so that they print inside its width', async () => {
+    const t = (await readBack(await buildWorkbook({ sheets: [trials] }))).getWorksheet('Trials')!;
+    expect(t.getCell('A6').isMerged).toBe(true);
+    expect(t.getCell('E6').master.address).toBe('A6');
+    expect(t.getCell('A6').alignment).toMatchObject({ wrapText: true });
+  });
 });

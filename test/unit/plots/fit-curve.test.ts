@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { fitCurveInputFromFits, fitCurvePlot } from '../../../app/_lib/plots/fit-curve';
+import { fitCurveInputFromFits, fitCurvePlot } from '../../../app/_lib/plots';
 import { coilTrials, fitOrThrow, group, LPM, num, renderPlot } from './support';
 
 const coil = fitOrThrow('coil');

@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { energyBudgetInput, energyBudgetPlot, forecastInputFromResult, forecastPlot } from '../../../app/_lib/plots/forecast';
+import { energyBudgetInput, energyBudgetPlot, forecastInputFromResult, forecastPlot } from '../../../app/_lib/plots';
 import { recirculatingForecast } from '../../../analysis/forecast/recirculating-forecast';
 import { coilHeater } from '../../../analysis/performance/heater-model';
 import { group, num, renderPlot } from './support';

@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { heatInputFromFit, heatPlot, type HeatPlotInput } from '../../../app/_lib/plots/heat';
+import { heatInputFromFit, heatPlot, type HeatPlotInput } from '../../../app/_lib/plots';
 import { chooseFlow } from '../../../analysis/performance/choose-flow';
 import { coilTrials, fitOrThrow, group, LPM, num, renderPlot } from './support';
 

@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { residualInputFromFit, residualPlots } from '../../../app/_lib/plots/residuals';
+import { residualInputFromFit, residualPlots } from '../../../app/_lib/plots';
 import { normalQuantile } from '../../../analysis/stats/distributions';
 import { coilTrials, fitOrThrow, group, num, renderPlot } from './support';
 

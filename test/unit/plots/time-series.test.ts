@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { timeSeriesSegmentsPlot } from '../../../app/_lib/plots/time-series';
+import { timeSeriesSegmentsPlot } from '../../../app/_lib/plots';
 import { group, num, renderPlot } from './support';
 
 // An invented 1 h log at one sample per 6 s: three flow steps, one missing outlet reading.

@@ -1,7 +1,8 @@
 'use client';
 
-import { useEffect, useRef, useState } from 'react';
+import { useRef, useState } from 'react';
 import { api, ApiError } from '../../../_components/api';
+import { FillTimer } from '../../../_components/fill-timer';
 import { TempValue, TemperatureCautions } from '../../../_components/safety-notice';
 import { displayUnits } from '@/app/_contracts/units';
 import type { UnitSystem } from '@/analysis/units/unit-system';
@@ -22,8 +23,6 @@ export function EntryForm({ rigId, units, previous }: { rigId: string; units: Un
   const u = displayUnits(units);
   const t = { vol: u.volume.mathUnit, temp: u.temp.mathUnit, flow: u.flow.mathUnit };
   const [fills, setFills] = useState<number[]>([]);
-  const [runningSince, setRunningSince] = useState<number | null>(null);
-  const [now, setNow] = useState(0);
   const [message, setMessage] = useState<string | null>(null);
   const [saved, setSaved] = useState<{ inletTempC: number; outletTempC: number } | null>(null);
   const [warnings, setWarnings] = useState<string[]>([]);
@@ -31,24 +30,6 @@ export function EntryForm({ rigId, units, previous }: { rigId: string; units: Un
   const [fieldErrors, setFieldErrors] = useState<Record<string, string>>({});
   const [busy, setBusy] = useState(false);
   const formRef = useRef<HTMLFormElement>(null);
-
-  useEffect(() => {
-    if (runningSince === null) return;
-    const id = setInterval(() => setNow(performance.now()), 100);
-    return () => clearInterval(id);
-  }, [runningSince]);
-
-  const toggleTimer = () => {
-    if (runningSince === null) {
-      const t0 = performance.now();
-      setRunningSince(t0);
-      setNow(t0);
-    } else {
-      const s = Math.round((performance.now() - runningSince) / 100) / 10;
-      setFills([...fills, s]);
-      setRunningSince(null);
-    }
-  };
 
   async function submit(e: React.FormEvent<HTMLFormElement>) {
     e.preventDefault();
@@ -91,7 +72,6 @@ export function EntryForm({ rigId, units, previous }: { rigId: string; units: Un
     }
   }
 
-  const elapsed = runningSince === null ? null : (now - runningSince) / 1000;
   const fe = (k: string) => (fieldErrors[k] ? <p className="mt-1 text-sm text-danger-text">{fieldErrors[k]}</p> : null);
 
   return (
@@ -104,25 +84,7 @@ export function EntryForm({ rigId, units, previous }: { rigId: string; units: Un
           {fe('bucketVolume')}
         </label>
         <div>
-          <button
-            type="button"
-            onClick={toggleTimer}
-            className={`w-full rounded-xl py-5 text-xl font-semibold text-white ${runningSince === null ? 'bg-water-600 hover:bg-water-800' : 'bg-ember-600 hover:bg-ember-700'}`}
-            aria-live="polite"
-          >
-            {runningSince === null ? (fills.length ? 'Start another fill' : 'Start fill timer') : `Stop · ${elapsed!.toFixed(1)} s`}
-          </button>
-          <ul className="mt-3 flex flex-wrap gap-2" aria-label="Fill times">
-            {fills.map((s, i) => (
-              <li key={i} className="num flex items-center gap-1 rounded-full bg-paper-deep px-3 py-1 text-sm">
-                {s.toFixed(1)} s
-                <button type="button" aria-label={`Remove fill ${i + 1}`} className="text-ink-muted hover:text-danger-text" onClick={() => setFills(fills.filter((_, j) => j !== i))}>
-                  ×
-                </button>
-              </li>
-            ))}
-          </ul>
-          <p className="mt-2 text-xs text-ink-muted">Time three fills or more and aim for 30 s or longer each: human timing error is then under 1 %.</p>
+          <FillTimer fills={fills} onChange={setFills} />
           {fe('fillTimesS')}
         </div>
         <label className="block">

@@ -1,35 +1,30 @@
 'use client';
 
 import { useRouter } from 'next/navigation';
-import { useEffect, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import { api, ApiError } from '../../../_components/api';
 import { ComparisonTable, FitStats, FlowChoice, ParameterTable, PerformanceTableView } from '../../../_components/fit-report';
-import type { ChoiceView, ComparisonView, FitView, PerformanceView } from '../../../_contracts/fit-report';
 import { PlotFigure } from '../../../_components/plot-figure';
 import { CautionList } from '../../../_components/safety-notice';
-import type { CautionLike } from '@/analysis/safety/cautions';
 import { displayUnits } from '@/app/_contracts/units';
 import type { UnitSystem } from '@/analysis/units/unit-system';
+import type { AnalyzeResponse } from '../../../_contracts/analyze';
+import { fitCurvePlot, heatPlot, residualPlots, type PlotFigure as Figure } from '../../../_plots';
 import { MODEL_CHOICES } from '../../../_contracts/models';
 
-interface Figure {
-  title: string;
-  summary: string;
-  svg: string;
-  cautions?: CautionLike[];
-}
-interface Analysis {
-  trialIds: string[];
-  n: number;
-  planInletC: number;
-  comparison: ComparisonView & { best: string | null };
-  fits: FitView[];
-  choice: ChoiceView | null;
-  performance: PerformanceView | null;
-  plots: Record<string, Figure>;
-}
+type Analysis = AnalyzeResponse;
 
 const MODELS = MODEL_CHOICES;
+
+/** Answers kept for going back to a model set or an inlet tried a moment ago (a toggle back redraws at once). */
+const KEPT_ANSWERS = 24;
+
+/** The page's figures, built in the browser from the numbers of the answer (app/_plots, the same builders as the server's SVG). */
+function figuresOf(r: Analysis | null, units: UnitSystem): Record<string, Figure> {
+  if (!r?.plots) return {};
+  const res = residualPlots(r.plots.residuals, units);
+  return { curve: fitCurvePlot(r.plots.curve, units), heat: heatPlot(r.plots.heat, units), resFlow: res.vsFlow, resFitted: res.vsFitted, resOrder: res.vsOrder, qq: res.qq };
+}
 
 /** Fit and compare models live on a rig's included trials; save the chosen fit as a record. */
 export function FitWorkbench({ rigId, rigName, labId, units, canSave }: { rigId: string; rigName: string; labId: string; units: UnitSystem; canSave: boolean }) {
@@ -42,17 +37,29 @@ export function FitWorkbench({ rigId, rigName, labId, units, canSave }: { rigId:
   const [title, setTitle] = useState(`${rigName} — coil fit`);
   const [primary, setPrimary] = useState('coil');
   const [saveError, setSaveError] = useState<string | null>(null);
+  const answers = useRef(new Map<string, Analysis>());
 
   useEffect(() => {
     if (!models.length) return;
     const planInletC = inlet.trim() ? displayUnits(units).temp.to(Number(inlet.replace(',', '.'))) : undefined;
     if (planInletC !== undefined && !Number.isFinite(planInletC)) return;
+    const body = { models, ...(planInletC !== undefined ? { planInletC } : {}) };
+    const key = JSON.stringify(body);
+    const kept = answers.current.get(key);
+    if (kept) {
+      // the same question a moment ago (the trials are the rig's; a new page load asks again)
+      setResult(kept);
+      setError(null);
+      setBusy(false);
+      return;
+    }
     let live = true;
     // the analysis is fetched here, so its busy flag is set here (SWR would hide the request the page shows as busy)
-    // eslint-disable-next-line react-hooks/set-state-in-effect
     setBusy(true);
-    api<Analysis>(`/api/rigs/${rigId}/analyze`, { body: { models, ...(planInletC !== undefined ? { planInletC } : {}) } })
+    api<Analysis>(`/api/rigs/${rigId}/analyze`, { body })
       .then((r) => {
+        answers.current.set(key, r);
+        if (answers.current.size > KEPT_ANSWERS) answers.current.delete(answers.current.keys().next().value as string);
         if (!live) return;
         setResult(r);
         setError(null);
@@ -68,6 +75,11 @@ export function FitWorkbench({ rigId, rigName, labId, units, canSave }: { rigId:
 
   const fitsOk = result?.fits ?? [];
   const first = fitsOk[0];
+  const figures = useMemo(() => figuresOf(result, units), [result, units]);
+  const figure = (k: string, filename: string) => {
+    const f = figures[k];
+    return f ? <PlotFigure key={k} title={f.title} summary={f.summary} cautions={f.cautions} options={f.options} filename={filename} /> : null;
+  };
 
   async function save() {
     setSaveError(null);
@@ -137,7 +149,7 @@ export function FitWorkbench({ rigId, rigName, labId, units, canSave }: { rigId:
             <p className="text-sm text-ink-muted">
               {result.n} included trials. Excluded trials are drawn hollow and not fitted; change them on the rig page.
             </p>
-            {result.plots.curve ? <PlotFigure {...result.plots.curve} filename="outlet-vs-flow" /> : null}
+            {figure('curve', 'outlet-vs-flow')}
             <section className="card p-4" aria-labelledby="cmp-h">
               <h2 id="cmp-h" className="mb-3 text-lg">Model comparison</h2>
               <ComparisonTable comparison={result.comparison} units={units} />
@@ -152,10 +164,10 @@ export function FitWorkbench({ rigId, rigName, labId, units, canSave }: { rigId:
             <section aria-labelledby="res-h">
               <h2 id="res-h" className="mb-3 text-lg">Residuals of {first?.label}</h2>
               <div className="grid gap-4 xl:grid-cols-2">
-                {['resFlow', 'resFitted', 'resOrder', 'qq'].map((k) => (result.plots[k] ? <PlotFigure key={k} {...result.plots[k]} filename={`residuals-${k}`} /> : null))}
+                {['resFlow', 'resFitted', 'resOrder', 'qq'].map((k) => figure(k, `residuals-${k}`))}
               </div>
             </section>
-            {result.plots.heat ? <PlotFigure {...result.plots.heat} filename="heat-vs-flow" /> : null}
+            {figure('heat', 'heat-vs-flow')}
             {result.choice ? (
               <section className="card p-4" aria-labelledby="choice-h">
                 <h2 id="choice-h" className="mb-3 text-lg">Choosing a flow</h2>

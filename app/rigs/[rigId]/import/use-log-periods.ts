@@ -3,7 +3,7 @@
 import { useEffect, useMemo, useReducer, useRef } from 'react';
 import { PRESETS, type PresetName, type SteadyCriteria } from '@/analysis/segment/steady-criteria';
 import type { SegmentPreview } from '@/app/_lib/imports/sensor-preview';
-import { timeSeriesSegmentsPlot, type LogSegment } from '@/app/_lib/plots/time-series';
+import { timeSeriesSegmentsPlot, type LogSegment } from '@/app/_plots/time-series';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { api, ApiError } from '../../../_components/api';
 import { fetchPreview } from './fetch-log-preview';

@@ -2,12 +2,14 @@ import { loadInLab } from '@/app/_lib/labs/load-in-lab';
 import { exportResponse } from '@/app/_lib/studies/study-export';
 import { parseStoredFit } from '@/app/_lib/fits/stored-fit';
 import { modelLabel } from '@/app/_lib/fits/fit-analysis';
+import { collectorFitExport } from '@/app/_lib/fits/collector-analysis';
 import { route } from '@/app/_lib/server/route';
 
 
 /** GET: the saved fit as XLSX (Summary, Trials, Fit, Residuals, Performance) in the user's units, or one table as CSV (`?format=csv&table=Fit`). */
 export const GET = route<{ fitId: string }>({ auth: 'user' }, async (ctx) => {
   const { row: fit, member } = await loadInLab(ctx, 'fit', ctx.params.fitId, 'lab:export');
+  if (fit.kind === 'collector') return exportResponse(collectorFitExport(fit, member.lab.name, ctx.requireActor().user.unitSystem), `${fit.title}-v${fit.version}`, ctx.req.nextUrl.searchParams);
   const rig = fit.rig;
   const r = parseStoredFit(fit.result, fit.id);
   const label = modelLabel(fit.model);

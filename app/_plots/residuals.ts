@@ -4,8 +4,7 @@
  * for high leverage (h > 2p/n), influence (Cook's D > 4/n) or |studentized| > 3 are ringed and titled.
  */
 import * as Plot from '@observablehq/plot';
-import { runsTest, type FitSuccess } from '../../../analysis/fit';
-import { normalQuantile } from '../../../analysis/stats/distributions';
+import { normalQuantile } from '@/analysis/stats/distributions';
 import { baseOptions, COLORS, type PlotFigure } from './theme';
 import { displayUnits, fmt, withUnit, type DisplayUnits } from '@/app/_contracts/units';
 import type { UnitSystem } from '@/analysis/units/unit-system';
@@ -29,8 +28,8 @@ export interface ResidualPoint {
   cooksDistance: number | null;
   /** 1-based position in the run order */
   order: number;
-  /** when the trial was run (null or absent: plot by order) */
-  time?: Date | null;
+  /** when the trial was run, a Date or its ISO 8601 string as JSON carries it (null or absent: plot by order) */
+  time?: Date | string | null;
   flags: ResidualFlag[];
 }
 
@@ -46,40 +45,6 @@ export interface ResidualInput {
   cooksLimit: number;
   /** runs test on the residual signs ordered by flow (null when not computable) */
   runs: { runs: number; pValue: number } | null;
-}
-
-/**
- * Adapter from a fit to {@link ResidualInput}.
- * @param fit - a successful fit (points in the fit's order)
- * @param options.labels - a label per point (default `trial 1`, `trial 2`, …)
- * @param options.order - run order per point, 1-based (default the fit's point order)
- * @param options.times - run time per point (when every point has one, the order plot uses time)
- * @throws RangeError when an option array has the wrong length
- * @example residualPlots(residualInputFromFit(fit, { labels }), 'si')
- */
-export function residualInputFromFit(fit: FitSuccess, options: { labels?: string[]; order?: number[]; times?: (Date | null)[] } = {}): ResidualInput {
-  const n = fit.n;
-  for (const [k, v] of Object.entries(options)) {
-    if (v !== undefined && v.length !== n) throw new RangeError(`residualInputFromFit: ${k} has ${v.length} entries, the fit has ${n} points`);
-  }
-  const lev = new Set(fit.flags.highLeverage);
-  const inf = new Set(fit.flags.influential);
-  const out = new Set(fit.flags.outliers);
-  const points = fit.spec.x.map((x, i): ResidualPoint => ({
-    label: options.labels?.[i] ?? `trial ${i + 1}`,
-    flowM3PerS: x,
-    fittedC: fit.fitted[i],
-    residualK: fit.residuals[i],
-    standardized: fit.standardizedResiduals[i],
-    studentized: fit.studentizedResiduals[i],
-    leverage: fit.leverage[i],
-    cooksDistance: fit.cooksDistance[i],
-    order: options.order?.[i] ?? i + 1,
-    time: options.times?.[i] ?? null,
-    flags: [...(lev.has(i) ? ['high-leverage' as const] : []), ...(inf.has(i) ? ['influential' as const] : []), ...(out.has(i) ? ['outlier' as const] : [])],
-  }));
-  const runs = runsTest(fit.spec.x, fit.residuals);
-  return { model: fit.model, points, residualSD: fit.residualSD, leverageLimit: (2 * fit.p) / n, cooksLimit: 4 / n, runs: runs && { runs: runs.runs, pValue: runs.pValue } };
 }
 
 /** The four residual plots. */
@@ -168,12 +133,13 @@ export function residualPlots(input: ResidualInput, units: UnitSystem, size: { w
     marks: scatter(input.points.map((p) => row(p, u.temp.from(p.fittedC))), residualGuides(input, u), false),
   });
 
-  const byTime = n > 0 && input.points.every((p) => p.time instanceof Date);
-  const ordered = [...input.points].sort((a, b) => (byTime ? (a.time as Date).getTime() - (b.time as Date).getTime() : a.order - b.order));
+  const when = (p: ResidualPoint) => (p.time == null ? null : new Date(p.time));
+  const byTime = n > 0 && input.points.every((p) => when(p) !== null && Number.isFinite(when(p)!.getTime()));
+  const ordered = [...input.points].sort((a, b) => (byTime ? when(a)!.getTime() - when(b)!.getTime() : a.order - b.order));
   const vsOrder = figure(`Residuals against ${byTime ? 'time' : 'trial order'} — ${input.model}`, [`${n} residuals in the order the trials were run (${byTime ? 'by time' : 'by trial number'}); a trend here means drift of the source (fire, burner, sun)`, flags], {
     x: byTime ? { label: 'Time →', type: 'utc', grid: true } : { label: 'Trial order →', grid: true, tickFormat: 'd' },
     y: yRes,
-    marks: scatter(ordered.map((p) => row(p, byTime ? (p.time as Date) : p.order)), residualGuides(input, u), true),
+    marks: scatter(ordered.map((p) => row(p, byTime ? when(p)! : p.order)), residualGuides(input, u), true),
   });
 
   // Normal Q–Q: standardized residuals against Φ⁻¹((i − 3/8)/(m + 1/4)) (Blom 1958 plotting positions)

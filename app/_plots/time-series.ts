@@ -6,7 +6,7 @@
  */
 import * as Plot from '@observablehq/plot';
 import { baseOptions, COLORS, type PlotFigure } from './theme';
-import { HAZARD_BANDS, hottestCautions } from '../../../analysis/safety/cautions';
+import { HAZARD_BANDS, hottestCautions } from '@/analysis/safety/cautions';
 import { displayUnits, fmt, withUnit } from '@/app/_contracts/units';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { sentences } from './words';

@@ -4,9 +4,6 @@
  * the outlet below boiling, and an optimum only when it lies inside the tested flows.
  */
 import * as Plot from '@observablehq/plot';
-import { heatOptimum, predictAt, type FitSuccess } from '../../../analysis/fit';
-import type { FlowChoice } from '../../../analysis/performance/choose-flow';
-import { waterCpJPerKgK, waterDensityKgPerM3 } from '../../../analysis/water/water-properties';
 import { baseOptions, COLORS, type PlotFigure } from './theme';
 import { displayUnits, fmt, withUnit } from '@/app/_contracts/units';
 import type { UnitSystem } from '@/analysis/units/unit-system';
@@ -41,85 +38,6 @@ export interface HeatPlotInput {
   optimumNote: string;
   /** flows below which the outlet is predicted to exceed a hard limit (boiling), m³/s */
   unsafeBelow: { flowM3PerS: number; label: string }[];
-}
-
-/** Options of {@link heatInputFromFit}. */
-export interface HeatFromFitOptions {
-  /** inlet temperature, °C (default the fit's mean Tin) */
-  inletTempC?: number;
-  /** from chooseFlow(fit, inletTempC): recommended flow, optimum and minimum flows */
-  choice?: FlowChoice;
-  /** density and specific heat for q (default: the fit's mean rho/cp covariates, else IF97 at the inlet) */
-  rhoKgPerM3?: number;
-  cpJPerKgK?: number;
-  /** trials left out of the fit, SI */
-  excluded?: { flowM3PerS: number; outletTempC: number; label?: string }[];
-  labels?: string[];
-  /** flows to draw over, m³/s (default: the tested range widened, and the recommended flow included) */
-  flowRange?: [number, number];
-  points?: number;
-}
-
-/**
- * Adapter from a fit (and optionally chooseFlow's result) to {@link HeatPlotInput}.
- * @throws RangeError when no inlet temperature is known, or the model cannot be evaluated on the range
- * @example heatPlot(heatInputFromFit(fit, { choice: chooseFlow(fit, 20) }), 'si')
- */
-export function heatInputFromFit(fit: FitSuccess, options: HeatFromFitOptions = {}): HeatPlotInput {
-  const { spec } = fit;
-  const tin = options.inletTempC ?? spec.covariateMeans.Tin;
-  if (typeof tin !== 'number' || !Number.isFinite(tin)) throw new RangeError('heatInputFromFit: an inlet temperature inletTempC is needed (the fit has no Tin covariate)');
-  const rho = options.rhoKgPerM3 ?? spec.covariateMeans.rho ?? waterDensityKgPerM3(tin, undefined, 'inletTempC');
-  const cp = options.cpJPerKgK ?? spec.covariateMeans.cp ?? waterCpJPerKgK(tin, undefined, 'inletTempC');
-  const heat = (q: number, t: number, tIn = tin) => rho * cp * q * (t - tIn);
-  const choice = options.choice;
-  const [lo, hi] = fit.xRange;
-  const span = hi - lo || hi || 1;
-
-  let recommended: HeatPlotInput['recommended'] = null;
-  let reason = '';
-  let flow: number | null = null;
-  if (choice?.ceiling) {
-    flow = choice.ceiling.flowM3PerS;
-    reason = `${fmt(choice.ceiling.fraction * 100, 2)} % of the ceiling`;
-  } else if (choice?.optimum) {
-    flow = choice.optimum.flowM3PerS;
-    reason = 'the model’s heat maximum';
-  }
-  const boiling = choice?.minimumFlows.find((m) => m.label === 'boiling');
-  const boilingFlow = boiling ? Math.max(boiling.flowM3PerS ?? 0, boiling.conservativeFlowM3PerS ?? 0) : 0;
-  if (flow !== null && boilingFlow > flow) {
-    flow = boilingFlow;
-    reason = 'the lowest flow that keeps the outlet below boiling (upper prediction bound)';
-  }
-  const range = options.flowRange ?? [Math.max(lo - 0.1 * span, lo / 2), Math.max(hi + 0.25 * span, (flow ?? 0) * 1.1)];
-  const m = Math.max(2, Math.round(options.points ?? 121));
-  const grid = Array.from({ length: m }, (_, i) => range[0] + ((range[1] - range[0]) * i) / (m - 1));
-  const needsTin = spec.covariateNames.includes('Tin');
-  const band = (xs: number[]) => predictAt(fit, xs, needsTin ? { Tin: xs.map(() => tin) } : {}, fit.level);
-  const curve = band(grid).map((b) => ({
-    flowM3PerS: b.x, heatW: heat(b.x, b.y), ciLowW: heat(b.x, b.ciLow), ciHighW: heat(b.x, b.ciHigh), piLowW: heat(b.x, b.piLow), piHighW: heat(b.x, b.piHigh),
-  }));
-  const heatAt = (q: number) => heat(q, band([q])[0].y);
-  if (flow !== null) recommended = { flowM3PerS: flow, heatW: heatAt(flow), reason };
-
-  const tinOf = spec.covariates.Tin;
-  const trials: HeatPlotInput['trials'] = spec.x.map((x, i) => ({ flowM3PerS: x, heatW: heat(x, spec.y[i], tinOf ? tinOf[i] : tin), label: options.labels?.[i] }));
-  for (const e of options.excluded ?? []) trials.push({ flowM3PerS: e.flowM3PerS, heatW: heat(e.flowM3PerS, e.outletTempC), excluded: true, label: e.label });
-
-  let optimum: HeatPlotInput['optimum'] = null;
-  let optimumNote: string;
-  if (choice) {
-    optimum = choice.optimum && { flowM3PerS: choice.optimum.flowM3PerS, heatW: heatAt(choice.optimum.flowM3PerS) };
-    optimumNote = choice.optimumNote;
-  } else {
-    const h = heatOptimum(fit, { TinC: tin, rhoKgPerM3: rho, cpJPerKgK: cp });
-    optimum = h.interior ? { flowM3PerS: h.flowM3PerS, heatW: h.heatW } : null;
-    optimumNote = h.note;
-  }
-  const ceilingW = fit.model === 'coil' && fit.params.UA && fit.params.Ts ? fit.params.UA.value * (fit.params.Ts.value - tin) : null;
-  const unsafeBelow = boilingFlow > 0 ? [{ flowM3PerS: boilingFlow, label: 'outlet may boil below this flow' }] : [];
-  return { model: fit.model, inletTempC: tin, level: fit.level, curve, trials, testedRange: [lo, hi], ceilingW, recommended, optimum, optimumNote, unsafeBelow };
 }
 
 /**

@@ -3,8 +3,8 @@
  * and the energy budget by term (gains positive, losses negative).
  */
 import * as Plot from '@observablehq/plot';
-import type { EnergyBudget, ForecastResult } from '../../../analysis/forecast/recirculating-forecast';
-import { CAUTION_THRESHOLDS_C, HAZARD_BANDS } from '../../../analysis/safety/cautions';
+import type { EnergyBudget, ForecastResult } from '@/analysis/forecast/recirculating-forecast';
+import { CAUTION_THRESHOLDS_C, HAZARD_BANDS } from '@/analysis/safety/cautions';
 import { baseOptions, COLORS, type PlotFigure } from './theme';
 import { displayUnits, fmt, withUnit } from '@/app/_contracts/units';
 import type { UnitSystem } from '@/analysis/units/unit-system';

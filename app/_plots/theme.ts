@@ -3,7 +3,7 @@
  * ink for text and data points, caution and danger tones for safety lines.
  */
 import type * as Plot from '@observablehq/plot';
-import type { Caution } from '../../../analysis/safety/cautions';
+import type { Caution } from '@/analysis/safety/cautions';
 
 export const COLORS = {
   heat: '#B84E0C', // ember-600

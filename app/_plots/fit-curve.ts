@@ -4,9 +4,10 @@
  * extrapolated region shaded, and reference lines for the inlet, scalding and boiling.
  */
 import * as Plot from '@observablehq/plot';
-import { predictAt, type BandPoint, type FitSuccess } from '../../../analysis/fit';
-import { CAUTION_THRESHOLDS_C, HAZARD_BANDS, hottestCautions } from '../../../analysis/safety/cautions';
+import type { BandPoint } from '@/analysis/fit';
+import { CAUTION_THRESHOLDS_C, HAZARD_BANDS, hottestCautions } from '@/analysis/safety/cautions';
 import { baseOptions, COLORS, DASHES, MODEL_STROKES, type PlotFigure } from './theme';
+import { placeLabels, textBox, type Box } from './label-placement';
 
 /** Trials with a hover tooltip each, at most. */
 export const TOOLTIP_MAX_TRIALS = 300;
@@ -36,8 +37,8 @@ export interface FitCurveReplicate {
 /** One fitted model's curve over the plotted flows (the first model is the primary one). */
 export interface FitCurveModel {
   label: string;
-  /** predictions with intervals (units of the fit: m³/s, °C), increasing in flow */
-  points: BandPoint[];
+  /** predictions with intervals (units of the fit: m³/s, °C), increasing in flow (predictAt's BandPoints, or their numbers as JSON carries them) */
+  points: Pick<BandPoint, 'x' | 'y' | 'ciLow' | 'ciHigh' | 'piLow' | 'piHigh'>[];
 }
 
 /** Everything fitCurvePlot draws, SI. */
@@ -52,61 +53,6 @@ export interface FitCurveInput {
   inletTempC: number | null;
   /** confidence level of the bands, e.g. 0.95 */
   level: number;
-}
-
-/** Options of the adapter {@link fitCurveInputFromFits}. */
-export interface FitCurveFromFitsOptions {
-  /** trials left out of the fit, SI (drawn hollow) */
-  excluded?: { flowM3PerS: number; outletTempC: number; label?: string }[];
-  /** labels of the fitted trials, in the fit's point order */
-  labels?: string[];
-  /** inlet temperature for the curves and the rule, °C (default: the primary fit's mean Tin) */
-  inletTempC?: number;
-  /** flows to draw over, m³/s (default: the tested range widened by 10 % below and 25 % above) */
-  flowRange?: [number, number];
-  /** grid points per curve (default 121) */
-  points?: number;
-}
-
-/**
- * Adapter from fitting results to {@link FitCurveInput}: curves and bands from `predictAt` over a
- * grid wider than the tested range (so the extrapolated part shows), replicates from the fit.
- * @param fits - successful fits to the same trials, primary first, each with a label
- * @throws RangeError when no fit is given
- * @example fitCurveInputFromFits([{ label: 'coil', fit }], { excluded })
- */
-export function fitCurveInputFromFits(fits: { label: string; fit: FitSuccess }[], options: FitCurveFromFitsOptions = {}): FitCurveInput {
-  if (fits.length === 0) throw new RangeError('fitCurveInputFromFits: give at least one fit');
-  const primary = fits[0].fit;
-  const [lo, hi] = primary.xRange;
-  const span = hi - lo || Math.abs(hi) || 1;
-  const range = options.flowRange ?? [Math.max(lo - 0.1 * span, lo / 2), hi + 0.25 * span];
-  const m = Math.max(2, Math.round(options.points ?? 121));
-  const grid = Array.from({ length: m }, (_, i) => range[0] + ((range[1] - range[0]) * i) / (m - 1));
-  const tinMean = primary.spec.covariateMeans.Tin;
-  const inletTempC = options.inletTempC ?? (typeof tinMean === 'number' ? tinMean : null);
-  const models = fits.map(({ label, fit }) => ({ label, points: curveOf(fit, grid, inletTempC) }));
-  const trials: FitCurveTrial[] = primary.spec.x.map((x, i) => ({ flowM3PerS: x, outletTempC: primary.spec.y[i], label: options.labels?.[i] }));
-  for (const e of options.excluded ?? []) trials.push({ ...e, excluded: true });
-  const replicates = primary.replicates.map((g) => ({ flowM3PerS: g.xMean, meanC: g.yMean, sdK: g.ySD, n: g.n }));
-  return { trials, replicates, models, testedRange: [lo, hi], inletTempC, level: primary.level };
-}
-
-/** predictAt over the grid; where the model cannot be evaluated (e.g. x ≤ 0 for the coil), those points are left out. */
-function curveOf(fit: FitSuccess, grid: number[], inletTempC: number | null): BandPoint[] {
-  const needsTin = fit.spec.covariateNames.includes('Tin') && inletTempC !== null;
-  const at = (xs: number[]) => predictAt(fit, xs, needsTin ? { Tin: xs.map(() => inletTempC as number) } : {}, fit.level);
-  try {
-    return at(grid);
-  } catch {
-    return grid.flatMap((x) => {
-      try {
-        return at([x]);
-      } catch {
-        return [];
-      }
-    });
-  }
 }
 
 /** Boiling at 1 atm, °C (common practice; analysis uses the IF97 saturation temperature 99.97 °C). */
@@ -173,6 +119,11 @@ export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { wi
     tip: `mean of ${r.n} replicates at ${withUnit(r.flowM3PerS, u.flow)}: ${withUnit(r.meanC, u.temp)} ± ${withUnit(r.sdK as number, u.tempDiff, 2)} (SD)`,
   }));
   const pct = `${fmt(input.level * 100, 2)} %`;
+  const modelLabels = placeModelLabels({
+    size, x: [F(xMin), F(xMax)], y: [T(yLo), T(yHi)], curves, labels: input.models.map((m) => m.label),
+    points: [...dots(included), ...dots(excluded)], reps, refs: refRows,
+    extrapolated: extrap.filter((d) => d.x2 - d.x1 >= 0.12 * (F(xMax) - F(xMin))).map((d) => (d.x1 + d.x2) / 2),
+  });
 
   const marks: Plot.Markish[] = [
     Plot.rect(extrap, { x1: 'x1', x2: 'x2', fill: COLORS.paperDeep, fillOpacity: 0.9, ariaDescription: 'extrapolated region' }),
@@ -191,8 +142,10 @@ export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { wi
       x: 'x', y: 'y', stroke: MODEL_STROKES[i % MODEL_STROKES.length], strokeWidth: i === 0 ? 2.5 : 1.75,
       strokeDasharray: DASHES[i % DASHES.length], ariaDescription: `model ${input.models[i].label}`,
     })),
-    Plot.text(curves.map((c, i) => ({ ...c[c.length - 1], label: input.models[i].label, stroke: MODEL_STROKES[i % MODEL_STROKES.length] })).filter((d) => d.x !== undefined), {
-      x: 'x', y: 'y', text: 'label', fill: 'stroke', textAnchor: 'end', dy: -8, ariaDescription: 'model labels',
+    // each model's name beside its own curve, where it overlaps no data, line or other label (placeModelLabels)
+    Plot.text(modelLabels, {
+      x: 'x', y: 'y', text: 'label', fill: 'color', textAnchor: 'middle', lineAnchor: 'middle',
+      stroke: 'white', strokeWidth: 3, paintOrder: 'stroke', ariaDescription: 'model labels',
     }),
     Plot.ruleX(reps, { x: 'x', y1: 'y1', y2: 'y2', stroke: COLORS.ink, strokeWidth: 1.25, marker: 'tick', ariaDescription: 'replicate error bars' }),
     Plot.dot(reps, { x: 'x', y: 'y', symbol: 'diamond', r: 4, fill: COLORS.paper, stroke: COLORS.ink, strokeWidth: 1.5, title: 'tip', ariaDescription: 'replicate means' }),
@@ -230,3 +183,73 @@ export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { wi
     },
   };
 }
+
+/** What placeModelLabels avoids, in display units (the plot's x and y). */
+interface LabelScene {
+  size: { width?: number; height?: number };
+  /** the x and y domains of the plot */
+  x: [number, number];
+  y: [number, number];
+  curves: { x: number; y: number }[][];
+  labels: string[];
+  points: { x: number; y: number }[];
+  reps: { x: number; y: number; y1: number; y2: number }[];
+  refs: { yd: number; text: string; kind: string }[];
+  /** x of the centre of each "extrapolated" label */
+  extrapolated: number[];
+}
+
+/** Label centres along a curve, best first: about three quarters across, then outward in steps of 4 %. */
+const ALONG = [0.72, ...Array.from({ length: 17 }, (_, k) => [0.72 + 0.04 * (k + 1), 0.72 - 0.04 * (k + 1)]).flat()].filter((f) => f > 0.02 && f < 0.99);
+/** Offsets of a label's centre from its curve, px, nearest first: just above and below, then a line and two further. */
+const OFFSETS_PX = [[-12, 14], [-24, 26], [-36, 38]];
+
+/**
+ * Places each model's label beside its curve so that labels overlap neither each other nor the
+ * trials, replicate bars, curves, reference lines and their labels, at the plot's own width (a
+ * phone's too). Works in the pixels of the frame the theme sets (baseOptions), as Plot's linear
+ * scales map the domains given here, and returns the centres back in display units.
+ */
+export function placeModelLabels(scene: LabelScene): { x: number; y: number; label: string; color: string }[] {
+  const o = baseOptions({ ...scene.size, ariaLabel: '', ariaDescription: '' });
+  const [W, H] = [o.width as number, o.height as number];
+  const [mL, mR, mT, mB] = [o.marginLeft as number, o.marginRight as number, o.marginTop as number, o.marginBottom as number];
+  const font = 12; // baseOptions' font size
+  const [x0, x1] = scene.x;
+  const [y0, y1] = scene.y;
+  const px = (v: number) => mL + ((v - x0) / (x1 - x0 || 1)) * (W - mL - mR);
+  const py = (v: number) => mT + ((y1 - v) / (y1 - y0 || 1)) * (H - mT - mB);
+  const frame: Box = { x: mL, y: mT, width: W - mL - mR, height: H - mT - mB };
+  const around = (cx: number, cy: number, r: number): Box => ({ x: cx - r, y: cy - r, width: 2 * r, height: 2 * r });
+  const obstacles: Box[] = [
+    ...scene.points.map((p) => around(px(p.x), py(p.y), 5.5)),
+    ...scene.reps.flatMap((r) => [around(px(r.x), py(r.y), 5), { x: px(r.x) - 4, y: py(r.y2), width: 8, height: py(r.y1) - py(r.y2) }]),
+    ...scene.curves.flatMap((c) => c.slice(1).map((p, i) => {
+      const [a, b] = [c[i], p];
+      const [ax, ay, bx, by] = [px(a.x), py(a.y), px(b.x), py(b.y)];
+      return { x: Math.min(ax, bx) - 1.5, y: Math.min(ay, by) - 1.5, width: Math.abs(bx - ax) + 3, height: Math.abs(by - ay) + 3 };
+    })),
+    ...scene.refs.flatMap((r) => {
+      // as fitCurvePlot draws them: the inlet's label from the left edge, the others to the right edge, 7 px above the rule
+      const w = textBox(r.text, 0, 0, font).width;
+      const cx = r.kind === 'inlet' ? mL + 4 + w / 2 : W - mR - 4 - w / 2;
+      return [textBox(r.text, cx, py(r.yd) - 7, font), { x: mL, y: py(r.yd) - 1, width: W - mL - mR, height: 2 }];
+    }),
+    ...scene.extrapolated.map((x) => textBox('extrapolated', px(x), H - mB - 6, font)),
+  ];
+  const requests = scene.curves.map((c, i) => ({
+    text: scene.labels[i],
+    // nearest to the curve first (just above or below it, then a line further out), each along the curve from ¾ across
+    candidates: OFFSETS_PX.flatMap((pair) => ALONG.flatMap((f) => {
+      const p = c[Math.min(c.length - 1, Math.round(f * (c.length - 1)))];
+      return p ? pair.map((dy) => ({ cx: px(p.x), cy: py(p.y) + dy })) : [];
+    })),
+  }));
+  return placeLabels(requests, obstacles, frame, font).map((p) => ({
+    x: x0 + ((p.cx - mL) / (W - mL - mR)) * (x1 - x0),
+    y: y1 - ((p.cy - mT) / (H - mT - mB)) * (y1 - y0),
+    label: p.text,
+    color: MODEL_STROKES[scene.labels.indexOf(p.text) % MODEL_STROKES.length],
+  }));
+}
+
