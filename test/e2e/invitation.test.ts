@@ -27,9 +27,9 @@ describe('invitation walk-through in Chromium', () => {
     await p.getByLabel('E-mail').fill('owner@cinder-hollow.test');
     await p.getByLabel('Password').fill('ember-demo-lab-2026');
     await p.getByRole('button', { name: 'Sign in' }).click();
-    await p.waitForURL('**/rigs');
-    await expect(p.getByRole('heading', { level: 1 }).innerText()).resolves.toBe('Rigs');
-    await screenshot(p, 'owner-rigs');
+    await p.waitForURL('**/start');
+    await p.getByRole('region', { name: 'Your team' }).waitFor();
+    await screenshot(p, 'owner-start');
     await visit(p, '/lab/members');
     await p.getByLabel('E-mail').fill(invitee);
     await p.getByLabel('Role', { exact: true }).selectOption('reviewer');
@@ -62,13 +62,14 @@ describe('invitation walk-through in Chromium', () => {
     await expect(p.locator('nav[aria-label="Lab"]').innerText()).resolves.toMatch(/Cinder Hollow Test Yard\s*reviewer/);
     await screenshot(p, 'reviewer-rigs-phone');
 
-    // sign out and back in, as a person would the next day
+    // sign out and back in, as a person would the next day (on a phone, from the header's Menu)
+    await p.getByRole('button', { name: 'Menu' }).click();
     await p.getByRole('button', { name: 'Sign out' }).click();
     await p.waitForURL('**/sign-in');
     await p.getByLabel('E-mail').fill(invitee);
     await p.getByLabel('Password').fill(STRONG_PASSWORD);
     await p.getByRole('button', { name: 'Sign in' }).click();
-    await p.waitForURL('**/rigs');
+    await p.waitForURL('**/start');
     await screenshot(p, 'reviewer-signed-in-again');
 
     // a reviewer reads members but cannot invite; the audit log does not exist for them; no API tokens

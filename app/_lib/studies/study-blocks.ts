@@ -7,6 +7,7 @@ import { SEGMENT_ROWS, type BlockBody, type BlockData, type FitHead } from '@/ap
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { costView } from '../forecasts/cost-sheet';
 import { modelLabel } from '../fits/fit-analysis';
+import { collectorModelLabel, savedCollectorView } from '../fits/collector-analysis';
 import { parseStoredFit } from '../fits/stored-fit';
 import { forecast } from '../forecasts/forecasts';
 import { renderMarkdown } from './markdown';
@@ -39,7 +40,7 @@ export interface BlockContext {
   fits?: Map<string, FitRow>;
 }
 
-const FIT_KINDS = new Set(['fit', 'comparison', 'performance', 'trials']);
+const FIT_KINDS = new Set(['fit', 'comparison', 'performance', 'trials', 'collector']);
 
 /** The saved fits the given blocks point at (lab-scoped), by id. */
 export async function blockFits(em: EntityManager, lab: LabRow, blocks: readonly StudyBlock[]): Promise<Map<string, FitRow>> {
@@ -75,6 +76,15 @@ async function fitBodyOf(kind: string, fit: FitRow, units: UnitSystem): Promise<
  * (the review state moves).
  */
 async function fitBody(ctx: BlockContext, kind: string, fit: FitRow): Promise<BlockBody> {
+  if (fit.kind === 'collector' || kind === 'collector') {
+    // solar collectors: a collector block shows a saved collector fit, and only there
+    if (fit.kind !== 'collector') return { type: 'note', tone: 'muted', message: 'A collector block shows a saved collector fit: choose one.' };
+    if (kind !== 'collector') return { type: 'note', tone: 'muted', message: 'This saved fit is a collector efficiency curve: show it in a collector block.' };
+    const head: FitHead = { fitId: ctx.publicView ? null : fit.id, title: fit.title, version: fit.version, label: collectorModelLabel(fit.model), reviewState: fit.reviewState };
+    const key = blockCacheKey(['collector-block', fit.id, fit.version, ctx.units]);
+    const data = await cachedBlockData(ctx.em, key, { labId: ctx.lab.id, fitId: fit.id }, async () => ({ view: savedCollectorView(fit) }));
+    return { type: 'collector', head, view: data.view };
+  }
   const head: FitHead = { fitId: ctx.publicView ? null : fit.id, title: fit.title, version: fit.version, label: modelLabel(fit.model), reviewState: fit.reviewState };
   const key = blockCacheKey(['fit-block', kind, fit.id, fit.version, ctx.units]);
   const data = await cachedBlockData(ctx.em, key, { labId: ctx.lab.id, fitId: fit.id }, () => fitBodyOf(kind, fit, ctx.units));
@@ -120,7 +130,10 @@ async function forecastBody(ctx: BlockContext, block: StudyBlock): Promise<Block
   return cachedBlockData(ctx.em, key, { labId: ctx.lab.id, fitId: fit?.id ?? null }, async (): Promise<BlockBody> => {
     const f = await forecast(ctx.em, ctx.lab, { ...d }, ctx.units, 'svg');
     const { title, summary, svg, cautions } = f.plots.trajectory;
-    return { type: 'forecast', finalTempC: f.finalTemp_degC, hoursToTarget: f.hoursToTarget_h, fitNote: f.fitNote, cautions: f.cautions, plot: { title, summary, svg: svg ?? '', ...(cautions?.length ? { cautions } : {}) } };
+    return {
+      type: 'forecast', finalTempC: f.finalTemp_degC, hoursToTarget: f.hoursToTarget_h, fitNote: f.fitNote, cautions: f.cautions, plot: { title, summary, svg: svg ?? '', ...(cautions?.length ? { cautions } : {}) },
+      equilibriumTempC: f.equilibriumTemp_degC, holdHoursPerDay: f.holdHoursPerDay_h, holdNote: f.holdNote, measuredDay: f.measuredDay ?? null,
+    };
   });
 }
 

@@ -2,13 +2,14 @@ import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { Fit, Rig, type StudyRow } from '@/entities';
 import type { UnitSystem } from '@/analysis/units/unit-system';
-import { STUDY_SHEETS, studyCsv, studyWorkbook, type FitExport, type ForecastExport, type PerformanceExport, type RunningCostExport, type StudyExport, type StudySheetName, type TrialExportRow } from '../exports';
+import { STUDY_SHEETS, studyCsv, studyWorkbook, type CollectorExport, type FitExport, type ForecastExport, type PerformanceExport, type RunningCostExport, type StudyExport, type StudySheetName, type TrialExportRow } from '../exports';
 import { costExport, costView } from '../forecasts/cost-sheet';
 import { DomainError } from '../server/errors';
 import { forecastForExport } from '../forecasts/forecasts';
 import { modelLabel, SOFTWARE_VERSION } from '../fits/fit-analysis';
 import { parseStoredFit } from '../fits/stored-fit';
 import { cachedFile } from '../server/http-cache';
+import { collectorModelLabel, parseStoredCollectorFit } from '../fits/collector-analysis';
 import { comparisonInLab, readComparison } from '../comparisons/comparisons';
 import type { DesignComparisonView } from '@/app/_contracts/design-comparison';
 import { isUuid } from '../labs/load-in-lab';
@@ -27,7 +28,14 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
   const trials: TrialExportRow[] = [];
   const fitExports: FitExport[] = [];
   const performance: PerformanceExport[] = [];
+  const collectors: CollectorExport[] = [];
   for (const f of fits) {
+    if (f.kind === 'collector') {
+      // solar collectors: the Collector sheet
+      const c = parseStoredCollectorFit(f.result, f.id);
+      collectors.push({ label: `${f.title} v${f.version}`, test: c.test, trialLabels: c.test.points.map((p) => c.trials[p.index]?.label ?? `trial ${p.index + 1}`) });
+      continue;
+    }
     const r = parseStoredFit(f.result, f.id);
     const label = `${f.title} v${f.version} (${modelLabel(f.model)})`;
     r.trials.forEach((t, i) =>
@@ -77,7 +85,7 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
       lab: labName,
       study: study.title,
       rig: rigs.map((r) => r.name).join(', ') || null,
-      model: fits.map((f) => modelLabel(f.model)).join(', ') || null,
+      model: fits.map((f) => (f.kind === 'collector' ? collectorModelLabel(f.model) : modelLabel(f.model))).join(', ') || null,
       fitTime: fits[0]?.createdAt ?? null,
       softwareVersion: SOFTWARE_VERSION,
       dataHash: fits.map((f) => f.trialsHash.slice(0, 16)).join(' ') || null,
@@ -86,6 +94,7 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
     fits: fitExports,
     performance,
     forecasts,
+    ...(collectors.length ? { collectors } : {}),
     ...(running.length ? { costs: { currency: running[0].currency, running } } : {}),
     ...(comparisons.length ? { comparisons } : {}),
     notes,
