@@ -6,7 +6,6 @@
  */
 import { MikroORM } from '@mikro-orm/postgresql';
 import config from '../mikro-orm.config';
-import { seedDemoLab } from './seed';
 
 async function main() {
   const orm = await MikroORM.init(config);
@@ -17,6 +16,8 @@ async function main() {
       console.log('  not in demo mode: no demo lab');
       return;
     }
+    // loaded only in demo mode: the seed uses app/_lib, which needs `--conditions=react-server` (scripts/lib/bootstrap.mjs)
+    const { seedDemoLab } = await import('./seed');
     const seeded = await seedDemoLab(orm.em.fork());
     console.log(seeded ? '  demo lab loaded' : '  demo lab already present');
   } finally {

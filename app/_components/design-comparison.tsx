@@ -56,7 +56,7 @@ export function DesignComparison({ view: v, units, links = true, filename = 'com
           </ul>
         ) : null}
       </section>
-      <div className="grid gap-4 xl:grid-cols-2">
+      <div className="grid gap-4 2xl:grid-cols-2">
         <PlotFigure {...v.plots.outlet} filename={`${filename}-outlet`} />
         <PlotFigure {...v.plots.heat} filename={`${filename}-heat`} />
       </div>

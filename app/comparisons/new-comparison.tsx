@@ -82,7 +82,7 @@ export function NewComparison(props: { labId: string; units: UnitSystem; max: nu
         </fieldset>
       ) : null}
       <p className="text-sm text-ink-soft">
-        Pick two to {props.max}; the first you pick is the reference (A). {picked.length} picked.
+        Pick 2 to {props.max}; the first you pick is the reference (A). {picked.length} picked.
       </p>
       {fields.subjects ? <p className="text-sm text-danger-text">{fields.subjects}</p> : null}
       <div className="grid gap-3 sm:grid-cols-2">

@@ -3,6 +3,7 @@ import { AppPage } from '../_components/app-page';
 import { requireLabAction } from '../_lib/accounts/viewer';
 import { comparisonsOfLab, MAX_COMPARED } from '../_lib/comparisons/comparisons';
 import { fitsOfLab } from '../_lib/fits/fits';
+import { modelLabel } from '../_lib/fits/fit-analysis';
 import { rigsOfLab } from '../_lib/rigs/rigs';
 import { NewComparison } from './new-comparison';
 
@@ -18,7 +19,7 @@ export default async function ComparisonsPage() {
   return (
     <AppPage viewer={v} title="Compare designs" lead="Did the longer coil, the wider tube or the new burner make a difference the data can show? Put two or more rigs or saved fits side by side.">
       <div className="grid gap-6 lg:grid-cols-[1fr_24rem]">
-        <div className="card overflow-x-auto">
+        <div className="card h-fit overflow-x-auto">
           <table className="data-table">
             <thead>
               <tr>
@@ -55,7 +56,7 @@ export default async function ComparisonsPage() {
               units={v.user.unitSystem}
               max={MAX_COMPARED}
               rigs={rigs.map((r) => ({ id: r.id, name: r.name, trials: counts.get(r.id) ?? 0 }))}
-              fits={fits.map((f) => ({ id: f.id, title: `${f.title} v${f.version}`, rig: f.rig.name, model: f.model }))}
+              fits={fits.map((f) => ({ id: f.id, title: `${f.title} v${f.version}`, rig: f.rig.name, model: modelLabel(f.model) }))}
             />
           </section>
         ) : null}

@@ -10,13 +10,13 @@ export const metadata = { title: 'Sign in' };
 export const dynamic = 'force-dynamic';
 
 export default async function SignInPage() {
-  if (await getViewer()) redirect('/rigs');
+  if (await getViewer()) redirect('/start');
   return (
     <AuthCard title="Sign in" lead="Welcome back to the workbench.">
       <JsonForm
         action="/api/auth/sign-in"
         submitLabel="Sign in"
-        onSuccess={{ redirect: '/rigs', refresh: true }}
+        onSuccess={{ redirect: '/start', refresh: true }}
         fields={[
           { name: 'email', label: 'E-mail', type: 'email', autoComplete: 'email' },
           { name: 'password', label: 'Password', type: 'password', autoComplete: 'current-password' },

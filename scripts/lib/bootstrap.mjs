@@ -40,7 +40,8 @@ export async function bootstrap({ database, fresh = false, demo }) {
   try {
     step(`${fresh ? `fresh database "${database}": ` : ''}migrations${demo ? ' and demo lab' : ''}`);
     runVisible(process.execPath, [path.join(root, 'node_modules/tsx/dist/cli.mjs'), path.join(root, 'scripts/setup-db.ts')], 'migrations or demo data failed (see above); the database was left as the last complete migration', {
-      env: { ...process.env, DATABASE_URL: databaseUrl, EMBERLINE_DEMO: demo ? 'true' : 'false' },
+      // react-server: the demo seed saves its fits and imports its log with app/_lib, whose modules start with `import 'server-only'`
+      env: { ...process.env, DATABASE_URL: databaseUrl, EMBERLINE_DEMO: demo ? 'true' : 'false', NODE_OPTIONS: `${process.env.NODE_OPTIONS ?? ''} --conditions=react-server`.trim() },
     });
   } catch (e) {
     stop();

@@ -8,7 +8,7 @@
 import { beforeAll, describe, expect, test } from 'vitest';
 import { coilOutletC } from '@/fixtures/demo-lab';
 import { waterCpJPerKgK, waterDensityKgPerM3 } from '@/analysis/water/water-properties';
-import { signedIn, type Client } from './support/client';
+import { Client, signedIn } from './support/client';
 
 const LPM = 1 / 60000;
 const TIN = 18;
@@ -104,6 +104,30 @@ describe('a comparison of two coil rigs', () => {
     expect(csv.text).toMatch(/Heat per length of tube/);
     expect(csv.text).toMatch(/Heat per unit of build cost/);
     expect(csv.text).toMatch(/delivers .* % more heat/);
+  });
+
+  test('a study shows it as a block, and its share link carries no ids into the lab', async () => {
+    const created = (await eng.post(`/api/labs/${labId}/studies`, { title: `Comparison study ${run}` })).body.study;
+    const loaded = (await eng.get(`/api/studies/${created.id}`)).body.study;
+    const blocks = [...loaded.blocks, { id: 'cmp1', kind: 'design-comparison', data: { comparisonId } }];
+    const saved = await eng.request('PUT', `/api/studies/${created.id}`, { title: created.title, baseRevision: loaded.revision, blocks });
+    expect(saved.status, saved.text).toBe(200);
+    const member = (await viewer.get(`/api/studies/${created.id}/blocks/cmp1`)).body.block.body;
+    expect(member.type).toBe('design-comparison');
+    expect(member.comparisonId).toBe(comparisonId);
+    expect(member.view.designs[0].rigId).toBe(rigs.a);
+    const share = await eng.post(`/api/studies/${created.id}/shares`, { days: 1 });
+    const token = String(share.body.url).split('/share/')[1];
+    const shared = (await new Client().get(`/api/share/${token}/blocks/cmp1?units=us`)).body.block.body;
+    expect(shared.type).toBe('design-comparison');
+    expect(shared.comparisonId).toBeNull();
+    expect(shared.view.designs.map((d: { id: string | null; rigId: string | null }) => [d.id, d.rigId])).toEqual([[null, null], [null, null]]);
+    expect(JSON.stringify(shared)).not.toContain(rigs.a);
+    expect(shared.view.plots.outlet.svg).toMatch(/gpm/);
+    // a comparison id that is no UUID is refused on save, naming the field
+    const bad = await eng.request('PUT', `/api/studies/${created.id}`, { title: created.title, baseRevision: saved.body.study.revision, blocks: [{ id: 'cmp1', kind: 'design-comparison', data: { comparisonId: 'nope' } }] });
+    expect(bad.status).toBe(422);
+    expect(JSON.stringify(bad.body.fields)).toMatch(/comparisonId/);
   });
 
   test('it is listed for every member', async () => {

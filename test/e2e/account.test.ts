@@ -44,7 +44,7 @@ describe('sign-up and password reset in Chromium', () => {
     await p.getByLabel('E-mail').fill(email);
     await p.getByLabel('Password').fill(STRONG_PASSWORD);
     await p.getByRole('button', { name: 'Sign in' }).click();
-    await p.waitForURL('**/rigs');
+    await p.waitForURL('**/start');
     expect(new URL(p.url()).origin).toBe(new URL(baseUrl).origin);
   });
 

@@ -27,9 +27,9 @@ describe('invitation walk-through in Chromium', () => {
     await p.getByLabel('E-mail').fill('owner@cinder-hollow.test');
     await p.getByLabel('Password').fill('ember-demo-lab-2026');
     await p.getByRole('button', { name: 'Sign in' }).click();
-    await p.waitForURL('**/rigs');
-    await expect(p.getByRole('heading', { level: 1 }).innerText()).resolves.toBe('Rigs');
-    await screenshot(p, 'owner-rigs');
+    await p.waitForURL('**/start');
+    await p.getByRole('region', { name: 'Your team' }).waitFor();
+    await screenshot(p, 'owner-start');
     await visit(p, '/lab/members');
     await p.getByLabel('E-mail').fill(invitee);
     await p.getByLabel('Role', { exact: true }).selectOption('reviewer');
@@ -69,7 +69,7 @@ describe('invitation walk-through in Chromium', () => {
     await p.getByLabel('E-mail').fill(invitee);
     await p.getByLabel('Password').fill(STRONG_PASSWORD);
     await p.getByRole('button', { name: 'Sign in' }).click();
-    await p.waitForURL('**/rigs');
+    await p.waitForURL('**/start');
     await screenshot(p, 'reviewer-signed-in-again');
 
     // a reviewer reads members but cannot invite; the audit log does not exist for them; no API tokens

@@ -6,7 +6,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { Readable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
-import { GetObjectCommand, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
+import { GetObjectCommand, NoSuchKey, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
 import { DomainError } from './errors';
 
 let client: S3Client | undefined;
@@ -88,6 +88,12 @@ export async function getObjectBuffer(key: string, maxBytes?: number): Promise<B
 }
 
 export async function getObjectStream(key: string): Promise<Readable> {
-  const r = await s3().send(new GetObjectCommand({ Bucket: bucket(), Key: key }));
-  return r.Body as Readable;
+  try {
+    const r = await s3().send(new GetObjectCommand({ Bucket: bucket(), Key: key }));
+    return r.Body as Readable;
+  } catch (e) {
+    // a record whose bytes were never stored (the demo lab's generated log): say so, not a 500
+    if (e instanceof NoSuchKey) throw new DomainError('not_found', 'not_stored', 'The raw bytes of this file are not kept in storage.');
+    throw e;
+  }
 }

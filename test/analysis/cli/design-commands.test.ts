@@ -29,4 +29,10 @@ describe('the new commands on the command line', { timeout: 90_000 }, () => {
     expect(r.status).toBe(0);
     expect(JSON.parse(r.stdout)).toMatchObject({ ok: false, reason: expect.stringMatching(/^B: /) });
   });
+  test('compare exits 2 for malformed input, naming the field (the issue\'s contract)', () => {
+    const a = { x: [5e-5, 1e-4, 2e-4, 3e-4], y: [70, 55, 42, 35], covariates: { Tin: [15, 15, 15, 15] } };
+    const r = cli('compare', { model: 'coil', a, b: { ...a, y: [70, 55] } });
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/b\.y has 2 values/);
+  }, 60_000); // one tsx start: slow on a busy machine
 });

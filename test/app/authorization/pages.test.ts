@@ -44,7 +44,7 @@ const WRITERS: readonly Role[] = ['owner', 'engineer'];
 
 const PAGES: Record<string, PageCase> = {
   'app/page.tsx': { path: () => '/', expect: publicPage() },
-  'app/sign-in/page.tsx': { path: () => '/sign-in', expect: each((c) => (NOT_SIGNED_IN.includes(c) ? 200 : { to: '/rigs' })) },
+  'app/sign-in/page.tsx': { path: () => '/sign-in', expect: each((c) => (NOT_SIGNED_IN.includes(c) ? 200 : { to: '/start' })) },
   'app/sign-up/page.tsx': { path: () => '/sign-up', expect: publicPage() },
   // opening a sign-up link changes nothing (mail scanners open links): the page only offers the button
   'app/sign-up/confirm/page.tsx': { path: () => '/sign-up/confirm?token=sgn_not-a-real-token', expect: publicPage() },
@@ -70,6 +70,9 @@ const PAGES: Record<string, PageCase> = {
   'app/fits/[fitId]/page.tsx': { path: (f) => `/fits/${f.fit.id}`, expect: labPage(ROLES, 404), marker: (f) => f.fit.title },
   'app/forecasts/page.tsx': { path: () => '/forecasts', expect: labPage(ROLES, 200), marker: (f) => f.fit.title, listsLab: true },
   'app/studies/page.tsx': { path: () => '/studies', expect: labPage(ROLES, 200), marker: (f) => f.study.title, listsLab: true },
+  'app/start/page.tsx': { path: () => '/start', expect: labPage(ROLES, 200), listsLab: true },
+  'app/comparisons/page.tsx': { path: () => '/comparisons', expect: labPage(ROLES, 200), marker: (f) => f.comparison.title, listsLab: true },
+  'app/comparisons/[comparisonId]/page.tsx': { path: (f) => `/comparisons/${f.comparison.id}`, expect: labPage(ROLES, 404), marker: (f) => f.comparison.title },
   'app/studies/[studyId]/page.tsx': { path: (f) => `/studies/${f.study.id}`, expect: labPage(ROLES, 404), marker: (f) => f.study.title },
   'app/lab/members/page.tsx': { path: () => '/lab/members', expect: labPage(ROLES, 200), marker: (f) => f.labName, listsLab: true },
   'app/lab/audit/page.tsx': { path: () => '/lab/audit', expect: labPage(['owner'], 200), listsLab: true },
@@ -88,7 +91,7 @@ describe('every page has an entry in the matrix', () => {
   test('a page path is its file path with the segments filled in', () => {
     for (const [file, c] of Object.entries(PAGES)) {
       const pattern = file.replace(/^app/, '').replace(/\/page\.tsx$/, '').replace(/\[\w+\]/g, '[^/]+') || '/';
-      const fake = { share: { token: 't' }, invitation: { token: 't' }, rig: { id: 'r' }, fit: { id: 'f' }, study: { id: 's' }, sessions: { open: 'o', closed: 'c' } } as unknown as LabFixture;
+      const fake = { share: { token: 't' }, invitation: { token: 't' }, rig: { id: 'r' }, fit: { id: 'f' }, study: { id: 's' }, sessions: { open: 'o', closed: 'c' }, comparison: { id: 'c' } } as unknown as LabFixture;
       expect(c.path(fake).split('?')[0], file).toMatch(new RegExp(`^${pattern}$`));
     }
   });

@@ -112,11 +112,16 @@ export async function visit(page: Page, url: string) {
   return res;
 }
 
-/** Signs in through the sign-in form, as a person does. */
-export async function signInAs(page: Page, email: string, password = 'ember-demo-lab-2026') {
+/**
+ * Signs in through the sign-in form, as a person does, and lands on the page of what the role does
+ * next (/start); then opens `then` (default the rigs page, where most walk-throughs begin; null to stay).
+ */
+export async function signInAs(page: Page, email: string, password = 'ember-demo-lab-2026', then: string | null = '/rigs') {
   await visit(page, '/sign-in');
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password').fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL('**/rigs');
+  await page.waitForURL('**/start');
+  await page.locator('main#main').first().waitFor();
+  if (then) await visit(page, then);
 }
