@@ -13,6 +13,7 @@ import { sensorLogFigures } from '../studies/block-figures';
 import { previewSegments, previewSeries } from '../imports/preview-segments';
 import type { SensorLog } from '../imports/sensor-log';
 import type { SegmentPreviewInput } from '../imports/sensor-preview';
+import { computeSessionFit, computeSessionPlan } from '../sessions/session-compute';
 
 /** A read sensor log and the engineer's input (the segmentation preview). */
 interface PreviewTask {
@@ -31,6 +32,8 @@ export const TASKS = {
   sensorLogFigures,
   previewSegments: (t: PreviewTask) => previewSegments(t.log, t.input),
   previewSeries: (t: PreviewTask) => previewSeries(t.log, t.input),
+  sessionPlan: computeSessionPlan,
+  sessionFit: computeSessionFit,
 };
 export type TaskName = keyof typeof TASKS;
 export type TaskInput<N extends TaskName> = Parameters<(typeof TASKS)[N]>[0];

@@ -2,19 +2,16 @@ import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { LockMode } from '@mikro-orm/core';
 import { randomUUID } from 'node:crypto';
-import { compareModels, type FitSuccess } from '@/analysis/fit';
-import { nextRun } from '@/analysis/plan/next-run';
 import { TestSession, Trial, type TestSessionRow, type UserRow } from '@/entities';
 import type { StudyBlock } from '@/entities/study';
 import { fitData, modelLabel } from '../fits/fit-analysis';
 import { saveFit } from '../fits/fits';
 import { newStudy } from '../studies/studies';
 import { conflict, notFound } from '../server/errors';
+import { runAnalysis } from '../server/analysis-pool';
 import { sessionDrift } from './readings';
 import { liveAndRecord } from './samples';
 
-/** Replicates of a session are runs at one flow set again: flows within 5 % (a bucket-timed flow is never set exactly; common practice). */
-export const SESSION_REPLICATE_TOLERANCE = 0.05;
 
 const f2 = (x: number) => (Math.abs(x) >= 100 ? x.toFixed(0) : x.toPrecision(3));
 
@@ -35,7 +32,7 @@ export interface SessionClosing {
 
 /**
  * Closes a session: the logger's last steady period (if any) becomes a trial, then the fit of the
- * plan's model on the session's included trials (replicates within SESSION_REPLICATE_TOLERANCE, so
+ * plan's model on the session's included trials, in the analysis worker pool (session-compute.ts; replicates within 5 %, so
  * the pure-error lack-of-fit test has its groups), the drift verdict over the reference runs, the
  * standard errors against the plan's expectation, and the single next run that cuts the largest
  * relative standard error most (analysis/plan nextRun). Closing again returns the stored verdict.
@@ -51,13 +48,12 @@ export async function closeSession(em: EntityManager, sessionId: string): Promis
     const trials = all.filter((t) => !t.excluded);
     const st = s.settings;
     const expected = (s.plan.expectedStdErr ?? {}) as Record<string, number>;
-    let fit: FitSuccess | null = null;
+    let fit: Extract<Awaited<ReturnType<typeof runAnalysis<'sessionFit'>>>, { ok: true }> | null = null;
     let reason = 'fewer than three included trials';
     if (trials.length >= 3) {
-      const cmp = compareModels({ ...fitData(trials), measurementSD: st.measurementUK, replicateTolerance: { relative: SESSION_REPLICATE_TOLERANCE } }, [{ label: modelLabel(st.model), model: st.model }]);
-      const r = cmp.ranking[0];
-      if (r?.ok && r.fit) fit = r.fit;
-      else reason = r?.reason ?? 'the fit failed';
+      const r = await runAnalysis('sessionFit', { data: fitData(trials), model: st.model, measurementUK: st.measurementUK, inletTempC: st.inletTempC, flowRangeM3PerS: st.flowRangeM3PerS, maxOutletTempC: st.maxOutletTempC });
+      if (r.ok) fit = r;
+      else reason = r.reason;
     }
     const drift = sessionDrift(s, all);
     const lof = fit?.lackOfFit;
@@ -70,13 +66,7 @@ export async function closeSession(em: EntityManager, sessionId: string): Promis
       const planned = typeof expected[k] === 'number' ? expected[k] : null;
       return { name: k, fitted, planned, ratio: fitted !== null && planned ? fitted / planned : null };
     });
-    let next: SessionClosing['nextRun'] = { ok: false, reason: fit ? 'no fit' : `no fit: ${reason}` };
-    if (fit) {
-      const n = nextRun(fit, { inletTempC: st.inletTempC, flowRangeM3PerS: st.flowRangeM3PerS, maxOutletTempC: st.maxOutletTempC, measurementUK: st.measurementUK });
-      next = n.ok
-        ? { ok: true, flowM3PerS: n.flowM3PerS, predictedOutletTempC: n.predictedOutletTempC, piLowC: n.piLowC, piHighC: n.piHighC, targetParameter: n.targetParameter, relativeStdErrNow: n.relativeStdErrNow, relativeStdErrAfter: n.relativeStdErrAfter }
-        : { ok: false, reason: n.reason };
-    }
+    const next: SessionClosing['nextRun'] = fit ? fit.nextRun : { ok: false, reason: `no fit: ${reason}` };
     const summary: string[] = [];
     if (fit) {
       summary.push(`${modelLabel(st.model)} fitted to ${trials.length} trials: ${fit.parameterNames.map((k) => `${k} = ${f2(fit!.params[k].value)} ± ${f2(fit!.params[k].stdErr)}`).join(', ')} (residual SD ${fit.residualSD.toFixed(2)} K).`);
@@ -88,7 +78,7 @@ export async function closeSession(em: EntityManager, sessionId: string): Promis
       closedAt: new Date().toISOString(), trials: trials.length,
       runsDone: s.runs.filter((r) => r.state === 'done').length, runsSkipped: s.runs.filter((r) => r.state === 'skipped').length,
       fit: fit
-        ? { ok: true, model: st.model, label: modelLabel(st.model), params: Object.fromEntries(fit.parameterNames.map((k) => [k, { value: fit!.params[k].value, stdErr: fit!.params[k].stdErr, ciLow: fit!.params[k].ciLow ?? null, ciHigh: fit!.params[k].ciHigh ?? null }])), residualSD: fit.residualSD, r2: fit.r2, df: fit.df }
+        ? { ok: true, model: st.model, label: modelLabel(st.model), params: fit.params, residualSD: fit.residualSD, r2: fit.r2, df: fit.df }
         : { ok: false, reason },
       lackOfFit, drift, stdErr, nextRun: next, summary,
     };

@@ -3,7 +3,8 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
 import { TestSession, Trial, type FitRow, type RigRow, type TestSessionRow, type TrialRow, type UserRow } from '@/entities';
 import type { TestSessionRun, TestSessionSettings } from '@/entities/test-session';
-import { MAX_PLAN_TRIALS, MIN_PLAN_TRIALS, DEFAULT_OUTLET_U_K, planSession, predictRuns, priorFromFit, type PlanPrior } from '@/analysis/plan/plan-session';
+import { MAX_PLAN_TRIALS, MIN_PLAN_TRIALS, DEFAULT_OUTLET_U_K, predictRuns, priorFromFit, type PlanPrior } from '@/analysis/plan/plan-session';
+import { runAnalysis } from '../server/analysis-pool';
 import { PLANNABLE_MODELS } from '@/analysis/plan/model-response';
 import { parseStoredFit } from '../fits/stored-fit';
 import { fitsOfLab } from '../fits/fits';
@@ -67,18 +68,16 @@ export async function planForRig(em: EntityManager, rig: RigRow, user: UserRow, 
     model, prior: priorSource, inletTempC: body.inletTemp, flowRangeM3PerS: body.flowRange, maxOutletTempC: body.maxOutletTemp,
     trials: body.trials, seed: body.seed ?? Math.floor(Math.random() * 1e6), measurementUK: body.measurementUK ?? DEFAULT_OUTLET_U_K, preset: body.preset,
   };
-  let plan;
-  try {
-    plan = planSession({ model, prior, inletTempC: settings.inletTempC, flowRangeM3PerS: settings.flowRangeM3PerS, maxOutletTempC: settings.maxOutletTempC, trials: settings.trials, seed: settings.seed, measurementUK: settings.measurementUK });
-  } catch (e) {
-    if (e instanceof RangeError || e instanceof TypeError) throw invalid(`The plan cannot be made: ${e.message}.`, { [fieldOf(e.message)]: e.message });
-    throw e;
+  const computed = await runAnalysis('sessionPlan', { model, prior, inletTempC: settings.inletTempC, flowRangeM3PerS: settings.flowRangeM3PerS, maxOutletTempC: settings.maxOutletTempC, trials: settings.trials, seed: settings.seed, measurementUK: settings.measurementUK });
+  if (!computed.ok) {
+    const { error, reason } = computed as { error?: string; reason?: string };
+    if (error) throw invalid(`The plan cannot be made: ${error}.`, { [fieldOf(error)]: error });
+    throw invalid(`No safe plan: ${reason}.`, { flowRange: reason ?? 'no safe flow' }, 'no_safe_flow');
   }
-  if (!plan.ok) throw invalid(`No safe plan: ${plan.reason}.`, { flowRange: plan.reason }, 'no_safe_flow');
-  const slopes = predictRuns({ model, prior, inletTempC: settings.inletTempC, measurementUK: settings.measurementUK }, plan.runs.map((r) => r.flowM3PerS));
+  const plan = computed.plan;
   const runs: TestSessionRun[] = plan.runs.map((r, i) => ({
     key: `r${i + 1}`, order: r.order, flowM3PerS: r.flowM3PerS, predictedOutletTempC: r.predictedOutletTempC, piLowC: r.piLowC, piHighC: r.piHighC,
-    inletSlope: slopes[i].inletSlope, purpose: r.purpose, state: 'pending', trialIds: [],
+    inletSlope: computed.slopes[i], purpose: r.purpose, state: 'pending', trialIds: [],
   }));
   const { runs: _runs, ...rest } = plan;
   const planJson = JSON.parse(JSON.stringify(rest)) as Record<string, unknown>;
