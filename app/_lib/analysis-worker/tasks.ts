@@ -1,6 +1,6 @@
 /**
  * The tasks of the analysis worker pool: every CPU-heavy computation the request paths ask for
- * (fits and model comparisons, saved-fit results, forecasts, server-side plot rendering), each a pure function of structured-cloneable data. Loaded in the worker
+ * (fits and model comparisons, saved-fit results, design comparisons, forecasts, server-side plot rendering), each a pure function of structured-cloneable data. Loaded in the worker
  * threads only (entry.cjs), so nothing here may import `server-only`, entities or the ORM.
  * app/_lib/server/analysis-pool.ts is the one caller (`runAnalysis(name, input)`).
  */
@@ -9,6 +9,7 @@ import { InputError } from '@/analysis/units/reading-input';
 import { computeAnalysis, computeSavedFit, fitBlockFigure, savedFitFigures } from '../fits/fit-compute';
 import { computeForecast, computeForecastResult } from '../forecasts/forecast-compute';
 import { sensorLogFigures } from '../studies/block-figures';
+import { computeComparison } from '../comparisons/comparison-compute';
 
 /** Every task by name. */
 export const TASKS = {
@@ -19,6 +20,7 @@ export const TASKS = {
   forecast: computeForecast,
   forecastResult: computeForecastResult,
   sensorLogFigures,
+  designComparison: computeComparison,
 };
 export type TaskName = keyof typeof TASKS;
 export type TaskInput<N extends TaskName> = Parameters<(typeof TASKS)[N]>[0];
