@@ -9,6 +9,8 @@ const nextConfig = {
   serverExternalPackages: [
     '@mikro-orm/core', '@mikro-orm/knex', '@mikro-orm/postgresql', '@mikro-orm/migrations', 'knex', 'pg',
     'pg-boss', 'pg-copy-streams', '@node-rs/argon2', 'nodemailer', 'exceljs', 'linkedom',
+    // the analysis pool starts its workers from piscina's own files (app/_lib/server/analysis-pool.ts)
+    'piscina',
   ],
   experimental: { serverActions: { bodySizeLimit: '1mb' } },
 };

@@ -10,7 +10,11 @@ const SAMPLE_LABEL = 'Sample plot: outlet temperature against flow for an invent
 const SAMPLE_DESCRIPTION =
   'Eleven invented trials from 2 to 21 L/min lie along the fitted curve, inside its narrow prediction band: the outlet falls from about 82 °C at 2 L/min to about 36 °C at 21 L/min, toward the 18 °C inlet.';
 
-function SamplePlot() {
+/** The sample's SVG: the same for every visitor, so drawn once per process (not on every request). */
+let sampleSvg: { svg: string; lines: { y: number; text: string; stroke: string }[]; points: { q: number; t: number }[] } | null = null;
+
+function samplePlotSvg() {
+  if (sampleSvg) return sampleSvg;
   const { curve, points, tin } = sampleCoilData();
   // the caution thresholds inside the plotted range, with their words (analysis/safety)
   const lines = HAZARD_BANDS.filter((b) => b.thresholdC >= 10 && b.thresholdC <= 90)
@@ -37,6 +41,12 @@ function SamplePlot() {
       Plot.dot(points, { x: 'q', y: 't', r: 4.5, fill: '#241E1B', stroke: 'white', strokeWidth: 1.5 }),
     ],
   });
+  sampleSvg = { svg, lines, points };
+  return sampleSvg;
+}
+
+function SamplePlot() {
+  const { svg, lines, points } = samplePlotSvg();
   return (
     <figure className="card p-4">
       <div className="overflow-x-auto [&_svg]:h-auto [&_svg]:max-w-full" dangerouslySetInnerHTML={{ __html: svg }} />

@@ -41,6 +41,7 @@ const FIT_CLIENTS = 4;
 const FIT_SECONDS = 10;
 const ALONE_CLIENTS = 16;
 const ALONE_SECONDS = 3;
+const REQUEST_TIMEOUT_MS = 60_000;
 
 /** The mixed load: what a team does at once (weights out of 100). */
 const MIX = [
@@ -72,6 +73,8 @@ function request(base: string, method: string, url: string, headers: Record<stri
       res.on('error', (e) => resolve({ status: 0, ms: performance.now() - t0, body: e.message }));
     });
     req.on('error', (e) => resolve({ status: 0, ms: performance.now() - t0, body: e.message }));
+    // an answer that never comes is an error, not a hung benchmark
+    req.setTimeout(REQUEST_TIMEOUT_MS, () => req.destroy(new Error(`no answer within ${REQUEST_TIMEOUT_MS / 1000} s`)));
     req.end(payload);
   });
 }

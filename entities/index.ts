@@ -25,12 +25,13 @@ import { ShareLink } from './share-link';
 import { User } from './user';
 import { ImportJob } from './import-job';
 import { SensorOverview } from './sensor-overview';
+import { BlockCache } from './block-cache';
 import { PendingSignUp } from './pending-sign-up';
 import { TestSession } from './test-session';
 import { Comparison } from './comparison';
 
-export { Comment, Fit, Notice, ReviewEvent, ShareLink, Study, ColumnMapping, SourceFile, TrialChange, ApiToken, AuditEvent, Invitation, Lab, Membership, PasswordReset, RateLimit, Rig, Session, Trial, User, ImportJob, SensorOverview, PendingSignUp, TestSession, Comparison };
-export const entities = [Lab, User, Membership, Rig, Trial, Session, Invitation, PasswordReset, ApiToken, AuditEvent, RateLimit, SourceFile, ColumnMapping, TrialChange, Fit, Study, Comment, ReviewEvent, Notice, ShareLink, ImportJob, SensorOverview, PendingSignUp, TestSession, Comparison];
+export { Comment, Fit, Notice, ReviewEvent, ShareLink, Study, ColumnMapping, SourceFile, TrialChange, ApiToken, AuditEvent, Invitation, Lab, Membership, PasswordReset, RateLimit, Rig, Session, Trial, User, ImportJob, SensorOverview, PendingSignUp, TestSession, Comparison, BlockCache };
+export const entities = [Lab, User, Membership, Rig, Trial, Session, Invitation, PasswordReset, ApiToken, AuditEvent, RateLimit, SourceFile, ColumnMapping, TrialChange, Fit, Study, Comment, ReviewEvent, Notice, ShareLink, ImportJob, SensorOverview, PendingSignUp, TestSession, Comparison, BlockCache];
 
 import type { InferEntity } from '@mikro-orm/core';
 /** Row types of the entities, for code that handles loaded records. */
@@ -55,6 +56,7 @@ export type NoticeRow = InferEntity<typeof Notice>;
 export type ShareLinkRow = InferEntity<typeof ShareLink>;
 export type ImportJobRow = InferEntity<typeof ImportJob>;
 export type SensorOverviewRow = InferEntity<typeof SensorOverview>;
+export type BlockCacheRow = InferEntity<typeof BlockCache>;
 export type PendingSignUpRow = InferEntity<typeof PendingSignUp>;
 export type TestSessionRow = InferEntity<typeof TestSession>;
 export type ComparisonRow = InferEntity<typeof Comparison>;

@@ -4,7 +4,11 @@ import { Lab } from './lab';
 import { REVIEW_STATES, type ReviewState } from './review';
 import { User } from './user';
 
-export const BLOCK_KINDS = ['text', 'trials', 'fit', 'comparison', 'performance', 'forecast', 'costs', 'sensor-log', 'caution', 'design-comparison'] as const;
+export const BLOCK_KINDS = [
+  'text', 'trials', 'fit', 'comparison', 'performance', 'forecast', 'costs', 'sensor-log', 'caution', 'design-comparison',
+  // solar collectors
+  'collector',
+] as const;
 export type BlockKind = (typeof BLOCK_KINDS)[number];
 
 /** One block of a study; `id` is stable across edits so comments can point at it. */

@@ -22,6 +22,7 @@ import { createShare, studySave } from '../app/_lib/studies/studies';
 import { importSensorLog, logImportInput } from '../app/_lib/imports/sensor-import';
 import { claimImportJob, completeImportJob, createImportJob } from '../app/_lib/jobs/job-store';
 import { pgPool } from '../app/_lib/server/pg-pool';
+import { seedSolarDemo } from './seed-solar';
 
 /** The people of the demo lab by role. */
 export type DemoPeople = Record<(typeof demoUsers)[number]['role'], UserRow>;
@@ -30,7 +31,9 @@ export type DemoPeople = Record<(typeof demoUsers)[number]['role'], UserRow>;
  * Seeds that other parts of the demo add to the lab inside the same transaction (the solar
  * collector rig adds its own here), each given the lab and its people.
  */
-export const DEMO_EXTRA_SEEDS: ((tx: EntityManager, lab: LabRow, people: DemoPeople) => Promise<void>)[] = [];
+export const DEMO_EXTRA_SEEDS: ((tx: EntityManager, lab: LabRow, people: DemoPeople) => Promise<void>)[] = [
+  async (tx, lab) => seedSolarDemo(tx, lab),
+];
 
 export async function seedDemoLab(em: EntityManager): Promise<boolean> {
   let seeded = false;

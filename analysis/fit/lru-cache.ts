@@ -48,6 +48,12 @@ export class LruCache<V> {
     return value;
   }
 
+  /** Drops the entry under `key`, if any. */
+  delete(key: string): void {
+    this.entries.delete(key);
+    if (this.newest === key) this.newest = null;
+  }
+
   /** Whether `key` is held (does not count as a use). */
   has(key: string): boolean {
     return this.entries.has(key);

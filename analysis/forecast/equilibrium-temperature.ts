@@ -9,14 +9,18 @@ import { saturationPressureUncheckedPa } from '../water/saturation-pressure';
 import { convectionCoefficient, evaporationWPerM2, STEFAN_BOLTZMANN } from './surface-losses';
 import type { Terms } from './loss-terms';
 
-/**
- * @returns the temperature, °C, or null with a note when gains and losses do not balance in 0–100 °C
- * @example equilibriumTempC({ heater, terms: null, flowM3PerS: 2e-4, massFlowKgPerS: 0, heaterOn, startHourOfDay: 0, hours: 24 })
- */
-export function equilibriumTempC(o: {
+/** What the equilibrium and the hours to hold a temperature read of a forecast (its mean period). */
+export interface MeanBalanceInput {
   heater: HeaterModel; terms: Terms | null; flowM3PerS: number; massFlowKgPerS: number; heaterOn: Uint8Array;
   startHourOfDay: number; hours: number;
-}): { tempC: number | null; note: string } {
+}
+
+/**
+ * The mean heat balance of a forecast period: the heater's duty (fraction of hours on), its heat
+ * when on at a pool temperature, and `add(T, q)`: q plus the mean solar gain minus the mean losses
+ * (evaporation, convection, radiation, walls) at T, W.
+ */
+export function meanBalance(o: MeanBalanceInput) {
   const { heater, terms, heaterOn } = o;
   const flow = o.flowM3PerS, massFlow = o.massFlowKgPerS, startHour = o.startHourOfDay;
   const nH = Math.max(1, Math.ceil(o.hours));
@@ -32,10 +36,12 @@ export function equilibriumTempC(o: {
     }
     ta /= nH; pa /= nH; wind /= nH; solar /= nH; sky4 /= nH; cov /= nH;
   }
-  const net = (T: number): number => {
+  const heaterW = (T: number): number => {
     const rho = fastDensityKgPerM3(T);
     const vdot = massFlow > 0 ? massFlow / rho : flow;
-    let q = vdot > 0 ? duty * heater.heatW(vdot, T) : 0;
+    return vdot > 0 ? heater.heatW(vdot, T) : 0;
+  };
+  const add = (T: number, q: number): number => {
     if (terms) {
       const a = terms.area;
       const f = (c: number) => 1 - cov + cov * c;
@@ -47,6 +53,18 @@ export function equilibriumTempC(o: {
     }
     return q;
   };
+  return { duty, heaterW, add };
+}
+
+/**
+ * @returns the temperature, °C, or null with a note when gains and losses do not balance in 0–100 °C
+ * @example equilibriumTempC({ heater, terms: null, flowM3PerS: 2e-4, massFlowKgPerS: 0, heaterOn, startHourOfDay: 0, hours: 24 })
+ */
+export function equilibriumTempC(o: MeanBalanceInput): { tempC: number | null; note: string } {
+  const { terms } = o;
+  // duty · heat is the forecast's heater term (0 without flow), the other terms are added to it
+  const { duty, heaterW, add } = meanBalance(o);
+  const net = (T: number): number => add(T, duty * heaterW(T));
   let lo = 0, hi = 100;
   const nlo = net(lo), nhi = net(hi);
   if (!(nlo > 0)) {
@@ -71,4 +89,26 @@ export function equilibriumTempC(o: {
     if (net(mid) > 0) lo = mid; else hi = mid;
   }
   return { tempC: (lo + hi) / 2, note: 'Equilibrium under the mean weather, heater duty and cover fraction of the forecast period.' };
+}
+
+/**
+ * Heater hours per day that hold the pool at a temperature under the period's mean weather and
+ * cover: where duty · heater heat + solar gain − losses = 0 at that temperature (the mean balance
+ * is linear in the duty), × 24 h.
+ * @param targetC the temperature to hold, °C (0–100)
+ * @returns hours per day (0 when the sun alone holds it), or null with a note when even 24 h a day
+ *   cannot, or the heater gives no heat at that temperature
+ * @throws RangeError for a target outside 0–100 °C
+ * @example holdHoursPerDay({ heater, terms, flowM3PerS: 2e-4, massFlowKgPerS: 0, heaterOn, startHourOfDay: 0, hours: 24 }, 28).hoursPerDay
+ */
+export function holdHoursPerDay(o: MeanBalanceInput, targetC: number): { hoursPerDay: number | null; note: string } {
+  if (!(targetC >= 0 && targetC <= 100)) throw new RangeError(`targetC must be within 0–100 °C, got ${targetC}`);
+  const { heaterW, add } = meanBalance(o);
+  const need = -add(targetC, 0);
+  if (need <= 0) return { hoursPerDay: 0, note: `The sun and the air alone hold ${targetC} °C under the mean weather: no heater hours are needed.` };
+  const hw = heaterW(targetC);
+  if (!(hw > 0)) return { hoursPerDay: null, note: `The heater gives no heat to water at ${targetC} °C (no flow, or its source is not hotter): it cannot hold that temperature.` };
+  const h = (24 * need) / hw;
+  if (h > 24) return { hoursPerDay: null, note: `Even 24 h a day cannot hold ${targetC} °C: the mean losses (${need.toFixed(0)} W) exceed the heater's ${hw.toFixed(0)} W at that temperature.` };
+  return { hoursPerDay: h, note: `Heater hours per day that hold ${targetC} °C under the mean weather and cover of the forecast period (mean losses ${need.toFixed(0)} W, heater ${hw.toFixed(0)} W when on).` };
 }

@@ -10,6 +10,7 @@ export function forecastJson(r: ForecastResult) {
   return {
     finalTemp_degC: r.finalTempC, maxTemp_degC: r.maxTempC, maxOutletTemp_degC: r.maxOutletTempC, poolMass_kg: r.poolMassKg,
     hoursToTarget_h: r.hoursToTarget, equilibriumTemp_degC: r.equilibriumTempC, equilibriumNote: r.equilibriumNote,
+    holdHoursPerDay_h: r.holdHoursPerDay, holdNote: r.holdNote,
     energy_J: { heater_J: e.heaterJ, solar_J: e.solarJ, evaporation_J: e.evaporationJ, convection_J: e.convectionJ, radiation_J: e.radiationJ, walls_J: e.wallsJ, net_J: e.netJ },
     evaporated_kg: e.evaporatedKg, steps: r.steps, cautions: r.cautions,
   };

@@ -33,7 +33,7 @@ import {
 import { convectionCoefficient, STEFAN_BOLTZMANN } from './surface-losses';
 import { phi1, phi2 } from './exponential-step';
 import { hourMask, resolveTerms, type LossOptions } from './loss-terms';
-import { equilibriumTempC } from './equilibrium-temperature';
+import { equilibriumTempC, holdHoursPerDay } from './equilibrium-temperature';
 import { checkForecastWork, FORECAST_LIMITS } from './forecast-limits';
 
 export type { CoverOptions, LossOptions } from './loss-terms';
@@ -113,6 +113,9 @@ export interface ForecastResult {
   /** where gains balance losses under the period-mean weather, heater duty and cover fraction, °C */
   equilibriumTempC: number | null;
   equilibriumNote: string;
+  /** heater hours per day that hold `targetTempC` under the mean weather and cover (null: cannot, or no target) */
+  holdHoursPerDay: number | null;
+  holdNote: string | null;
   cautions: Caution[];
 }
 
@@ -296,7 +299,9 @@ export function recirculatingForecast(input: ForecastInput): ForecastResult {
   }
   record(steps, T, lastOut);
 
-  const eq = equilibriumTempC({ heater, terms, flowM3PerS: flow, massFlowKgPerS: massFlow, heaterOn, startHourOfDay: startHour, hours });
+  const balance = { heater, terms, flowM3PerS: flow, massFlowKgPerS: massFlow, heaterOn, startHourOfDay: startHour, hours };
+  const eq = equilibriumTempC(balance);
+  const hold = target !== null && target >= 0 && target <= 100 ? holdHoursPerDay(balance, target) : null;
   const cautions: Caution[][] = [temperatureCautions(maxT, 'pool')];
   if (maxOut > -Infinity) cautions.push(temperatureCautions(maxOut, 'outlet'));
   if (flow === 0 && heaterOn.some((x) => x === 1)) cautions.push([deadHeadingCaution('the forecast (zero pump flow with the heater on)')]);
@@ -312,6 +317,7 @@ export function recirculatingForecast(input: ForecastInput): ForecastResult {
       netJ: eHeat + eSolar - eEvap - eConv - eRad - eWalls, evaporatedKg: evapKg,
     },
     hoursToTarget: hitH, equilibriumTempC: eq.tempC, equilibriumNote: eq.note,
+    holdHoursPerDay: hold?.hoursPerDay ?? null, holdNote: hold?.note ?? null,
     cautions: mergeCautions(...cautions),
   };
 }

@@ -7,6 +7,8 @@ import { PlotFigure } from './plot-figure';
 import { DesignComparison } from './design-comparison';
 import { CautionList, TempValue, TemperatureCautions } from './safety-notice';
 import { StateBadge } from './review-panel';
+import { CollectorReport } from './collector-report';
+import { MeasuredDay } from './measured-day';
 import type { BlockBody, BlockData, CostView, FitHead } from '../_contracts/study-blocks';
 import { sharedBlockKey, studyBlockKey } from '../_contracts/study-keys';
 import { displayUnits } from '@/app/_contracts/units';
@@ -97,8 +99,22 @@ export function BlockView({ block }: { block: BlockData }) {
             Final <span className="num"><TempValue tempC={b.finalTempC} units={units} withUnit /></span>
             {b.hoursToTarget != null ? <>, target reached after <span className="num">{b.hoursToTarget.toFixed(1)} h</span></> : null}. {b.fitNote}
           </p>
+          {b.equilibriumTempC != null || b.holdNote ? (
+            <p className="text-sm text-ink-soft">
+              {b.equilibriumTempC != null ? <>Settles near <span className="num"><TempValue tempC={b.equilibriumTempC} units={units} withUnit /></span> (heater gains equal losses). </> : null}
+              {b.holdNote ?? ''}
+            </p>
+          ) : null}
           <CautionList cautions={b.cautions} />
+          {b.measuredDay ? <MeasuredDay day={b.measuredDay} units={units} /> : null}
           <PlotFigure {...b.plot} filename="forecast" />
+        </div>
+      );
+    case 'collector':
+      return (
+        <div className="space-y-4">
+          <Head head={b.head} />
+          <CollectorReport view={b.view} filename="collector" />
         </div>
       );
     case 'fit':
@@ -181,7 +197,7 @@ export function BlockView({ block }: { block: BlockData }) {
             <PlotFigure key={p.title} {...p} filename={i === 0 ? 'sensor-log-temperatures' : 'sensor-log-flow'} />
           ))}
           {b.segments.length ? (
-            <div className="overflow-x-auto">
+            <div className="overflow-x-auto" tabIndex={0}>
               <table className="data-table">
                 <caption className="px-3 py-2 text-left text-sm font-semibold text-ink">
                   Steady segments (means){b.segmentCount > b.segments.length ? `: the first ${b.segments.length} of ${b.segmentCount.toLocaleString('en-US')}` : ''}

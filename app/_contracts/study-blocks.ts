@@ -8,6 +8,7 @@ import type { ChoiceView, ComparisonView, FitView, PerformanceView } from './fit
 import type { DesignComparisonView } from './design-comparison';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import type { CautionLike } from '@/analysis/safety/cautions';
+import type { CollectorViewDto } from './collector';
 
 /** A plot as the server rendered it (plotToSvg) with the words of its figcaption. */
 export interface PlotView {
@@ -74,7 +75,11 @@ export type BlockBody =
   | { type: 'comparison'; head: FitHead; comparison: ComparisonView }
   | { type: 'performance'; head: FitHead; table: PerformanceView }
   | { type: 'trials'; head: FitHead; trials: { startedAt: string; flowM3PerS: number; inletTempC: number; outletTempC: number }[] }
-  | { type: 'forecast'; finalTempC: number; hoursToTarget: number | null; fitNote: string | null; cautions: CautionView[]; plot: PlotView }
+  | {
+      type: 'forecast'; finalTempC: number; hoursToTarget: number | null; fitNote: string | null; cautions: CautionView[]; plot: PlotView;
+      // solar and measured-day additions: where the pool settles, the hours that hold the target, a measured day
+      equilibriumTempC?: number | null; holdHoursPerDay?: number | null; holdNote?: string | null; measuredDay?: MeasuredDayView | null;
+    }
   | { type: 'costs'; cost: CostView }
   | {
       type: 'sensor-log';
@@ -93,7 +98,25 @@ export type BlockBody =
     }
   /** a saved design comparison; `comparisonId` is null on the public share view */
   | { type: 'design-comparison'; comparisonId: string | null; view: DesignComparisonView }
+  // solar collectors: a saved collector fit (ISO 9806 steady state)
+  | { type: 'collector'; head: FitHead; view: CollectorViewDto }
   | { type: 'note'; tone: 'muted' | 'danger'; message: string };
+
+/** A measured day against its forecast (SI, names carry the unit; see analysis/forecast/measured-day-check.ts). */
+export interface MeasuredDayView {
+  startTemp_degC: number;
+  observedEndTemp_degC: number;
+  predictedEndTemp_degC: number;
+  residual_K: number;
+  residualU_K: number;
+  unmodelledGain_J: number;
+  unmodelledGainU_J: number;
+  unmodelledGain_W: number;
+  unmodelledGainU_W: number;
+  unmodelledGain_W_per_m2: number | null;
+  significant: boolean;
+  verdict: string;
+}
 
 /** One block, ready to show. */
 export interface BlockData {

@@ -119,7 +119,7 @@ export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { wi
     tip: `mean of ${r.n} replicates at ${withUnit(r.flowM3PerS, u.flow)}: ${withUnit(r.meanC, u.temp)} ± ${withUnit(r.sdK as number, u.tempDiff, 2)} (SD)`,
   }));
   const pct = `${fmt(input.level * 100, 2)} %`;
-  const modelLabels = placeModelLabels({
+  const { refLabels, modelLabels } = placePlotLabels({
     size, x: [F(xMin), F(xMax)], y: [T(yLo), T(yHi)], curves, labels: input.models.map((m) => m.label),
     points: [...dots(included), ...dots(excluded)], reps, refs: refRows,
     extrapolated: extrap.filter((d) => d.x2 - d.x1 >= 0.12 * (F(xMax) - F(xMin))).map((d) => (d.x1 + d.x2) / 2),
@@ -132,10 +132,10 @@ export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { wi
     Plot.areaY(bandRows, { x: 'x', y1: 'ci1', y2: 'ci2', fill: COLORS.heatLight, fillOpacity: 0.35, ariaDescription: `${pct} confidence band` }),
     ...refRows.flatMap((r) => [
       Plot.ruleY([r.yd], { stroke: r.stroke, strokeDasharray: r.dash, strokeWidth: 1.25, ariaDescription: `${r.kind} line` }),
-      Plot.text([r], {
-        y: 'yd', text: 'text', fill: r.stroke, dy: -7, ariaDescription: `${r.kind} label`,
-        // inlet label on the left (the curve is high there), safety labels on the right (the curve is low there)
-        ...(r.kind === 'inlet' ? { frameAnchor: 'left', textAnchor: 'start', dx: 4 } : { frameAnchor: 'right', textAnchor: 'end', dx: -4 }),
+      // along its rule, clear of the data (placePlotLabels): the inlet's from the left, the others from the right
+      Plot.text(refLabels.filter((l) => l.key === r.kind), {
+        x: 'x', y: 'y', text: 'label', fill: r.stroke, textAnchor: 'middle', lineAnchor: 'middle',
+        stroke: 'white', strokeWidth: 3, paintOrder: 'stroke', ariaDescription: `${r.kind} label`,
       }),
     ]),
     ...curves.map((c, i) => Plot.lineY(c, {
@@ -184,7 +184,7 @@ export function fitCurvePlot(input: FitCurveInput, units: UnitSystem, size: { wi
   };
 }
 
-/** What placeModelLabels avoids, in display units (the plot's x and y). */
+/** What placePlotLabels places and avoids, in display units (the plot's x and y). */
 interface LabelScene {
   size: { width?: number; height?: number };
   /** the x and y domains of the plot */
@@ -203,14 +203,27 @@ interface LabelScene {
 const ALONG = [0.72, ...Array.from({ length: 17 }, (_, k) => [0.72 + 0.04 * (k + 1), 0.72 - 0.04 * (k + 1)]).flat()].filter((f) => f > 0.02 && f < 0.99);
 /** Offsets of a label's centre from its curve, px, nearest first: just above and below, then a line and two further. */
 const OFFSETS_PX = [[-12, 14], [-24, 26], [-36, 38]];
+/** Offsets of a reference label's centre above (or below) its rule, px: close to it first, then a little further. */
+const RULE_GAPS_PX = [10, 18];
+
+/** A placed label in display units, keyed by the reference line's kind or the model's label. */
+export interface PlotLabel {
+  x: number;
+  y: number;
+  label: string;
+  key: string;
+  color: string;
+}
 
 /**
- * Places each model's label beside its curve so that labels overlap neither each other nor the
- * trials, replicate bars, curves, reference lines and their labels, at the plot's own width (a
- * phone's too). Works in the pixels of the frame the theme sets (baseOptions), as Plot's linear
- * scales map the domains given here, and returns the centres back in display units.
+ * Places the labels of the fit plot so that none overlaps another, a trial, a replicate bar, a
+ * curve or a reference line, at the plot's own width (a phone's too): first each reference
+ * line's label along its rule (the inlet's from the left edge, where the curves are high; the
+ * safety lines' from the right edge, where they are low), then each model's name beside its own
+ * curve. Works in the pixels of the frame the theme sets (baseOptions), as Plot's linear scales
+ * map the domains given here, and returns the centres in display units.
  */
-export function placeModelLabels(scene: LabelScene): { x: number; y: number; label: string; color: string }[] {
+export function placePlotLabels(scene: LabelScene): { refLabels: PlotLabel[]; modelLabels: PlotLabel[] } {
   const o = baseOptions({ ...scene.size, ariaLabel: '', ariaDescription: '' });
   const [W, H] = [o.width as number, o.height as number];
   const [mL, mR, mT, mB] = [o.marginLeft as number, o.marginRight as number, o.marginTop as number, o.marginBottom as number];
@@ -229,15 +242,16 @@ export function placeModelLabels(scene: LabelScene): { x: number; y: number; lab
       const [ax, ay, bx, by] = [px(a.x), py(a.y), px(b.x), py(b.y)];
       return { x: Math.min(ax, bx) - 1.5, y: Math.min(ay, by) - 1.5, width: Math.abs(bx - ax) + 3, height: Math.abs(by - ay) + 3 };
     })),
-    ...scene.refs.flatMap((r) => {
-      // as fitCurvePlot draws them: the inlet's label from the left edge, the others to the right edge, 7 px above the rule
-      const w = textBox(r.text, 0, 0, font).width;
-      const cx = r.kind === 'inlet' ? mL + 4 + w / 2 : W - mR - 4 - w / 2;
-      return [textBox(r.text, cx, py(r.yd) - 7, font), { x: mL, y: py(r.yd) - 1, width: W - mL - mR, height: 2 }];
-    }),
+    ...scene.refs.map((r) => ({ x: mL, y: py(r.yd) - 0.5, width: W - mL - mR, height: 1 })),
     ...scene.extrapolated.map((x) => textBox('extrapolated', px(x), H - mB - 6, font)),
   ];
-  const requests = scene.curves.map((c, i) => ({
+  const refRequests = scene.refs.map((r) => {
+    const w = textBox(r.text, 0, 0, font).width;
+    const travel = Math.max(0, frame.width - w - 8);
+    const cxs = Array.from({ length: 13 }, (_, k) => (r.kind === 'inlet' ? mL + 4 + w / 2 + (k / 12) * travel : W - mR - 4 - w / 2 - (k / 12) * travel));
+    return { text: r.text, candidates: RULE_GAPS_PX.flatMap((gap) => cxs.flatMap((cx) => [-gap, gap].map((dy) => ({ cx, cy: py(r.yd) + dy })))) };
+  });
+  const modelRequests = scene.curves.map((c, i) => ({
     text: scene.labels[i],
     // nearest to the curve first (just above or below it, then a line further out), each along the curve from ¾ across
     candidates: OFFSETS_PX.flatMap((pair) => ALONG.flatMap((f) => {
@@ -245,11 +259,18 @@ export function placeModelLabels(scene: LabelScene): { x: number; y: number; lab
       return p ? pair.map((dy) => ({ cx: px(p.x), cy: py(p.y) + dy })) : [];
     })),
   }));
-  return placeLabels(requests, obstacles, frame, font).map((p) => ({
+  const placed = placeLabels([...refRequests, ...modelRequests], obstacles, frame, font);
+  const back = (p: { cx: number; cy: number }) => ({
     x: x0 + ((p.cx - mL) / (W - mL - mR)) * (x1 - x0),
     y: y1 - ((p.cy - mT) / (H - mT - mB)) * (y1 - y0),
-    label: p.text,
-    color: MODEL_STROKES[scene.labels.indexOf(p.text) % MODEL_STROKES.length],
-  }));
+  });
+  const refLabels = scene.refs.flatMap((r) => {
+    const p = placed.find((q) => q.text === r.text);
+    return p ? [{ ...back(p), label: r.text, key: r.kind, color: '' }] : [];
+  });
+  const modelLabels = scene.labels.flatMap((label, i) => {
+    const p = placed.slice(refRequests.length).find((q) => q.text === label);
+    return p ? [{ ...back(p), label, key: label, color: MODEL_STROKES[i % MODEL_STROKES.length] }] : [];
+  });
+  return { refLabels, modelLabels };
 }
-

@@ -16,7 +16,7 @@ export default async function AccountPage() {
   const tokens = tokenLabs.length ? (await listTokens(v.em, v.user)).map(tokenDto) : [];
   return (
     <AppPage viewer={v} title="Your account" lead={<span className="num">{v.user.email}</span>}>
-      <div className="grid gap-6 lg:grid-cols-2">
+      <div className="grid grid-cols-1 gap-6 lg:grid-cols-2">
         <section className="card p-6" aria-labelledby="units">
           <h2 id="units" className="text-lg">Units</h2>
           <p className="mt-1 text-sm text-ink-soft">Numbers are stored in SI and shown in the units you prefer.</p>

@@ -31,11 +31,11 @@ export function TokenManager({ labs, initial }: { labs: { id: string; name: stri
           }
         }}
       >
-        <label className="min-w-[12rem] flex-1">
+        <label className="min-w-[12rem] max-w-full flex-1">
           <span className="field-label">Token name</span>
           <input name="name" className="field-input" placeholder="e.g. yard logger" required />
         </label>
-        <label className="min-w-[9rem]">
+        <label className="min-w-[9rem] max-w-full">
           <span className="field-label">Expires after</span>
           <select name="expiresInDays" className="field-input" defaultValue="90">
             <option value="7">7 days</option>
@@ -45,11 +45,11 @@ export function TokenManager({ labs, initial }: { labs: { id: string; name: stri
             <option value="365">a year</option>
           </select>
         </label>
-        <label className="min-w-[12rem]">
+        <label className="min-w-[12rem] max-w-full">
           <span className="field-label">Your password</span>
           <input name="password" type="password" autoComplete="current-password" className="field-input" required />
         </label>
-        <label className="min-w-[12rem]">
+        <label className="min-w-[12rem] max-w-full">
           <span className="field-label">Lab</span>
           <select name="labId" className="field-input">
             {labs.map((l) => (
@@ -70,7 +70,7 @@ export function TokenManager({ labs, initial }: { labs: { id: string; name: stri
           <p className="num mt-1 break-all text-ink" data-testid="new-token">{secret}</p>
         </div>
       ) : null}
-      <div className="overflow-x-auto">
+      <div className="overflow-x-auto" tabIndex={0}>
         <table className="data-table">
           <thead>
             <tr>

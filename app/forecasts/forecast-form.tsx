@@ -7,16 +7,17 @@ import { CostFieldset } from './cost-fieldset';
 import { forecastBody, type ForecastChoices } from './forecast-request';
 import { ForecastResultView, type ForecastResult } from './forecast-result';
 import { HeatingFieldset } from './heating-fieldset';
+import { MeasuredFieldset } from './measured-fieldset';
 import { PoolFieldset } from './pool-fieldset';
 import { WeatherFieldset } from './weather-fieldset';
 import { parseWeatherCsv } from './weather-csv';
 
 /** Pool or tub warm-up forecast: shape and size, temperatures, flow, heater (a saved coil fit or Ts/UA), weather and cover. */
-export function ForecastForm({ labId, units, fits }: { labId: string; units: UnitSystem; fits: { id: string; label: string }[] }) {
+export function ForecastForm({ labId, units, fits }: { labId: string; units: UnitSystem; fits: { id: string; label: string; collector?: boolean }[] }) {
   const [res, setRes] = useState<ForecastResult | null>(null);
   const [error, setError] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
-  const [choices, setChoices] = useState<ForecastChoices>({ shape: 'round', losses: true, weatherMode: 'constant', table: null });
+  const [choices, setChoices] = useState<ForecastChoices>({ shape: 'round', losses: true, weatherMode: 'constant', table: null, collectorFits: fits.filter((f) => f.collector).map((f) => f.id) });
   const set = (patch: Partial<ForecastChoices>) => setChoices((c) => ({ ...c, ...patch }));
 
   async function readWeather(file: File | undefined) {
@@ -52,6 +53,7 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
         <PoolFieldset units={units} shape={choices.shape} onShape={(shape) => set({ shape })} />
         <HeatingFieldset units={units} fits={fits} />
         <WeatherFieldset units={units} choices={choices} set={set} readWeather={(f) => void readWeather(f)} />
+        <MeasuredFieldset units={units} />
         <CostFieldset />
         <button type="submit" className="btn-primary w-full" disabled={busy}>
           {busy ? 'Forecasting…' : 'Forecast'}

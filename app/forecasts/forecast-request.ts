@@ -22,6 +22,8 @@ export interface ForecastChoices {
   losses: boolean;
   weatherMode: 'constant' | 'hourly';
   table: (WeatherTable & { name: string }) | null;
+  /** ids of the saved collector fits (they take the sun inputs) */
+  collectorFits?: string[];
 }
 
 /**
@@ -61,6 +63,10 @@ export function forecastBody(f: FormData, c: ForecastChoices, units: UnitSystem)
   if (v('price')) body.cost = { fuel: v('fuel'), pricePerUnit: Number(v('price')), ...(v('efficiency') ? { efficiency: Number(v('efficiency')) } : {}) };
   const fitId = v('fitId');
   if (fitId) body.fitId = fitId;
+  if (fitId && c.collectorFits?.includes(fitId)) body.sun = { irradiance: q('sunIrradiance', 'W/m^2'), ambientTemp: q('sunAir', T) };
+  if (v('measuredEnd')) {
+    body.measured = { endTemp: q('measuredEnd', T), thermometerU: q('thermometerU', u.tempDiff.mathUnit), volumeRelativeU: Number(v('volumeU') || '5') / 100 };
+  }
   else body.heater = { model: 'coil', sourceTemp: q('ts', T), UA: q('ua', 'W/K') };
   return { body };
 }

@@ -6,6 +6,8 @@ import { displayUnit, displayUnits } from '@/app/_contracts/units';
 import { energyBudgetPlot, forecastPlot, type EnergyBudgetInput, type ForecastPlotInput } from '../_plots';
 import { CautionList, TempValue } from '../_components/safety-notice';
 import { PlotFigure } from '../_components/plot-figure';
+import { MeasuredDay } from '../_components/measured-day';
+import type { MeasuredDayView } from '../_contracts/study-blocks';
 
 /** What POST /api/labs/:id/forecast answers (SI; the names carry the unit). */
 export interface ForecastResult {
@@ -14,6 +16,9 @@ export interface ForecastResult {
   hoursToTarget_h: number | null;
   equilibriumTemp_degC: number | null;
   equilibriumNote?: string;
+  /** heater hours per day that hold the target under the mean weather and cover (null: cannot, or no target) */
+  holdHoursPerDay_h?: number | null;
+  holdNote?: string | null;
   evaporated_kg: number;
   fitNote: string | null;
   pool: { volume_m3: number; area_m2: number } | null;
@@ -22,6 +27,8 @@ export interface ForecastResult {
   cost: { perUsefulTherm: number; perDegF: number; perK: number; forecastHeatCost: number } | null;
   /** the plot builders' inputs (app/_plots), reduced for display: the page draws them in the reader's units */
   plots: { trajectory: { input: ForecastPlotInput }; budget: { input: EnergyBudgetInput } };
+  /** the measured day, when one was given */
+  measuredDay?: MeasuredDayView | null;
 }
 
 /** A forecast's result: final temperature, hours to target, equilibrium, the pool, cautions, both plots, the cost and the rise table. */
@@ -34,11 +41,12 @@ export function ForecastResultView({ res, units }: { res: ForecastResult; units:
   const budget = useMemo(() => energyBudgetPlot(res.plots.budget.input, units), [res, units]);
   return (
     <>
-      <dl className="grid gap-3 sm:grid-cols-3">
+      <dl className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
         {[
           ['Final temperature', <TempValue key="f" tempC={res.finalTemp_degC} units={units} withUnit />],
           ['Hours to target', res.hoursToTarget_h == null ? 'not reached' : `${res.hoursToTarget_h.toFixed(1)} h`],
           ['Equilibrium', res.equilibriumTemp_degC == null ? '—' : <TempValue key="e" tempC={res.equilibriumTemp_degC} units={units} withUnit />],
+          ['Heater hours a day to hold the target', res.holdNote == null ? 'no target' : res.holdHoursPerDay_h == null ? 'cannot hold' : `${res.holdHoursPerDay_h.toFixed(1)} h`],
         ].map(([k, val]) => (
           <div key={String(k)} className="card p-4">
             <dt className="text-sm text-ink-soft">{k}</dt>
@@ -46,6 +54,8 @@ export function ForecastResultView({ res, units }: { res: ForecastResult; units:
           </div>
         ))}
       </dl>
+      {res.equilibriumNote ? <p className="text-sm text-ink-soft">{res.equilibriumNote}</p> : null}
+      {res.holdNote ? <p className="text-sm text-ink-soft">{res.holdNote}</p> : null}
       {res.fitNote ? <p className="text-sm text-ink-soft">{res.fitNote}</p> : null}
       {res.pool ? (
         <p className="text-sm text-ink-soft">
@@ -54,6 +64,7 @@ export function ForecastResultView({ res, units }: { res: ForecastResult; units:
         </p>
       ) : null}
       <CautionList cautions={res.cautions} />
+      {res.measuredDay ? <MeasuredDay day={res.measuredDay} units={units} /> : null}
       <PlotFigure title={trajectory.title} summary={trajectory.summary} cautions={trajectory.cautions} options={trajectory.options} filename="forecast" />
       <PlotFigure title={budget.title} summary={budget.summary} options={budget.options} filename="energy-budget" />
       {res.cost ? (
@@ -71,7 +82,7 @@ export function ForecastResultView({ res, units }: { res: ForecastResult; units:
         </dl>
       ) : null}
       {res.riseTable ? (
-        <div className="card overflow-x-auto p-4">
+        <div className="card overflow-x-auto p-4" tabIndex={0}>
           <table className="data-table">
             <caption className="py-1 text-left text-sm font-semibold text-ink">Rise per hour by pump flow and pool size, at the start temperature</caption>
             <thead>

@@ -2,7 +2,7 @@ import { HourSelect, NumberField } from './forecast-fields';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { displayUnits } from '@/app/_contracts/units';
 
-/** Heating: start and target, hours, pump flow, thermostat, heater schedule, and the heater (a saved coil fit, or Ts and UA). */
+/** Heating: start and target, hours, pump flow, thermostat, heater schedule, and the heater (a saved coil or collector fit, or Ts and UA). */
 export function HeatingFieldset({ units, fits }: { units: UnitSystem; fits: { id: string; label: string }[] }) {
   const us = units === 'us';
   const u = displayUnits(units);
@@ -40,6 +40,11 @@ export function HeatingFieldset({ units, fits }: { units: UnitSystem; fits: { id
         <NumberField name="ua" label="UA" def="430" unit="W/K" />
       </div>
       <p className="text-xs text-ink-muted">Ts and UA are used only when no saved fit is chosen.</p>
+      <div className="grid grid-cols-2 gap-3">
+        <NumberField name="sunIrradiance" label="Sun on a collector" def="800" unit="W/m²" />
+        <NumberField name="sunAir" label="Air at the collector" def={us ? '77' : '25'} unit={u.temp.label} />
+      </div>
+      <p className="text-xs text-ink-muted">The sun and air are used only with a collector fit: its curve at that steady sun during the heater hours.</p>
     </fieldset>
   );
 }

@@ -15,6 +15,7 @@ import { Migration20261203082759_security } from './Migration20261203082759_secu
 import { Migration20261203120000_test_sessions } from './Migration20261203120000_test_sessions';
 import { Migration20261203123000_comparisons } from './Migration20261203123000_comparisons';
 import { Migration20261203130000_solar_collector } from './Migration20261203130000_solar_collector';
+import { Migration20261203140000_block_cache } from './Migration20261203140000_block_cache';
 
 export const migrationsList: MigrationObject[] = [
   { name: 'Migration20261201222811', class: Migration20261201222811 },
@@ -29,4 +30,5 @@ export const migrationsList: MigrationObject[] = [
   { name: 'Migration20261203120000_test_sessions', class: Migration20261203120000_test_sessions },
   { name: 'Migration20261203123000_comparisons', class: Migration20261203123000_comparisons },
   { name: 'Migration20261203130000_solar_collector', class: Migration20261203130000_solar_collector },
+  { name: 'Migration20261203140000_block_cache', class: Migration20261203140000_block_cache },
 ];

@@ -69,7 +69,7 @@ beforeAll(async () => {
     url: `http://127.0.0.1:${port}`,
     web: spawn(process.execPath, [path.join(root, 'scripts/serve.mjs'), '-H', '127.0.0.1', '-p', String(port)], {
       cwd: root,
-      env: { ...process.env, DATABASE_URL: dbUrl, NODE_ENV: 'production', TRUST_PROXY_HOPS: '1', APP_URL: appUrl, DATABASE_POOL_MAX: '4', EMBERLINE_JOB_WORKER: 'on' },
+      env: { ...process.env, DATABASE_URL: dbUrl, NODE_ENV: 'production', TRUST_PROXY_HOPS: '1', APP_URL: appUrl, DATABASE_POOL_MAX: '4', EMBERLINE_ANALYSIS_THREADS: '1', EMBERLINE_JOB_WORKER: 'on' },
       stdio: ['ignore', 'ignore', 'inherit'],
     }),
   });

@@ -251,3 +251,72 @@ describe('the sensor-log overview', () => {
     expect(after.segments).toEqual(before.segments);
   });
 });
+
+describe('block data computed once (the block cache) and HTTP caching', () => {
+  test('a fit block is kept under (kind, fit, version, units, software version); its review state still follows the fit', async () => {
+    const viewer = await signedIn('viewer@cinder-hollow.test');
+    const first = await viewer.get(`/api/studies/${s.study.id}/blocks/fit`);
+    expect(first.status, first.text).toBe(200);
+    // one entry for the fit block in SI (the viewer's units), owned by the fit and the lab
+    const rows = (await db.query<{ key: string; lab_id: string; fit_id: string }>(`select key, lab_id, fit_id from block_cache where fit_id = $1 and key like 'fit-block|fit|' || $1 || '|1|si|%'`, [s.fit.id])).rows;
+    expect(rows).toHaveLength(1);
+    expect(rows[0].key).toMatch(/\|emberline \d/);
+    expect(rows[0].lab_id).toBe(s.lab.id);
+    // the head is not kept: submitting the fit for review shows at once
+    expect(first.body.block.body.head.reviewState).toBe('draft');
+    expect((await s.eng.post(`/api/fits/${s.fit.id}/review`, { move: 'submit' })).body.reviewState).toBe('in-review');
+    const again = await viewer.get(`/api/studies/${s.study.id}/blocks/fit`);
+    expect(again.body.block.body.head.reviewState).toBe('in-review');
+    // the kept part answers the same as the first computation
+    expect(again.body.block.body.plot).toEqual(first.body.block.body.plot);
+    expect(again.body.block.body.fit).toEqual(first.body.block.body.fit);
+  });
+
+  test('a forecast block is kept under its settings: other settings, another entry and another answer', async () => {
+    const viewer = await signedIn('viewer@cinder-hollow.test');
+    const before = await viewer.get(`/api/studies/${s.study.id}/blocks/fc`);
+    const count = async () => Number((await db.query(`select count(*) from block_cache where key like 'forecast-block|%' and lab_id = $1`, [s.lab.id])).rows[0].count);
+    const n = await count();
+    const study = (await s.eng.get(`/api/studies/${s.study.id}`)).body.study;
+    const changed = study.blocks.map((b: { id: string; data: Record<string, unknown> }) => (b.id === 'fc' ? { ...b, data: { ...b.data, hours: 24 } } : b));
+    const put = await s.eng.request('PUT', `/api/studies/${s.study.id}`, { title: study.title, baseRevision: study.revision, blocks: changed });
+    expect(put.status, put.text).toBe(200);
+    s.study = put.body.study;
+    const after = await viewer.get(`/api/studies/${s.study.id}/blocks/fc`);
+    expect(after.status, after.text).toBe(200);
+    expect(await count()).toBe(n + 1);
+    // half the hours at the same heat: the pool ends cooler (the forecast's own monotony)
+    expect(after.body.block.body.finalTempC).toBeLessThan(before.body.block.body.finalTempC);
+  });
+
+  test('block data carry an ETag (private, revalidated) and answer 304 to If-None-Match; a share link too', async () => {
+    const viewer = await signedIn('viewer@cinder-hollow.test');
+    const r = await viewer.get(`/api/studies/${s.study.id}/blocks/cmp`);
+    expect(r.status).toBe(200);
+    const etag = r.headers.get('etag');
+    expect(etag).toMatch(/^"[\w-]{22}"$/);
+    expect(r.headers.get('cache-control')).toBe('private, no-cache');
+    const not = await viewer.get(`/api/studies/${s.study.id}/blocks/cmp`, { 'If-None-Match': etag! });
+    expect(not.status).toBe(304);
+    expect(not.text).toBe('');
+    expect(not.headers.get('etag')).toBe(etag);
+    // another tag gets the whole answer again
+    expect((await viewer.get(`/api/studies/${s.study.id}/blocks/cmp`, { 'If-None-Match': '"other"' })).status).toBe(200);
+    // authorization comes first: a member of another lab holding the tag still gets 404, not 304
+    const { client: outsider } = await createAccount(uniqueEmail('etag-outsider'), STRONG_PASSWORD);
+    expect((await outsider.get(`/api/studies/${s.study.id}/blocks/cmp`, { 'If-None-Match': etag! })).status).toBe(404);
+  });
+
+  test('exports carry an ETag of their data and answer 304 without building the file', async () => {
+    const r = await fetch(`${baseUrl}/api/studies/${s.study.id}/export?format=csv&table=Trials`, { headers: { Cookie: [...s.eng.cookies].map(([k, v]) => `${k}=${v}`).join('; ') } });
+    expect(r.status).toBe(200);
+    const etag = r.headers.get('etag');
+    expect(etag).toBeTruthy();
+    expect(r.headers.get('cache-control')).toBe('private, no-cache');
+    const not = await fetch(`${baseUrl}/api/studies/${s.study.id}/export?format=csv&table=Trials`, { headers: { Cookie: [...s.eng.cookies].map(([k, v]) => `${k}=${v}`).join('; '), 'If-None-Match': etag! } });
+    expect(not.status).toBe(304);
+    // another table is another file
+    const other = await fetch(`${baseUrl}/api/studies/${s.study.id}/export?format=csv&table=Fit`, { headers: { Cookie: [...s.eng.cookies].map(([k, v]) => `${k}=${v}`).join('; '), 'If-None-Match': etag! } });
+    expect(other.status).toBe(200);
+  });
+});

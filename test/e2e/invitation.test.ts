@@ -62,7 +62,8 @@ describe('invitation walk-through in Chromium', () => {
     await expect(p.locator('nav[aria-label="Lab"]').innerText()).resolves.toMatch(/Cinder Hollow Test Yard\s*reviewer/);
     await screenshot(p, 'reviewer-rigs-phone');
 
-    // sign out and back in, as a person would the next day
+    // sign out and back in, as a person would the next day (on a phone, from the header's Menu)
+    await p.getByRole('button', { name: 'Menu' }).click();
     await p.getByRole('button', { name: 'Sign out' }).click();
     await p.waitForURL('**/sign-in');
     await p.getByLabel('E-mail').fill(invitee);

@@ -39,3 +39,33 @@ describe('one error model (app/_lib/server/errors.ts)', () => {
     expect(offenders).toEqual([]);
   });
 });
+
+describe('the analysis worker loads no server-only code (app/_lib/analysis-worker)', () => {
+  /** Every source file the worker's tasks reach through imports that ship code (`import type` is erased). */
+  function reachable(start: string): string[] {
+    const seen = new Set<string>();
+    const todo = [start];
+    while (todo.length) {
+      const file = todo.pop()!;
+      if (seen.has(file)) continue;
+      seen.add(file);
+      const text = readFileSync(file, 'utf8');
+      for (const m of text.matchAll(/^(?:import|export) (?!type )[^'"]*?from\s*['"]([^'"]+)['"]|^import\s*['"]([^'"]+)['"]/gm)) {
+        const spec = m[1] ?? m[2];
+        const base = spec.startsWith('@/') ? path.join(root, spec.slice(2)) : spec.startsWith('.') ? path.resolve(path.dirname(file), spec) : null;
+        if (!base) continue;
+        const found = [`${base}.ts`, `${base}.tsx`, path.join(base, 'index.ts')].find((f) => { try { return statSync(f).isFile(); } catch { return false; } });
+        if (found) todo.push(found);
+      }
+    }
+    return [...seen];
+  }
+  const files = reachable(path.join(root, 'app/_lib/analysis-worker/tasks.ts'));
+  test('the scan follows the tasks into fits, forecasts, plots and analysis', () => {
+    expect(files.map(rel)).toEqual(expect.arrayContaining(['app/_lib/fits/fit-compute.ts', 'app/_lib/forecasts/forecast-compute.ts', 'app/_plots/fit-curve.ts', 'analysis/fit/index.ts']));
+  });
+  test('no file it reaches imports server-only, an entity or the ORM (a worker thread cannot load them)', () => {
+    const offenders = files.filter((f) => /^import ['"]server-only['"]|^import (?!type )[^'"]*from ['"](@\/entities|@mikro-orm)/m.test(readFileSync(f, 'utf8'))).map(rel);
+    expect(offenders).toEqual([]);
+  });
+});

@@ -1,6 +1,7 @@
 /**
  * The tasks of the analysis worker pool: every CPU-heavy computation the request paths ask for
- * (fits and model comparisons, saved-fit results, design comparisons, forecasts, server-side plot rendering), each a pure function of structured-cloneable data. Loaded in the worker
+ * (fits and model comparisons, saved-fit results, design comparisons, forecasts, segmentation
+ * previews, server-side plot rendering), each a pure function of structured-cloneable data. Loaded in the worker
  * threads only (entry.cjs), so nothing here may import `server-only`, entities or the ORM.
  * app/_lib/server/analysis-pool.ts is the one caller (`runAnalysis(name, input)`).
  */
@@ -10,6 +11,15 @@ import { computeAnalysis, computeSavedFit, fitBlockFigure, savedFitFigures } fro
 import { computeForecast, computeForecastResult } from '../forecasts/forecast-compute';
 import { sensorLogFigures } from '../studies/block-figures';
 import { computeComparison } from '../comparisons/comparison-compute';
+import { previewSegments, previewSeries } from '../imports/preview-segments';
+import type { SensorLog } from '../imports/sensor-log';
+import type { SegmentPreviewInput } from '../imports/sensor-preview';
+
+/** A read sensor log and the engineer's input (the segmentation preview). */
+interface PreviewTask {
+  log: SensorLog;
+  input: SegmentPreviewInput;
+}
 
 /** Every task by name. */
 export const TASKS = {
@@ -21,6 +31,8 @@ export const TASKS = {
   forecastResult: computeForecastResult,
   sensorLogFigures,
   designComparison: computeComparison,
+  previewSegments: (t: PreviewTask) => previewSegments(t.log, t.input),
+  previewSeries: (t: PreviewTask) => previewSeries(t.log, t.input),
 };
 export type TaskName = keyof typeof TASKS;
 export type TaskInput<N extends TaskName> = Parameters<(typeof TASKS)[N]>[0];

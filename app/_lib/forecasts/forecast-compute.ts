@@ -18,6 +18,10 @@ import type { UnitSystem } from '@/analysis/units/unit-system';
 import { waterDensityKgPerM3 } from '@/analysis/water/water-properties';
 import { energyBudgetInput, energyBudgetPlot, forecastPlot, type EnergyBudgetInput, type ForecastPlotInput } from '@/app/_plots';
 import { invalid } from '../server/errors';
+import { parseQuantity } from '@/analysis/units/parse-quantity';
+import { solarCollectorHeater, type CollectorParameters } from '@/analysis/performance/collector-efficiency';
+import { measuredDayCheck } from '@/analysis/forecast/measured-day-check';
+import type { MeasuredDayView } from '@/app/_contracts/study-blocks';
 import { plotToSvg } from '../plots/plot-svg';
 
 /** What forecasts.ts hands the worker: the body with the saved fit already turned into a heater. */
@@ -40,17 +44,49 @@ interface Prepared {
 
 /** The typed forecast of a request body: the pool by its shape (its area the surface of the loss terms), read by the same reader as the command line. */
 function prepare(t: Pick<ForecastTask, 'body' | 'heater'>): Prepared {
-  const { fitId: _f, cost: _c, pool: poolBody, ...rest } = t.body;
+  const { fitId: _f, cost: _c, pool: poolBody, measured: _m, sun: _s, ...rest } = t.body;
   void _f;
   void _c;
-  const input: Record<string, unknown> = { ...rest, ...(t.heater ? { heater: t.heater } : {}) };
+  void _m;
+  void _s;
+  // a saved collector fit (forecasts.ts): the collector at the steady sun of the heater hours replaces the placeholder once read
+  const collector = t.heater?.model === 'solar-collector' ? (t.heater as unknown as { collector: CollectorParameters; irradianceWPerM2: number; ambientTempC: number; modules: number }) : null;
+  const heater = collector ? { model: 'fixed-rise', rise: '0 K' } : t.heater;
+  const input: Record<string, unknown> = { ...rest, ...(heater ? { heater } : {}) };
   return readingInput((read) => {
     const pool = poolBody === undefined ? null : poolGeometry(readPoolDimensions(read, poolBody, 'pool'));
     if (pool && input.losses && typeof input.losses === 'object') input.losses = { ...(input.losses as object), surfaceArea: `${pool.areaM2} m^2` };
     const typed = readForecastInput(read, input);
     if (pool) typed.poolVolumeM3 = pool.volumeM3;
+    if (collector) typed.heater = solarCollectorHeater({ collector: collector.collector, irradianceWPerM2: collector.irradianceWPerM2, ambientTempC: collector.ambientTempC, modules: collector.modules });
     return { input: typed, result: recirculatingForecast(typed), pool };
   });
+}
+
+const measuredSchema = z.object({
+  endTemp: z.string().trim().min(1, 'give the measured end temperature').max(40),
+  thermometerU: z.string().trim().min(1).max(40).default('0.3 K'),
+  volumeRelativeU: z.number().min(0).max(0.5, 'the volume uncertainty is at most 50 %').default(0.05),
+}).strict();
+
+/**
+ * The measured day of a forecast (`body.measured`): its end against the measured end, the gain
+ * the model did not include and its uncertainty (analysis/forecast/measured-day-check.ts).
+ * @throws DomainError invalid naming `measured` for a bad body
+ */
+function measuredDayOf(input: ForecastInput, body: unknown): MeasuredDayView {
+  const m = measuredSchema.safeParse(body);
+  if (!m.success) throw invalid(`measured: ${m.error.issues[0]?.message ?? 'invalid'}`, { measured: m.error.issues[0]?.message ?? 'invalid' });
+  const endC = parseQuantity(m.data.endTemp, 'temperature', 'measured.endTemp');
+  const uT = parseQuantity(m.data.thermometerU, 'temperatureDifference', 'measured.thermometerU');
+  if (!(endC >= 0 && endC <= 100)) throw invalid(`measured.endTemp ${endC.toFixed(1)} °C is outside the water range 0–100 °C.`, { measured: 'end temperature 0–100 °C' });
+  if (!(uT >= 0 && uT <= 5)) throw invalid('measured.thermometerU must be within 0–5 K.', { measured: 'thermometer uncertainty 0–5 K' });
+  const c = measuredDayCheck(input, endC, { thermometerK: uT, volumeRelative: m.data.volumeRelativeU });
+  return {
+    startTemp_degC: input.startTempC, observedEndTemp_degC: c.observedEndC, predictedEndTemp_degC: c.predictedEndC, residual_K: c.residualK, residualU_K: c.residualUK,
+    unmodelledGain_J: c.unmodelledGainJ, unmodelledGainU_J: c.gainUJ, unmodelledGain_W: c.unmodelledGainW, unmodelledGainU_W: c.gainUW,
+    unmodelledGain_W_per_m2: c.unmodelledGainWPerM2, significant: c.significant, verdict: c.verdict,
+  };
 }
 
 /** The forecast's result alone (the spreadsheet export's Forecast sheet). */
@@ -97,6 +133,7 @@ export function computeForecast(t: ForecastTask) {
     fitNote: t.fitNote,
     pool: pool && { volume_m3: pool.volumeM3, area_m2: pool.areaM2 },
     ...forecastExtras(input, r, t.body.cost),
+    measuredDay: t.body.measured === undefined ? null : measuredDayOf(input, t.body.measured),
     plots: {
       trajectory: { title: trajectory.title, summary: trajectory.summary, input: trajectoryInput, ...(svg ? { svg: plotToSvg(trajectory.options) } : {}), cautions: trajectory.cautions } as ForecastFigure<ForecastPlotInput>,
       budget: { title: budget.title, summary: budget.summary, input: budgetInput, ...(svg ? { svg: plotToSvg(budget.options) } : {}) } as ForecastFigure<EnergyBudgetInput>,

@@ -4,10 +4,13 @@ import { randomUUID } from 'node:crypto';
 import type pg from 'pg';
 import { to as copyTo } from 'pg-copy-streams';
 import { setImmediate } from 'node:timers/promises';
-import { DISPLAY_MAX_POINTS, overviewIndices, overviewIndicesSteps } from '@/analysis/reduce';
+import { DISPLAY_MAX_POINTS, overviewIndicesSteps } from '@/analysis/reduce';
 import { segmentLog, type PresetName, type SteadyCriteria } from '@/analysis/segment';
 import type { OverviewPoints, OverviewSegment } from '@/entities/sensor-overview';
 import { segmentChannels } from './log-reader';
+import { displayPoints, ms, pointsAt, sig, type OverviewChannels } from './display-points';
+
+export { displayPoints, type OverviewChannels };
 
 /**
  * The display overview of a sensor log (entities/sensor-overview.ts): at most 2,000 samples on one
@@ -23,14 +26,6 @@ import { segmentChannels } from './log-reader';
  * pg-copy-streams; the caller's connection or pool.
  */
 
-/** The channels of a log as the import holds them: seconds from the first sample, SI values. */
-export interface OverviewChannels {
-  timeS: ArrayLike<number>;
-  inletTempC: ArrayLike<number>;
-  outletTempC: ArrayLike<number>;
-  flowM3PerS: ArrayLike<number>;
-}
-
 /** The segmentation as analysis/segment returns it (only what the overview keeps). */
 export interface OverviewSegmentation {
   segments: readonly { startTimeS: number; endTimeS: number; mean: { inletTempC: number; outletTempC: number; flowM3PerS: number } }[];
@@ -43,20 +38,6 @@ export interface OverviewData {
   maxPoints: number;
   points: OverviewPoints;
   segments: OverviewSegment[];
-}
-
-// Plenty for a plot, and it keeps the stored JSON (and the page) small: 7 significant digits, times to 1 ms.
-const sig = (v: number): number | null => (Number.isFinite(v) ? Number(v.toPrecision(7)) : null);
-const ms = (s: number) => Math.round(s * 1000) / 1000;
-
-/**
- * The display points of a log's channels: at most `maxPoints` samples on one time base, the
- * union of each channel's LTTB-with-extremes indices (analysis/reduce `overviewIndices`), times to
- * 1 ms and readings to 7 significant digits (null where a reading is missing).
- * @throws as overviewIndices (a channel of another length, decreasing time).
- */
-export function displayPoints(ch: OverviewChannels, maxPoints = DISPLAY_MAX_POINTS): OverviewPoints {
-  return pointsAt(ch, ch.timeS.length ? overviewIndices(ch.timeS, [ch.inletTempC, ch.outletTempC, ch.flowM3PerS], maxPoints) : new Uint32Array(0));
 }
 
 /**
@@ -83,15 +64,6 @@ export async function buildOverviewAsync(ch: OverviewChannels, seg: OverviewSegm
   return overviewOf(ch, seg, maxPoints, pointsAt(ch, idx));
 }
 
-function pointsAt(ch: OverviewChannels, idx: ArrayLike<number>): OverviewPoints {
-  const at = <T,>(f: (i: number) => T) => Array.from(idx, f);
-  return {
-    tS: at((i) => ms(ch.timeS[i])),
-    inletTempC: at((i) => sig(ch.inletTempC[i])),
-    outletTempC: at((i) => sig(ch.outletTempC[i])),
-    flowM3PerS: at((i) => sig(ch.flowM3PerS[i])),
-  };
-}
 
 function overviewOf(ch: OverviewChannels, seg: OverviewSegmentation, maxPoints: number, points: OverviewPoints): OverviewData {
   const n = ch.timeS.length;

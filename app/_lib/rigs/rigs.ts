@@ -91,7 +91,7 @@ export async function rigsOfLab(em: EntityManager, lab: LabRow): Promise<{ rigs:
 /** The rig page's files: the latest trial sheets and the photos. */
 export async function rigFiles(em: EntityManager, rig: RigRow) {
   // a test session's logger samples are a source file with no stored object (storage key `session:<id>`): the session page shows them
-  const files = await em.find(SourceFile, { rig, purpose: 'trials', storageKey: { $not: { $like: 'session:%' } } }, { orderBy: { createdAt: 'desc' }, limit: 10 });
+  const files = await em.find(SourceFile, { rig, purpose: 'trials', $not: { storageKey: { $like: 'session:%' } } }, { orderBy: { createdAt: 'desc' }, limit: 10 });
   const photos = await em.find(SourceFile, { rig, purpose: 'photo' }, { orderBy: { createdAt: 'desc' }, limit: 24 });
   return { files, photos };
 }

@@ -171,7 +171,8 @@ export function route<P extends Record<string, string> = Record<string, never>>(
         ctx.member = await ctx.requireMember(labId, options.labAction);
       }
       const res = await handler(ctx).finally(() => bodyReader.cleanup());
-      res.headers.set('Cache-Control', 'no-store');
+      // no-store unless the handler chose (a private, revalidated ETag answer: http-cache.ts)
+      if (!res.headers.has('Cache-Control')) res.headers.set('Cache-Control', 'no-store');
       setSecurityHeaders(res.headers, config.appUrl);
       return res;
     } catch (e) {

@@ -7,6 +7,7 @@ import { SEGMENT_ROWS, type BlockBody, type BlockData, type FitHead } from '@/ap
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { costView } from '../forecasts/cost-sheet';
 import { modelLabel } from '../fits/fit-analysis';
+import { collectorModelLabel, savedCollectorView } from '../fits/collector-analysis';
 import { parseStoredFit } from '../fits/stored-fit';
 import { forecast } from '../forecasts/forecasts';
 import { renderMarkdown } from './markdown';
@@ -16,6 +17,7 @@ import { runAnalysis } from '../server/analysis-pool';
 import { isUuid } from '../labs/load-in-lab';
 import { pgPool } from '../server/pg-pool';
 import { ensureSensorOverview } from '../imports/sensor-overview';
+import { blockCacheKey, cachedBlockData, jsonHash } from './block-cache';
 import { comparisonInLab, readComparison } from '../comparisons/comparisons';
 
 /**
@@ -38,7 +40,7 @@ export interface BlockContext {
   fits?: Map<string, FitRow>;
 }
 
-const FIT_KINDS = new Set(['fit', 'comparison', 'performance', 'trials']);
+const FIT_KINDS = new Set(['fit', 'comparison', 'performance', 'trials', 'collector']);
 
 /** The saved fits the given blocks point at (lab-scoped), by id. */
 export async function blockFits(em: EntityManager, lab: LabRow, blocks: readonly StudyBlock[]): Promise<Map<string, FitRow>> {
@@ -47,22 +49,46 @@ export async function blockFits(em: EntityManager, lab: LabRow, blocks: readonly
   return new Map(rows.map((f) => [f.id, f]));
 }
 
-async function fitBody(kind: string, fit: FitRow, publicView: boolean, units: UnitSystem): Promise<BlockBody> {
+/** A fit block's body without its head (the head carries the review state, which changes). */
+type FitBlockBody = Extract<BlockBody, { head: FitHead }>;
+type WithoutHead<T> = T extends unknown ? Omit<T, 'head'> : never;
+
+async function fitBodyOf(kind: string, fit: FitRow, units: UnitSystem): Promise<WithoutHead<FitBlockBody>> {
   const r = parseStoredFit(fit.result, fit.id);
   const label = modelLabel(fit.model);
-  const head: FitHead = { fitId: publicView ? null : fit.id, title: fit.title, version: fit.version, label, reviewState: fit.reviewState };
   switch (kind) {
     case 'fit': {
       const plot = await runAnalysis('fitBlockFigure', { fit: r.fit, label, inletTempC: r.choice.inletTempC, units });
-      return { type: 'fit', head, plot, fit: fitView(r.fit, label), choice: r.choice };
+      return { type: 'fit', plot, fit: fitView(r.fit, label), choice: r.choice };
     }
     case 'comparison':
-      return { type: 'comparison', head, comparison: r.comparison };
+      return { type: 'comparison', comparison: r.comparison };
     case 'performance':
-      return { type: 'performance', head, table: r.performance };
+      return { type: 'performance', table: r.performance };
     default:
-      return { type: 'trials', head, trials: r.trials.map(({ startedAt, flowM3PerS, inletTempC, outletTempC }) => ({ startedAt, flowM3PerS, inletTempC, outletTempC })) };
+      return { type: 'trials', trials: r.trials.map(({ startedAt, flowM3PerS, inletTempC, outletTempC }) => ({ startedAt, flowM3PerS, inletTempC, outletTempC })) };
   }
+}
+
+/**
+ * A fit block: its data comes from the block cache, keyed by (kind, fit id, fit version, unit
+ * system, software version) — a saved fit never changes — and its head is built from the row
+ * (the review state moves).
+ */
+async function fitBody(ctx: BlockContext, kind: string, fit: FitRow): Promise<BlockBody> {
+  if (fit.kind === 'collector' || kind === 'collector') {
+    // solar collectors: a collector block shows a saved collector fit, and only there
+    if (fit.kind !== 'collector') return { type: 'note', tone: 'muted', message: 'A collector block shows a saved collector fit: choose one.' };
+    if (kind !== 'collector') return { type: 'note', tone: 'muted', message: 'This saved fit is a collector efficiency curve: show it in a collector block.' };
+    const head: FitHead = { fitId: ctx.publicView ? null : fit.id, title: fit.title, version: fit.version, label: collectorModelLabel(fit.model), reviewState: fit.reviewState };
+    const key = blockCacheKey(['collector-block', fit.id, fit.version, ctx.units]);
+    const data = await cachedBlockData(ctx.em, key, { labId: ctx.lab.id, fitId: fit.id }, async () => ({ view: savedCollectorView(fit) }));
+    return { type: 'collector', head, view: data.view };
+  }
+  const head: FitHead = { fitId: ctx.publicView ? null : fit.id, title: fit.title, version: fit.version, label: modelLabel(fit.model), reviewState: fit.reviewState };
+  const key = blockCacheKey(['fit-block', kind, fit.id, fit.version, ctx.units]);
+  const data = await cachedBlockData(ctx.em, key, { labId: ctx.lab.id, fitId: fit.id }, () => fitBodyOf(kind, fit, ctx.units));
+  return { ...data, head } as BlockBody;
 }
 
 async function sensorLogBody(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
@@ -73,7 +99,10 @@ async function sensorLogBody(ctx: BlockContext, block: StudyBlock): Promise<Bloc
   let overview = await ctx.em.findOne(SensorOverview, { sourceFile: file.id }, { populate: ['rig'] });
   if (!overview && (await ensureSensorOverview(pgPool(), file.id))) overview = await ctx.em.findOne(SensorOverview, { sourceFile: file.id }, { populate: ['rig'] });
   if (!overview) return { type: 'note', tone: 'muted', message: 'This file holds no logged samples (it was not imported as a sensor log).' };
-  const plots = await runAnalysis('sensorLogFigures', { points: overview.points, segments: overview.segments.map((s) => ({ startS: s.startS, endS: s.endS })), origin: overview.startedAt, samples: overview.samples, units: ctx.units });
+  // the overview is written once per log (and rebuilt only with a new id or time): its plots are kept under both
+  const key = blockCacheKey(['sensor-log-plots', overview.id, overview.updatedAt.getTime(), ctx.units]);
+  const plots = await cachedBlockData(ctx.em, key, { labId: ctx.lab.id }, () =>
+    runAnalysis('sensorLogFigures', { points: overview.points, segments: overview.segments.map((s) => ({ startS: s.startS, endS: s.endS })), origin: overview.startedAt, samples: overview.samples, units: ctx.units }));
   return {
     type: 'sensor-log',
     rigName: overview.rig.name,
@@ -86,6 +115,26 @@ async function sensorLogBody(ctx: BlockContext, block: StudyBlock): Promise<Bloc
     segmentCount: overview.segments.length,
     plots,
   };
+}
+
+/**
+ * A forecast block, kept in the block cache under what it reads: its settings (by hash), the
+ * saved coil fit it names (id and version: immutable), the unit system and the software version.
+ * A forecast that cannot be computed is not kept.
+ */
+async function forecastBody(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
+  const d = block.data;
+  const fits = ctx.fits ?? (await blockFits(ctx.em, ctx.lab, [block]));
+  const fit = typeof d.fitId === 'string' ? fits.get(d.fitId) : undefined;
+  const key = blockCacheKey(['forecast-block', jsonHash(d), fit ? `${fit.id}@${fit.version}` : 'no-fit', ctx.units]);
+  return cachedBlockData(ctx.em, key, { labId: ctx.lab.id, fitId: fit?.id ?? null }, async (): Promise<BlockBody> => {
+    const f = await forecast(ctx.em, ctx.lab, { ...d }, ctx.units, 'svg');
+    const { title, summary, svg, cautions } = f.plots.trajectory;
+    return {
+      type: 'forecast', finalTempC: f.finalTemp_degC, hoursToTarget: f.hoursToTarget_h, fitNote: f.fitNote, cautions: f.cautions, plot: { title, summary, svg: svg ?? '', ...(cautions?.length ? { cautions } : {}) },
+      equilibriumTempC: f.equilibriumTemp_degC, holdHoursPerDay: f.holdHoursPerDay_h, holdNote: f.holdNote, measuredDay: f.measuredDay ?? null,
+    };
+  });
 }
 
 /** A saved design comparison of the study's lab, recomputed (app/_lib/comparisons). */
@@ -109,9 +158,7 @@ async function body(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
       return { type: 'caution', items: [...(typeof d.text === 'string' && d.text.trim() ? [d.text.trim()] : []), ...STANDING_CAUTIONS] };
     case 'forecast':
       try {
-        const f = await forecast(ctx.em, ctx.lab, { ...d }, ctx.units, 'svg');
-        const { title, summary, svg, cautions } = f.plots.trajectory;
-        return { type: 'forecast', finalTempC: f.finalTemp_degC, hoursToTarget: f.hoursToTarget_h, fitNote: f.fitNote, cautions: f.cautions, plot: { title, summary, svg: svg ?? '', ...(cautions?.length ? { cautions } : {}) } };
+        return await forecastBody(ctx, block);
       } catch (e) {
         if (e instanceof DomainError && e.kind === 'unavailable') throw e;
         return { type: 'note', tone: 'danger', message: `This forecast cannot be computed: ${(e as Error).message}` };
@@ -133,7 +180,7 @@ async function body(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
       const fits = ctx.fits ?? (await blockFits(ctx.em, ctx.lab, [block]));
       const fit = fitId ? fits.get(fitId) : undefined;
       if (!fit) return { type: 'note', tone: 'muted', message: 'No saved fit chosen for this block yet.' };
-      return fitBody(block.kind, fit, ctx.publicView, ctx.units);
+      return fitBody(ctx, block.kind, fit);
     }
   }
 }
@@ -143,12 +190,13 @@ export async function blockData(ctx: BlockContext, block: StudyBlock): Promise<B
   return { id: block.id, kind: block.kind, units: ctx.units, body: await body(ctx, block) };
 }
 
-/** Every block of the study, in order (the fits they use loaded once). */
+/**
+ * Every block of the study, in order (the fits they use loaded once). The blocks are built side
+ * by side: what is not in the block cache is computed in the analysis pool, a thread per core.
+ */
 export async function studyBlocksData(ctx: Omit<BlockContext, 'fits'>): Promise<BlockData[]> {
   const full: BlockContext = { ...ctx, fits: await blockFits(ctx.em, ctx.lab, ctx.study.blocks) };
-  const out: BlockData[] = [];
-  for (const b of ctx.study.blocks) out.push(await blockData(full, b));
-  return out;
+  return Promise.all(ctx.study.blocks.map((b) => blockData(full, b)));
 }
 
 /** The lab's imported sensor logs (files with logged samples), newest first, for the editor's picker. */

@@ -2,12 +2,14 @@ import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { Fit, Rig, type StudyRow } from '@/entities';
 import type { UnitSystem } from '@/analysis/units/unit-system';
-import { STUDY_SHEETS, studyCsv, studyWorkbook, type FitExport, type ForecastExport, type PerformanceExport, type RunningCostExport, type StudyExport, type StudySheetName, type TrialExportRow } from '../exports';
+import { STUDY_SHEETS, studyCsv, studyWorkbook, type CollectorExport, type FitExport, type ForecastExport, type PerformanceExport, type RunningCostExport, type StudyExport, type StudySheetName, type TrialExportRow } from '../exports';
 import { costExport, costView } from '../forecasts/cost-sheet';
 import { DomainError } from '../server/errors';
 import { forecastForExport } from '../forecasts/forecasts';
 import { modelLabel, SOFTWARE_VERSION } from '../fits/fit-analysis';
 import { parseStoredFit } from '../fits/stored-fit';
+import { cachedFile } from '../server/http-cache';
+import { collectorModelLabel, parseStoredCollectorFit } from '../fits/collector-analysis';
 import { comparisonInLab, readComparison } from '../comparisons/comparisons';
 import type { DesignComparisonView } from '@/app/_contracts/design-comparison';
 import { isUuid } from '../labs/load-in-lab';
@@ -26,7 +28,14 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
   const trials: TrialExportRow[] = [];
   const fitExports: FitExport[] = [];
   const performance: PerformanceExport[] = [];
+  const collectors: CollectorExport[] = [];
   for (const f of fits) {
+    if (f.kind === 'collector') {
+      // solar collectors: the Collector sheet
+      const c = parseStoredCollectorFit(f.result, f.id);
+      collectors.push({ label: `${f.title} v${f.version}`, test: c.test, trialLabels: c.test.points.map((p) => c.trials[p.index]?.label ?? `trial ${p.index + 1}`) });
+      continue;
+    }
     const r = parseStoredFit(f.result, f.id);
     const label = `${f.title} v${f.version} (${modelLabel(f.model)})`;
     r.trials.forEach((t, i) =>
@@ -76,7 +85,7 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
       lab: labName,
       study: study.title,
       rig: rigs.map((r) => r.name).join(', ') || null,
-      model: fits.map((f) => modelLabel(f.model)).join(', ') || null,
+      model: fits.map((f) => (f.kind === 'collector' ? collectorModelLabel(f.model) : modelLabel(f.model))).join(', ') || null,
       fitTime: fits[0]?.createdAt ?? null,
       softwareVersion: SOFTWARE_VERSION,
       dataHash: fits.map((f) => f.trialsHash.slice(0, 16)).join(' ') || null,
@@ -85,6 +94,7 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
     fits: fitExports,
     performance,
     forecasts,
+    ...(collectors.length ? { collectors } : {}),
     ...(running.length ? { costs: { currency: running[0].currency, running } } : {}),
     ...(comparisons.length ? { comparisons } : {}),
     notes,
@@ -93,9 +103,12 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
 
 /**
  * The export response: XLSX by default; `?format=csv&table=Trials` (or Fit, Residuals,
- * Performance, Summary) gives one table as CSV, units in the header names.
+ * Performance, Summary) gives one table as CSV, units in the header names. Given the request, it
+ * answers with an ETag (private, revalidated) and 304 when the reader already has this file.
  */
-export async function exportResponse(data: StudyExport, title: string, search: URLSearchParams): Promise<Response> {
+export async function exportResponse(data: StudyExport, title: string, search: URLSearchParams, req?: { headers: Headers }): Promise<Response> {
+  // the file follows from its data, format and table: with the request, it carries an ETag of those and a 304 skips building it
+  if (req) return cachedFile(req, { data, title, format: search.get('format'), table: search.get('table') }, () => exportResponse(data, title, search));
   if (search.get('format') !== 'csv') return xlsxResponse(await studyWorkbook(data), title);
   const table = search.get('table') ?? 'Trials';
   if (!(STUDY_SHEETS as readonly string[]).includes(table)) throw new DomainError('invalid', 'invalid', `No table "${table}": choose one of ${STUDY_SHEETS.join(', ')}.`);

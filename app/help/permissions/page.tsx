@@ -23,7 +23,7 @@ export default function PermissionsHelp() {
             </div>
           ))}
         </dl>
-        <div className="card mt-6 overflow-x-auto">
+        <div className="card mt-6 overflow-x-auto" tabIndex={0}>
           <table className="data-table">
             <caption className="sr-only">What each role may do</caption>
             <thead>

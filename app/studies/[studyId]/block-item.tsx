@@ -56,7 +56,7 @@ export function BlockItem({ block: b, i, blocks, units, choices, setData, move, 
       ) : (
         <select aria-label={`Saved fit of block ${i + 1}`} className="field-input" value={String(b.data.fitId ?? '')} onChange={(e) => setData({ fitId: e.target.value || undefined })}>
           <option value="">Choose a saved fit…</option>
-          {fits.map((f) => (
+          {fits.filter((f) => (b.kind === 'collector') === !!f.collector).map((f) => (
             <option key={f.id} value={f.id}>
               {f.label}
             </option>

@@ -15,7 +15,7 @@ export function StudyEditor({ studyId, initial, initialReviewState, fits, logs, 
   studyId: string;
   initial: StudyState;
   initialReviewState: string;
-  fits: { id: string; label: string; coil: boolean }[];
+  fits: { id: string; label: string; coil: boolean; collector?: boolean }[];
   logs: { id: string; label: string }[];
   comparisons?: { id: string; label: string }[];
   units: UnitSystem;

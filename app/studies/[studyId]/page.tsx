@@ -66,7 +66,7 @@ export default async function StudyPage({ params, searchParams }: { params: Prom
             <StudyEditor
               studyId={study.id}
               initial={{ title: study.title, blocks: study.blocks as Parameters<typeof StudyEditor>[0]['initial']['blocks'], revision: study.revision }}
-              fits={fits.map((f) => ({ id: f.id, label: `${f.rig.name}: ${f.title} v${f.version} (${modelLabel(f.model)})`, coil: f.model === 'coil' }))}
+              fits={fits.map((f) => ({ id: f.id, label: `${f.rig.name}: ${f.title} v${f.version} (${f.kind === 'collector' ? 'collector curve' : modelLabel(f.model)})`, coil: f.model === 'coil', collector: f.kind === 'collector' }))}
               initialReviewState={study.reviewState}
               logs={logs}
               comparisons={comparisons.map((c) => ({ id: c.id, label: `${c.title} (${c.subjects.length} designs)` }))}

@@ -4,7 +4,9 @@
  */
 import type { UnitSystem } from '@/analysis/units/unit-system';
 
-export type Kind = 'text' | 'trials' | 'fit' | 'comparison' | 'performance' | 'forecast' | 'costs' | 'sensor-log' | 'caution' | 'design-comparison';
+export type Kind = 'text' | 'trials' | 'fit' | 'comparison' | 'performance' | 'forecast' | 'costs' | 'sensor-log' | 'caution' | 'design-comparison'
+  // solar collectors
+  | 'collector';
 export interface Block {
   id: string;
   kind: Kind;
@@ -18,7 +20,7 @@ export interface StudyState {
 
 /** The saved fits and imported logs the editor offers. */
 export interface EditorChoices {
-  fits: { id: string; label: string; coil: boolean }[];
+  fits: { id: string; label: string; coil: boolean; collector?: boolean }[];
   logs: { id: string; label: string }[];
   /** the lab's saved design comparisons */
   comparisons: { id: string; label: string }[];
@@ -35,6 +37,8 @@ export const KINDS: { kind: Kind; label: string }[] = [
   { kind: 'sensor-log', label: 'Sensor log' },
   { kind: 'caution', label: 'Caution box' },
   { kind: 'design-comparison', label: 'Design comparison' },
+  // solar collectors
+  { kind: 'collector', label: 'Collector efficiency' },
 ];
 export const kindLabel = (k: Kind) => KINDS.find((x) => x.kind === k)?.label ?? k;
 export const newBlockId = () => Math.random().toString(36).slice(2, 10);
@@ -97,7 +101,13 @@ export function newBlockData(kind: Kind, units: UnitSystem, { fits, logs, compar
       return logs[0] ? { sourceFileId: logs[0].id } : {};
     case 'design-comparison':
       return comparisons[0] ? { comparisonId: comparisons[0].id } : {};
-    default:
-      return fits[0] ? { fitId: fits[0].id } : {};
+    case 'collector': {
+      const c = fits.find((f) => f.collector);
+      return c ? { fitId: c.id } : {};
+    }
+    default: {
+      const heater = fits.find((f) => !f.collector);
+      return heater ? { fitId: heater.id } : {};
+    }
   }
 }

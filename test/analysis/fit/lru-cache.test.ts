@@ -39,6 +39,18 @@ describe('LruCache', () => {
     expect(cache.has('m99') && cache.has('m95') && !cache.has('m94')).toBe(true);
   });
 
+  test('a deleted entry is made again on the next get, and the order of the rest is kept', () => {
+    const cache = new LruCache<number>(2);
+    let made = 0;
+    cache.get('a', () => { made++; return 1; });
+    cache.get('b', () => 2);
+    cache.delete('b');
+    expect(cache.has('b')).toBe(false);
+    expect(cache.get('b', () => { made++; return 3; })).toBe(3);
+    cache.get('c', () => 4); // 'a' was used longest ago: it goes
+    expect([cache.has('a'), cache.has('b'), cache.has('c'), made]).toEqual([false, true, true, 2]);
+  });
+
   test.each([0, -1, 2.5, Number.NaN])('refuses capacity %s with a RangeError', (c) => {
     expect(() => new LruCache<number>(c)).toThrow(RangeError);
   });

@@ -70,6 +70,18 @@ describe('coil with a linear loss: the closed form of the linear ODE (DOMAIN.md 
     expect(r.energy.netJ / (M * CP * (r.finalTempC - T0))).toBeCloseTo(1, 9);
     expect(r.energy.wallsJ).toBeGreaterThan(0);
   });
+  test('the heater hours per day that hold a target: duty·εC·(Ts − T*) = UA_L·(T* − Tg), so h = 24·UA_L·(T* − Tg)/(εC·(Ts − T*)) (closed form)', () => {
+    const eC = effectiveness(ua, m) * m * CP;
+    const target = 30;
+    const r = recirculatingForecast({ ...base, targetTempC: target });
+    expect(r.holdHoursPerDay!).toBeCloseTo((24 * uaLoss * (target - Tg)) / (eC * (Ts - target)), 6);
+    // above the equilibrium with the heater on all day, no number of hours holds it
+    const hot = recirculatingForecast({ ...base, targetTempC: 65 });
+    expect(hot.holdHoursPerDay).toBeNull();
+    expect(hot.holdNote).toMatch(/Even 24 h a day cannot hold 65 °C/);
+    // at or below the ground temperature the losses are gains: no hours
+    expect(recirculatingForecast({ ...base, targetTempC: 10 }).holdHoursPerDay).toBe(0);
+  });
 });
 
 describe('every loss term on, a small tub, steps up to an hour: against RK4 with a 2-s step (high-accuracy ODE solution)', () => {

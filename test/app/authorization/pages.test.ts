@@ -65,6 +65,7 @@ const PAGES: Record<string, PageCase> = {
   'app/rigs/[rigId]/import/page.tsx': { path: (f) => `/rigs/${f.rig.id}/import`, expect: labPage(WRITERS, 404), marker: (f) => f.rig.name },
   // lab A's rig named in the query: lab B's owner gets the page of their own lab, without it
   'app/trials/page.tsx': { path: (f) => `/trials?rig=${f.rig.id}`, expect: labPage(ROLES, 200), marker: (f) => f.rig.name, listsLab: true },
+  'app/sessions/[sessionId]/page.tsx': { path: (f) => `/sessions/${f.sessions.open}`, expect: labPage(ROLES, 404), marker: (f) => `Authz session ${f.run}` },
   'app/fits/page.tsx': { path: () => '/fits', expect: labPage(ROLES, 200), marker: (f) => f.fit.title, listsLab: true },
   'app/fits/[fitId]/page.tsx': { path: (f) => `/fits/${f.fit.id}`, expect: labPage(ROLES, 404), marker: (f) => f.fit.title },
   'app/forecasts/page.tsx': { path: () => '/forecasts', expect: labPage(ROLES, 200), marker: (f) => f.fit.title, listsLab: true },
@@ -90,7 +91,7 @@ describe('every page has an entry in the matrix', () => {
   test('a page path is its file path with the segments filled in', () => {
     for (const [file, c] of Object.entries(PAGES)) {
       const pattern = file.replace(/^app/, '').replace(/\/page\.tsx$/, '').replace(/\[\w+\]/g, '[^/]+') || '/';
-      const fake = { share: { token: 't' }, invitation: { token: 't' }, rig: { id: 'r' }, fit: { id: 'f' }, study: { id: 's' }, comparison: { id: 'c' } } as unknown as LabFixture;
+      const fake = { share: { token: 't' }, invitation: { token: 't' }, rig: { id: 'r' }, fit: { id: 'f' }, study: { id: 's' }, sessions: { open: 'o', closed: 'c' }, comparison: { id: 'c' } } as unknown as LabFixture;
       expect(c.path(fake).split('?')[0], file).toMatch(new RegExp(`^${pattern}$`));
     }
   });

@@ -371,6 +371,7 @@ const MATRIX: Record<string, Case[]> = {
     },
   ],
   'app/api/labs/[labId]/forecast/route.ts': [{ method: 'POST', url: (f) => `/api/labs/${f.labId}/forecast`, body: () => ({ hours: 'soon' }), expect: labA(422, MEMBERS) }],
+  'app/api/labs/[labId]/tub-fill/route.ts': [{ method: 'POST', url: (f) => `/api/labs/${f.labId}/tub-fill`, body: () => ({ tubVolume: 'full' }), expect: labA(422, MEMBERS) }],
   'app/api/labs/[labId]/studies/route.ts': [
     { method: 'GET', url: (f) => `/api/labs/${f.labId}/studies`, expect: labA(200, MEMBERS) },
     { method: 'POST', url: (f) => `/api/labs/${f.labId}/studies`, body: () => ({ title: '' }), expect: labA(422, WRITERS, { session: true }) },

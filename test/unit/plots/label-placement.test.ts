@@ -1,6 +1,7 @@
 /**
  * Label placement (app/_plots/label-placement.ts) and the fit plot's labels as drawn: no two
- * label boxes overlap, and no model label covers a trial, at a desktop and at a phone's width.
+ * label boxes overlap, and no label (a model's or a reference line's) covers a trial, at a desktop
+ * and at a phone's width.
  * Boxes are measured with the same estimate as the placement (0.6 em a glyph, 1.2 em a line:
  * common practice for a proportional sans-serif), from the positions Plot wrote into the SVG.
  */
@@ -71,7 +72,7 @@ describe('fit plot labels', () => {
     ['a desktop, US units', 'us', { width: 640, height: 360 }],
     ['a phone (360 px)', 'si', { width: 340, height: 300 }],
     ['a phone (360 px), US units', 'us', { width: 340, height: 300 }],
-  ] as const)('on %s no label box overlaps another, and no model label covers a trial', (_, units, size) => {
+  ] as const)('on %s no label box overlaps another or covers a trial', (_, units, size) => {
     const { doc, labels } = labelBoxes(renderSvg(fitCurvePlot(input, units, size).options));
     const models = labels.filter((l) => l.group === 'model labels');
     expect(models.map((l) => l.text).sort()).toEqual(['coil', 'exp-inlet', 'power']);
@@ -83,7 +84,7 @@ describe('fit plot labels', () => {
     }
     const dots = [...doc.querySelectorAll('g[aria-description="trials"] circle, g[aria-description="excluded trials"] circle')];
     expect(dots.length).toBe(coilTrials().x.length + 1);
-    for (const m of models) {
+    for (const m of labels) {
       for (const c of dots) {
         const [cx, cy] = [Number(c.getAttribute('cx')), Number(c.getAttribute('cy'))];
         expect(overlapArea(m.box, { x: cx - 4, y: cy - 4, width: 8, height: 8 }), `${m.text} over the trial at ${cx}, ${cy}`).toBe(0);

@@ -42,5 +42,5 @@ export const GET = route<{ fitId: string }>({ auth: 'user' }, async (ctx) => {
     performance: [{ label, table: r.performance }],
     notes: [`Review state: ${fit.reviewState}.`],
   };
-  return exportResponse(data, `${fit.title}-v${fit.version}`, ctx.req.nextUrl.searchParams);
+  return exportResponse(data, `${fit.title}-v${fit.version}`, ctx.req.nextUrl.searchParams, ctx.req);
 });

@@ -7,5 +7,5 @@ import { sharedStudy, shareUnits } from '@/app/_lib/studies/studies';
 export const GET = route<{ token: string }>({ auth: 'public' }, async (ctx) => {
   const link = await sharedStudy(ctx.em, ctx.params.token);
   if (!link) throw notFound('This share link has expired or was revoked.');
-  return exportResponse(await studyExportData(ctx.em, link.study, link.lab.name, shareUnits(ctx.req.nextUrl.searchParams.get('units'), ctx.actor?.user.unitSystem)), link.study.title, ctx.req.nextUrl.searchParams);
+  return exportResponse(await studyExportData(ctx.em, link.study, link.lab.name, shareUnits(ctx.req.nextUrl.searchParams.get('units'), ctx.actor?.user.unitSystem)), link.study.title, ctx.req.nextUrl.searchParams, ctx.req);
 });

@@ -1,0 +1,147 @@
+/**
+ * The main pages in Chromium, as an engineer of the demo lab: landing, rigs, a rig, the fit
+ * workbench, import, forecast (with its result), a study, its share link, a saved fit, members and
+ * account.
+ *
+ * - At 360 px (a small phone, common practice) no page scrolls sideways: the document is no wider
+ *   than the viewport, and the header folds the account and lab controls into a Menu disclosure
+ *   that works from the keyboard (WAI-ARIA APG disclosure pattern: Enter opens, Escape closes and
+ *   returns focus).
+ * - axe-core finds nothing of serious or critical impact on any of them, at a desktop's width and
+ *   a phone's (the WCAG 2.1 A and AA rules and axe's best practices).
+ */
+import { readFileSync } from 'node:fs';
+import path from 'node:path';
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { signedIn } from '../app/support/client';
+import { openBrowser, screenshot, signInAs, visit } from './support/browser';
+
+const AXE_SOURCE = readFileSync(path.resolve(__dirname, '..', '..', 'node_modules', 'axe-core', 'axe.min.js'), 'utf8');
+const AXE_TAGS = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'best-practice'];
+
+interface MainPage {
+  name: string;
+  path: () => string;
+  /** waits for what the page draws after its first paint */
+  ready?: (p: Page) => Promise<void>;
+}
+
+const ids = { rig: '', fit: '', study: '', share: '' };
+
+const PAGES: MainPage[] = [
+  { name: 'landing', path: () => '/' },
+  { name: 'rigs', path: () => '/rigs' },
+  { name: 'rig', path: () => `/rigs/${ids.rig}` },
+  { name: 'fit', path: () => `/rigs/${ids.rig}/fit`, ready: (p) => p.getByRole('heading', { name: 'Model comparison' }).waitFor() },
+  { name: 'import', path: () => `/rigs/${ids.rig}/import` },
+  {
+    name: 'forecast',
+    path: () => '/forecasts',
+    ready: async (p) => {
+      await p.getByLabel('Heater', { exact: true }).selectOption('');
+      await p.getByLabel(/^Price/).fill('3');
+      await p.getByLabel(/^Efficiency/).fill('0.82');
+      await p.getByRole('button', { name: 'Forecast' }).click();
+      await p.getByText('Rise per hour by pump flow').waitFor();
+    },
+  },
+  { name: 'study', path: () => `/studies/${ids.study}`, ready: (p) => p.locator('[data-block="fit"] svg').first().waitFor() },
+  { name: 'share', path: () => ids.share, ready: (p) => p.locator('[data-block="fit"] svg').first().waitFor() },
+  { name: 'fit detail', path: () => `/fits/${ids.fit}` },
+  { name: 'members', path: () => '/lab/members' },
+  { name: 'account', path: () => '/account' },
+];
+
+/** Serious and critical axe findings on the page as it is now, one line each. */
+async function axeFindings(p: Page): Promise<string[]> {
+  // evaluated through the DevTools protocol, which the page's Content-Security-Policy does not govern
+  await p.evaluate(AXE_SOURCE);
+  const violations = await p.evaluate(async (tags) => {
+    const axe = (window as unknown as { axe: { run: (ctx: Document, o: object) => Promise<{ violations: { id: string; impact: string; help: string; nodes: { target: string[]; failureSummary?: string }[] }[] }> } }).axe;
+    const r = await axe.run(document, { runOnly: { type: 'tag', values: tags }, resultTypes: ['violations'] });
+    return r.violations.map((v) => ({ id: v.id, impact: v.impact, help: v.help, nodes: v.nodes.slice(0, 5).map((n) => `${n.target.join(' ')}${n.failureSummary ? ` (${n.failureSummary.split('\n').slice(1, 2).join('').trim()})` : ''}`) }));
+  }, AXE_TAGS);
+  return violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.impact} ${v.id}: ${v.help} — ${v.nodes.join('; ')}`);
+}
+
+describe('the main pages in Chromium', () => {
+  let desk: Awaited<ReturnType<typeof openBrowser>>;
+  let phone: Awaited<ReturnType<typeof openBrowser>>;
+
+  beforeAll(async () => {
+    // a saved fit, a study that shows it and a share link of the study, made through the API
+    const eng = await signedIn('engineer@cinder-hollow.test');
+    const lab = (await eng.get('/api/me')).body.labs[0];
+    const rig = (await eng.get(`/api/labs/${lab.id}/rigs`)).body.rigs.find((r: { name: string }) => r.name === 'Stovepipe Coil A');
+    const trialIds = (await eng.get(`/api/rigs/${rig.id}/trials?pageSize=500`)).body.trials.filter((t: { origin: string }) => t.origin === 'demo').map((t: { id: string }) => t.id);
+    const fit = (await eng.post(`/api/labs/${lab.id}/fits`, { rigId: rig.id, title: `Main pages fit ${Date.now().toString(36)}`, model: 'coil', trialIds })).body.fit;
+    const study = (await eng.post(`/api/labs/${lab.id}/studies`, { title: `Main pages study ${Date.now().toString(36)}` })).body.study;
+    const cur = (await eng.get(`/api/studies/${study.id}`)).body.study;
+    const text = { id: 'note', kind: 'text', data: { markdown: 'Read the [roles and permissions](/help/permissions) before you share this.' } };
+    const saved = await eng.request('PUT', `/api/studies/${study.id}`, { title: cur.title, baseRevision: cur.revision, blocks: [...cur.blocks, text, { id: 'f1', kind: 'fit', data: { fitId: fit.id } }] });
+    expect(saved.status, saved.text).toBe(200);
+    const share = await eng.post(`/api/studies/${study.id}/shares`, { days: 7 });
+    expect(share.status, share.text).toBe(201);
+    Object.assign(ids, { rig: rig.id, fit: fit.id, study: study.id, share: new URL(share.body.url).pathname });
+
+    desk = await openBrowser({ viewport: { width: 1280, height: 860 } });
+    phone = await openBrowser({ viewport: { width: 360, height: 760 } });
+    await signInAs(desk.page, 'engineer@cinder-hollow.test');
+    await signInAs(phone.page, 'engineer@cinder-hollow.test');
+  }, 180_000);
+  afterAll(async () => {
+    await desk?.close();
+    await phone?.close();
+  });
+
+  test.each(PAGES)('$name: at 360 px nothing scrolls sideways, and axe finds nothing serious', async (page) => {
+    const p = phone.page;
+    await visit(p, page.path());
+    await page.ready?.(p);
+    const { scrollWidth, innerWidth, widest } = await p.evaluate(() => ({
+      scrollWidth: document.documentElement.scrollWidth,
+      innerWidth: window.innerWidth,
+      // the innermost elements that reach past the right edge, to say what makes the page too wide
+      widest: [...document.querySelectorAll('body *')]
+        .filter((el) => el.getBoundingClientRect().right > window.innerWidth + 0.5 && ![...el.children].some((c) => c.getBoundingClientRect().right > window.innerWidth + 0.5))
+        .slice(0, 4)
+        .map((el) => `${el.tagName.toLowerCase()}${el.id ? `#${el.id}` : ''}.${[...el.classList].slice(0, 3).join('.')} (${Math.round(el.getBoundingClientRect().right)} px)`),
+    }));
+    expect(scrollWidth, `${page.name}: the page lays out ${scrollWidth} px wide in a ${innerWidth} px viewport; past the edge: ${widest.join(', ')}`).toBeLessThanOrEqual(innerWidth);
+    await screenshot(p, `phone-${page.name.replace(/ /g, '-')}`);
+    expect(await axeFindings(p)).toEqual([]);
+  });
+
+  test.each(PAGES)('$name: at a desktop width axe finds nothing serious or critical', async (page) => {
+    const p = desk.page;
+    await visit(p, page.path());
+    await page.ready?.(p);
+    expect(await axeFindings(p)).toEqual([]);
+  });
+
+  test('the phone header opens its Menu from the keyboard and closes it with Escape', async () => {
+    const p = phone.page;
+    await visit(p, '/rigs');
+    const menu = p.getByRole('button', { name: 'Menu' });
+    await expect(menu.getAttribute('aria-expanded')).resolves.toBe('false');
+    await expect(p.getByRole('button', { name: 'Sign out', exact: true }).isVisible()).resolves.toBe(false);
+    await menu.focus();
+    await p.keyboard.press('Enter');
+    await expect(menu.getAttribute('aria-expanded')).resolves.toBe('true');
+    await p.getByRole('button', { name: 'Sign out', exact: true }).waitFor();
+    await expect(p.getByRole('link', { name: /Notices/ }).isVisible()).resolves.toBe(true);
+    await expect(p.getByLabel('Current lab').isVisible()).resolves.toBe(true);
+    await screenshot(p, 'phone-header-menu-open');
+    const { scrollWidth, innerWidth } = await p.evaluate(() => ({ scrollWidth: document.documentElement.scrollWidth, innerWidth: window.innerWidth }));
+    expect(scrollWidth).toBeLessThanOrEqual(innerWidth);
+    expect(await axeFindings(p)).toEqual([]);
+    await p.keyboard.press('Escape');
+    await expect(menu.getAttribute('aria-expanded')).resolves.toBe('false');
+    await expect(p.evaluate(() => document.activeElement?.textContent?.trim())).resolves.toBe('Menu');
+    // at a desktop width the controls sit in the bar and there is no Menu button
+    await visit(desk.page, '/rigs');
+    await expect(desk.page.getByRole('button', { name: 'Menu' }).isVisible()).resolves.toBe(false);
+    await expect(desk.page.getByRole('button', { name: 'Sign out', exact: true }).isVisible()).resolves.toBe(true);
+  });
+});
