@@ -17,6 +17,8 @@ async function main() {
       return;
     }
     // loaded only in demo mode: the seed uses app/_lib, which needs `--conditions=react-server` (scripts/lib/bootstrap.mjs)
+    // a one-shot script: the seed's fits and comparisons run in this thread, not in a worker pool that would outlive it
+    process.env.EMBERLINE_ANALYSIS_THREADS ??= '0';
     const { seedDemoLab } = await import('./seed');
     const seeded = await seedDemoLab(orm.em.fork());
     console.log(seeded ? '  demo lab loaded' : '  demo lab already present');

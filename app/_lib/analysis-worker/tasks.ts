@@ -1,7 +1,7 @@
 /**
  * The tasks of the analysis worker pool: every CPU-heavy computation the request paths ask for
- * (fits and model comparisons, saved-fit results, forecasts, segmentation previews, server-side
- * plot rendering), each a pure function of structured-cloneable data. Loaded in the worker
+ * (fits and model comparisons, saved-fit results, design comparisons, forecasts, segmentation
+ * previews, server-side plot rendering), each a pure function of structured-cloneable data. Loaded in the worker
  * threads only (entry.cjs), so nothing here may import `server-only`, entities or the ORM.
  * app/_lib/server/analysis-pool.ts is the one caller (`runAnalysis(name, input)`).
  */
@@ -10,6 +10,7 @@ import { InputError } from '@/analysis/units/reading-input';
 import { computeAnalysis, computeSavedFit, fitBlockFigure, savedFitFigures } from '../fits/fit-compute';
 import { computeForecast, computeForecastResult } from '../forecasts/forecast-compute';
 import { sensorLogFigures } from '../studies/block-figures';
+import { computeComparison } from '../comparisons/comparison-compute';
 import { previewSegments, previewSeries } from '../imports/preview-segments';
 import type { SensorLog } from '../imports/sensor-log';
 import type { SegmentPreviewInput } from '../imports/sensor-preview';
@@ -30,6 +31,7 @@ export const TASKS = {
   forecast: computeForecast,
   forecastResult: computeForecastResult,
   sensorLogFigures,
+  designComparison: computeComparison,
   previewSegments: (t: PreviewTask) => previewSegments(t.log, t.input),
   previewSeries: (t: PreviewTask) => previewSeries(t.log, t.input),
   sessionPlan: computeSessionPlan,

@@ -20,7 +20,8 @@ const threadsEnv = process.env.EMBERLINE_ANALYSIS_THREADS;
  * FOR TESTS ONLY: `EMBERLINE_ANALYSIS_THREADS=0` (set by vitest.config.mts) runs each task in the
  * calling thread, so unit tests that call `app/_lib` functions directly need no worker threads
  * (which would compile the TypeScript again with tsx). The servers (`npm start`, `npm test`'s
- * server, the benchmarks) never set it.
+ * server, the benchmarks) never set it; the one-shot demo seed (scripts/setup-db.ts) does, so that no
+ * worker threads outlive it.
  */
 const IN_PROCESS = threadsEnv === '0';
 export const ANALYSIS_THREADS = Math.max(1, Math.floor(Number(threadsEnv) || os.availableParallelism()));
