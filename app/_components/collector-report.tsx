@@ -85,7 +85,7 @@ export function CollectorReport({ view, filename = 'collector' }: { view: Collec
       </section>
       <section className="card p-4">
         <h2 className="text-lg">Points</h2>
-        <div className="overflow-x-auto">
+        <div className="relative overflow-x-auto">
           <table className="data-table w-full text-sm">
             <thead><tr><th scope="col">Trial</th><th scope="col">x (m²·K/W)</th><th scope="col">Tm (°C)</th><th scope="col">Heat (W)</th><th scope="col">η</th><th scope="col">Fitted</th><th scope="col">Residual</th></tr></thead>
             <tbody>

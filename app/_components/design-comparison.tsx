@@ -60,7 +60,7 @@ export function DesignComparison({ view: v, units, links = true, filename = 'com
         <PlotFigure {...v.plots.outlet} filename={`${filename}-outlet`} />
         <PlotFigure {...v.plots.heat} filename={`${filename}-heat`} />
       </div>
-      <section className="card overflow-x-auto p-4">
+      <section className="card relative overflow-x-auto p-4">
         <table className="data-table">
           <caption className="px-3 py-2 text-left text-sm font-semibold text-ink">The designs side by side ({pct} % intervals)</caption>
           <thead>
@@ -119,7 +119,7 @@ export function DesignComparison({ view: v, units, links = true, filename = 'com
           </tbody>
         </table>
       </section>
-      <section className="card overflow-x-auto p-4">
+      <section className="card relative overflow-x-auto p-4">
         <table className="data-table">
           <caption className="px-3 py-2 text-left text-sm font-semibold text-ink">Each design against {v.designs[0].key} ({pct} % intervals)</caption>
           <thead>
@@ -164,7 +164,7 @@ export function DesignComparison({ view: v, units, links = true, filename = 'com
           ))}
         </ul>
       </section>
-      <section className="card overflow-x-auto p-4">
+      <section className="card relative overflow-x-auto p-4">
         <table className="data-table">
           <caption className="px-3 py-2 text-left text-sm font-semibold text-ink">Heat delivered at {withUnit(v.inletTempC, u.temp)} inlet and common flows</caption>
           <thead>

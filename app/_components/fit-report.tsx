@@ -21,7 +21,7 @@ export function ParameterTable({ fit }: { fit: FitView }) {
   const unknown = fit.warnings.filter((w) => w.code === 'not-identifiable');
   const undetermined = new Set(unknown.map((w) => w.parameter).filter(Boolean));
   return (
-    <div className="overflow-x-auto" tabIndex={0}>
+    <div className="relative overflow-x-auto" tabIndex={0}>
       {unknown.length ? (
         <div role="note" className="mb-2 rounded-lg border border-danger-line bg-danger-bg px-3 py-2 text-sm text-danger-text">
           <p className="font-semibold">These trials cannot determine every parameter.</p>
@@ -121,7 +121,7 @@ export function ComparisonTable({ comparison, units }: { comparison: ComparisonV
       <p className="mb-3 rounded-lg bg-paper-deep px-3 py-2 text-sm text-ink" role="note">
         {comparison.verdict}
       </p>
-      <div className="overflow-x-auto" tabIndex={0}>
+      <div className="relative overflow-x-auto" tabIndex={0}>
         <table className="data-table">
           <thead>
             <tr>
@@ -207,7 +207,7 @@ export function FlowChoice({ choice, units }: { choice: ChoiceView; units: UnitS
 
 export function PerformanceTableView({ table, units }: { table: PerformanceView; units: UnitSystem }) {
   return (
-    <div className="overflow-x-auto" tabIndex={0}>
+    <div className="relative overflow-x-auto" tabIndex={0}>
       <table className="data-table">
         <caption className="py-1 text-left text-sm font-semibold text-ink">
           Performance at an inlet of <TempValue tempC={table.inletTempC} units={units} withUnit /> (95 % prediction intervals)

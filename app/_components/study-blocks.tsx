@@ -197,7 +197,7 @@ export function BlockView({ block }: { block: BlockData }) {
             <PlotFigure key={p.title} {...p} filename={i === 0 ? 'sensor-log-temperatures' : 'sensor-log-flow'} />
           ))}
           {b.segments.length ? (
-            <div className="overflow-x-auto" tabIndex={0}>
+            <div className="relative overflow-x-auto" tabIndex={0}>
               <table className="data-table">
                 <caption className="px-3 py-2 text-left text-sm font-semibold text-ink">
                   Steady segments (means){b.segmentCount > b.segments.length ? `: the first ${b.segments.length} of ${b.segmentCount.toLocaleString('en-US')}` : ''}

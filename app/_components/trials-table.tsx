@@ -82,7 +82,7 @@ export function TrialsTable({ rigId, units, canWrite }: { rigId: string; units: 
           { where: 'inlet', valuesC: [data?.hottest?.inletTempC, ...rows.map((r) => r.inletTempC)] },
         ]}
       />
-      <div className="card overflow-x-auto" aria-busy={isLoading} tabIndex={0}>
+      <div className="card relative overflow-x-auto" aria-busy={isLoading} tabIndex={0}>
         <table className="data-table">
           <thead>
             <tr>

@@ -70,7 +70,7 @@ export function TokenManager({ labs, initial }: { labs: { id: string; name: stri
           <p className="num mt-1 break-all text-ink" data-testid="new-token">{secret}</p>
         </div>
       ) : null}
-      <div className="overflow-x-auto" tabIndex={0}>
+      <div className="relative overflow-x-auto" tabIndex={0}>
         <table className="data-table">
           <thead>
             <tr>

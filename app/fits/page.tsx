@@ -14,7 +14,7 @@ export default async function FitsPage() {
   return (
     <AppPage viewer={v} title="Fits" lead="Saved fits of this lab: each records its trials, model, settings and results, and goes through review.">
       {fits.length ? (
-        <div className="card overflow-x-auto" tabIndex={0}>
+        <div className="card relative overflow-x-auto" tabIndex={0}>
           <table className="data-table">
             <thead>
               <tr>

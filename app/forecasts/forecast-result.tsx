@@ -82,7 +82,7 @@ export function ForecastResultView({ res, units }: { res: ForecastResult; units:
         </dl>
       ) : null}
       {res.riseTable ? (
-        <div className="card overflow-x-auto p-4" tabIndex={0}>
+        <div className="card relative overflow-x-auto p-4" tabIndex={0}>
           <table className="data-table">
             <caption className="py-1 text-left text-sm font-semibold text-ink">Rise per hour by pump flow and pool size, at the start temperature</caption>
             <thead>

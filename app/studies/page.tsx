@@ -14,7 +14,7 @@ export default async function StudiesPage() {
   return (
     <AppPage viewer={v} title="Studies" lead="Notebook pages that bring trials, fits and forecasts together for review and sharing.">
       <div className="grid gap-6 lg:grid-cols-[1fr_20rem]">
-        <div className="card overflow-x-auto" tabIndex={0}>
+        <div className="card relative overflow-x-auto" tabIndex={0}>
           <table className="data-table">
             <thead>
               <tr>

@@ -57,7 +57,7 @@ beforeAll(async () => {
   dbUrl = u.toString();
   await ensureDatabase(dbUrl, { fresh: true });
   const setup = spawnSync(process.execPath, [path.join(root, 'node_modules/tsx/dist/cli.mjs'), path.join(root, 'scripts/setup-db.ts')], {
-    cwd: root, env: { ...process.env, DATABASE_URL: dbUrl, EMBERLINE_DEMO: 'true' }, encoding: 'utf8',
+    cwd: root, env: { ...process.env, DATABASE_URL: dbUrl, EMBERLINE_DEMO: 'true', NODE_OPTIONS: `${process.env.NODE_OPTIONS ?? ''} --conditions=react-server`.trim() }, encoding: 'utf8',
   });
   if (setup.status !== 0) throw new Error(`migrations of emberline_multi failed: ${setup.stderr || setup.stdout}`);
   db = new pg.Pool({ connectionString: dbUrl, max: 3 });

@@ -11,7 +11,7 @@ export default async function AuditPage() {
   const events = (await auditOf(v.em, v.current.lab)).map(auditDto);
   return (
     <AppPage viewer={v} title="Audit log" lead="Security events of this lab: invitations, role changes, tokens. Newest first.">
-      <div className="card overflow-x-auto" tabIndex={0}>
+      <div className="card relative overflow-x-auto" tabIndex={0}>
         <table className="data-table">
           <thead>
             <tr>

@@ -23,7 +23,7 @@ export default async function MembersPage() {
   return (
     <AppPage viewer={v} title="Members" lead={`Who works in ${lab.name}, and in which role.`}>
       <div className="grid gap-6 lg:grid-cols-[1.6fr_1fr]">
-        <section className="card overflow-x-auto p-0" aria-labelledby="members-h" tabIndex={0}>
+        <section className="card relative overflow-x-auto p-0" aria-labelledby="members-h" tabIndex={0}>
           <h2 id="members-h" className="px-5 pt-4 text-lg">People</h2>
           <table className="data-table mt-2">
             <thead>

@@ -90,7 +90,7 @@ export function ColumnMapping({ wizard, duplicate }: { wizard: ImportWizardApi; 
               </ul>
             </details>
           ) : null}
-          <div className="overflow-x-auto" tabIndex={0}>
+          <div className="relative overflow-x-auto" tabIndex={0}>
             <table className="data-table">
               <thead>
                 <tr>

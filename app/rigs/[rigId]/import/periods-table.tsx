@@ -12,7 +12,7 @@ export function PeriodsTable({ log, preview, units }: { log: LogPeriodsApi; prev
   const { choices, page, measuring } = log.state;
   return (
     <>
-          <div className="overflow-x-auto" tabIndex={0}>
+          <div className="relative overflow-x-auto" tabIndex={0}>
             <table className="data-table" aria-label="Steady periods">
               <caption className="py-1 text-left text-sm font-semibold">Periods to import as trials{measuring ? ' — measuring…' : ''}</caption>
               <thead>
