@@ -28,6 +28,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import pg from 'pg';
+import { mulberry32 } from '../analysis/fit/random';
 
 const root = path.resolve(__dirname, '..');
 const argv = process.argv.slice(2);
@@ -90,18 +91,6 @@ function must(a: Answer, what: string): any {
 function quantile(sorted: number[], q: number): number {
   if (!sorted.length) return NaN;
   return sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil(q * sorted.length) - 1))];
-}
-
-/** mulberry32, a small seeded generator (the same the demo data uses). */
-function mulberry32(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
 }
 
 /** 50 invented bucket trials: the constant-source coil, Tout = Ts − (Ts − Tin)·exp(−UA/(ṁ·cp)) (DOMAIN.md §1.2). */
