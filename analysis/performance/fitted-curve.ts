@@ -64,7 +64,22 @@ export function fittedCurve(fit: FitSuccess): FittedCurve {
   if (!compiled.ok) throw new RangeError(`cannot evaluate the fitted model: ${compiled.reason}`);
   const model = compiled.model;
   const tin = spec.covariates.Tin;
-  const covFor = (m: number, inletC: number) => heaterCovariates(model.covariates, m, inletC, spec.covariateMeans);
+  // The covariates at one inlet are the same for every flow and parameter vector: a flow search or a
+  // delta-method gradient evaluates the curve thousands of times at one inlet, so the IF97 values
+  // are worked out once per inlet temperature (the values are identical, only not recomputed).
+  const perInlet = new Map<number, Record<string, number>>();
+  const covFor = (m: number, inletC: number): Record<string, number[]> => {
+    let one = perInlet.get(inletC);
+    if (!one) {
+      const c = heaterCovariates(model.covariates, 1, inletC, spec.covariateMeans);
+      one = Object.fromEntries(Object.entries(c).map(([k, v]) => [k, v[0]]));
+      if (perInlet.size > 64) perInlet.clear();
+      perInlet.set(inletC, one);
+    }
+    const out: Record<string, number[]> = {};
+    for (const k in one) out[k] = new Array(m).fill(one[k]);
+    return out;
+  };
   return {
     model: fit.model,
     parameterNames: spec.parameterNames.slice(),
