@@ -299,7 +299,7 @@ async function main() {
   const { bootstrap } = (await lib('bootstrap.mjs')) as { bootstrap(o: { database: string; demo: boolean }): Promise<{ databaseUrl: string; stop(): void }> };
   const { buildIfChanged } = (await lib('build.mjs')) as { buildIfChanged(): boolean };
   const { startFakes } = (await lib('fakes.mjs')) as { startFakes(): Promise<{ env: Record<string, string>; stop(): void }> };
-  const { freePort, waitForHealth } = (await lib('util.mjs')) as { freePort(): Promise<number>; waitForHealth(url: string, web: ChildProcess): Promise<void> };
+  const { freePort, waitForHealth, webProcesses } = (await lib('util.mjs')) as { freePort(): Promise<number>; waitForHealth(url: string, web: ChildProcess): Promise<void>; webProcesses(): number };
   const db = await bootstrap({ database: 'emberline', demo: true });
   let web: ChildProcess | null = null;
   let fakes: { stop(): void } | null = null;
@@ -311,7 +311,7 @@ async function main() {
     const port = await freePort();
     const base = `http://127.0.0.1:${port}`;
     const env = { ...process.env, ...f.env, DATABASE_URL: db.databaseUrl, NODE_ENV: 'production', NEXT_TELEMETRY_DISABLED: '1', EMBERLINE_DEMO: 'true', APP_URL: base } as NodeJS.ProcessEnv;
-    web = spawn(process.execPath, [path.join(root, 'scripts/serve.mjs'), '-H', '127.0.0.1', '-p', String(port)], { cwd: root, env, stdio: ['ignore', 'ignore', 'inherit'] });
+    web = spawn(process.execPath, [path.join(root, 'scripts/serve.mjs'), '-H', '127.0.0.1', '-p', String(port), '--processes', String(webProcesses())], { cwd: root, env, stdio: ['ignore', 'ignore', 'inherit'] });
     await waitForHealth(`${base}/api/health`, web);
     created = (await measure(base)).created;
     return 0;

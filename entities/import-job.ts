@@ -16,7 +16,8 @@ export type ImportJobState = (typeof IMPORT_JOB_STATES)[number];
 export const ImportJob = defineEntity({
   name: 'ImportJob',
   tableName: 'import_job',
-  indexes: [{ properties: ['lab', 'createdAt'] }],
+  // the lab's job list, and a rig's page (its recent imports)
+  indexes: [{ properties: ['lab', 'createdAt'] }, { properties: ['rig', 'createdAt'] }],
   properties: {
     ...baseProperties(),
     lab: () => p.manyToOne(Lab).deleteRule('cascade'),

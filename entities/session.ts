@@ -10,6 +10,8 @@ import { User } from './user';
 export const Session = defineEntity({
   name: 'Session',
   tableName: 'session',
+  // every request reads the session by id; sign-out-everywhere and the account page list a user's sessions
+  indexes: [{ properties: ['user'] }],
   properties: {
     ...baseProperties(),
     user: () => p.manyToOne(User).deleteRule('cascade'),

@@ -8,6 +8,8 @@ import { User } from './user';
 export const ShareLink = defineEntity({
   name: 'ShareLink',
   tableName: 'share_link',
+  // a study's page lists its links
+  indexes: [{ properties: ['study', 'createdAt'] }],
   properties: {
     ...baseProperties(),
     lab: () => p.manyToOne(Lab).deleteRule('cascade'),

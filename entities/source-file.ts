@@ -14,6 +14,8 @@ export const SourceFile = defineEntity({
   name: 'SourceFile',
   tableName: 'source_file',
   uniques: [{ properties: ['lab', 'sha256', 'purpose'] }],
+  // a rig's page lists its sheets, logs and photos, newest first
+  indexes: [{ properties: ['rig', 'purpose', 'createdAt'] }],
   properties: {
     ...baseProperties(),
     lab: () => p.manyToOne(Lab).deleteRule('cascade'),

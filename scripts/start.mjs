@@ -10,7 +10,7 @@
 // process (scripts/worker.ts) takes the jobs.
 import os from 'node:os';
 import path from 'node:path';
-import { root, portIsFree, freePort, spawn, fail, waitForHealth, stopper, runMain, watchWebServer } from './lib/util.mjs';
+import { root, portIsFree, freePort, spawn, fail, waitForHealth, stopper, runMain, watchWebServer, webProcesses } from './lib/util.mjs';
 import { bootstrap } from './lib/bootstrap.mjs';
 import { buildIfChanged } from './lib/build.mjs';
 import { startFakes } from './lib/fakes.mjs';
@@ -57,7 +57,7 @@ async function main() {
     /** resolves when every web server answers its health check (and the balancer is listening) */
     let up;
     if (!many) {
-      const web = spawn(process.execPath, [path.join(root, 'scripts/serve.mjs'), '-H', host, '-p', String(port)], {
+      const web = spawn(process.execPath, [path.join(root, 'scripts/serve.mjs'), '-H', host, '-p', String(port), '--processes', String(webProcesses())], {
         cwd: root,
         env,
         // piped (and passed on) so that its last lines can be shown if it dies
@@ -79,6 +79,8 @@ async function main() {
         ...env,
         // behind our balancer: one hop of X-Forwarded-For is believed (it adds the client's address)
         TRUST_PROXY_HOPS: '1',
+        // one process per instance: the instances share the cores
+        EMBERLINE_WEB_PROCESSES: '1',
         DATABASE_POOL_MAX: process.env.DATABASE_POOL_MAX ?? String(Math.max(2, Math.floor(48 / instances) - 7)),
         // the cores shared out between the instances' analysis threads (app/_lib/server/analysis-pool.ts)
         EMBERLINE_ANALYSIS_THREADS: process.env.EMBERLINE_ANALYSIS_THREADS ?? String(Math.max(1, Math.floor(os.availableParallelism() / instances))),

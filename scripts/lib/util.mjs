@@ -1,7 +1,7 @@
 // Small helpers shared by the lifecycle scripts. Node built-ins only: these run before `npm ci`.
 import { spawnSync, spawn } from 'node:child_process';
 import { createServer } from 'node:net';
-import { constants } from 'node:os';
+import os, { constants } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 
@@ -159,6 +159,16 @@ export function runMain(main) {
     console.error(e);
     process.exit(1);
   });
+}
+
+/**
+ * How many web processes one instance runs (scripts/serve.mjs --processes): EMBERLINE_WEB_PROCESSES,
+ * else one per core (at most four), so `npm start` uses the whole machine for the web tier.
+ */
+export function webProcesses() {
+  const n = Number(process.env.EMBERLINE_WEB_PROCESSES ?? Math.min(4, os.availableParallelism()));
+  if (!Number.isInteger(n) || n < 1 || n > 16) fail(`EMBERLINE_WEB_PROCESSES takes a whole number from 1 to 16 (got "${process.env.EMBERLINE_WEB_PROCESSES}")`);
+  return n;
 }
 
 export { spawn };

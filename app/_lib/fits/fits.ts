@@ -58,7 +58,10 @@ export async function saveFit(em: EntityManager, rig: RigRow, user: UserRow, inp
   return row;
 }
 
-export const fitListDto = (f: FitRow) => ({
+/** A saved fit as lists load it (`fitsOfLab`): without its stored result and settings. */
+export type ListedFit = Omit<FitRow, 'result' | 'settings'>;
+
+export const fitListDto = (f: ListedFit) => ({
   id: f.id,
   rigId: f.rig.id,
   title: f.title,
@@ -77,9 +80,13 @@ export const fitDto = (f: FitRow) => ({
   result: f.kind === 'collector' ? parseStoredCollectorFit(f.result, f.id) : parseStoredFit(f.result, f.id), softwareVersion: f.softwareVersion,
 });
 
-/** A lab's saved fits, newest first; `kind` keeps heater or collector fits only, `model` one model. */
+/**
+ * A lab's saved fits, newest first, for lists and pickers: without their stored results and
+ * settings (tens of kB of JSON each, which no list shows; `fitDto` needs a fit loaded by id).
+ * `kind` keeps heater or collector fits only, `model` one model.
+ */
 export const fitsOfLab = (em: EntityManager, lab: LabRow, opts: { limit?: number; model?: string; kind?: FitKind } = {}) =>
-  em.find(Fit, { lab, ...(opts.model ? { model: opts.model } : {}), ...(opts.kind ? { kind: opts.kind } : {}) }, { populate: ['rig', 'createdBy'], orderBy: { createdAt: 'desc' }, limit: opts.limit ?? 200 });
+  em.find(Fit, { lab, ...(opts.model ? { model: opts.model } : {}), ...(opts.kind ? { kind: opts.kind } : {}) }, { populate: ['rig', 'createdBy'], exclude: ['result', 'settings'], orderBy: { createdAt: 'desc' }, limit: opts.limit ?? 200 });
 
 
 /**

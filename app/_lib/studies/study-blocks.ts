@@ -37,23 +37,34 @@ export interface BlockContext {
   /** the share view: no fit links, no file names */
   publicView: boolean;
   /** saved fits by id, loaded once for the blocks that need them */
-  fits?: Map<string, FitRow>;
+  fits?: Map<string, BlockFit>;
 }
+
+/** A saved fit as a block's cache key needs it: the row without its stored result. */
+type BlockFit = Omit<FitRow, 'result'>;
 
 const FIT_KINDS = new Set(['fit', 'comparison', 'performance', 'trials', 'collector']);
 
-/** The saved fits the given blocks point at (lab-scoped), by id. */
-export async function blockFits(em: EntityManager, lab: LabRow, blocks: readonly StudyBlock[]): Promise<Map<string, FitRow>> {
+/**
+ * The saved fits the given blocks point at (lab-scoped), by id, without their stored results: a
+ * block's cache key needs only the id and version, and the result (tens of kB of JSON each) is
+ * read only when a block is computed (`withResult`).
+ */
+export async function blockFits(em: EntityManager, lab: LabRow, blocks: readonly StudyBlock[]): Promise<Map<string, BlockFit>> {
   const ids = [...new Set(blocks.filter((b) => FIT_KINDS.has(b.kind) || b.kind === 'forecast').map((b) => b.data.fitId).filter((x): x is string => isUuid(x)))];
-  const rows = ids.length ? await em.find(Fit, { id: { $in: ids }, lab }) : [];
+  const rows = ids.length ? await em.find(Fit, { id: { $in: ids }, lab }, { exclude: ['result'] }) : [];
   return new Map(rows.map((f) => [f.id, f]));
 }
+
+/** The fit with its stored result (the ORM reads the row again when `blockFits` left it out). */
+const withResult = (em: EntityManager, fit: BlockFit): Promise<FitRow> => em.findOneOrFail(Fit, { id: fit.id });
 
 /** A fit block's body without its head (the head carries the review state, which changes). */
 type FitBlockBody = Extract<BlockBody, { head: FitHead }>;
 type WithoutHead<T> = T extends unknown ? Omit<T, 'head'> : never;
 
-async function fitBodyOf(kind: string, fit: FitRow, units: UnitSystem): Promise<WithoutHead<FitBlockBody>> {
+async function fitBodyOf(em: EntityManager, kind: string, row: BlockFit, units: UnitSystem): Promise<WithoutHead<FitBlockBody>> {
+  const fit = await withResult(em, row);
   const r = parseStoredFit(fit.result, fit.id);
   const label = modelLabel(fit.model);
   switch (kind) {
@@ -75,19 +86,19 @@ async function fitBodyOf(kind: string, fit: FitRow, units: UnitSystem): Promise<
  * system, software version) — a saved fit never changes — and its head is built from the row
  * (the review state moves).
  */
-async function fitBody(ctx: BlockContext, kind: string, fit: FitRow): Promise<BlockBody> {
+async function fitBody(ctx: BlockContext, kind: string, fit: BlockFit): Promise<BlockBody> {
   if (fit.kind === 'collector' || kind === 'collector') {
     // solar collectors: a collector block shows a saved collector fit, and only there
     if (fit.kind !== 'collector') return { type: 'note', tone: 'muted', message: 'A collector block shows a saved collector fit: choose one.' };
     if (kind !== 'collector') return { type: 'note', tone: 'muted', message: 'This saved fit is a collector efficiency curve: show it in a collector block.' };
     const head: FitHead = { fitId: ctx.publicView ? null : fit.id, title: fit.title, version: fit.version, label: collectorModelLabel(fit.model), reviewState: fit.reviewState };
     const key = blockCacheKey(['collector-block', fit.id, fit.version, ctx.units]);
-    const data = await cachedBlockData(ctx.em, key, { labId: ctx.lab.id, fitId: fit.id }, async () => ({ view: savedCollectorView(fit) }));
+    const data = await cachedBlockData(ctx.em, key, { labId: ctx.lab.id, fitId: fit.id }, async () => ({ view: savedCollectorView(await withResult(ctx.em, fit)) }));
     return { type: 'collector', head, view: data.view };
   }
   const head: FitHead = { fitId: ctx.publicView ? null : fit.id, title: fit.title, version: fit.version, label: modelLabel(fit.model), reviewState: fit.reviewState };
   const key = blockCacheKey(['fit-block', kind, fit.id, fit.version, ctx.units]);
-  const data = await cachedBlockData(ctx.em, key, { labId: ctx.lab.id, fitId: fit.id }, () => fitBodyOf(kind, fit, ctx.units));
+  const data = await cachedBlockData(ctx.em, key, { labId: ctx.lab.id, fitId: fit.id }, () => fitBodyOf(ctx.em, kind, fit, ctx.units));
   return { ...data, head } as BlockBody;
 }
 
