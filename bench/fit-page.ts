@@ -55,7 +55,8 @@ async function main() {
       await page.getByLabel('E-mail').fill('engineer@cinder-hollow.test');
       await page.getByLabel('Password').fill('ember-demo-lab-2026');
       await page.getByRole('button', { name: 'Sign in' }).click();
-      await page.waitForURL('**/rigs');
+      // signing in lands on the role's next-step page
+      await page.waitForURL('**/start');
       // the demo rig's fit page, by the rig's id from the API (as the page itself reads it)
       // (in-page code as strings: tsx names functions with a helper the page does not have)
       const rigId = (await page.evaluate(`(async () => {
