@@ -1,0 +1,89 @@
+/**
+ * Operating plans through the API: an engineer saves a plan of a rig and gets its cautions back
+ * (the checker of analysis/safety/operating-plan.ts, tested on its own in test/analysis/safety);
+ * bad input names the field and stores nothing; a viewer reads but cannot write; a member of
+ * another lab does not see it (404). The hazards are DOMAIN.md §5 practice (common practice).
+ */
+import { beforeAll, describe, expect, test } from 'vitest';
+import { Client, createAccount, signedIn, uniqueEmail } from './support/client';
+
+let eng: Client, viewer: Client, outsider: Client;
+let labId = '';
+let rigId = '';
+const run = Date.now().toString(36);
+const LPM = 1 / 60000;
+
+/** Safe: flow before fire, pump until the coil is cold (common practice). */
+const SAFE = [
+  { kind: 'valve-open', valve: 'supply' }, { kind: 'pump-on' }, { kind: 'flow-set', flowM3PerS: 12 * LPM }, { kind: 'fire-lit' },
+  { kind: 'wait', minutes: 60 }, { kind: 'fire-out' }, { kind: 'wait-until-cold', coilBelowC: 35 }, { kind: 'pump-off' },
+];
+
+beforeAll(async () => {
+  eng = await signedIn('engineer@cinder-hollow.test');
+  viewer = await signedIn('viewer@cinder-hollow.test');
+  labId = (await eng.get('/api/me')).body.labs.find((l: { slug: string }) => l.slug === 'cinder-hollow').id;
+  const r = await eng.post(`/api/labs/${labId}/rigs`, { name: `Plan rig ${run}`, heatSource: 'wood-fire', description: 'Coil for the operating-plan tests.' });
+  expect(r.status, r.text).toBe(201);
+  rigId = r.body.rig.id;
+  outsider = (await createAccount(uniqueEmail('plan-outsider'), undefined, 'Outside Planner', `Plan Bench ${run}`)).client;
+});
+
+const count = async () => (await eng.get(`/api/rigs/${rigId}/plans`)).body.plans.length as number;
+
+describe('operating plans of a rig', () => {
+  let planId = '';
+  test('the engineer saves a plan with a hazard and gets the caution at its step; fixing it clears the cautions', async () => {
+    const hazard = [{ kind: 'fire-lit' }, ...SAFE.filter((s) => s.kind !== 'fire-lit')];
+    const r = await eng.post(`/api/rigs/${rigId}/plans`, { name: `Morning run ${run}`, loop: { loop: 'closed', relief: 'relief-valve' }, steps: hazard });
+    expect(r.status, r.text).toBe(201);
+    planId = r.body.plan.id;
+    expect(r.body.plan.cautions.map((c: { code: string; step: number }) => [c.code, c.step])).toEqual([['pump-after-fire', 1]]);
+    expect(r.body.plan.cautions[0].message).toMatch(/follow local codes/);
+    const put = await eng.request('PUT', `/api/plans/${planId}`, { name: `Morning run ${run}`, loop: { loop: 'closed', relief: 'relief-valve' }, steps: SAFE });
+    expect(put.status, put.text).toBe(200);
+    expect(put.body.plan.cautions).toEqual([]);
+    expect(put.body.plan.steps[2]).toEqual({ kind: 'flow-set', flowM3PerS: 12 * LPM });
+  });
+  test('a viewer reads the plan and its list but cannot write (403), and nothing changes', async () => {
+    const g = await viewer.get(`/api/plans/${planId}`);
+    expect(g.status, g.text).toBe(200);
+    expect(g.body.plan.steps).toHaveLength(SAFE.length);
+    expect((await viewer.get(`/api/rigs/${rigId}/plans`)).body.plans.map((p: { id: string }) => p.id)).toContain(planId);
+    expect((await viewer.post(`/api/rigs/${rigId}/plans`, { name: 'x', loop: { loop: 'open', relief: 'none' }, steps: SAFE })).status).toBe(403);
+    expect((await viewer.request('PUT', `/api/plans/${planId}`, { name: 'x', loop: { loop: 'open', relief: 'none' }, steps: [] })).status).toBe(403);
+    expect((await viewer.request('DELETE', `/api/plans/${planId}`)).status).toBe(403);
+    expect((await eng.get(`/api/plans/${planId}`)).body.plan.name).toBe(`Morning run ${run}`);
+  });
+  test('a member of another lab gets 404 for the plan and the rig', async () => {
+    expect((await outsider.get(`/api/plans/${planId}`)).status).toBe(404);
+    expect((await outsider.request('PUT', `/api/plans/${planId}`, { name: 'mine', loop: { loop: 'open', relief: 'none' }, steps: SAFE })).status).toBe(404);
+    expect((await outsider.request('DELETE', `/api/plans/${planId}`)).status).toBe(404);
+    expect((await outsider.post(`/api/rigs/${rigId}/plans`, { name: 'mine', loop: { loop: 'open', relief: 'none' }, steps: SAFE })).status).toBe(404);
+  });
+  test.each([
+    ['a missing name', { name: ' ', loop: { loop: 'open', relief: 'none' }, steps: SAFE }, 'name'],
+    ['a flow step without its flow', { name: 'p', loop: { loop: 'open', relief: 'none' }, steps: [{ kind: 'flow-set' }] }, 'steps.0.flowM3PerS'],
+    ['a negative flow', { name: 'p', loop: { loop: 'open', relief: 'none' }, steps: [{ kind: 'pump-on' }, { kind: 'flow-set', flowM3PerS: -1 }] }, 'steps.1.flowM3PerS'],
+    ['an unknown valve', { name: 'p', loop: { loop: 'open', relief: 'none' }, steps: [{ kind: 'valve-closed', valve: 'drain' }] }, 'steps.0.valve'],
+    ['61 steps', { name: 'p', loop: { loop: 'open', relief: 'none' }, steps: Array.from({ length: 61 }, () => ({ kind: 'pump-on' })) }, 'steps'],
+    ['a field of no step', { name: 'p', loop: { loop: 'open', relief: 'none' }, steps: [{ kind: 'pump-on', sql: 'drop' }] }, 'steps.0'],
+    ['a name over 120 characters', { name: 'x'.repeat(121), loop: { loop: 'open', relief: 'none' }, steps: SAFE }, 'name'],
+    ['no loop facts', { name: 'p', steps: SAFE }, 'loop'],
+  ])('%s → 422 naming the field, nothing stored', async (_what, body, field) => {
+    const before = await count();
+    const r = await eng.post(`/api/rigs/${rigId}/plans`, body);
+    expect(r.status, r.text).toBe(422);
+    expect(Object.keys(r.body.fields ?? {}).some((k) => k.startsWith(field)), JSON.stringify(r.body)).toBe(true);
+    expect(await count()).toBe(before);
+  });
+  test('an invalid edit leaves the plan as it was', async () => {
+    expect((await eng.request('PUT', `/api/plans/${planId}`, { name: 'p', loop: { loop: 'open', relief: 'none' }, steps: [{ kind: 'wait' }] })).status).toBe(422);
+    expect((await eng.get(`/api/plans/${planId}`)).body.plan.steps).toHaveLength(SAFE.length);
+  });
+  test('the engineer deletes a plan', async () => {
+    const r = await eng.post(`/api/rigs/${rigId}/plans`, { name: `Throwaway ${run}`, loop: { loop: 'open', relief: 'none' }, steps: SAFE });
+    expect((await eng.request('DELETE', `/api/plans/${r.body.plan.id}`)).status).toBe(200);
+    expect((await eng.get(`/api/plans/${r.body.plan.id}`)).status).toBe(404);
+  });
+});
