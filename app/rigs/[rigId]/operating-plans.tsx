@@ -1,7 +1,7 @@
 'use client';
 
 import { useMemo, useState } from 'react';
-import { api, ApiError } from '../../_components/api';
+import { api, failureOf } from '../../_components/api';
 import { OperatingPlanView, PlanCautions } from '../../_components/operating-plan-view';
 import {
   checkOperatingPlan, LOOP_LABELS, LOOP_KINDS, MAX_PLAN_STEPS, PLAN_VALVES, RELIEF_KINDS, RELIEF_LABELS, STEP_KIND_CHOICES, VALVE_LABELS,
@@ -109,10 +109,9 @@ export function OperatingPlans({ rigId, units, initial, canWrite }: { rigId: str
       setDraft(null);
       setSaved(`Saved “${r.plan.name}”.`);
     } catch (err) {
-      if (err instanceof ApiError) {
-        setError(err.message);
-        setFields(err.fields);
-      } else setError('The server could not be reached.');
+      const f = failureOf(err);
+      setError(f.message);
+      setFields(f.fields);
     } finally {
       setBusy(false);
     }
@@ -126,7 +125,7 @@ export function OperatingPlans({ rigId, units, initial, canWrite }: { rigId: str
       setPlans((ps) => ps.filter((p) => p.id !== draft.id));
       setDraft(null);
     } catch (err) {
-      setError(err instanceof ApiError ? err.message : 'The server could not be reached.');
+      setError(failureOf(err).message);
     } finally {
       setBusy(false);
     }
