@@ -87,3 +87,36 @@ describe('operating plans of a rig', () => {
     expect((await eng.get(`/api/plans/${r.body.plan.id}`)).status).toBe(404);
   });
 });
+
+describe('an operating plan in a study', () => {
+  test('the block shows the plan with the cautions it raises now (not cached), for a viewer too; the export has its Plans table', async () => {
+    const p = await eng.post(`/api/rigs/${rigId}/plans`, { name: `Study plan ${run}`, loop: { loop: 'open', relief: 'none' }, steps: SAFE });
+    expect(p.status, p.text).toBe(201);
+    const planId = p.body.plan.id;
+    const created = (await eng.post(`/api/labs/${labId}/studies`, { title: `Plan study ${run}` })).body.study;
+    const put = await eng.request('PUT', `/api/studies/${created.id}`, { title: `Plan study ${run}`, baseRevision: created.revision, blocks: [{ id: 'plan', kind: 'operating-plan', data: { planId } }, { id: 'none', kind: 'operating-plan', data: {} }] });
+    expect(put.status, put.text).toBe(200);
+    const first = await viewer.get(`/api/studies/${created.id}/blocks/plan`);
+    expect(first.status, first.text).toBe(200);
+    expect(first.body.block.body).toMatchObject({ type: 'operating-plan', name: `Study plan ${run}`, rigName: `Plan rig ${run}`, planId });
+    expect(first.body.block.body.plan.cautions).toEqual([]);
+    expect((await viewer.get(`/api/studies/${created.id}/blocks/none`)).body.block.body).toMatchObject({ type: 'note' });
+    // the plan is edited: the block follows at once (a mutable object is never kept in the block cache)
+    const hot = [...SAFE.slice(0, 5), { kind: 'pump-off' }, ...SAFE.slice(5)];
+    expect((await eng.request('PUT', `/api/plans/${planId}`, { name: `Study plan ${run}`, loop: { loop: 'open', relief: 'none' }, steps: hot })).status).toBe(200);
+    const second = (await viewer.get(`/api/studies/${created.id}/blocks/plan`)).body.block.body;
+    expect(second.plan.cautions.map((c: { code: string; step: number }) => [c.code, c.step])).toEqual([['pump-stopped-hot', 6]]);
+    const csv = await viewer.get(`/api/studies/${created.id}/export?format=csv&table=Plans`);
+    expect(csv.status, csv.text).toBe(200);
+    expect(csv.text).toMatch(/Danger: Step 6 \(pump off\): the pump stops while the fire is still lit/);
+    expect(csv.text).toMatch(/follow local codes and licensed practice/);
+    expect(csv.text).toMatch(/Set the flow to 12\.0 L\/min/);
+    // a plan of another lab's id is a note, never the plan (the block loads within the study's lab)
+    expect((await outsider.get(`/api/studies/${created.id}/blocks/plan`)).status).toBe(404);
+  });
+  test('a block naming something that is not an id is refused on save', async () => {
+    const created = (await eng.post(`/api/labs/${labId}/studies`, { title: `Bad plan block ${run}` })).body.study;
+    const put = await eng.request('PUT', `/api/studies/${created.id}`, { title: 'x', baseRevision: created.revision, blocks: [{ id: 'p', kind: 'operating-plan', data: { planId: 'drop table' } }] });
+    expect(put.status, put.text).toBe(422);
+  });
+});
