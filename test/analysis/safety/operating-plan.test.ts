@@ -108,3 +108,14 @@ describe('one dead-heading rule: planCautions and the operating plan agree', () 
     expect(codes([{ kind: 'pump-on' }, { kind: 'fire-lit' }, { kind: 'flow-set', flowM3PerS: 0 }]).map((x) => x[0])).toEqual(['dead-heading', 'plan-ends-lit']);
   });
 });
+
+describe('operating-plan caution wording', () => {
+  test('no message doubles a word, and each starts with the step it names (common practice of our own wording)', () => {
+    const all = checkOperatingPlan([{ kind: 'fire-lit' }, { kind: 'pump-on' }, { kind: 'flow-set', flowM3PerS: 0 }, { kind: 'flow-set', flowM3PerS: 1e-4 }, { kind: 'pump-off' }], { loop: 'closed', relief: 'none' });
+    expect(new Set(all.map((c) => c.code)).size).toBe(5);
+    for (const c of all) {
+      expect(c.message, c.message).not.toMatch(/\b(\w+)\s+\1\b/i);
+      expect(c.message.startsWith(`Step ${c.step} (`)).toBe(true);
+    }
+  });
+});
