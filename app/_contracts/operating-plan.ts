@@ -42,6 +42,8 @@ export const STEP_KIND_CHOICES: { kind: OperatingStepKind; label: string; field?
 ];
 
 export const VALVE_LABELS: Record<PlanValve, string> = { supply: 'supply (to the coil)', return: 'return (from the coil)', bypass: 'bypass', vent: 'vent' };
+/** A valve in a sentence: 'Open the supply valve (to the coil)'. */
+const VALVE_WORDS: Record<PlanValve, string> = { supply: 'supply valve (to the coil)', return: 'return valve (from the coil)', bypass: 'bypass valve', vent: 'vent valve' };
 export const LOOP_LABELS: Record<LoopFacts['loop'], string> = { open: 'Open loop (to a pool or tank open to the air)', closed: 'Closed loop (can be shut in)' };
 export const RELIEF_LABELS: Record<LoopFacts['relief'], string> = { 'relief-valve': 'Certified relief valve', 'open-vent': 'Open vent (no valve on it)', none: 'No relief path' };
 
@@ -52,10 +54,10 @@ export const RELIEF_LABELS: Record<LoopFacts['relief'], string> = { 'relief-valv
 export function stepText(s: OperatingStep, units: UnitSystem): string {
   const u = displayUnits(units);
   switch (s.kind) {
-    case 'valve-open': return `Open the ${VALVE_LABELS[s.valve ?? 'supply']} valve`;
-    case 'valve-closed': return `Close the ${VALVE_LABELS[s.valve ?? 'supply']} valve`;
+    case 'valve-open': return `Open the ${VALVE_WORDS[s.valve ?? 'supply']}`;
+    case 'valve-closed': return `Close the ${VALVE_WORDS[s.valve ?? 'supply']}`;
     case 'flow-set': return `Set the flow to ${fmt(u.flow.from(s.flowM3PerS ?? 0))} ${u.flow.label}`;
-    case 'wait': return `Wait ${fmt(s.minutes ?? 0)} min`;
+    case 'wait': return `Wait ${(s.minutes ?? 0).toLocaleString('en-US', { maximumFractionDigits: 1 })} min`;
     case 'wait-until-cold': return `Keep pumping until the coil is below ${u.temp.from(s.coilBelowC ?? 0).toFixed(0)} ${u.temp.label}`;
     default: return STEP_KIND_CHOICES.find((c) => c.kind === s.kind)?.label ?? s.kind;
   }
