@@ -6,6 +6,7 @@
  */
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { openBrowser, screenshot, signInAs, visit } from './support/browser';
+import { axeFindings } from './support/axe';
 import { signedIn } from '../app/support/client';
 
 describe('operating plans in Chromium', () => {
@@ -45,6 +46,8 @@ describe('operating plans in Chromium', () => {
     await expect(cautions.innerText()).resolves.toMatch(/^Danger: Step 4/);
     await expect(form.innerText()).resolves.toMatch(/follow local codes and licensed practice/);
     await screenshot(p, 'operating-plan-1-hazard');
+    // the form with a caution, as assistive technology meets it (axe: WCAG 2.1 A/AA, best practice)
+    expect(await axeFindings(p)).toEqual([]);
     await p.setViewportSize({ width: 390, height: 844 });
     expect(await p.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
     await screenshot(p, 'operating-plan-1-hazard-phone');
@@ -84,6 +87,7 @@ describe('operating plans in Chromium', () => {
       await expect(block.innerText()).resolves.toMatch(/Keep pumping until the coil is below 35 °C[\s\S]*No caution for this order of steps/);
       expect(await v.page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
       await screenshot(v.page, 'operating-plan-3-study-viewer-phone');
+      expect(await axeFindings(v.page)).toEqual([]);
       // on the rig page the viewer reads the plan and cannot edit it
       await visit(v.page, rigUrl);
       const section = v.page.getByRole('region', { name: 'Operating plan' });
