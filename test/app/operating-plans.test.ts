@@ -9,6 +9,7 @@ import { Client, createAccount, signedIn, uniqueEmail } from './support/client';
 
 let eng: Client, viewer: Client, outsider: Client;
 let labId = '';
+let outsiderLabId = '';
 let rigId = '';
 const run = Date.now().toString(36);
 const LPM = 1 / 60000;
@@ -26,7 +27,9 @@ beforeAll(async () => {
   const r = await eng.post(`/api/labs/${labId}/rigs`, { name: `Plan rig ${run}`, heatSource: 'wood-fire', description: 'Coil for the operating-plan tests.' });
   expect(r.status, r.text).toBe(201);
   rigId = r.body.rig.id;
-  outsider = (await createAccount(uniqueEmail('plan-outsider'), undefined, 'Outside Planner', `Plan Bench ${run}`)).client;
+  const o = await createAccount(uniqueEmail('plan-outsider'), undefined, 'Outside Planner', `Plan Bench ${run}`);
+  outsider = o.client;
+  outsiderLabId = o.labId;
 });
 
 const count = async () => (await eng.get(`/api/rigs/${rigId}/plans`)).body.plans.length as number;
@@ -111,8 +114,28 @@ describe('an operating plan in a study', () => {
     expect(csv.text).toMatch(/Danger: Step 6 \(pump off\): the pump stops while the fire is still lit/);
     expect(csv.text).toMatch(/follow local codes and licensed practice/);
     expect(csv.text).toMatch(/Set the flow to 12\.0 L\/min/);
-    // a plan of another lab's id is a note, never the plan (the block loads within the study's lab)
+    // another lab's member does not see the study's blocks
     expect((await outsider.get(`/api/studies/${created.id}/blocks/plan`)).status).toBe(404);
+    // through a share link: the plan in US units, with no links into the lab
+    const made = await eng.post(`/api/studies/${created.id}/shares`, { days: 7 });
+    expect(made.status, made.text).toBe(201);
+    const shared = await new Client().get(`/api/share/${made.body.url.split('/share/')[1]}/blocks/plan?units=us`);
+    expect(shared.status, shared.text).toBe(200);
+    expect(shared.body.block.body).toMatchObject({ type: 'operating-plan', planId: null, rigId: null });
+    expect(shared.text).not.toContain(planId);
+    expect(shared.text).not.toContain(rigId);
+    expect(shared.body.block.body.plan.cautions).toHaveLength(1);
+  });
+  test('a block naming a plan of another lab shows a note, never that plan', async () => {
+    const theirRig = (await outsider.post(`/api/labs/${outsiderLabId}/rigs`, { name: `Their rig ${run}`, heatSource: 'wood-fire' })).body.rig;
+    const theirs = await outsider.post(`/api/rigs/${theirRig.id}/plans`, { name: `Their plan ${run}`, loop: { loop: 'open', relief: 'none' }, steps: SAFE });
+    expect(theirs.status, theirs.text).toBe(201);
+    const created = (await eng.post(`/api/labs/${labId}/studies`, { title: `Foreign plan ${run}` })).body.study;
+    const put = await eng.request('PUT', `/api/studies/${created.id}`, { title: 'x', baseRevision: created.revision, blocks: [{ id: 'p', kind: 'operating-plan', data: { planId: theirs.body.plan.id } }] });
+    expect(put.status, put.text).toBe(200);
+    const r = await eng.get(`/api/studies/${created.id}/blocks/p`);
+    expect(r.body.block.body).toMatchObject({ type: 'note' });
+    expect(r.text).not.toContain(`Their plan ${run}`);
   });
   test('a block naming something that is not an id is refused on save', async () => {
     const created = (await eng.post(`/api/labs/${labId}/studies`, { title: `Bad plan block ${run}` })).body.study;
