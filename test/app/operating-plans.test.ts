@@ -84,6 +84,14 @@ describe('operating plans of a rig', () => {
     expect((await eng.request('PUT', `/api/plans/${planId}`, { name: 'p', loop: { loop: 'open', relief: 'none' }, steps: [{ kind: 'wait' }] })).status).toBe(422);
     expect((await eng.get(`/api/plans/${planId}`)).body.plan.steps).toHaveLength(SAFE.length);
   });
+  test('a rig keeps at most 50 plans: the 51st is refused and nothing is stored', async () => {
+    const rig = (await eng.post(`/api/labs/${labId}/rigs`, { name: `Many plans ${run}`, heatSource: 'wood-fire' })).body.rig;
+    for (let i = 0; i < 50; i++) expect((await eng.post(`/api/rigs/${rig.id}/plans`, { name: `Plan ${i}`, loop: { loop: 'open', relief: 'none' }, steps: SAFE })).status).toBe(201);
+    const r = await eng.post(`/api/rigs/${rig.id}/plans`, { name: 'One more', loop: { loop: 'open', relief: 'none' }, steps: SAFE });
+    expect(r.status, r.text).toBe(422);
+    expect(r.body.message).toMatch(/at most 50 operating plans/);
+    expect((await eng.get(`/api/rigs/${rig.id}/plans`)).body.plans).toHaveLength(50);
+  });
   test('the engineer deletes a plan', async () => {
     const r = await eng.post(`/api/rigs/${rigId}/plans`, { name: `Throwaway ${run}`, loop: { loop: 'open', relief: 'none' }, steps: SAFE });
     expect((await eng.request('DELETE', `/api/plans/${r.body.plan.id}`)).status).toBe(200);

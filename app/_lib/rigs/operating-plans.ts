@@ -10,6 +10,7 @@ import { z } from 'zod';
 import { OperatingPlan, type LabRow, type OperatingPlanRow, type RigRow, type UserRow } from '@/entities';
 import { checkOperatingPlan, LOOP_KINDS, MAX_PLAN_STEPS, OPERATING_STEP_KINDS, PLAN_VALVES, RELIEF_KINDS, type OperatingPlanDto, type OperatingStep } from '@/app/_contracts/operating-plan';
 import { isUuid } from '../labs/load-in-lab';
+import { invalid } from '../server/errors';
 
 /** Most plans a rig keeps (a list on its page, not a log). */
 export const MAX_PLANS_PER_RIG = 50;
@@ -64,8 +65,12 @@ export const plansOfLab = (em: EntityManager, lab: LabRow) => em.find(OperatingP
 /** One plan of a lab by id (for a study block of that lab), or null. */
 export const planInLab = (em: EntityManager, lab: LabRow, id: unknown) => (isUuid(id) ? em.findOne(OperatingPlan, { id, lab }, { populate: ['rig'] }) : Promise.resolve(null));
 
-/** Saves a new plan of the rig (one row, one flush). */
+/**
+ * Saves a new plan of the rig (one row, one flush).
+ * @throws DomainError invalid when the rig already keeps MAX_PLANS_PER_RIG plans
+ */
 export async function createPlan(em: EntityManager, rig: RigRow, user: UserRow, input: OperatingPlanInput): Promise<OperatingPlanRow> {
+  if ((await em.count(OperatingPlan, { rig })) >= MAX_PLANS_PER_RIG) throw invalid(`A rig keeps at most ${MAX_PLANS_PER_RIG} operating plans: delete one first.`, { name: 'too many plans on this rig' });
   const row = em.create(OperatingPlan, { lab: rig.lab, rig, createdBy: user, name: input.name, steps: input.steps.map(clean), loop: input.loop });
   await em.flush();
   return row;
