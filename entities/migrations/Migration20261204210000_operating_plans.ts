@@ -4,7 +4,7 @@ import { Migration } from '@mikro-orm/migrations';
  * Operating plans: a rig's ordered steps of running it (pump, valves, flow, fire, waits, cover)
  * and its loop's facts. The cautions are computed when a plan is read, never stored.
  */
-export class Migration20261204200000_operating_plans extends Migration {
+export class Migration20261204210000_operating_plans extends Migration {
 
   override async up(): Promise<void> {
     this.addSql(`create table "operating_plan" ("id" uuid not null, "created_at" timestamptz not null, "updated_at" timestamptz not null, "lab_id" uuid not null, "rig_id" uuid not null, "created_by_id" uuid null, "name" varchar(120) not null, "steps" jsonb not null, "loop" jsonb not null, constraint "operating_plan_pkey" primary key ("id"));`);
