@@ -29,9 +29,10 @@ import { BlockCache } from './block-cache';
 import { PendingSignUp } from './pending-sign-up';
 import { TestSession } from './test-session';
 import { Comparison } from './comparison';
+import { OperatingPlan } from './operating-plan';
 
-export { Comment, Fit, Notice, ReviewEvent, ShareLink, Study, ColumnMapping, SourceFile, TrialChange, ApiToken, AuditEvent, Invitation, Lab, Membership, PasswordReset, RateLimit, Rig, Session, Trial, User, ImportJob, SensorOverview, PendingSignUp, TestSession, Comparison, BlockCache };
-export const entities = [Lab, User, Membership, Rig, Trial, Session, Invitation, PasswordReset, ApiToken, AuditEvent, RateLimit, SourceFile, ColumnMapping, TrialChange, Fit, Study, Comment, ReviewEvent, Notice, ShareLink, ImportJob, SensorOverview, PendingSignUp, TestSession, Comparison, BlockCache];
+export { Comment, Fit, Notice, ReviewEvent, ShareLink, Study, ColumnMapping, SourceFile, TrialChange, ApiToken, AuditEvent, Invitation, Lab, Membership, PasswordReset, RateLimit, Rig, Session, Trial, User, ImportJob, SensorOverview, PendingSignUp, TestSession, Comparison, BlockCache, OperatingPlan };
+export const entities = [Lab, User, Membership, Rig, Trial, Session, Invitation, PasswordReset, ApiToken, AuditEvent, RateLimit, SourceFile, ColumnMapping, TrialChange, Fit, Study, Comment, ReviewEvent, Notice, ShareLink, ImportJob, SensorOverview, PendingSignUp, TestSession, Comparison, BlockCache, OperatingPlan];
 
 import type { InferEntity } from '@mikro-orm/core';
 /** Row types of the entities, for code that handles loaded records. */
@@ -60,3 +61,4 @@ export type BlockCacheRow = InferEntity<typeof BlockCache>;
 export type PendingSignUpRow = InferEntity<typeof PendingSignUp>;
 export type TestSessionRow = InferEntity<typeof TestSession>;
 export type ComparisonRow = InferEntity<typeof Comparison>;
+export type OperatingPlanRow = InferEntity<typeof OperatingPlan>;

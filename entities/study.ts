@@ -8,6 +8,8 @@ export const BLOCK_KINDS = [
   'text', 'trials', 'fit', 'comparison', 'performance', 'forecast', 'costs', 'sensor-log', 'caution', 'design-comparison',
   // solar collectors
   'collector',
+  // operating plans of a rig, read when the study is (mutable: never in the block cache)
+  'operating-plan',
 ] as const;
 export type BlockKind = (typeof BLOCK_KINDS)[number];
 

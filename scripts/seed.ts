@@ -23,6 +23,7 @@ import { importSensorLog, logImportInput } from '../app/_lib/imports/sensor-impo
 import { claimImportJob, completeImportJob, createImportJob } from '../app/_lib/jobs/job-store';
 import { pgPool } from '../app/_lib/server/pg-pool';
 import { seedSolarDemo } from './seed-solar';
+import { seedPlanDemo } from './seed-plan';
 
 /** The people of the demo lab by role. */
 export type DemoPeople = Record<(typeof demoUsers)[number]['role'], UserRow>;
@@ -33,6 +34,7 @@ export type DemoPeople = Record<(typeof demoUsers)[number]['role'], UserRow>;
  */
 export const DEMO_EXTRA_SEEDS: ((tx: EntityManager, lab: LabRow, people: DemoPeople) => Promise<void>)[] = [
   async (tx, lab) => seedSolarDemo(tx, lab),
+  async (tx, lab, people) => seedPlanDemo(tx, lab, people.engineer),
 ];
 
 export async function seedDemoLab(em: EntityManager): Promise<boolean> {

@@ -19,6 +19,10 @@ export type CautionCode =
   | 'scald-seconds'
   | 'near-boiling'
   | 'dead-heading'
+  | 'pump-after-fire'
+  | 'closed-loop-no-relief'
+  | 'pump-stopped-hot'
+  | 'plan-ends-lit'
   | 'above-boiling-source'
   | 'analysis-aid';
 
@@ -207,6 +211,60 @@ export function deadHeadingCaution(where: string): Caution {
   return {
     code: 'dead-heading', level: 'danger', thresholdC: null, valueC: null, where,
     message: `${capital(where.trim())}: no water flows through a heated coil. A coil with no flow over a fire or burner is a boiler: the water can boil, build pressure and flash to steam, and a pump run against a closed valve heats its own water until it boils. Start the pump before lighting the fire and keep it running until the coil is cold, and keep an unvalved vent or a certified relief valve. ${DEFER}`,
+  };
+}
+
+/**
+ * An operating plan lights the fire before water flows through the coil (DOMAIN.md §5: start flow
+ * before lighting; common practice). Always level `danger`.
+ * @param where which step of the plan, for the message
+ * @example pumpAfterFireCaution('step 2 (fire lit)').code // 'pump-after-fire'
+ */
+export function pumpAfterFireCaution(where: string): Caution {
+  return {
+    code: 'pump-after-fire', level: 'danger', thresholdC: null, valueC: null, where,
+    message: `${capital(where.trim())}: the fire is lit before water flows through the coil. Water standing in a coil over a fire boils within minutes, and a pump started against a hot coil can flash that water to steam. Start the pump, open the valves and set the flow first, then light the fire. ${DEFER}`,
+  };
+}
+
+/**
+ * An operating plan heats a closed loop with no relief valve and no open vent (DOMAIN.md §5:
+ * a certified relief valve or an open, unvalved vent on any heated loop that can be closed;
+ * common practice). Always level `danger`.
+ * @param where which step of the plan, for the message
+ * @example closedLoopNoReliefCaution('step 3 (fire lit)').level // 'danger'
+ */
+export function closedLoopNoReliefCaution(where: string): Caution {
+  return {
+    code: 'closed-loop-no-relief', level: 'danger', thresholdC: null, valueC: null, where,
+    message: `${capital(where.trim())}: a closed loop is heated with no relief path. Heated water expands and, if it boils, builds pressure until something bursts. Fit a certified temperature-and-pressure relief valve, or keep an open vent with no valve on it, and pipe its discharge to a safe place. ${DEFER}`,
+  };
+}
+
+/**
+ * An operating plan stops the pump while the fire burns or the coil is still hot (DOMAIN.md §5:
+ * keep flow until the coil is cold; common practice). Always level `danger`.
+ * @param where which step of the plan, for the message
+ * @param why what is still hot, e.g. 'the fire is still lit'
+ * @example pumpStoppedHotCaution('step 6 (pump off)', 'the fire is still lit').code // 'pump-stopped-hot'
+ */
+export function pumpStoppedHotCaution(where: string, why: string): Caution {
+  return {
+    code: 'pump-stopped-hot', level: 'danger', thresholdC: null, valueC: null, where,
+    message: `${capital(where.trim())}: the pump stops while ${why.trim()}. The water left in a hot coil boils and can burst out as steam. Put the fire out, keep the pump running until the coil is cold to the touch, and only then stop it. ${DEFER}`,
+  };
+}
+
+/**
+ * An operating plan ends with the fire still lit: nobody is told to put it out and cool the coil
+ * (common practice). Level `warning`.
+ * @param where the last step of the plan, for the message
+ * @example planEndsLitCaution('step 4 (the end of the plan)').level // 'warning'
+ */
+export function planEndsLitCaution(where: string): Caution {
+  return {
+    code: 'plan-ends-lit', level: 'warning', thresholdC: null, valueC: null, where,
+    message: `${capital(where.trim())}: the plan ends with the fire still lit. Add the steps that end a run safely: fire out, the pump kept running until the coil is cold, then the pump off. ${DEFER}`,
   };
 }
 

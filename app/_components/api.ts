@@ -33,3 +33,11 @@ export async function api<T = Record<string, unknown>>(url: string, init: { meth
 
 /** SWR fetcher sharing the same error policy. */
 export const fetcher = <T,>(url: string) => api<T>(url);
+
+/**
+ * What a form shows for a failed request: the server's message and per-field messages, or that
+ * the server could not be reached.
+ */
+export function failureOf(err: unknown): { message: string; fields: Record<string, string> } {
+  return err instanceof ApiError ? { message: err.message, fields: err.fields } : { message: 'The server could not be reached.', fields: {} };
+}

@@ -9,6 +9,7 @@ import { CautionList, TempValue, TemperatureCautions } from './safety-notice';
 import { StateBadge } from './review-panel';
 import { CollectorReport } from './collector-report';
 import { MeasuredDay } from './measured-day';
+import { OperatingPlanView } from './operating-plan-view';
 import type { BlockBody, BlockData, CostView, FitHead } from '../_contracts/study-blocks';
 import { sharedBlockKey, studyBlockKey } from '../_contracts/study-keys';
 import { displayUnits } from '@/app/_contracts/units';
@@ -180,6 +181,17 @@ export function BlockView({ block }: { block: BlockData }) {
             <strong className="text-ink">{b.view.title}</strong> {b.comparisonId ? <a href={`/comparisons/${b.comparisonId}`}>open the comparison</a> : null}
           </p>
           <DesignComparison view={b.view} units={units} links={!!b.comparisonId} filename={`comparison-${block.id}`} />
+        </div>
+      );
+    case 'operating-plan':
+      return (
+        <div className="space-y-3">
+          <p className="flex flex-wrap items-center gap-2 text-sm text-ink-soft">
+            <strong className="text-ink">Operating plan: {b.name}</strong>
+            <span>{b.rigName}</span>
+            {b.rigId ? <a href={`/rigs/${b.rigId}`}>open the rig</a> : null}
+          </p>
+          <OperatingPlanView plan={b.plan} units={units} />
         </div>
       );
     case 'sensor-log':

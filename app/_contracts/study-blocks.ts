@@ -9,6 +9,7 @@ import type { DesignComparisonView } from './design-comparison';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import type { CautionLike } from '@/analysis/safety/cautions';
 import type { CollectorViewDto } from './collector';
+import type { OperatingPlanDto } from './operating-plan';
 
 /** A plot as the server rendered it (plotToSvg) with the words of its figcaption. */
 export interface PlotView {
@@ -100,6 +101,8 @@ export type BlockBody =
   | { type: 'design-comparison'; comparisonId: string | null; view: DesignComparisonView }
   // solar collectors: a saved collector fit (ISO 9806 steady state)
   | { type: 'collector'; head: FitHead; view: CollectorViewDto }
+  /** an operating plan of a rig with the cautions it raises now; `planId` and `rigId` are null on the public share view */
+  | { type: 'operating-plan'; planId: string | null; rigId: string | null; name: string; rigName: string; updatedAt: string; plan: Pick<OperatingPlanDto, 'steps' | 'loop' | 'cautions'> }
   | { type: 'note'; tone: 'muted' | 'danger'; message: string };
 
 /** A measured day against its forecast (SI, names carry the unit; see analysis/forecast/measured-day-check.ts). */

@@ -17,6 +17,7 @@ import { Migration20261203123000_comparisons } from './Migration20261203123000_c
 import { Migration20261203130000_solar_collector } from './Migration20261203130000_solar_collector';
 import { Migration20261203140000_block_cache } from './Migration20261203140000_block_cache';
 import { Migration20261204200000_lookup_indexes } from './Migration20261204200000_lookup_indexes';
+import { Migration20261204210000_operating_plans } from './Migration20261204210000_operating_plans';
 
 export const migrationsList: MigrationObject[] = [
   { name: 'Migration20261201222811', class: Migration20261201222811 },
@@ -33,4 +34,5 @@ export const migrationsList: MigrationObject[] = [
   { name: 'Migration20261203130000_solar_collector', class: Migration20261203130000_solar_collector },
   { name: 'Migration20261203140000_block_cache', class: Migration20261203140000_block_cache },
   { name: 'Migration20261204200000_lookup_indexes', class: Migration20261204200000_lookup_indexes },
+  { name: 'Migration20261204210000_operating_plans', class: Migration20261204210000_operating_plans },
 ];

@@ -8,6 +8,7 @@
  */
 import { beforeAll, describe, expect, test } from 'vitest';
 import { demoWork } from '@/fixtures/demo-lab';
+import { demoPlan } from '@/fixtures/demo-plan';
 import { signedIn, type Client } from './support/client';
 
 let eng: Client;
@@ -30,6 +31,15 @@ describe('the demo lab', () => {
     const trail = (await eng.get(`/api/fits/${inReview.id}/comments`)).body;
     expect(trail.comments.some((c: { by: string }) => c.by === 'Demo Reviewer')).toBe(true);
     expect(trail.events.map((e: { to: string }) => e.to)).toEqual(['in-review']);
+  });
+
+  test('its coil rig has an operating plan in the safe order, which raises no caution (DOMAIN.md §5; common practice)', async () => {
+    const rigs = (await eng.get(`/api/labs/${labId}/rigs`)).body.rigs as { id: string; name: string }[];
+    const rig = rigs.find((r) => r.name === demoPlan.rig)!;
+    const plans = (await eng.get(`/api/rigs/${rig.id}/plans`)).body.plans as { name: string; steps: unknown[]; cautions: unknown[] }[];
+    expect(plans.map((p) => p.name)).toEqual([demoPlan.name]);
+    expect(plans[0].steps).toHaveLength(demoPlan.steps.length);
+    expect(plans[0].cautions).toEqual([]);
   });
 
   test('has a study in review with fit, forecast, cost and caution blocks that all compute, and a live share link', async () => {

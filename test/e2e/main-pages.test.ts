@@ -10,15 +10,11 @@
  * - axe-core finds nothing of serious or critical impact on any of them, at a desktop's width and
  *   a phone's (the WCAG 2.1 A and AA rules and axe's best practices).
  */
-import { readFileSync } from 'node:fs';
-import path from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { signedIn } from '../app/support/client';
 import { openBrowser, screenshot, signInAs, visit } from './support/browser';
-
-const AXE_SOURCE = readFileSync(path.resolve(__dirname, '..', '..', 'node_modules', 'axe-core', 'axe.min.js'), 'utf8');
-const AXE_TAGS = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'best-practice'];
+import { axeFindings } from './support/axe';
 
 interface MainPage {
   name: string;
@@ -52,18 +48,6 @@ const PAGES: MainPage[] = [
   { name: 'members', path: () => '/lab/members' },
   { name: 'account', path: () => '/account' },
 ];
-
-/** Serious and critical axe findings on the page as it is now, one line each. */
-async function axeFindings(p: Page): Promise<string[]> {
-  // evaluated through the DevTools protocol, which the page's Content-Security-Policy does not govern
-  await p.evaluate(AXE_SOURCE);
-  const violations = await p.evaluate(async (tags) => {
-    const axe = (window as unknown as { axe: { run: (ctx: Document, o: object) => Promise<{ violations: { id: string; impact: string; help: string; nodes: { target: string[]; failureSummary?: string }[] }[] }> } }).axe;
-    const r = await axe.run(document, { runOnly: { type: 'tag', values: tags }, resultTypes: ['violations'] });
-    return r.violations.map((v) => ({ id: v.id, impact: v.impact, help: v.help, nodes: v.nodes.slice(0, 5).map((n) => `${n.target.join(' ')}${n.failureSummary ? ` (${n.failureSummary.split('\n').slice(1, 2).join('').trim()})` : ''}`) }));
-  }, AXE_TAGS);
-  return violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.impact} ${v.id}: ${v.help} — ${v.nodes.join('; ')}`);
-}
 
 describe('the main pages in Chromium', () => {
   let desk: Awaited<ReturnType<typeof openBrowser>>;

@@ -16,6 +16,7 @@ import type { CollectorTestResult } from '@/analysis/performance/collector-test'
 import type { CellValue } from './cells';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import type { DesignComparisonView } from '@/app/_contracts/design-comparison';
+import type { PlanExport } from './plan-sheet';
 
 /** Where the numbers come from: the Summary sheet's Provenance section (DOMAIN.md §7, reproducibility). */
 export interface ExportProvenance {
@@ -149,6 +150,8 @@ export interface StudyExport {
   collectors?: CollectorExport[];
   /** design comparisons (a study's design-comparison blocks, or one comparison's export) */
   comparisons?: DesignComparisonView[];
+  /** operating plans (a study's operating-plan blocks) with their cautions */
+  plans?: PlanExport[];
   /** extra lines under the Summary table (cautions, the reviewer's sign-off…) */
   notes?: string[];
 }

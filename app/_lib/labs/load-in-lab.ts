@@ -1,6 +1,6 @@
 import 'server-only';
-import { Comparison, Fit, ImportJob, Rig, ShareLink, SourceFile, Study, TestSession, Trial } from '@/entities';
-import type { ComparisonRow, FitRow, ImportJobRow, RigRow, ShareLinkRow, SourceFileRow, StudyRow, TestSessionRow, TrialRow } from '@/entities';
+import { Comparison, Fit, ImportJob, OperatingPlan, Rig, ShareLink, SourceFile, Study, TestSession, Trial } from '@/entities';
+import type { ComparisonRow, FitRow, ImportJobRow, OperatingPlanRow, RigRow, ShareLinkRow, SourceFileRow, StudyRow, TestSessionRow, TrialRow } from '@/entities';
 import type { Viewer } from '../accounts/viewer';
 import { DomainError, notFound } from '../server/errors';
 import type { Member, RouteContext } from '../server/route';
@@ -21,9 +21,10 @@ const KINDS = {
   job: { entity: ImportJob, populate: [] },
   session: { entity: TestSession, populate: ['rig'] },
   comparison: { entity: Comparison, populate: ['createdBy'] },
+  plan: { entity: OperatingPlan, populate: ['rig'] },
 } as const;
 export type LabRecord = keyof typeof KINDS;
-interface Rows { rig: RigRow; trial: TrialRow; fit: FitRow; study: StudyRow; file: SourceFileRow; share: ShareLinkRow; job: ImportJobRow; session: TestSessionRow; comparison: ComparisonRow }
+interface Rows { rig: RigRow; trial: TrialRow; fit: FitRow; study: StudyRow; file: SourceFileRow; share: ShareLinkRow; job: ImportJobRow; session: TestSessionRow; comparison: ComparisonRow; plan: OperatingPlanRow }
 
 /** Who asks: a route's context (a session or a token) or a server page's viewer with a current lab. */
 export type Scope = RouteContext<unknown> | (Viewer & { current: NonNullable<Viewer['current']> });

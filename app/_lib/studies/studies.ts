@@ -26,6 +26,9 @@ export const blockSchema = z
     if (b.kind === 'design-comparison' && b.data.comparisonId !== undefined && !isUuid(b.data.comparisonId)) {
       ctx.addIssue({ code: 'custom', path: ['data', 'comparisonId'], message: 'Pick a saved design comparison.' });
     }
+    if (b.kind === 'operating-plan' && b.data.planId !== undefined && !isUuid(b.data.planId)) {
+      ctx.addIssue({ code: 'custom', path: ['data', 'planId'], message: 'Pick a saved operating plan.' });
+    }
     if (b.kind === 'sensor-log' && b.data.sourceFileId !== undefined && (!isUuid(b.data.sourceFileId))) {
       ctx.addIssue({ code: 'custom', path: ['data', 'sourceFileId'], message: 'Pick an imported sensor log.' });
     }

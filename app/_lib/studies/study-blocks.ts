@@ -19,6 +19,7 @@ import { pgPool } from '../server/pg-pool';
 import { ensureSensorOverview } from '../imports/sensor-overview';
 import { blockCacheKey, cachedBlockData, jsonHash } from './block-cache';
 import { comparisonInLab, readComparison } from '../comparisons/comparisons';
+import { planDto, planInLab } from '../rigs/operating-plans';
 
 /**
  * One study block as plain JSON for the page's first paint (the SWR fallback) and the block-data
@@ -160,6 +161,20 @@ async function designComparisonBody(ctx: BlockContext, block: StudyBlock): Promi
   }
 }
 
+/**
+ * An operating plan of the study's lab with the cautions the checker raises now. A plan can be
+ * edited, so the block is read each time and never kept in the block cache (the checker is cheap).
+ */
+async function operatingPlanBody(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
+  const row = await planInLab(ctx.em, ctx.lab, block.data.planId);
+  if (!row) return { type: 'note', tone: 'muted', message: isUuid(block.data.planId) ? 'The operating plan of this block no longer exists.' : 'No operating plan chosen for this block yet.' };
+  const { steps, loop, cautions } = planDto(row);
+  return {
+    type: 'operating-plan', planId: ctx.publicView ? null : row.id, rigId: ctx.publicView ? null : row.rig.id,
+    name: row.name, rigName: row.rig.name, updatedAt: row.updatedAt.toISOString(), plan: { steps, loop, cautions },
+  };
+}
+
 async function body(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
   const d = block.data;
   switch (block.kind) {
@@ -185,6 +200,8 @@ async function body(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
       return sensorLogBody(ctx, block);
     case 'design-comparison':
       return designComparisonBody(ctx, block);
+    case 'operating-plan':
+      return operatingPlanBody(ctx, block);
     default: {
       if (!FIT_KINDS.has(block.kind)) return { type: 'note', tone: 'muted', message: 'This block kind is not shown yet.' };
       const fitId = typeof d.fitId === 'string' ? d.fitId : null;

@@ -2,7 +2,7 @@ import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { Fit, Rig, type StudyRow } from '@/entities';
 import type { UnitSystem } from '@/analysis/units/unit-system';
-import { STUDY_SHEETS, studyCsv, studyWorkbook, type CollectorExport, type FitExport, type ForecastExport, type PerformanceExport, type RunningCostExport, type StudyExport, type StudySheetName, type TrialExportRow } from '../exports';
+import { STUDY_SHEETS, studyCsv, studyWorkbook, type CollectorExport, type FitExport, type PlanExport, type ForecastExport, type PerformanceExport, type RunningCostExport, type StudyExport, type StudySheetName, type TrialExportRow } from '../exports';
 import { costExport, costView } from '../forecasts/cost-sheet';
 import { DomainError } from '../server/errors';
 import { forecastForExport } from '../forecasts/forecasts';
@@ -13,6 +13,7 @@ import { collectorModelLabel, parseStoredCollectorFit } from '../fits/collector-
 import { comparisonInLab, readComparison } from '../comparisons/comparisons';
 import type { DesignComparisonView } from '@/app/_contracts/design-comparison';
 import { isUuid } from '../labs/load-in-lab';
+import { planDto, planInLab } from '../rigs/operating-plans';
 
 /** The saved fits a study's blocks point at, in block order, once each (lab-scoped). */
 export async function studyFits(em: EntityManager, study: StudyRow) {
@@ -79,6 +80,12 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
       notes.push(`Design comparison (block ${i + 1}) cannot be computed: ${e.message}`);
     }
   }
+  const plans: PlanExport[] = [];
+  for (const b of study.blocks) {
+    if (b.kind !== 'operating-plan') continue;
+    const row = await planInLab(em, study.lab, b.data.planId);
+    if (row) plans.push(planDto(row));
+  }
   return {
     unitSystem,
     provenance: {
@@ -97,6 +104,7 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
     ...(collectors.length ? { collectors } : {}),
     ...(running.length ? { costs: { currency: running[0].currency, running } } : {}),
     ...(comparisons.length ? { comparisons } : {}),
+    ...(plans.length ? { plans } : {}),
     notes,
   };
 }

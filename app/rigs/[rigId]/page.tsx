@@ -12,6 +12,8 @@ import { rigFiles } from '../../_lib/rigs/rigs';
 import { loadInLab } from '../../_lib/labs/load-in-lab';
 import { requireLabAction } from '../../_lib/accounts/viewer';
 import { SessionPlanner } from './session-plan';
+import { OperatingPlans } from './operating-plans';
+import { planDto, plansOfRig } from '../../_lib/rigs/operating-plans';
 import { rigSessionsPanel } from '../../_lib/sessions/sessions';
 
 export const dynamic = 'force-dynamic';
@@ -25,6 +27,7 @@ export default async function RigPage({ params, searchParams }: { params: Promis
   const jobs = (await listRigJobs(v.em, rig)).map(importJobDto);
   const write = v.can('trial:write');
   const sessions = await rigSessionsPanel(v.em, rig);
+  const plans = (await plansOfRig(v.em, rig)).map(planDto);
   const d = rig.details ?? {};
   const facts = [
     d.coilLengthM ? `${d.coilLengthM} m of tube` : null,
@@ -87,6 +90,7 @@ export default async function RigPage({ params, searchParams }: { params: Promis
       <RigJobs rigId={rig.id} initial={jobs} canCancel={write} />
       <TrialsTable rigId={rig.id} units={v.user.unitSystem} canWrite={write} />
       <SessionPlanner rigId={rig.id} units={v.user.unitSystem} sessions={sessions.sessions} fits={sessions.fits} canWrite={write} />
+      <OperatingPlans rigId={rig.id} units={v.user.unitSystem} initial={plans} canWrite={v.can('rig:write')} />
       {rig.notes ? (
         <section className="card mt-6 p-5">
           <h2 className="text-lg">Notes</h2>

@@ -3,7 +3,7 @@
 import Link from 'next/link';
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
-import { api, ApiError } from '../../_components/api';
+import { api, failureOf } from '../../_components/api';
 import { CautionList } from '../../_components/safety-notice';
 import { displayUnits } from '@/app/_contracts/units';
 import type { UnitSystem } from '@/analysis/units/unit-system';
@@ -65,10 +65,9 @@ export function SessionPlanner({ rigId, units, sessions, fits, canWrite }: { rig
       if (r.session) router.push(`/sessions/${r.session.id}`);
       else setPreview({ plan: r.plan, runs: r.runs, seed: r.settings.seed });
     } catch (err) {
-      if (err instanceof ApiError) {
-        setError(err.message);
-        setFields(err.fields);
-      } else setError('The server could not be reached.');
+      const f = failureOf(err);
+      setError(f.message);
+      setFields(f.fields);
     } finally {
       setBusy(false);
     }

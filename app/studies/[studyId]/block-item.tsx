@@ -15,7 +15,7 @@ export function BlockItem({ block: b, i, blocks, units, choices, setData, move, 
   move: (by: number) => void;
   remove: () => void;
 }) {
-  const { fits, logs, comparisons } = choices;
+  const { fits, logs, comparisons, plans } = choices;
   return (
     <li className="rounded-lg border border-paper-line p-3">
       <div className="mb-2 flex flex-wrap items-center justify-between gap-2">
@@ -44,6 +44,15 @@ export function BlockItem({ block: b, i, blocks, units, choices, setData, move, 
         <CostSettings n={i + 1} data={b.data} set={setData} units={units} forecasts={blocks.map((x, j) => ({ id: x.id, kind: x.kind, n: j + 1 })).filter((x) => x.kind === 'forecast')} />
       ) : b.kind === 'sensor-log' ? (
         <SensorLogSettings n={i + 1} data={b.data} set={setData} logs={logs} />
+      ) : b.kind === 'operating-plan' ? (
+        <select aria-label={`Operating plan of block ${i + 1}`} className="field-input" value={String(b.data.planId ?? '')} onChange={(e) => setData({ planId: e.target.value || undefined })}>
+          <option value="">{plans.length ? 'Choose an operating plan…' : 'No operating plan saved yet: make one on a rig’s page'}</option>
+          {plans.map((p) => (
+            <option key={p.id} value={p.id}>
+              {p.label}
+            </option>
+          ))}
+        </select>
       ) : b.kind === 'design-comparison' ? (
         <select aria-label={`Design comparison of block ${i + 1}`} className="field-input" value={String(b.data.comparisonId ?? '')} onChange={(e) => setData({ comparisonId: e.target.value || undefined })}>
           <option value="">{comparisons.length ? 'Choose a saved comparison…' : 'No comparison saved yet: make one under Compare'}</option>

@@ -11,13 +11,14 @@ import { useStudyAutosave } from './use-study-autosave';
  * the study's SWR entry takes the saved version and only the blocks whose settings changed fetch
  * their data again (use-study-autosave.ts).
  */
-export function StudyEditor({ studyId, initial, initialReviewState, fits, logs, comparisons = [], units }: {
+export function StudyEditor({ studyId, initial, initialReviewState, fits, logs, comparisons = [], plans = [], units }: {
   studyId: string;
   initial: StudyState;
   initialReviewState: string;
   fits: { id: string; label: string; coil: boolean; collector?: boolean }[];
   logs: { id: string; label: string }[];
   comparisons?: { id: string; label: string }[];
+  plans?: { id: string; label: string }[];
   units: UnitSystem;
 }) {
   const { study: s, status, message, theirs, change, takeTheirs, keepMine } = useStudyAutosave(studyId, initial, initialReviewState);
@@ -55,12 +56,12 @@ export function StudyEditor({ studyId, initial, initialReviewState, fits, logs, 
       </label>
       <ol className="space-y-3">
         {s.blocks.map((b, i) => (
-          <BlockItem key={b.id} block={b} i={i} blocks={s.blocks} units={units} choices={{ fits, logs, comparisons }} setData={(d) => setData(i, d)} move={(by) => move(i, by)} remove={() => change({ blocks: s.blocks.filter((_, j) => j !== i) })} />
+          <BlockItem key={b.id} block={b} i={i} blocks={s.blocks} units={units} choices={{ fits, logs, comparisons, plans }} setData={(d) => setData(i, d)} move={(by) => move(i, by)} remove={() => change({ blocks: s.blocks.filter((_, j) => j !== i) })} />
         ))}
       </ol>
       <div className="flex flex-wrap gap-2">
         {KINDS.map((k) => (
-          <button key={k.kind} type="button" className="btn-quiet" onClick={() => change({ blocks: [...s.blocks, { id: newBlockId(), kind: k.kind, data: newBlockData(k.kind, units, { fits, logs, comparisons }, s.blocks) }] })}>
+          <button key={k.kind} type="button" className="btn-quiet" onClick={() => change({ blocks: [...s.blocks, { id: newBlockId(), kind: k.kind, data: newBlockData(k.kind, units, { fits, logs, comparisons, plans }, s.blocks) }] })}>
             + {k.label}
           </button>
         ))}

@@ -10,6 +10,7 @@ import { modelLabel } from '../../_lib/fits/fit-analysis';
 import { loadInLab } from '../../_lib/labs/load-in-lab';
 import { sensorLogsOf, studyBlocksData } from '../../_lib/studies/study-blocks';
 import { comparisonsOfLab } from '../../_lib/comparisons/comparisons';
+import { plansOfLab } from '../../_lib/rigs/operating-plans';
 import { shareDto, sharesOfStudy, studyDto, studyOwners } from '../../_lib/studies/studies';
 import { requireLabAction } from '../../_lib/accounts/viewer';
 import { StudyEditor } from './editor';
@@ -29,6 +30,7 @@ export default async function StudyPage({ params, searchParams }: { params: Prom
   const fits = editing ? await fitsOfLab(v.em, v.current.lab) : [];
   const logs = editing ? await sensorLogsOf(v.em, v.current.lab) : [];
   const comparisons = editing ? await comparisonsOfLab(v.em, v.current.lab) : [];
+  const plans = editing ? await plansOfLab(v.em, v.current.lab) : [];
   const trail = await reviewTrail(v.em, 'study', study.id);
   const shares = v.can('share:manage') ? await sharesOfStudy(v.em, study) : [];
   // The first paint is complete: the study and every block's data go to the client as the SWR
@@ -70,6 +72,7 @@ export default async function StudyPage({ params, searchParams }: { params: Prom
               initialReviewState={study.reviewState}
               logs={logs}
               comparisons={comparisons.map((c) => ({ id: c.id, label: `${c.title} (${c.subjects.length} designs)` }))}
+              plans={plans.map((p) => ({ id: p.id, label: `${p.rig.name}: ${p.name}` }))}
               units={v.user.unitSystem}
             />
           ) : null}

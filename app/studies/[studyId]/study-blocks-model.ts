@@ -6,7 +6,8 @@ import type { UnitSystem } from '@/analysis/units/unit-system';
 
 export type Kind = 'text' | 'trials' | 'fit' | 'comparison' | 'performance' | 'forecast' | 'costs' | 'sensor-log' | 'caution' | 'design-comparison'
   // solar collectors
-  | 'collector';
+  | 'collector'
+  | 'operating-plan';
 export interface Block {
   id: string;
   kind: Kind;
@@ -24,6 +25,8 @@ export interface EditorChoices {
   logs: { id: string; label: string }[];
   /** the lab's saved design comparisons */
   comparisons: { id: string; label: string }[];
+  /** the lab's operating plans (rig: name) */
+  plans: { id: string; label: string }[];
 }
 
 export const KINDS: { kind: Kind; label: string }[] = [
@@ -39,6 +42,7 @@ export const KINDS: { kind: Kind; label: string }[] = [
   { kind: 'design-comparison', label: 'Design comparison' },
   // solar collectors
   { kind: 'collector', label: 'Collector efficiency' },
+  { kind: 'operating-plan', label: 'Operating plan' },
 ];
 export const kindLabel = (k: Kind) => KINDS.find((x) => x.kind === k)?.label ?? k;
 export const newBlockId = () => Math.random().toString(36).slice(2, 10);
@@ -87,7 +91,7 @@ function forecastDefaults(units: UnitSystem, fits: EditorChoices['fits']): Recor
 }
 
 /** The settings a new block of `kind` starts with, after the blocks there are. */
-export function newBlockData(kind: Kind, units: UnitSystem, { fits, logs, comparisons }: EditorChoices, blocks: readonly Block[]): Record<string, unknown> {
+export function newBlockData(kind: Kind, units: UnitSystem, { fits, logs, comparisons, plans }: EditorChoices, blocks: readonly Block[]): Record<string, unknown> {
   switch (kind) {
     case 'forecast':
       return forecastDefaults(units, fits);
@@ -101,6 +105,8 @@ export function newBlockData(kind: Kind, units: UnitSystem, { fits, logs, compar
       return logs[0] ? { sourceFileId: logs[0].id } : {};
     case 'design-comparison':
       return comparisons[0] ? { comparisonId: comparisons[0].id } : {};
+    case 'operating-plan':
+      return plans[0] ? { planId: plans[0].id } : {};
     case 'collector': {
       const c = fits.find((f) => f.collector);
       return c ? { fitId: c.id } : {};

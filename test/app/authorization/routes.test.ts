@@ -17,7 +17,7 @@ import { createHash } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { DEMO_PASSWORD } from '@/fixtures/demo-lab';
 import { STRONG_PASSWORD, uniqueEmail, type Client, type Reply } from '../support/client';
-import { CALLERS, ROLES, buildLab, emailOf, freshSession, repoFiles, setAddressRange, type Caller, type LabFixture, type Role } from '../support/authz';
+import { AUTHZ_PLAN, CALLERS, ROLES, buildLab, emailOf, freshSession, repoFiles, setAddressRange, type Caller, type LabFixture, type Role } from '../support/authz';
 
 setAddressRange('198.51.100.');
 
@@ -333,6 +333,25 @@ const MATRIX: Record<string, Case[]> = {
     { method: 'GET', url: (f) => `/api/rigs/${f.rig.id}/sessions`, expect: labA(200, MEMBERS) },
     // too few runs: refused by the schema after the rig is authorized, nothing is planned
     { method: 'POST', url: (f) => `/api/rigs/${f.rig.id}/sessions`, body: () => ({ prior: { Ts: '85 degC', UA: '400 W/K' }, inletTemp: '18 degC', flowRange: ['2 L/min', '20 L/min'], maxOutletTemp: '95 degC', trials: 3 }), expect: labA(422, WRITERS) },
+  ],
+  'app/api/rigs/[rigId]/plans/route.ts': [
+    { method: 'GET', url: (f) => `/api/rigs/${f.rig.id}/plans`, expect: labA(200, MEMBERS) },
+    // a plan without a name: refused after authorization, nothing is stored
+    { method: 'POST', url: (f) => `/api/rigs/${f.rig.id}/plans`, body: () => ({ ...AUTHZ_PLAN, name: '' }), expect: labA(422, WRITERS) },
+  ],
+  'app/api/plans/[planId]/route.ts': [
+    { method: 'GET', url: (f) => `/api/plans/${f.plan.id}`, expect: labA(200, MEMBERS) },
+    // the plan as it is: nothing changes
+    { method: 'PUT', url: (f) => `/api/plans/${f.plan.id}`, body: () => AUTHZ_PLAN, expect: labA(200, WRITERS) },
+    {
+      // a writer deletes it; the plan is made again for the next caller
+      method: 'DELETE',
+      url: (f) => `/api/plans/${f.plan.id}`,
+      expect: labA(200, WRITERS),
+      after: async ({ f, reply }) => {
+        if (reply.status === 200) f.plan.id = (await f.clients.engineer.post(`/api/rigs/${f.rig.id}/plans`, AUTHZ_PLAN)).body.plan.id;
+      },
+    },
   ],
   'app/api/sessions/[sessionId]/route.ts': [{ method: 'GET', url: (f) => `/api/sessions/${f.sessions.open}`, expect: labA(200, MEMBERS) }],
   'app/api/sessions/[sessionId]/events/route.ts': [{ method: 'GET', url: (f) => `/api/sessions/${f.sessions.open}/events?once=1`, expect: labA(200, MEMBERS) }],

@@ -105,6 +105,13 @@ export async function rigWithTrials(eng: Client, labId: string, name: string) {
   return { rig, trialIds: trials.map((t) => t.id) };
 }
 
+/** A safe operating plan (flow before fire, pump until cold), SI. */
+export const AUTHZ_PLAN = {
+  name: 'Authz plan',
+  loop: { loop: 'open', relief: 'none' },
+  steps: [{ kind: 'pump-on' }, { kind: 'flow-set', flowM3PerS: 2e-4 }, { kind: 'fire-lit' }, { kind: 'fire-out' }, { kind: 'wait-until-cold', coilBelowC: 35 }, { kind: 'pump-off' }],
+};
+
 export interface LabFixture {
   run: string;
   labId: string;
@@ -124,6 +131,8 @@ export interface LabFixture {
   study: { id: string; title: string; revision: number; blockIds: { text: string; caution: string; fit: string } };
   /** test sessions of the rig: one planned, one closed (with no trials) */
   sessions: { open: string; closed: string };
+  /** an operating plan of the rig (the DELETE case replaces it after each delete) */
+  plan: { id: string };
   share: { id: string; token: string };
   revokedShareId: string;
   invitation: { email: string; token: string; id: string };
@@ -189,6 +198,7 @@ export async function buildLab(opts: { files?: boolean } = {}): Promise<LabFixtu
   const openSession = ok(await eng.post(`/api/rigs/${rig.id}/sessions`, { ...sessionPlan, title: `Authz session ${run}` }), 201, 'session').session.id as string;
   const closedSession = ok(await eng.post(`/api/rigs/${rig.id}/sessions`, { ...sessionPlan, title: `Authz closed session ${run}` }), 201, 'session to close').session.id as string;
   ok(await eng.post(`/api/sessions/${closedSession}/close`, {}), 200, 'close session');
+  const plan = ok(await eng.post(`/api/rigs/${rig.id}/plans`, AUTHZ_PLAN), 201, 'operating plan').plan.id as string;
 
   const studyTitle = `Authz study ${run}`;
   const created = ok(await eng.post(`/api/labs/${labId}/studies`, { title: studyTitle }), 201, 'study').study;
@@ -283,6 +293,7 @@ export async function buildLab(opts: { files?: boolean } = {}): Promise<LabFixtu
     study: { id: created.id, title: studyTitle, revision: saved.revision, blockIds: { text: blockId('text'), caution: blockId('caution'), fit: blockId('fit') } },
     share,
     sessions: { open: openSession, closed: closedSession },
+    plan: { id: plan },
     revokedShareId,
     invitation,
     tokens,
