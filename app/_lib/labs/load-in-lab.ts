@@ -3,6 +3,7 @@ import { Comparison, Fit, ImportJob, OperatingPlan, Rig, ShareLink, SourceFile, 
 import type { ComparisonRow, FitRow, ImportJobRow, OperatingPlanRow, RigRow, ShareLinkRow, SourceFileRow, StudyRow, TestSessionRow, TrialRow } from '@/entities';
 import type { Viewer } from '../accounts/viewer';
 import { DomainError, notFound } from '../server/errors';
+import { loadRefs } from '../server/db';
 import type { Member, RouteContext } from '../server/route';
 import { can, type Action } from './permissions';
 
@@ -10,7 +11,7 @@ import { can, type Action } from './permissions';
 export const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 export const isUuid = (s: unknown): s is string => typeof s === 'string' && UUID.test(s);
 
-/** The records of a lab that are loaded by id, and the relations each load brings along. */
+/** The records of a lab that are loaded by id, and the relations each load brings along (by key: `loadRefs`). */
 const KINDS = {
   rig: { entity: Rig, populate: [] },
   trial: { entity: Trial, populate: [] },
@@ -44,14 +45,17 @@ export async function loadInLab<K extends LabRecord>(scope: Scope, kind: K, id: 
   if ('requireMember' in scope) {
     scope.requireActor();
     if (!isUuid(id)) throw notFound();
-    const row = (await scope.em.findOne(entity as never, { id } as never, { populate: populate as never })) as Rows[K] | null;
+    const row = (await scope.em.findOne(entity as never, { id } as never)) as Rows[K] | null;
     if (!row) throw notFound();
-    return { row, member: await scope.requireMember(row.lab.id, action) };
+    const member = await scope.requireMember(row.lab.id, action);
+    await loadRefs(scope.em, [row], populate);
+    return { row, member };
   }
   try {
     if (!isUuid(id) || !can(scope.current.role, action)) throw notFound();
-    const row = (await scope.em.findOne(entity as never, { id, lab: scope.current.lab } as never, { populate: populate as never })) as Rows[K] | null;
+    const row = (await scope.em.findOne(entity as never, { id, lab: scope.current.lab } as never)) as Rows[K] | null;
     if (!row) throw notFound();
+    await loadRefs(scope.em, [row], populate);
     return { row, member: { lab: scope.current.lab, role: scope.current.role } };
   } catch (e) {
     // imported here, not at the top: modules that only need isUuid (sensor-overview.ts) are also

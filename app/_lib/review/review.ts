@@ -75,10 +75,13 @@ export async function addComment(em: EntityManager, lab: LabRow, author: UserRow
 
 export async function reviewTrail(em: EntityManager, targetKind: 'fit' | 'study' | 'comparison', targetId: string) {
   const [comments, events] = await Promise.all([
-    em.find(Comment, { targetKind, targetId }, { populate: ['author'], orderBy: { createdAt: 'asc' } }),
+    em.find(Comment, { targetKind, targetId }, { orderBy: { createdAt: 'asc' } }),
     // comparisons take comments, not review decisions
-    targetKind === 'comparison' ? [] : em.find(ReviewEvent, { targetKind, targetId }, { populate: ['actor'], orderBy: { createdAt: 'asc' } }),
+    targetKind === 'comparison' ? [] : em.find(ReviewEvent, { targetKind, targetId }, { orderBy: { createdAt: 'asc' } }),
   ]);
+  // the people, by key, in one query for both lists
+  const people = [...new Set([...comments.map((c) => c.author?.id), ...events.map((e) => e.actor?.id)].filter((x): x is string => !!x))];
+  if (people.length) await em.find(User, { id: { $in: people } });
   return {
     comments: comments.map((c) => ({ id: c.id, at: c.createdAt.toISOString(), by: c.author?.name ?? null, blockId: c.blockId ?? null, body: c.body })),
     events: events.map((e) => ({ at: e.createdAt.toISOString(), by: e.actor?.name ?? null, from: e.fromState, to: e.toState, note: e.note })),
