@@ -1,3 +1,4 @@
+import lazyComponent from 'next/dynamic';
 import { SWRConfig } from 'swr';
 import { AppPage } from '../../_components/app-page';
 import { ReviewPanel } from '../../_components/review-panel';
@@ -13,9 +14,12 @@ import { comparisonsOfLab } from '../../_lib/comparisons/comparisons';
 import { plansOfLab } from '../../_lib/rigs/operating-plans';
 import { shareDto, sharesOfStudy, studyDto, studyOwners } from '../../_lib/studies/studies';
 import { requireLabAction } from '../../_lib/accounts/viewer';
-import { StudyEditor } from './editor';
+import type { StudyEditor as Editor } from './editor';
 import { StudyLead } from './lead';
 import { ShareManager } from './shares';
+
+// the editor's code is sent only to someone editing (most visits read the study)
+const StudyEditor = lazyComponent(() => import('./editor').then((m) => m.StudyEditor));
 
 export const metadata = { title: 'Study' };
 export const dynamic = 'force-dynamic';
@@ -67,7 +71,7 @@ export default async function StudyPage({ params, searchParams }: { params: Prom
           {editing ? (
             <StudyEditor
               studyId={study.id}
-              initial={{ title: study.title, blocks: study.blocks as Parameters<typeof StudyEditor>[0]['initial']['blocks'], revision: study.revision }}
+              initial={{ title: study.title, blocks: study.blocks as Parameters<typeof Editor>[0]['initial']['blocks'], revision: study.revision }}
               fits={fits.map((f) => ({ id: f.id, label: `${f.rig.name}: ${f.title} v${f.version} (${f.kind === 'collector' ? 'collector curve' : modelLabel(f.model)})`, coil: f.model === 'coil', collector: f.kind === 'collector' }))}
               initialReviewState={study.reviewState}
               logs={logs}
