@@ -16,6 +16,7 @@ import { Migration20261203120000_test_sessions } from './Migration20261203120000
 import { Migration20261203123000_comparisons } from './Migration20261203123000_comparisons';
 import { Migration20261203130000_solar_collector } from './Migration20261203130000_solar_collector';
 import { Migration20261203140000_block_cache } from './Migration20261203140000_block_cache';
+import { Migration20261204200000_sensor_sample_sun } from './Migration20261204200000_sensor_sample_sun';
 
 export const migrationsList: MigrationObject[] = [
   { name: 'Migration20261201222811', class: Migration20261201222811 },
@@ -31,4 +32,5 @@ export const migrationsList: MigrationObject[] = [
   { name: 'Migration20261203123000_comparisons', class: Migration20261203123000_comparisons },
   { name: 'Migration20261203130000_solar_collector', class: Migration20261203130000_solar_collector },
   { name: 'Migration20261203140000_block_cache', class: Migration20261203140000_block_cache },
+  { name: 'Migration20261204200000_sensor_sample_sun', class: Migration20261204200000_sensor_sample_sun },
 ];
