@@ -44,13 +44,15 @@ describe.each(WIDTHS)('the solar collector in Chromium ($name)', ({ name, viewpo
     await p.getByRole('link', { name: 'Garage Roof Collector' }).click();
     const logs = p.getByRole('region', { name: 'Logged data' });
     await logs.waitFor();
+    // the trials above the log are its steady periods
+    await p.getByRole('navigation', { name: 'Pages' }).getByText(/^17\s+trials$/).waitFor();
     // the demo's logged day (fixtures/demo-solar.ts): 13 h at 10 s, seventeen steady periods found by the collector preset
     await expect(logs.innerText()).resolves.toMatch(/4,680\s+samples/);
     await expect(logs.getByRole('img', { name: 'Logged irradiance in the collector plane' }).count()).resolves.toBe(1);
     await expect(logs.getByRole('img', { name: 'Logged inlet and outlet temperatures' }).count()).resolves.toBe(1);
     await expect(logs.locator('table tbody tr').count()).resolves.toBe(17);
-    await fitsTheWidth(p);
     await screenshot(p, `solar-1-rig-logged-day-${name}`);
+    await fitsTheWidth(p);
   });
 
   test('the engineer opens the collector efficiency page, reads the ISO 9806 curve with the cloudy period left out, saves it and asks for review', async () => {
@@ -62,8 +64,8 @@ describe.each(WIDTHS)('the solar collector in Chromium ($name)', ({ name, viewpo
     // ISO 9806 steady-state limits: irradiance within ±50 W/m² of the period mean (DOMAIN.md §2.4)
     await expect(p.getByRole('region', { name: 'Trials left out' }).innerText()).resolves.toMatch(/irradiance varied by [\d.]+ W\/m² \(limit ±50\)/);
     expect(await p.locator('figure svg').count()).toBeGreaterThanOrEqual(3);
-    await fitsTheWidth(p);
     await screenshot(p, `solar-2-collector-efficiency-${name}`);
+    await fitsTheWidth(p);
     await p.getByLabel('Area basis').selectOption('aperture');
     await p.getByText(/Coefficients per aperture area/).waitFor();
     await p.getByLabel('Title').fill(title);
@@ -73,8 +75,8 @@ describe.each(WIDTHS)('the solar collector in Chromium ($name)', ({ name, viewpo
     await p.getByText(/Coefficients per aperture area/).waitFor();
     await p.getByRole('button', { name: 'Ask for review' }).click();
     await p.getByText('In review').first().waitFor();
-    await fitsTheWidth(p);
     await screenshot(p, `solar-3-collector-fit-in-review-${name}`);
+    await fitsTheWidth(p);
   });
 
   test('the reviewer finds the collector fit under Fits, comments and approves it', async () => {
@@ -91,8 +93,8 @@ describe.each(WIDTHS)('the solar collector in Chromium ($name)', ({ name, viewpo
       await r.page.getByText('rightly left out').first().waitFor();
       await r.page.getByRole('button', { name: 'Approve' }).click();
       await r.page.getByText('Approved').first().waitFor();
-      await fitsTheWidth(r.page);
       await screenshot(r.page, `solar-4-collector-fit-approved-${name}`);
+      await fitsTheWidth(r.page);
     } finally {
       await r.close();
     }
@@ -106,8 +108,8 @@ describe.each(WIDTHS)('the solar collector in Chromium ($name)', ({ name, viewpo
       await r.page.getByRole('link', { name: 'Garage roof collector: a measured day' }).click();
       await r.page.getByRole('heading', { name: 'The measured day against the forecast' }).waitFor();
       await expect(r.page.getByRole('link', { name: 'Edit', exact: true }).count()).resolves.toBe(0);
-      await fitsTheWidth(r.page);
       await screenshot(r.page, `solar-5-measured-day-study-${name}`);
+      await fitsTheWidth(r.page);
       const href = await r.page.getByRole('link', { name: 'Download XLSX' }).getAttribute('href');
       const res = await r.page.request.get(`${baseUrl}${href}`);
       expect(res.status()).toBe(200);

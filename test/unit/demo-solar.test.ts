@@ -44,6 +44,8 @@ describe('demo solar collector: the logged day', () => {
       expect(e.ciHigh).toBeGreaterThan(truth);
     }
     expect(r.n).toBe(16);
+    // inside the test conditions of the standard (irradiance above 800 W/m², wind 2–4 m/s, four inlets, the first near the air): no warnings
+    expect(r.warnings).toEqual([]);
     // ISO 9806 steady-state limits: irradiance within ±50 W/m² of the period mean (DOMAIN.md §2.4)
     expect(r.excluded).toEqual([{ index: 8, reasons: [expect.stringMatching(/irradiance varied by [\d.]+ W\/m² \(limit ±50\)/)] }]);
   });
