@@ -33,7 +33,7 @@ export type DemoPeople = Record<(typeof demoUsers)[number]['role'], UserRow>;
  * collector rig adds its own here), each given the lab and its people.
  */
 export const DEMO_EXTRA_SEEDS: ((tx: EntityManager, lab: LabRow, people: DemoPeople) => Promise<void>)[] = [
-  async (tx, lab) => seedSolarDemo(tx, lab),
+  async (tx, lab, people) => seedSolarDemo(tx, lab, people.engineer),
 ];
 
 export async function seedDemoLab(em: EntityManager): Promise<boolean> {

@@ -18,7 +18,10 @@ const WIDTHS = [
 
 /** Follows a link of the top navigation ("Work areas"), as a person does from any page. */
 async function navigate(p: Page, area: string) {
-  await p.getByRole('navigation', { name: 'Work areas' }).getByRole('link', { name: area, exact: true }).click();
+  const link = p.getByRole('navigation', { name: 'Work areas' }).getByRole('link', { name: area, exact: true });
+  const href = await link.getAttribute('href');
+  await link.click();
+  await p.waitForURL(`**${href}`);
   await p.locator('main#main').first().waitFor();
 }
 
@@ -41,7 +44,7 @@ describe.each(WIDTHS)('the solar collector in Chromium ($name)', ({ name, viewpo
     const p = b.page;
     await signInAs(p, 'engineer@cinder-hollow.test', undefined, null);
     await navigate(p, 'Rigs');
-    await p.getByRole('link', { name: 'Garage Roof Collector' }).click();
+    await p.getByRole('link', { name: 'Garage Roof Collector', exact: true }).click();
     const logs = p.getByRole('region', { name: 'Logged data' });
     await logs.waitFor();
     // the trials above the log are its steady periods
@@ -85,7 +88,7 @@ describe.each(WIDTHS)('the solar collector in Chromium ($name)', ({ name, viewpo
       await signInAs(r.page, 'reviewer@cinder-hollow.test', undefined, null);
       await navigate(r.page, 'Fits');
       await expect(r.page.locator('tbody').innerText()).resolves.toMatch(/ISO 9806 steady state/);
-      await r.page.getByRole('link', { name: title }).click();
+      await r.page.getByRole('link', { name: title, exact: true }).click();
       await r.page.waitForURL(`**${fitPath}`);
       await r.page.getByRole('heading', { name: /Efficiency curve/ }).waitFor();
       await r.page.getByLabel('Comment').fill('Sixteen periods at four inlets; the cloudy one is rightly left out.');
@@ -105,7 +108,7 @@ describe.each(WIDTHS)('the solar collector in Chromium ($name)', ({ name, viewpo
     try {
       await signInAs(r.page, 'viewer@cinder-hollow.test', undefined, null);
       await navigate(r.page, 'Studies');
-      await r.page.getByRole('link', { name: 'Garage roof collector: a measured day' }).click();
+      await r.page.getByRole('link', { name: 'Garage roof collector: a measured day', exact: true }).click();
       await r.page.getByRole('heading', { name: 'The measured day against the forecast' }).waitFor();
       await expect(r.page.getByRole('link', { name: 'Edit', exact: true }).count()).resolves.toBe(0);
       await screenshot(r.page, `solar-5-measured-day-study-${name}`);
@@ -123,7 +126,7 @@ describe.each(WIDTHS)('the solar collector in Chromium ($name)', ({ name, viewpo
       expect(cells.join('\n')).toMatch(/Measured day verdict/);
       // the viewer reads the rig's logged day too, without the engineer's buttons
       await navigate(r.page, 'Rigs');
-      await r.page.getByRole('link', { name: 'Garage Roof Collector' }).click();
+      await r.page.getByRole('link', { name: 'Garage Roof Collector', exact: true }).click();
       await r.page.getByRole('region', { name: 'Logged data' }).waitFor();
       await expect(r.page.getByRole('link', { name: 'Import a file' }).count()).resolves.toBe(0);
     } finally {
