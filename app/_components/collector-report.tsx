@@ -55,7 +55,7 @@ export function CollectorReport({ view, filename = 'collector' }: { view: Collec
           <thead><tr><th scope="col"></th>{v.parameterNames.map((n) => <th key={n} scope="col">{NAMES[n] ?? n}</th>)}</tr></thead>
           <tbody>
             {v.covariance.map((row, i) => (
-              <tr key={i}><th scope="row">{NAMES[v.parameterNames[i]] ?? v.parameterNames[i]}</th>{row.map((c, j) => <td key={j} className="num">{c.toExponential(3)}</td>)}</tr>
+              <tr key={i}><th scope="row">{NAMES[v.parameterNames[i]] ?? v.parameterNames[i]}</th>{row.map((c, j) => <td key={j} className="num whitespace-nowrap">{c.toExponential(3)}</td>)}</tr>
             ))}
           </tbody>
         </table>
