@@ -9,6 +9,10 @@ export interface OverviewPoints {
   inletTempC: (number | null)[];
   outletTempC: (number | null)[];
   flowM3PerS: (number | null)[];
+  /** the air beside the rig, when the log has it */
+  ambientTempC?: (number | null)[];
+  /** a collector log's irradiance in the collector plane, W/m² */
+  irradianceWPerM2?: (number | null)[];
 }
 
 /** A steady segment of the log, seconds from `startedAt`, with its channel means (SI). */

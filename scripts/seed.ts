@@ -4,7 +4,8 @@
  * trials, saved fits in every review state (with the reviewer's comments and the review history),
  * a design comparison of the two coils, and a study in review (text, fit, comparison, forecast,
  * cost and caution blocks) with a live share link. Then, on its own connection as the import
- * job does it, a sensor log imported into the burner loop and recorded as a completed job. The
+ * job does it, the sensor logs (the burner loop's, the solar collector's day) imported and
+ * recorded as completed jobs. The
  * numbers come from the app's own functions (saveFit, importSensorLog), never written by hand.
  *
  * Runs under `--conditions=react-server` (scripts/lib/bootstrap.mjs), so that app/_lib loads.
@@ -22,7 +23,7 @@ import { createShare, studySave } from '../app/_lib/studies/studies';
 import { importSensorLog, logImportInput } from '../app/_lib/imports/sensor-import';
 import { claimImportJob, completeImportJob, createImportJob } from '../app/_lib/jobs/job-store';
 import { pgPool } from '../app/_lib/server/pg-pool';
-import { seedSolarDemo } from './seed-solar';
+import { seedSolarDemo, solarDemoLog } from './seed-solar';
 import { seedPlanDemo } from './seed-plan';
 
 /** The people of the demo lab by role. */
@@ -33,7 +34,7 @@ export type DemoPeople = Record<(typeof demoUsers)[number]['role'], UserRow>;
  * collector rig adds its own here), each given the lab and its people.
  */
 export const DEMO_EXTRA_SEEDS: ((tx: EntityManager, lab: LabRow, people: DemoPeople) => Promise<void>)[] = [
-  async (tx, lab) => seedSolarDemo(tx, lab),
+  async (tx, lab, people) => seedSolarDemo(tx, lab, people.engineer),
   async (tx, lab, people) => seedPlanDemo(tx, lab, people.engineer),
 ];
 
@@ -60,7 +61,7 @@ export async function seedDemoLab(em: EntityManager): Promise<boolean> {
     seeded = true;
   }
   try {
-    await seedSensorLog(em.fork());
+    for (const log of DEMO_LOGS) await seedSensorLog(em.fork(), log);
   } finally {
     await pgPool().end();
   }
@@ -115,24 +116,34 @@ async function seedWork(tx: EntityManager, lab: LabRow, p: DemoPeople) {
   await tx.flush();
 }
 
+/** A logger file of the demo: the rig it belongs to, its name, its bytes (from a fixture), its mapping and steadiness preset. */
+interface DemoLog { rig: string; filename: string; csv: () => string; mapping: unknown; preset: 'laboratory' | 'collector' | 'field' }
+
+/** The demo's logger files: the burner loop's (field preset) and the solar collector's day (collector preset). */
+const DEMO_LOGS: DemoLog[] = [
+  { rig: demoWork.log.rig, filename: demoWork.log.filename, csv: demoSensorLogCsv, mapping: DEMO_LOG_MAPPING, preset: 'field' },
+  solarDemoLog,
+];
+
 /**
- * The burner loop's logger file, imported as the background job imports an upload (job-store
+ * A logger file of the demo, imported as the background job imports an upload (job-store
  * records, importSensorLog writes); the raw bytes are generated again from the fixture, so they
- * are not put in object storage (which is not running while the database is set up).
+ * are not put in object storage (which is not running while the database is set up). A file
+ * already there is left as it is, so a second run changes nothing.
  */
-async function seedSensorLog(em: EntityManager) {
+async function seedSensorLog(em: EntityManager, log: DemoLog) {
   const lab = await em.findOne(Lab, { slug: demoLab.slug });
   if (!lab) return;
-  const rig = await em.findOne(Rig, { lab, name: demoWork.log.rig });
-  if (!rig || (await em.findOne(SourceFile, { lab, filename: demoWork.log.filename }))) return;
+  const rig = await em.findOne(Rig, { lab, name: log.rig });
+  if (!rig || (await em.findOne(SourceFile, { lab, filename: log.filename }))) return;
   const engineer = await em.findOne(User, { email: demoUsers.find((u) => u.role === 'engineer')!.email });
-  const bytes = Buffer.from(demoSensorLogCsv());
+  const bytes = Buffer.from(log.csv());
   const file = em.create(SourceFile, {
-    lab, rig, uploadedBy: engineer, filename: demoWork.log.filename, contentType: 'text/csv', sizeBytes: bytes.length,
-    sha256: createHash('sha256').update(bytes).digest('hex'), storageKey: `demo/${demoWork.log.filename}`,
+    lab, rig, uploadedBy: engineer, filename: log.filename, contentType: 'text/csv', sizeBytes: bytes.length,
+    sha256: createHash('sha256').update(bytes).digest('hex'), storageKey: `demo/${log.filename}`,
   });
   await em.flush();
-  const input = logImportInput.parse({ mapping: DEMO_LOG_MAPPING, preset: 'field' });
+  const input = logImportInput.parse({ mapping: log.mapping, preset: log.preset });
   const job = await createImportJob(em, rig, file, engineer, input);
   if (!(await claimImportJob(em, job.id))) return;
   const result = await importSensorLog(

@@ -90,9 +90,11 @@ export function collectorSteadiness(trials: SteadinessTrial[], limits: Collector
     if (rise < L.minTemperatureRiseK) r.push(`temperature rise ${rise.toFixed(2)} K is below the ${L.minTemperatureRiseK} K of a valid point`);
     const s = t.spread ?? {};
     const over = (v: number | undefined, lim: number) => v !== undefined && Math.abs(v) > lim;
-    if (over(s.irradianceWPerM2, L.irradianceDeviationWPerM2)) r.push(`irradiance varied by ${s.irradianceWPerM2} W/m² (limit ±${L.irradianceDeviationWPerM2})`);
-    if (over(s.ambientTempK, L.ambientDeviationK)) r.push(`ambient temperature varied by ${s.ambientTempK} K (limit ±${L.ambientDeviationK})`);
-    if (over(s.inletTempK, L.inletDeviationK)) r.push(`inlet temperature varied by ${s.inletTempK} K (limit ±${L.inletDeviationK})`);
+    // the measured spread in words: three significant digits (a logged period's spread has many more)
+    const said = (v: number | undefined) => String(Number((v as number).toPrecision(3)));
+    if (over(s.irradianceWPerM2, L.irradianceDeviationWPerM2)) r.push(`irradiance varied by ${said(s.irradianceWPerM2)} W/m² (limit ±${L.irradianceDeviationWPerM2})`);
+    if (over(s.ambientTempK, L.ambientDeviationK)) r.push(`ambient temperature varied by ${said(s.ambientTempK)} K (limit ±${L.ambientDeviationK})`);
+    if (over(s.inletTempK, L.inletDeviationK)) r.push(`inlet temperature varied by ${said(s.inletTempK)} K (limit ±${L.inletDeviationK})`);
     if (over(s.flowRelative, L.flowDeviationRelative)) r.push(`flow varied by ${(100 * (s.flowRelative as number)).toFixed(2)} % (limit ±${100 * L.flowDeviationRelative} %)`);
     return r;
   });

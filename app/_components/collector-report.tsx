@@ -25,6 +25,7 @@ export function CollectorReport({ view, filename = 'collector' }: { view: Collec
           Coefficients per <strong>{v.areaBasis} area</strong> ({fmt(v.areaM2, 3)} m²), x = (Tm − Ta)/G with Tm the mean of inlet and outlet; {v.n} steady points, {v.df} degrees of freedom,{' '}
           {v.weighted ? 'weighted by 1/u²(η)' : 'unweighted'}. The quasi-dynamic form of ISO 9806 is not covered.
         </p>
+        <div className="relative overflow-x-auto" tabIndex={0}>
         <table className="data-table w-full text-sm">
           <thead>
             <tr><th scope="col">Coefficient</th><th scope="col">Value</th><th scope="col">Std. error</th><th scope="col">{pct} % interval</th><th scope="col">Unit</th></tr>
@@ -41,21 +42,24 @@ export function CollectorReport({ view, filename = 'collector' }: { view: Collec
             ))}
           </tbody>
         </table>
-        <dl className="grid grid-cols-2 gap-x-4 gap-y-1 text-sm sm:grid-cols-4">
+        </div>
+        <dl className="grid grid-cols-2 gap-x-4 gap-y-1 break-words text-sm sm:grid-cols-4">
           <dt className="text-ink-muted">R²</dt><dd className="num">{v.r2 === null ? '–' : fmt(v.r2, 4)}</dd>
           <dt className="text-ink-muted">Residual SD of η</dt><dd className="num">{fmt(v.residualSD, 4)}</dd>
           <dt className="text-ink-muted">Tested x</dt><dd className="num">{fmt(v.xRangeM2KPerW[0], 4)} … {fmt(v.xRangeM2KPerW[1], 4)} m²·K/W</dd>
           <dt className="text-ink-muted">Band at G</dt><dd className="num">{fmt(v.bandIrradianceWPerM2, 0)} W/m²</dd>
         </dl>
+        <div className="relative overflow-x-auto" tabIndex={0}>
         <table className="data-table text-sm" aria-label="Covariance of the coefficients">
           <caption className="text-left text-ink-muted">Covariance</caption>
           <thead><tr><th scope="col"></th>{v.parameterNames.map((n) => <th key={n} scope="col">{NAMES[n] ?? n}</th>)}</tr></thead>
           <tbody>
             {v.covariance.map((row, i) => (
-              <tr key={i}><th scope="row">{NAMES[v.parameterNames[i]] ?? v.parameterNames[i]}</th>{row.map((c, j) => <td key={j} className="num">{c.toExponential(3)}</td>)}</tr>
+              <tr key={i}><th scope="row">{NAMES[v.parameterNames[i]] ?? v.parameterNames[i]}</th>{row.map((c, j) => <td key={j} className="num whitespace-nowrap">{c.toExponential(3)}</td>)}</tr>
             ))}
           </tbody>
         </table>
+        </div>
         {v.warnings.length ? (
           <ul className="list-disc space-y-1 pl-5 text-sm text-caution-text" aria-label="Warnings">
             {v.warnings.map((w, i) => <li key={i}>{w}</li>)}
@@ -85,7 +89,7 @@ export function CollectorReport({ view, filename = 'collector' }: { view: Collec
       </section>
       <section className="card p-4">
         <h2 className="text-lg">Points</h2>
-        <div className="relative overflow-x-auto">
+        <div className="relative overflow-x-auto" tabIndex={0}>
           <table className="data-table w-full text-sm">
             <thead><tr><th scope="col">Trial</th><th scope="col">x (m²·K/W)</th><th scope="col">Tm (°C)</th><th scope="col">Heat (W)</th><th scope="col">η</th><th scope="col">Fitted</th><th scope="col">Residual</th></tr></thead>
             <tbody>

@@ -10,6 +10,7 @@ import { StateBadge } from './review-panel';
 import { CollectorReport } from './collector-report';
 import { MeasuredDay } from './measured-day';
 import { OperatingPlanView } from './operating-plan-view';
+import { SensorLogView } from './sensor-log-view';
 import type { BlockBody, BlockData, CostView, FitHead } from '../_contracts/study-blocks';
 import { sharedBlockKey, studyBlockKey } from '../_contracts/study-keys';
 import { displayUnits } from '@/app/_contracts/units';
@@ -195,63 +196,10 @@ export function BlockView({ block }: { block: BlockData }) {
         </div>
       );
     case 'sensor-log':
-      return (
-        <div className="space-y-4">
-          <p className="flex flex-wrap items-center gap-2 text-sm text-ink-soft">
-            <strong className="text-ink">Sensor log of {b.rigName}</strong>
-            {b.filename ? <span className="num">{b.filename}</span> : null}
-            <span>
-              from <span className="num">{b.startedAt.slice(0, 16).replace('T', ' ')} UTC</span>, <span className="num">{hours(b.durationS)}</span>,{' '}
-              <span className="num">{b.samples.toLocaleString('en-US')}</span> samples ({b.shownPoints.toLocaleString('en-US')} drawn)
-            </span>
-          </p>
-          {b.plots.map((p, i) => (
-            <PlotFigure key={p.title} {...p} filename={i === 0 ? 'sensor-log-temperatures' : 'sensor-log-flow'} />
-          ))}
-          {b.segments.length ? (
-            <div className="relative overflow-x-auto" tabIndex={0}>
-              <table className="data-table">
-                <caption className="px-3 py-2 text-left text-sm font-semibold text-ink">
-                  Steady segments (means){b.segmentCount > b.segments.length ? `: the first ${b.segments.length} of ${b.segmentCount.toLocaleString('en-US')}` : ''}
-                </caption>
-                <thead>
-                  <tr>
-                    <th scope="col">#</th>
-                    <th scope="col">From (UTC)</th>
-                    <th scope="col" className="text-right">Minutes</th>
-                    <th scope="col" className="text-right">Flow ({displayUnits(units).flow.label})</th>
-                    <th scope="col" className="text-right">Inlet ({displayUnits(units).temp.label})</th>
-                    <th scope="col" className="text-right">Outlet ({displayUnits(units).temp.label})</th>
-                    <th scope="col" className="text-right">Rise ({displayUnits(units).tempDiff.label})</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {b.segments.map((s, i) => (
-                    <tr key={i}>
-                      <td className="num">{i + 1}</td>
-                      <td className="num">{new Date(Date.parse(b.startedAt) + s.startS * 1000).toISOString().slice(11, 19)}</td>
-                      <td className="num text-right">{((s.endS - s.startS) / 60).toFixed(1)}</td>
-                      <td className="num text-right">{displayUnits(units).flow.from(s.flowM3PerS).toFixed(2)}</td>
-                      <td className="num text-right"><TempValue tempC={s.inletTempC} units={units} /></td>
-                      <td className="num text-right"><TempValue tempC={s.outletTempC} units={units} /></td>
-                      <td className="num text-right">{displayUnits(units).tempDiff.from(s.outletTempC - s.inletTempC).toFixed(1)}</td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
-              <div className="mt-3">
-                <TemperatureCautions units={units} label="Cautions for these segments" places={[{ where: 'outlet', valuesC: b.segments.map((s) => s.outletTempC) }, { where: 'inlet', valuesC: b.segments.map((s) => s.inletTempC) }]} />
-              </div>
-            </div>
-          ) : (
-            <p className="text-sm text-ink-muted">No steady segment in this log.</p>
-          )}
-        </div>
-      );
+      return <SensorLogView log={b} units={units} />;
   }
 }
 
-const hours = (s: number) => (s >= 3600 ? `${(s / 3600).toFixed(1)} h` : `${(s / 60).toFixed(0)} min`);
 /** Money to the cent, or to a tenth of a cent below one unit (a useful kWh costs cents). */
 const money = (v: number, c: string) => `${v.toLocaleString('en-US', { minimumFractionDigits: 2, maximumFractionDigits: Math.abs(v) < 1 ? 3 : 2 })} ${c}`;
 

@@ -162,7 +162,7 @@ export function TrialsTable({ rigId, units, canWrite }: { rigId: string; units: 
       </div>
       <nav aria-label="Pages" className="flex items-center justify-between text-sm">
         <span className="text-ink-muted">
-          <span className="num">{data?.total ?? 0}</span> trials
+          {isLoading && !data ? 'Loading trials…' : <><span className="num">{data?.total ?? 0}</span> trials</>}
         </span>
         <span className="flex items-center gap-2">
           <button type="button" className="btn-quiet" disabled={q.page <= 1} onClick={() => setQ({ ...q, page: q.page - 1 })}>

@@ -68,6 +68,8 @@ export function forecastPlot(input: ForecastPlotInput, units: UnitSystem, size: 
   const hours = n ? input.timeH[n - 1] : 0;
 
   const what = input.water === 'tub' ? 'tub' : 'pool';
+  const poolEnd = pool[pool.length - 1]?.y, outletEnd = outlet[outlet.length - 1]?.y;
+  const endsMeet = typeof poolEnd === 'number' && typeof outletEnd === 'number' && Math.abs(outletEnd - poolEnd) < 0.06 * Math.max(T(yHi) - T(yLo), 1e-9);
   const marks: Plot.Markish[] = [
     ...lines.flatMap((l) => [
       Plot.ruleY([l.y], { stroke: l.stroke, strokeDasharray: '6 3', strokeWidth: 1.25, ariaDescription: 'caution line' }),
@@ -83,9 +85,9 @@ export function forecastPlot(input: ForecastPlotInput, units: UnitSystem, size: 
     ] : []),
     Plot.lineY(outlet, { x: 't', y: 'y', stroke: COLORS.heatLight, strokeWidth: 1.5, strokeDasharray: '5 3', ariaDescription: 'heater outlet' }),
     Plot.lineY(pool, { x: 't', y: 'y', stroke: COLORS.water, strokeWidth: 2.5, ariaDescription: 'water temperature' }),
-    Plot.text([...pool.slice(-1).map((d) => ({ ...d, label: what, fill: COLORS.water })), ...outlet.slice(-1).map((d) => ({ ...d, label: 'heater outlet', fill: COLORS.heat }))], {
-      x: 't', y: 'y', text: 'label', fill: 'fill', textAnchor: 'end', dy: -8, ariaDescription: 'line labels',
-    }),
+    // the line labels at the end; when the heater is off there the two lines meet, so the water's label goes below its line
+    Plot.text(outlet.slice(-1).map((d) => ({ ...d, label: 'heater outlet' })), { x: 't', y: 'y', text: 'label', fill: COLORS.heat, textAnchor: 'end', dy: -8, ariaDescription: 'line labels' }),
+    Plot.text(pool.slice(-1).map((d) => ({ ...d, label: what })), { x: 't', y: 'y', text: 'label', fill: COLORS.water, textAnchor: 'end', dy: endsMeet ? 14 : -8, ariaDescription: 'line labels' }),
   ];
   const title = `${what === 'tub' ? 'Tub' : 'Pool'} temperature over ${fmt(hours, 3)} h`;
   const summary = sentences([

@@ -25,6 +25,10 @@ export interface LogPoint {
   inletTempC: number | null;
   outletTempC: number | null;
   flowM3PerS: number | null;
+  /** the air beside the rig, when logged */
+  ambientTempC?: number | null;
+  /** a collector log's irradiance in the collector plane, W/m² */
+  irradianceWPerM2?: number | null;
 }
 
 /** A steady segment found in the log, seconds from the start. */
@@ -45,10 +49,12 @@ export interface TimeSeriesInput {
   origin?: Date | null;
 }
 
-/** The two panels of the log. */
+/** The panels of the log: a collector log adds its irradiance. */
 export interface TimeSeriesFigures {
   temperatures: PlotFigure;
   flow: PlotFigure;
+  /** only when the points carry irradiance */
+  irradiance?: PlotFigure;
 }
 
 /**
@@ -103,6 +109,10 @@ export function timeSeriesSegmentsPlot(input: TimeSeriesInput, units: UnitSystem
   const inlet = series((p) => p.inletTempC, u.temp.from);
   const outlet = series((p) => p.outletTempC, u.temp.from);
   const flow = series((p) => p.flowM3PerS, u.flow.from);
+  const hasAmbient = input.points.some((p) => p.ambientTempC !== undefined && p.ambientTempC !== null);
+  const hasSun = input.points.some((p) => p.irradianceWPerM2 !== undefined && p.irradianceWPerM2 !== null);
+  const ambient = hasAmbient ? series((p) => p.ambientTempC ?? null, u.temp.from) : [];
+  const sun = hasSun ? series((p) => p.irradianceWPerM2 ?? null, (v) => v) : [];
   const n = input.points.length;
   const kept = visible.filter((s) => !s.muted); // the summary gives each period's own length, also when the plot cuts it
   const k = kept.length;
@@ -121,6 +131,8 @@ export function timeSeriesSegmentsPlot(input: TimeSeriesInput, units: UnitSystem
   const rOut = range(outlet);
   const rIn = range(inlet);
   const rFlow = range(flow);
+  const rAmb = hasAmbient ? range(ambient) : null;
+  const rSun = hasSun ? range(sun) : null;
 
   // a line at each caution threshold the logged temperatures reach, and one caution per hazard beside the plot
   const cautions = hottestCautions([
@@ -137,7 +149,7 @@ export function timeSeriesSegmentsPlot(input: TimeSeriesInput, units: UnitSystem
 
   const tTitle = 'Logged inlet and outlet temperatures';
   const tSummary = sentences([
-    `${n} samples over ${duration}; teal is the inlet${rIn ? ` (${fmt(rIn[0])}–${fmt(rIn[1])} ${u.temp.label})` : ''}, ember the outlet${rOut ? ` (${fmt(rOut[0])}–${fmt(rOut[1])} ${u.temp.label})` : ''}`,
+    `${n} samples over ${duration}; teal is the inlet${rIn ? ` (${fmt(rIn[0])}–${fmt(rIn[1])} ${u.temp.label})` : ''}, ember the outlet${rOut ? ` (${fmt(rOut[0])}–${fmt(rOut[1])} ${u.temp.label})` : ''}${rAmb ? `, dashed grey the ambient air (${fmt(rAmb[0])}–${fmt(rAmb[1])} ${u.temp.label})` : ''}`,
     segWords,
     hazardLines.length ? `caution lines: ${hazardLines.map((l) => l.text).join('; ')}` : '',
   ]);
@@ -145,6 +157,21 @@ export function timeSeriesSegmentsPlot(input: TimeSeriesInput, units: UnitSystem
   const fSummary = sentences([`${n} samples of flow over ${duration}${rFlow ? `, ${fmt(rFlow[0])}–${fmt(rFlow[1])} ${u.flow.label}` : ''}`, segWords]);
   const line = (rows: { x: number | Date; y: number | null }[], stroke: string, what: string) =>
     Plot.lineY(rows, { x: 'x', y: 'y', stroke, strokeWidth: 1.5, ariaDescription: what });
+  /** a collector log's sun: the irradiance in the collector plane on the same time axis (W/m² in both unit systems) */
+  function irradianceFigure(): PlotFigure {
+    const title = 'Logged irradiance in the collector plane';
+    const summary = sentences([`${n} samples of irradiance over ${duration}${rSun ? `, ${fmt(rSun[0])}–${fmt(rSun[1])} W/m²` : ''}`, segWords]);
+    return {
+      title,
+      summary,
+      options: {
+        ...baseOptions({ width, height: 200, ariaLabel: title, ariaDescription: summary }),
+        x: { ...xOpts },
+        y: { label: '↑ Irradiance (W/m²)', grid: true, zero: true },
+        marks: [...shade(), line(sun, COLORS.heatLight, 'irradiance')],
+      },
+    };
+  }
 
   return {
     temperatures: {
@@ -155,9 +182,14 @@ export function timeSeriesSegmentsPlot(input: TimeSeriesInput, units: UnitSystem
         ...baseOptions({ width, height: 300, ariaLabel: tTitle, ariaDescription: tSummary }),
         x: { ...xOpts },
         y: { label: `↑ Temperature (${u.temp.label})`, grid: true },
-        marks: [...shade(), ...hazardMarks, line(inlet, COLORS.water, 'inlet'), line(outlet, COLORS.heat, 'outlet')],
+        marks: [
+          ...shade(), ...hazardMarks,
+          ...(hasAmbient ? [Plot.lineY(ambient, { x: 'x', y: 'y', stroke: COLORS.inkMuted, strokeWidth: 1.25, strokeDasharray: '4 3', ariaDescription: 'ambient' })] : []),
+          line(inlet, COLORS.water, 'inlet'), line(outlet, COLORS.heat, 'outlet'),
+        ],
       },
     },
+    ...(hasSun ? { irradiance: irradianceFigure() } : {}),
     flow: {
       title: fTitle,
       summary: fSummary,

@@ -2,6 +2,7 @@ import Link from 'next/link';
 import { AppPage } from '../_components/app-page';
 import { StateBadge } from '../_components/review-panel';
 import { modelLabel } from '../_lib/fits/fit-analysis';
+import { collectorModelLabel } from '../_lib/fits/collector-analysis';
 import { requireLabAction } from '../_lib/accounts/viewer';
 import { fitsOfLab } from '../_lib/fits/fits';
 
@@ -32,7 +33,7 @@ export default async function FitsPage() {
                     <Link href={`/fits/${f.id}`}>{f.title}</Link> <span className="num text-xs text-ink-muted">v{f.version}</span>
                   </td>
                   <td>{f.rig.name}</td>
-                  <td>{modelLabel(f.model)}</td>
+                  <td>{f.kind === 'collector' ? collectorModelLabel(f.model) : modelLabel(f.model)}</td>
                   <td>
                     <StateBadge state={f.reviewState} />
                   </td>
@@ -44,7 +45,7 @@ export default async function FitsPage() {
         </div>
       ) : (
         <div className="card p-6 text-ink-soft">
-          No saved fits yet. Open a rig and choose <strong>Fit models</strong>: <Link href="/rigs">rigs of this lab</Link>.
+          No saved fits yet. Open a rig and choose <strong>Fit models</strong> (or <strong>Collector efficiency</strong> for a solar collector): <Link href="/rigs">rigs of this lab</Link>.
         </div>
       )}
     </AppPage>

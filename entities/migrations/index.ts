@@ -18,6 +18,7 @@ import { Migration20261203130000_solar_collector } from './Migration202612031300
 import { Migration20261203140000_block_cache } from './Migration20261203140000_block_cache';
 import { Migration20261204200000_lookup_indexes } from './Migration20261204200000_lookup_indexes';
 import { Migration20261204210000_operating_plans } from './Migration20261204210000_operating_plans';
+import { Migration20261204220000_sensor_sample_sun } from './Migration20261204220000_sensor_sample_sun';
 
 export const migrationsList: MigrationObject[] = [
   { name: 'Migration20261201222811', class: Migration20261201222811 },
@@ -35,4 +36,5 @@ export const migrationsList: MigrationObject[] = [
   { name: 'Migration20261203140000_block_cache', class: Migration20261203140000_block_cache },
   { name: 'Migration20261204200000_lookup_indexes', class: Migration20261204200000_lookup_indexes },
   { name: 'Migration20261204210000_operating_plans', class: Migration20261204210000_operating_plans },
+  { name: 'Migration20261204220000_sensor_sample_sun', class: Migration20261204220000_sensor_sample_sun },
 ];

@@ -7,6 +7,7 @@
  */
 import { beforeAll, describe, expect, test } from 'vitest';
 import { collectorOutlet, type CollectorParameters } from '@/analysis/performance/collector-efficiency';
+import { waterCpJPerKgK, waterDensityKgPerM3 } from '@/analysis/water/water-properties';
 import { signedIn, type Client } from './support/client';
 
 const DS3663: CollectorParameters = { areaM2: 2.02, areaBasis: 'gross', peakPowerW: 1480, a1WPerM2K: 3.51, a2WPerM2K2: 0.017 };
@@ -110,5 +111,49 @@ describe('collector efficiency test of a solar-collector rig', () => {
     const page = await viewer.get(`/fits/${id}`);
     expect(page.status).toBe(200);
     expect(page.text).toMatch(/gross area/);
+  });
+
+  test('a saved collector fit heats a forecast: its heater gain over an hour is η(x)·A·G of the fit\'s η0, a1, a2 (ISO 9806 steady-state form), and only in its own lab', async () => {
+    const saved = await eng.post(`/api/rigs/${rigId}/collector/fits`, { title: 'Forecast heater', areaBasis: 'gross' });
+    expect(saved.status, saved.text).toBe(201);
+    const fitId = saved.body.fit.id;
+    const t = (await viewer.get(`/api/fits/${fitId}`)).body.fit.result.test;
+    const [eta0, a1, a2] = [t.eta0.value, t.a1WPerM2K.value, t.a2WPerM2K2.value];
+    const A = 2.02; // the gross area the fit is stated on
+    const G = 900, Ta = 20, Tin = 30, flowM3PerS = 0.02 * A / 1000;
+    // one hour on a pool so large (500 t) that the inlet stays at 30 °C (it warms about 0.002 K), no losses
+    const body = { poolMass: '500000 kg', startTemp: `${Tin} degC`, hours: 1, flow: `${flowM3PerS} m^3/s`, losses: false, fitId, sun: { irradiance: `${G} W/m^2`, ambientTemp: `${Ta} degC` } };
+    const r = await viewer.post(`/api/labs/${labId}/forecast`, body);
+    expect(r.status, r.text).toBe(200);
+    expect(r.body.fitNote).toMatch(/collector fit "Forecast heater"/);
+    const gainW = r.body.energy_J.heater_J / 3600;
+    // Closed form, ISO 9806 steady-state efficiency η = η0 − a1·x − a2·G·x² with x = (Tm − Ta)/G and Tm
+    // the mean of inlet and outlet, so η·A·G = A·(η0·G − a1·y − a2·y²) with y = Tm − Ta; the water
+    // carries the same heat, Q = ṁ·cp·(Tout − Tin) = 2C·(y − d) with d = Tin − Ta and C = ρ·V̇·cp at the
+    // inlet (IAPWS-IF97 water, the standard's water properties); equating the two gives
+    // A·a2·y² + (2C + A·a1)·y − (A·η0·G + 2C·d) = 0.
+    const C = waterDensityKgPerM3(Tin) * flowM3PerS * waterCpJPerKgK(Tin);
+    const d = Tin - Ta;
+    const qa = A * a2, qb = 2 * C + A * a1, qc = -(A * eta0 * G + 2 * C * d);
+    const y = (-qb + Math.sqrt(qb * qb - 4 * qa * qc)) / (2 * qa);
+    const x = y / G;
+    const eta = eta0 - a1 * x - a2 * G * x * x;
+    expect(gainW / (eta * A * G)).toBeCloseTo(1, 3);
+    // the collector is about 0.7 efficient there: a sanity bound on the closed form itself (DS 3663 η0 ≈ 0.73)
+    expect(eta).toBeGreaterThan(0.6);
+    expect(eta).toBeLessThan(eta0);
+
+    // authorized by lab: the engineer's own new lab cannot use the demo lab's fit
+    const other = await eng.post('/api/labs', { name: `Other bench ${Date.now().toString(36)}` });
+    expect(other.status, other.text).toBe(201);
+    const otherId = other.body.lab?.id ?? other.body.id;
+    const refused = await eng.post(`/api/labs/${otherId}/forecast`, body);
+    expect(refused.status).toBe(404);
+    // a collector fit without the sun of the forecast is refused with the field named
+    const { sun: _sun, ...noSun } = body;
+    void _sun;
+    const bad = await viewer.post(`/api/labs/${labId}/forecast`, noSun);
+    expect(bad.status).toBe(422);
+    expect(bad.text).toMatch(/sun/);
   });
 });

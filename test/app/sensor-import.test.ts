@@ -20,6 +20,8 @@ import { pgPool } from '@/app/_lib/server/pg-pool';
 import { ImportError } from '@/app/_lib/imports/import-error';
 import { Rig, SourceFile, User } from '@/entities';
 import { Client, createAccount, signedIn } from './support/client';
+import { SOLAR_LOG_MAPPING, solarLogCsv } from '@/fixtures/demo-solar';
+import { demoWork } from '@/fixtures/demo-lab';
 import { LOG_MAPPING as MAPPING, engineerWithRig, jobFinished as finished, logFolder, uploadRaw as upload } from './support/sensor-logs';
 
 const db = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 2 });
@@ -301,5 +303,37 @@ describe('sensor-log import', () => {
     expect((await outsider.get(`/api/jobs/${started.body.job.id}`)).status).toBe(404);
     expect((await outsider.request('DELETE', `/api/jobs/${started.body.job.id}`)).status).toBe(404);
     await finished(eng, started.body.job.id);
+  });
+
+  test('a collector log keeps the sun: irradiance and wind in its samples, irradiance and the air in its overview and on the rig page; a coil log stays as it was', { timeout: 120_000 }, async () => {
+    const { eng, rig } = await engineerWithRig('Sun rig', 'solar-collector');
+    // the morning of the demo's logged day (fixtures/demo-solar.ts), 06:00 to about 12:06
+    const csv = solarLogCsv().split('\n').slice(0, 2201).join('\n') + '\n';
+    const file = await upload(eng, rig.id, 'collector-morning.csv', Buffer.from(csv));
+    const started = await eng.post(`/api/rigs/${rig.id}/uploads/${file.id}/log-import`, { mapping: SOLAR_LOG_MAPPING, preset: 'collector' });
+    expect(started.status, started.text).toBe(202);
+    const job = await finished(eng, started.body.job.id);
+    expect(job.state, job.error).toBe('completed');
+    expect(job.result.samples).toBe(2200);
+    // each sample as written in the file (columns: time, G, air, wind, inlet, outlet, flow)
+    const cells = csv.split('\n')[2].split(',');
+    const s = (await db.query('SELECT irradiance_w_per_m2 AS g, wind_m_per_s AS u, ambient_c AS a, inlet_c AS i FROM sensor_sample WHERE source_file_id = $1 AND line = 3', [file.id])).rows[0];
+    expect(s).toEqual({ g: Number(cells[1]), a: Number(cells[2]), u: Number(cells[3]), i: Number(cells[4]) });
+    expect((await db.query('SELECT count(*)::int AS n FROM sensor_sample WHERE source_file_id = $1 AND irradiance_w_per_m2 IS NULL', [file.id])).rows[0].n).toBe(0);
+    // the overview draws the sun and the air on the same time base, keeping the extremes (the sunniest sample is in it)
+    const o = (await db.query('SELECT points FROM sensor_overview WHERE source_file_id = $1', [file.id])).rows[0].points;
+    expect(o.irradianceWPerM2).toHaveLength(o.tS.length);
+    expect(o.ambientTempC).toHaveLength(o.tS.length);
+    const gs = csv.trim().split('\n').slice(1).map((l) => Number(l.split(',')[1]));
+    expect(Math.max(...o.irradianceWPerM2)).toBe(Math.max(...gs));
+    const page = await eng.get(`/rigs/${rig.id}`);
+    expect(page.status).toBe(200);
+    expect(page.text).toMatch(/Logged irradiance in the collector plane/);
+    expect(page.text).toMatch(/collector-morning\.csv/);
+    // the demo burner loop's log (a coil log) has no sun: NULL in its samples, none in its overview
+    const coil = (await db.query(`SELECT f.id FROM source_file f WHERE f.filename = $1`, [demoWork.log.filename])).rows[0].id;
+    expect((await db.query('SELECT count(*)::int AS n FROM sensor_sample WHERE source_file_id = $1 AND (irradiance_w_per_m2 IS NOT NULL OR wind_m_per_s IS NOT NULL)', [coil])).rows[0].n).toBe(0);
+    const coilPoints = (await db.query('SELECT points FROM sensor_overview WHERE source_file_id = $1', [coil])).rows[0].points;
+    expect(coilPoints).not.toHaveProperty('irradianceWPerM2');
   });
 });

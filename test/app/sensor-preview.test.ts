@@ -12,6 +12,7 @@ import path from 'node:path';
 import pg from 'pg';
 import { afterAll, describe, expect, test } from 'vitest';
 import type { Client } from './support/client';
+import { SOLAR_LOG_MAPPING, solarLogCsv } from '@/fixtures/demo-solar';
 import { LOG_MAPPING as MAPPING, engineerWithRig, jobFinished as finished, logFolder, uploadRaw as upload } from './support/sensor-logs';
 
 const db = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 2 });
@@ -198,5 +199,21 @@ describe('sensor-log preview', () => {
     const n = (await db.query('SELECT count(*)::int AS n, count(*) FILTER (WHERE line >= 1001 AND line <= 6981 AND (line - 1001) % 20 = 0)::int AS bad FROM sensor_sample WHERE source_file_id = $1', [file.id])).rows[0];
     expect(n).toEqual({ n: 7700, bad: 0 });
   });
-});
 
+  test('a collector log\'s preview carries its air and irradiance on the same time base, keeping the irradiance extremes', { timeout: 60_000 }, async () => {
+    const { eng, rig } = await engineerWithRig('Preview sun rig', 'solar-collector');
+    // the afternoon of the demo's logged day (fixtures/demo-solar.ts), from 12:00
+    const lines = solarLogCsv().trim().split('\n');
+    const csv = [lines[0], ...lines.slice(2161)].join('\n') + '\n';
+    const file = await upload(eng, rig.id, 'collector-afternoon.csv', Buffer.from(csv));
+    const r = await segments(eng, rig.id, file.id, { mapping: SOLAR_LOG_MAPPING, preset: 'collector' });
+    expect(r.status).toBe(200);
+    expect(r.error).toBeNull();
+    const series = r.result.series;
+    expect(series.irradianceWPerM2).toHaveLength(series.tS.length);
+    expect(series.ambientTempC).toHaveLength(series.tS.length);
+    const gs = lines.slice(2161).map((l) => Number(l.split(',')[1]));
+    expect(Math.min(...series.irradianceWPerM2)).toBe(Math.min(...gs));
+    expect(Math.max(...series.irradianceWPerM2)).toBe(Math.max(...gs));
+  });
+});

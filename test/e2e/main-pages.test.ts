@@ -23,7 +23,7 @@ interface MainPage {
   ready?: (p: Page) => Promise<void>;
 }
 
-const ids = { rig: '', fit: '', study: '', share: '' };
+const ids = { rig: '', fit: '', study: '', share: '', collector: '' };
 
 const PAGES: MainPage[] = [
   { name: 'landing', path: () => '/' },
@@ -31,6 +31,9 @@ const PAGES: MainPage[] = [
   { name: 'rig', path: () => `/rigs/${ids.rig}` },
   { name: 'fit', path: () => `/rigs/${ids.rig}/fit`, ready: (p) => p.getByRole('heading', { name: 'Model comparison' }).waitFor() },
   { name: 'import', path: () => `/rigs/${ids.rig}/import` },
+  // the demo's solar collector: its logged day on the rig page, and its efficiency curve
+  { name: 'collector rig', path: () => `/rigs/${ids.collector}`, ready: (p) => p.getByRole('region', { name: 'Logged data' }).waitFor() },
+  { name: 'collector', path: () => `/rigs/${ids.collector}/collector`, ready: (p) => p.getByRole('heading', { name: /Efficiency curve/ }).waitFor() },
   {
     name: 'forecast',
     path: () => '/forecasts',
@@ -57,7 +60,9 @@ describe('the main pages in Chromium', () => {
     // a saved fit, a study that shows it and a share link of the study, made through the API
     const eng = await signedIn('engineer@cinder-hollow.test');
     const lab = (await eng.get('/api/me')).body.labs[0];
-    const rig = (await eng.get(`/api/labs/${lab.id}/rigs`)).body.rigs.find((r: { name: string }) => r.name === 'Stovepipe Coil A');
+    const rigs = (await eng.get(`/api/labs/${lab.id}/rigs`)).body.rigs as { id: string; name: string }[];
+    const rig = rigs.find((r) => r.name === 'Stovepipe Coil A')!;
+    const collector = rigs.find((r) => r.name === 'Garage Roof Collector')!;
     const trialIds = (await eng.get(`/api/rigs/${rig.id}/trials?pageSize=500`)).body.trials.filter((t: { origin: string }) => t.origin === 'demo').map((t: { id: string }) => t.id);
     const fit = (await eng.post(`/api/labs/${lab.id}/fits`, { rigId: rig.id, title: `Main pages fit ${Date.now().toString(36)}`, model: 'coil', trialIds })).body.fit;
     const study = (await eng.post(`/api/labs/${lab.id}/studies`, { title: `Main pages study ${Date.now().toString(36)}` })).body.study;
@@ -67,7 +72,7 @@ describe('the main pages in Chromium', () => {
     expect(saved.status, saved.text).toBe(200);
     const share = await eng.post(`/api/studies/${study.id}/shares`, { days: 7 });
     expect(share.status, share.text).toBe(201);
-    Object.assign(ids, { rig: rig.id, fit: fit.id, study: study.id, share: new URL(share.body.url).pathname });
+    Object.assign(ids, { rig: rig.id, fit: fit.id, study: study.id, share: new URL(share.body.url).pathname, collector: collector.id });
 
     desk = await openBrowser({ viewport: { width: 1280, height: 860 } });
     phone = await openBrowser({ viewport: { width: 360, height: 760 } });

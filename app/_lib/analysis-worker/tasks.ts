@@ -8,7 +8,7 @@
 import { DomainError } from '../server/errors';
 import { InputError } from '@/analysis/units/reading-input';
 import { computeAnalysis, computeSavedFit, fitBlockFigure, savedFitFigures } from '../fits/fit-compute';
-import { computeForecast, computeForecastResult } from '../forecasts/forecast-compute';
+import { computeForecast, computeForecastExport } from '../forecasts/forecast-compute';
 import { sensorLogFigures } from '../studies/block-figures';
 import { computeComparison } from '../comparisons/comparison-compute';
 import { previewSegments, previewSeries } from '../imports/preview-segments';
@@ -29,7 +29,7 @@ export const TASKS = {
   savedFitFigures,
   fitBlockFigure,
   forecast: computeForecast,
-  forecastResult: computeForecastResult,
+  forecastExport: computeForecastExport,
   sensorLogFigures,
   designComparison: computeComparison,
   previewSegments: (t: PreviewTask) => previewSegments(t.log, t.input),

@@ -82,8 +82,23 @@ export function forecastSummaryItems(forecasts: readonly ForecastExport[], syste
       E('Heater energy', e.heaterJ), E('Solar gain', e.solarJ), E('Evaporation loss', e.evaporationJ), E('Convection loss', e.convectionJ),
       E('Radiation loss', e.radiationJ), E('Wall loss', e.wallsJ), E('Net stored energy', e.netJ),
       { section, key: 'Water evaporated', value: toDisplay(e.evaporatedKg, 'mass', system), unit: displayUnit('mass', system).label, numFmt: '0.0' },
+      ...(f.measuredDay ? measuredDayItems(section, f.measuredDay, system) : []),
     ];
   });
+}
+
+/** The measured day of a forecast for the Summary: measured against forecast, the residual and the gain it implies, each with its uncertainty, and the verdict. */
+function measuredDayItems(section: string, d: NonNullable<ForecastExport['measuredDay']>, system: UnitSystem): SummaryItem[] {
+  const temp = displayUnit('temperature', system).label, dT = displayUnit('temperatureDifference', system).label, power = displayUnit('power', system).label;
+  const T = (key: string, v: number): SummaryItem => ({ section, key, value: toDisplay(v, 'temperature', system), unit: temp, numFmt: '0.00' });
+  const K = (key: string, v: number): SummaryItem => ({ section, key, value: spreadToDisplay(v, 'temperatureDifference', system), unit: dT, numFmt: '0.00' });
+  const W = (key: string, v: number): SummaryItem => ({ section, key, value: spreadToDisplay(v, 'power', system), unit: power, numFmt: '0.00' });
+  return [
+    T('Measured start temperature', d.startTemp_degC), T('Measured end temperature', d.observedEndTemp_degC), T('Forecast end temperature', d.predictedEndTemp_degC),
+    K('Residual (measured − forecast)', d.residual_K), K('Residual standard uncertainty', d.residualU_K),
+    W('Gain the model did not include', d.unmodelledGain_W), W('Its standard uncertainty', d.unmodelledGainU_W),
+    { section, key: 'Measured day verdict', value: d.verdict },
+  ];
 }
 
 /** The Costs sheet: build lines with subtotals, tax and total; running cost; payback. */

@@ -13,6 +13,7 @@ import type { UsefulHeatCost } from '@/analysis/cost/useful-heat-cost';
 import type { Payback } from '@/analysis/cost/payback';
 import type { FuelKind } from '@/analysis/cost/fuels';
 import type { CollectorTestResult } from '@/analysis/performance/collector-test';
+import type { MeasuredDayView } from '@/app/_contracts/study-blocks';
 import type { CellValue } from './cells';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import type { DesignComparisonView } from '@/app/_contracts/design-comparison';
@@ -94,6 +95,8 @@ export interface ForecastExport {
   label?: string;
   result: ForecastResult;
   startTime?: Date;
+  /** what was measured that day against the forecast (analysis/forecast/measured-day-check.ts) */
+  measuredDay?: MeasuredDayView;
 }
 
 /** Cost results; money is in `currency` (a code such as "USD", shown in the headers). */

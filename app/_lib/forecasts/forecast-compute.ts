@@ -89,9 +89,10 @@ function measuredDayOf(input: ForecastInput, body: unknown): MeasuredDayView {
   };
 }
 
-/** The forecast's result alone (the spreadsheet export's Forecast sheet). */
-export function computeForecastResult(t: Pick<ForecastTask, 'body' | 'heater'>): ForecastResult {
-  return prepare(t).result;
+/** The forecast's result and, when the body has one, its measured day (the spreadsheet export's Forecast sheet and Summary). */
+export function computeForecastExport(t: Pick<ForecastTask, 'body' | 'heater'>): { result: ForecastResult; measuredDay: MeasuredDayView | null } {
+  const { input, result } = prepare(t);
+  return { result, measuredDay: t.body.measured === undefined ? null : measuredDayOf(input, t.body.measured) };
 }
 
 /** A plot as the forecast response carries it: its words, the builder's input (for the browser), and server SVG when asked. */

@@ -94,10 +94,12 @@ export function forecastWorkProblem(body: Record<string, unknown>): string | nul
 }
 
 /**
- * A forecast block's results for the spreadsheet export (Forecast sheet and Summary items).
+ * A forecast block's results for the spreadsheet export (Forecast sheet and Summary items, the
+ * measured day among them when the block has one).
  * @throws as {@link forecast}
  */
 export async function forecastForExport(em: EntityManager, lab: LabRow, body: Record<string, unknown>, label: string): Promise<ForecastExport> {
   const { heater } = await fitHeater(em, lab, body.fitId, body.sun);
-  return { label, result: await runAnalysis('forecastResult', { body, heater }) };
+  const { result, measuredDay } = await runAnalysis('forecastExport', { body, heater });
+  return { label, result, ...(measuredDay ? { measuredDay } : {}) };
 }

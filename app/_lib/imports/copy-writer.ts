@@ -14,6 +14,8 @@ import { from as copyFrom } from 'pg-copy-streams';
  */
 
 const COPY_SQL = 'COPY sensor_sample (source_file_id, line, rig_id, taken_at, inlet_c, outlet_c, flow_m3_per_s, ambient_c) FROM STDIN (FORMAT binary)';
+/** a collector log's rows add the sun: irradiance in the collector plane and wind (migration sensor_sample_sun) */
+const COPY_SUN_SQL = 'COPY sensor_sample (source_file_id, line, rig_id, taken_at, inlet_c, outlet_c, flow_m3_per_s, ambient_c, irradiance_w_per_m2, wind_m_per_s) FROM STDIN (FORMAT binary)';
 
 /*
  * COPY's binary format (PostgreSQL manual, "COPY", Binary Format): a signature and two int32
@@ -24,6 +26,7 @@ const COPY_SQL = 'COPY sensor_sample (source_file_id, line, rig_id, taken_at, in
 const COPY_SIGNATURE = Buffer.concat([Buffer.from('PGCOPY\n\xff\r\n\0', 'latin1'), Buffer.alloc(8)]);
 const COPY_TRAILER = Buffer.from([0xff, 0xff]);
 const ROW_BYTES = 2 + (4 + 16) + (4 + 4) + (4 + 16) + (4 + 8) + 4 * (4 + 8); // 110
+const SUN_ROW_BYTES = ROW_BYTES + 2 * (4 + 8); // 134
 const PG_EPOCH_S = 946_684_800;
 const uuidWords = (id: string) => {
   const b = Buffer.from(id.replace(/-/g, ''), 'hex');
@@ -56,6 +59,26 @@ function rowEncoder(fileId: string, rigId: string) {
   };
 }
 
+/** A nullable float8 field at `at` (NULL when NaN); returns the offset after it. */
+function float8OrNull(dv: DataView, at: number, v: number): number {
+  if (v !== v) { dv.setInt32(at, -1); return at + 4; }
+  dv.setInt32(at, 8); dv.setFloat64(at + 4, v);
+  return at + 12;
+}
+
+/**
+ * A collector log's row: the row of `rowEncoder` with ten fields, then irradiance and wind
+ * (NULL when NaN). A separate encoder, so that coil logs keep their eight-field rows.
+ */
+function sunRowEncoder(fileId: string, rigId: string) {
+  const row = rowEncoder(fileId, rigId);
+  return (dv: DataView, at: number, line: number, epochS: number, inC: number, outC: number, flow: number, ambC: number, irr: number, wind: number): number => {
+    const end = row(dv, at, line, epochS, inC, outC, flow, ambC);
+    dv.setInt16(at, 10);
+    return float8OrNull(dv, float8OrNull(dv, end, irr), wind);
+  };
+}
+
 /** 96 × 256 KiB: PostgreSQL's lead (about 220,000 rows) covers the segmentation that runs meanwhile */
 const COPY_BUFFER_BYTES = 256 * 1024;
 const COPY_BUFFERS = 96;
@@ -69,6 +92,9 @@ export interface SampleColumns {
   flowM3PerS: Float64Array;
   /** empty when the log has no ambient column; NaN where a sample has none */
   ambientTempC: Float64Array;
+  /** collector logs: irradiance in the collector plane (W/m²) and wind (m/s); empty when not mapped */
+  irradianceWPerM2?: Float64Array;
+  windMPerS?: Float64Array;
 }
 
 interface PooledBuffer { buf: Buffer; dv: DataView }
@@ -83,15 +109,20 @@ export class SampleCopy {
   private readonly free: PooledBuffer[] = [];
   private readonly stream: Writable;
   private readonly row: ReturnType<typeof rowEncoder>;
+  private readonly sunRow: ReturnType<typeof sunRowEncoder> | null;
   private waiting: (() => void) | null = null;
   private failed: Error | null = null;
   /** resolves when PostgreSQL has taken every row (after `end`), rejects on its error */
   readonly done: Promise<void>;
 
-  /** Starts the COPY on `client` (inside the caller's transaction) for the samples of one file and rig. */
-  constructor(client: pg.ClientBase, fileId: string, rigId: string) {
+  /**
+   * Starts the COPY on `client` (inside the caller's transaction) for the samples of one file and
+   * rig; `sun` when the log has irradiance or wind (a collector log), whose rows then carry both.
+   */
+  constructor(client: pg.ClientBase, fileId: string, rigId: string, sun = false) {
     this.row = rowEncoder(fileId, rigId);
-    this.stream = client.query(copyFrom(COPY_SQL));
+    this.sunRow = sun ? sunRowEncoder(fileId, rigId) : null;
+    this.stream = client.query(copyFrom(sun ? COPY_SUN_SQL : COPY_SQL));
     for (let i = 0; i < COPY_BUFFERS; i++) {
       const buf = Buffer.allocUnsafeSlow(COPY_BUFFER_BYTES);
       this.free.push({ buf, dv: new DataView(buf.buffer, buf.byteOffset, buf.byteLength) });
@@ -108,6 +139,7 @@ export class SampleCopy {
    * @throws the COPY's error when PostgreSQL has refused it
    */
   async write(s: SampleColumns, from: number, to: number, epochBase: number): Promise<void> {
+    if (this.sunRow) return this.writeSun(s, from, to, epochBase, this.sunRow);
     const row = this.row;
     const amb = s.ambientTempC.length > 0;
     for (let i = from; i < to;) {
@@ -116,6 +148,22 @@ export class SampleCopy {
       let at = 0;
       for (; i < to && at <= COPY_BUFFER_BYTES - ROW_BYTES; i++) {
         at = row(dv, at, s.lines[i], epochBase + s.timeS[i], s.inletTempC[i], s.outletTempC[i], s.flowM3PerS[i], amb ? s.ambientTempC[i] : NaN);
+      }
+      this.send(b, at);
+    }
+  }
+
+  /** {@link write} for a collector log: every row also carries irradiance and wind (NULL where missing). */
+  private async writeSun(s: SampleColumns, from: number, to: number, epochBase: number, row: ReturnType<typeof sunRowEncoder>): Promise<void> {
+    const amb = s.ambientTempC.length > 0;
+    const irr = s.irradianceWPerM2?.length ? s.irradianceWPerM2 : null;
+    const wind = s.windMPerS?.length ? s.windMPerS : null;
+    for (let i = from; i < to;) {
+      const b = await this.take();
+      const dv = b.dv;
+      let at = 0;
+      for (; i < to && at <= COPY_BUFFER_BYTES - SUN_ROW_BYTES; i++) {
+        at = row(dv, at, s.lines[i], epochBase + s.timeS[i], s.inletTempC[i], s.outletTempC[i], s.flowM3PerS[i], amb ? s.ambientTempC[i] : NaN, irr ? irr[i] : NaN, wind ? wind[i] : NaN);
       }
       this.send(b, at);
     }

@@ -12,6 +12,18 @@ export interface OverviewChannels {
   inletTempC: ArrayLike<number>;
   outletTempC: ArrayLike<number>;
   flowM3PerS: ArrayLike<number>;
+  /** the air beside the rig, when logged (NaN where a sample has none) */
+  ambientTempC?: ArrayLike<number> | null;
+  /** a collector log's irradiance in the collector plane, W/m² */
+  irradianceWPerM2?: ArrayLike<number> | null;
+}
+
+/**
+ * The channels whose extremes the display keeps: the water's always, and the sun's for a
+ * collector log (a passing cloud must stay visible). Ambient is drawn, not reduced on.
+ */
+export function reducedChannels(ch: OverviewChannels): ArrayLike<number>[] {
+  return [ch.inletTempC, ch.outletTempC, ch.flowM3PerS, ...(ch.irradianceWPerM2?.length ? [ch.irradianceWPerM2] : [])];
 }
 
 // Plenty for a plot, and it keeps the stored JSON (and the page) small: 7 significant digits, times to 1 ms.
@@ -25,16 +37,21 @@ export const ms = (s: number) => Math.round(s * 1000) / 1000;
  * @throws as overviewIndices (a channel of another length, decreasing time).
  */
 export function displayPoints(ch: OverviewChannels, maxPoints = DISPLAY_MAX_POINTS): OverviewPoints {
-  return pointsAt(ch, ch.timeS.length ? overviewIndices(ch.timeS, [ch.inletTempC, ch.outletTempC, ch.flowM3PerS], maxPoints) : new Uint32Array(0));
+  return pointsAt(ch, ch.timeS.length ? overviewIndices(ch.timeS, reducedChannels(ch), maxPoints) : new Uint32Array(0));
 }
 
 /** The display points at the given sample indices. */
 export function pointsAt(ch: OverviewChannels, idx: ArrayLike<number>): OverviewPoints {
   const at = <T,>(f: (i: number) => T) => Array.from(idx, f);
+  const amb = ch.ambientTempC?.length ? ch.ambientTempC : null;
+  const irr = ch.irradianceWPerM2?.length ? ch.irradianceWPerM2 : null;
   return {
     tS: at((i) => ms(ch.timeS[i])),
     inletTempC: at((i) => sig(ch.inletTempC[i])),
     outletTempC: at((i) => sig(ch.outletTempC[i])),
     flowM3PerS: at((i) => sig(ch.flowM3PerS[i])),
+    // only logs that have them carry the air and the sun (coil logs' overviews stay as they were)
+    ...(amb ? { ambientTempC: at((i) => sig(amb[i])) } : {}),
+    ...(irr ? { irradianceWPerM2: at((i) => sig(irr[i])) } : {}),
   };
 }

@@ -14,7 +14,11 @@ import type { PreviewPeriod, SegmentPreview, SegmentPreviewInput } from './senso
 /** Display series of samples `from`..`to` (exclusive): the display points of the stored overview of an imported log. */
 function displaySeries(log: SensorLog, from = 0, to = log.n): SegmentPreview['series'] {
   const part = (y: Float64Array) => y.subarray(from, to);
-  const points = displayPoints({ timeS: part(log.timeS), inletTempC: part(log.inletTempC), outletTempC: part(log.outletTempC), flowM3PerS: part(log.flowM3PerS) });
+  const points = displayPoints({
+    timeS: part(log.timeS), inletTempC: part(log.inletTempC), outletTempC: part(log.outletTempC), flowM3PerS: part(log.flowM3PerS),
+    // a collector log's air and sun, drawn as the stored overview draws them
+    ambientTempC: log.ambientTempC && part(log.ambientTempC), irradianceWPerM2: log.irradianceWPerM2 && part(log.irradianceWPerM2),
+  });
   return { ...points, reduced: points.tS.length < to - from };
 }
 

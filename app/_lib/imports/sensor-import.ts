@@ -145,7 +145,9 @@ export async function importSensorLog(target: SensorImportTarget, input: LogImpo
       if (await options.onProgress({ ...reader.progress(), rowsDone: written })) throw new ImportCancelled();
     };
 
-    const copy = new SampleCopy(client, fileId, rigId);
+    // a collector log's samples keep the sun too (irradiance and wind columns)
+    const sun = input.mapping.columns.some((c) => c.field === 'irradiance' || c.field === 'wind');
+    const copy = new SampleCopy(client, fileId, rigId, sun);
     let log: SensorLog;
     let channels: SegmentChannels;
     let periods: LogPeriod[] = [];
@@ -177,7 +179,7 @@ export async function importSensorLog(target: SensorImportTarget, input: LogImpo
         // also while PostgreSQL works: the periods that become trials and the display overview of
         // the log with them (built a channel at a time, so the pooled buffers keep moving)
         periods = trialPeriods(log.lines, channels, seg!, criteria, input.segments, file, log.notices);
-        overview = await buildOverviewAsync(channels, {
+        overview = await buildOverviewAsync({ ...channels, ambientTempC: log.ambientTempC, irradianceWPerM2: log.irradianceWPerM2 }, {
           segments: periods.map(({ a, b, st }) => ({ startTimeS: channels.timeS[a], endTimeS: channels.timeS[b], mean: st.mean })),
         });
       }

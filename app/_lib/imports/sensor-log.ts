@@ -73,6 +73,9 @@ export interface AcceptedSamples {
   flowM3PerS: Float64Array;
   /** NaN where a log has no ambient column */
   ambientTempC: Float64Array;
+  /** collector logs: irradiance (W/m²) and wind (m/s); empty when not mapped */
+  irradianceWPerM2: Float64Array;
+  windMPerS: Float64Array;
   lines: Int32Array;
   origin: TimeOrigin | null;
   rejectedCount: number;
@@ -288,6 +291,7 @@ export function createSensorLogBuilder(mapping: unknown, header: readonly string
       return {
         n, timeS: col.t.subarray(0, n), inletTempC: col.tin.subarray(0, n), outletTempC: col.tout.subarray(0, n), flowM3PerS: col.q.subarray(0, n),
         ambientTempC: col.amb.subarray(0, hasAmbient ? n : 0), lines: col.lines.subarray(0, n), origin, rejectedCount: rejected, issues,
+        irradianceWPerM2: col.irr.subarray(0, solar.irradiance ? n : 0), windMPerS: col.wind.subarray(0, solar.wind ? n : 0),
       };
     },
     finish() {

@@ -8,7 +8,7 @@ import { DISPLAY_MAX_POINTS, overviewIndicesSteps } from '@/analysis/reduce';
 import { segmentLog, type PresetName, type SteadyCriteria } from '@/analysis/segment';
 import type { OverviewPoints, OverviewSegment } from '@/entities/sensor-overview';
 import { segmentChannels } from './log-reader';
-import { displayPoints, ms, pointsAt, sig, type OverviewChannels } from './display-points';
+import { displayPoints, ms, pointsAt, reducedChannels, sig, type OverviewChannels } from './display-points';
 
 export { displayPoints, type OverviewChannels };
 
@@ -55,7 +55,7 @@ export function buildOverview(ch: OverviewChannels, seg: OverviewSegmentation, m
 export async function buildOverviewAsync(ch: OverviewChannels, seg: OverviewSegmentation, maxPoints = DISPLAY_MAX_POINTS): Promise<OverviewData> {
   let idx: Uint32Array = new Uint32Array(0);
   if (ch.timeS.length) {
-    const steps = overviewIndicesSteps(ch.timeS, [ch.inletTempC, ch.outletTempC, ch.flowM3PerS], maxPoints);
+    const steps = overviewIndicesSteps(ch.timeS, reducedChannels(ch), maxPoints);
     for (let r = steps.next(); ; r = steps.next()) {
       if (r.done) { idx = r.value; break; }
       await setImmediate();
@@ -109,13 +109,13 @@ class Column {
 /**
  * Reads a log's samples in line order with a binary COPY (PostgreSQL manual, "COPY", Binary
  * Format): per row an int16 field count, then each field as int32 length (−1 = NULL) and a
- * big-endian float8. NULL readings become NaN. Returns epoch seconds and the four channels.
+ * big-endian float8. NULL readings become NaN. Returns epoch seconds, the four channels and the irradiance.
  */
 async function readSamples(client: pg.ClientBase, fileId: string, expected: number) {
   if (!isUuid(fileId)) throw new TypeError(`not a uuid: ${fileId}`);
-  const cols = Array.from({ length: 5 }, () => new Column(expected));
+  const cols = Array.from({ length: 6 }, () => new Column(expected));
   const stream = client.query(copyTo(
-    `COPY (SELECT extract(epoch FROM taken_at)::float8, inlet_c, outlet_c, flow_m3_per_s, ambient_c FROM sensor_sample WHERE source_file_id = '${fileId}' ORDER BY line) TO STDOUT (FORMAT binary)`,
+    `COPY (SELECT extract(epoch FROM taken_at)::float8, inlet_c, outlet_c, flow_m3_per_s, ambient_c, irradiance_w_per_m2 FROM sensor_sample WHERE source_file_id = '${fileId}' ORDER BY line) TO STDOUT (FORMAT binary)`,
   ));
   let pending: Buffer = Buffer.alloc(0);
   let headerDone = false;
@@ -133,7 +133,7 @@ async function readSamples(client: pg.ClientBase, fileId: string, expected: numb
       if (buf.length - at < 2) break;
       const fields = buf.readInt16BE(at);
       if (fields === -1) { at = buf.length; break; }
-      // a row of five float8 fields is at most 2 + 5 × 12 bytes; wait for all of it
+      // a row of six float8 fields is at most 2 + 6 × 12 bytes; wait for all of it
       let need = 2, ok = true;
       for (let f = 0; f < fields; f++) {
         if (buf.length - at < need + 4) { ok = false; break; }
@@ -152,8 +152,8 @@ async function readSamples(client: pg.ClientBase, fileId: string, expected: numb
     pending = at < buf.length ? buf.subarray(at) : Buffer.alloc(0);
     buf = pending;
   }
-  const [epoch, inlet, outlet, flow, ambient] = cols.map((c) => c.done());
-  return { epoch, inlet, outlet, flow, ambient };
+  const [epoch, inlet, outlet, flow, ambient, irradiance] = cols.map((c) => c.done());
+  return { epoch, inlet, outlet, flow, ambient, irradiance };
 }
 
 /** The criteria the log was segmented with at import (stored with its trials), else the laboratory preset. */
@@ -195,7 +195,10 @@ export async function ensureSensorOverview(pool: pg.Pool, fileId: string): Promi
     } catch {
       // missing readings or a time base segmentLog refuses: the overview shows the samples without segments
     }
-    await insertOverview(client, { fileId, rigId: first.rows[0].rig_id, startEpochS: t0 }, buildOverview(channels, seg));
+    // the air and the sun are drawn when the log has them (an all-NULL column is a coil log's)
+    const has = (a: Float64Array) => a.some((v) => v === v);
+    const shown = { ...channels, ambientTempC: has(s.ambient) ? s.ambient : null, irradianceWPerM2: has(s.irradiance) ? s.irradiance : null };
+    await insertOverview(client, { fileId, rigId: first.rows[0].rig_id, startEpochS: t0 }, buildOverview(shown, seg));
     await client.query('COMMIT');
     return true;
   } catch (e) {

@@ -1,9 +1,9 @@
 import 'server-only';
 import { DomainError } from '../server/errors';
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { Fit, SensorOverview, SourceFile, type FitRow, type LabRow, type StudyRow } from '@/entities';
+import { Fit, SourceFile, type FitRow, type LabRow, type StudyRow } from '@/entities';
 import type { StudyBlock } from '@/entities/study';
-import { SEGMENT_ROWS, type BlockBody, type BlockData, type FitHead } from '@/app/_contracts/study-blocks';
+import type { BlockBody, BlockData, FitHead } from '@/app/_contracts/study-blocks';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { costView } from '../forecasts/cost-sheet';
 import { modelLabel } from '../fits/fit-analysis';
@@ -15,8 +15,7 @@ import { STANDING_NOTICE } from '@/analysis/safety/standing-notice';
 import { fitView } from '../fits/fit-compute';
 import { runAnalysis } from '../server/analysis-pool';
 import { isUuid } from '../labs/load-in-lab';
-import { pgPool } from '../server/pg-pool';
-import { ensureSensorOverview } from '../imports/sensor-overview';
+import { sensorLogBody as sensorLogView } from './sensor-log-body';
 import { blockCacheKey, cachedBlockData, jsonHash } from './block-cache';
 import { comparisonInLab, readComparison } from '../comparisons/comparisons';
 import { planDto, planInLab } from '../rigs/operating-plans';
@@ -108,25 +107,8 @@ async function sensorLogBody(ctx: BlockContext, block: StudyBlock): Promise<Bloc
   if (!isUuid(fileId)) return { type: 'note', tone: 'muted', message: 'No sensor log chosen for this block yet.' };
   const file = await ctx.em.findOne(SourceFile, { id: fileId, lab: ctx.lab }, { populate: ['rig'] });
   if (!file) return { type: 'note', tone: 'muted', message: 'The sensor log of this block no longer exists.' };
-  let overview = await ctx.em.findOne(SensorOverview, { sourceFile: file.id }, { populate: ['rig'] });
-  if (!overview && (await ensureSensorOverview(pgPool(), file.id))) overview = await ctx.em.findOne(SensorOverview, { sourceFile: file.id }, { populate: ['rig'] });
-  if (!overview) return { type: 'note', tone: 'muted', message: 'This file holds no logged samples (it was not imported as a sensor log).' };
-  // the overview is written once per log (and rebuilt only with a new id or time): its plots are kept under both
-  const key = blockCacheKey(['sensor-log-plots', overview.id, overview.updatedAt.getTime(), ctx.units]);
-  const plots = await cachedBlockData(ctx.em, key, { labId: ctx.lab.id }, () =>
-    runAnalysis('sensorLogFigures', { points: overview.points, segments: overview.segments.map((s) => ({ startS: s.startS, endS: s.endS })), origin: overview.startedAt, samples: overview.samples, units: ctx.units }));
-  return {
-    type: 'sensor-log',
-    rigName: overview.rig.name,
-    filename: ctx.publicView ? null : file.filename,
-    startedAt: overview.startedAt.toISOString(),
-    samples: overview.samples,
-    shownPoints: overview.points.tS.length,
-    durationS: overview.durationS,
-    segments: overview.segments.slice(0, SEGMENT_ROWS),
-    segmentCount: overview.segments.length,
-    plots,
-  };
+  const body = await sensorLogView(ctx.em, ctx.lab, file, ctx.units, ctx.publicView);
+  return body ?? { type: 'note', tone: 'muted', message: 'This file holds no logged samples (it was not imported as a sensor log).' };
 }
 
 /**

@@ -15,6 +15,8 @@ import { SessionPlanner } from './session-plan';
 import { OperatingPlans } from './operating-plans';
 import { planDto, plansOfRig } from '../../_lib/rigs/operating-plans';
 import { rigSessionsPanel } from '../../_lib/sessions/sessions';
+import { rigSensorLogs } from '../../_lib/studies/sensor-log-body';
+import { SensorLogView } from '../../_components/sensor-log-view';
 
 export const dynamic = 'force-dynamic';
 
@@ -28,6 +30,7 @@ export default async function RigPage({ params, searchParams }: { params: Promis
   const write = v.can('trial:write');
   const sessions = await rigSessionsPanel(v.em, rig);
   const plans = (await plansOfRig(v.em, rig)).map(planDto);
+  const logs = await rigSensorLogs(v.em, rig, v.user.unitSystem);
   const d = rig.details ?? {};
   const facts = [
     d.coilLengthM ? `${d.coilLengthM} m of tube` : null,
@@ -89,6 +92,20 @@ export default async function RigPage({ params, searchParams }: { params: Promis
       ) : null}
       <RigJobs rigId={rig.id} initial={jobs} canCancel={write} />
       <TrialsTable rigId={rig.id} units={v.user.unitSystem} canWrite={write} />
+      {logs.length ? (
+        <section className="card mt-6 p-5" aria-labelledby="rig-logs">
+          <h2 id="rig-logs" className="text-lg">Logged data</h2>
+          <p className="mt-1 text-sm text-ink-muted">
+            The steady periods found in {logs.length === 1 ? 'the log' : 'each log'} are shaded and numbered; each became one of the trials above.
+            {rig.heatSource === 'solar-collector' ? <> Their efficiency curve is on <Link href={`/rigs/${rig.id}/collector`}>Collector efficiency</Link>.</> : null}
+          </p>
+          <div className="mt-4 space-y-8">
+            {logs.map((log, i) => (
+              <SensorLogView key={i} log={log} units={v.user.unitSystem} />
+            ))}
+          </div>
+        </section>
+      ) : null}
       <SessionPlanner rigId={rig.id} units={v.user.unitSystem} sessions={sessions.sessions} fits={sessions.fits} canWrite={write} />
       <OperatingPlans rigId={rig.id} units={v.user.unitSystem} initial={plans} canWrite={v.can('rig:write')} />
       {rig.notes ? (

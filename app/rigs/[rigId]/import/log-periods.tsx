@@ -48,6 +48,7 @@ export function LogPeriods({ rigId, fileId, fileState, mapping, units }: { rigId
           <ZoomControls log={log} preview={preview} />
           <PlotFigure svg="" options={figures.temperatures.options} title={figures.temperatures.title} summary={figures.temperatures.summary} cautions={figures.temperatures.cautions} filename="log-temperatures" />
           <PlotFigure svg="" options={figures.flow.options} title={figures.flow.title} summary={figures.flow.summary} filename="log-flow" />
+          {figures.irradiance ? <PlotFigure svg="" options={figures.irradiance.options} title={figures.irradiance.title} summary={figures.irradiance.summary} filename="log-irradiance" /> : null}
           <PeriodsTable log={log} preview={preview} units={units} />
           <RejectedRuns log={log} preview={preview} />
           {used.some((c) => c.from === 'rejected' || c.measured?.notes.length) ? (

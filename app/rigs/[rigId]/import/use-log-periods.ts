@@ -156,7 +156,10 @@ export function useLogPeriods({ rigId, fileId, mapping, units }: { rigId: string
   const figures = useMemo(() => {
     if (!preview) return null;
     const series = s.viewSeries ?? preview.series;
-    const points = series.tS.map((t, i) => ({ tS: t, inletTempC: series.inletTempC[i], outletTempC: series.outletTempC[i], flowM3PerS: series.flowM3PerS[i] }));
+    const points = series.tS.map((t, i) => ({
+      tS: t, inletTempC: series.inletTempC[i], outletTempC: series.outletTempC[i], flowM3PerS: series.flowM3PerS[i],
+      ...(series.ambientTempC ? { ambientTempC: series.ambientTempC[i] } : {}), ...(series.irradianceWPerM2 ? { irradianceWPerM2: series.irradianceWPerM2[i] } : {}),
+    }));
     const segments: LogSegment[] = [
       ...choices.map((c) => ({ startS: c.startS, endS: c.endS, label: c.from === 'rejected' ? `${c.label}*` : c.label, muted: !c.use })),
       ...preview.rejected.filter((r) => !choices.some((c) => c.id === `r${r.startLine}`)).map((r) => ({ startS: r.startS, endS: r.endS, label: '×', muted: true })),
