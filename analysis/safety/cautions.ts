@@ -322,15 +322,42 @@ export interface CautionLike {
   valueC?: number | null;
 }
 
+/** The rank of each temperature band's code, most severe 0 (the order of HAZARD_BANDS). */
+const BAND_RANK = new Map<string, number>(HAZARD_BANDS.map((b, i) => [b.code, i]));
+
+/** How {@link cautionsToShow} lists the temperature bands of one place. */
+export interface CautionsToShowOptions {
+  /**
+   * `'all'` (default): every band reached, as exports list them for the record; `'highest'`: of
+   * the bands of one place (spa limit, scald, burns in seconds, steam: {@link HAZARD_BANDS}) only
+   * the most severe reached, the band {@link hazardBand} marks the value with — what screens show,
+   * so a 96 °C outlet is one steam caution, not four stacked boxes.
+   */
+  bands?: 'all' | 'highest';
+}
+
 /**
  * The cautions to show beside a table, plot or result: each distinct caution once (by
  * {@link cautionKey}, so a shared code never hides another place or hazard), most severe first.
+ * With `bands: 'highest'` a place's temperature bands collapse to its most severe; other cautions
+ * (no flow, a source above boiling…) are hazards of their own and are always kept.
  * @example cautionsToShow(forecast.cautions).length
+ * @example cautionsToShow(temperatureCautions(62, 'outlet'), { bands: 'highest' }).map(c => c.code) // ['scald-seconds']
  */
-export function cautionsToShow<T extends CautionLike>(list: readonly T[]): T[] {
+export function cautionsToShow<T extends CautionLike>(list: readonly T[], options: CautionsToShowOptions = {}): T[] {
   const seen = new Set<string>();
   const out: T[] = [];
+  const topBand = new Map<string, number>();
+  if (options.bands === 'highest') {
+    for (const c of list) {
+      const rank = BAND_RANK.get(c.code);
+      const where = c.where ?? '';
+      if (rank !== undefined && rank < (topBand.get(where) ?? Infinity)) topBand.set(where, rank);
+    }
+  }
   for (const c of list) {
+    const rank = BAND_RANK.get(c.code);
+    if (rank !== undefined && rank > (topBand.get(c.where ?? '') ?? Infinity)) continue;
     const key = cautionKey({ code: c.code as CautionCode, where: c.where ?? '', thresholdC: c.thresholdC ?? null, valueC: c.valueC ?? null, message: c.message });
     if (seen.has(key)) continue;
     seen.add(key);

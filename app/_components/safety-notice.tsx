@@ -61,11 +61,12 @@ export function TempValue({ tempC: c, units, digits = 1, withUnit = false }: { t
 const strip = (m: string) => m.replace(CAUTION_DEFER, '').trim();
 
 /**
- * The cautions beside a table, plot or result: each distinct caution once, worst first, its level
+ * The cautions beside a table, plot or result: each distinct caution once, worst first, one per
+ * hazard and place (a temperature's highest band only, not the lower bands under it), its level
  * in words (not colour alone), and the analysis-aid sentence once at the end.
  */
 export function CautionList({ cautions, label = 'Cautions' }: { cautions: readonly CautionLike[]; label?: string }) {
-  const list = cautionsToShow(cautions);
+  const list = cautionsToShow(cautions, { bands: 'highest' });
   if (!list.length) return null;
   const defer = list.some((c) => c.message.includes(CAUTION_DEFER));
   return (

@@ -5,6 +5,7 @@
  * these. Types only: no entities, no React, no 'server-only'.
  */
 import type { UnitSystem } from '@/analysis/units/unit-system';
+import type { RigDetails } from '@/analysis/performance/rig-details';
 
 export interface UserDto {
   id: string;
@@ -33,27 +34,8 @@ export interface TokenDto {
   revokedAt: string | null;
 }
 
-/** A rig's construction details (SI), as stored. */
-export interface RigDetailsDto {
-  coilLengthM?: number;
-  tubeInnerDiameterM?: number;
-  tubeMaterial?: string;
-  collectorAreaM2?: number;
-  burnerRatingW?: number;
-  /** solar collectors: areas m², tilt and azimuth in degrees, the fluid, flow per gross area m³/(s·m²) */
-  grossAreaM2?: number;
-  apertureAreaM2?: number;
-  tiltDeg?: number;
-  azimuthDeg?: number;
-  fluid?: string;
-  fluidCpJPerKgK?: number;
-  fluidDensityKgPerM3?: number;
-  flowPerAreaM3PerSM2?: number;
-  /** what the rig cost to build, in `buildCostCurrency` (a code such as "USD") */
-  buildCost?: number;
-  buildCostCurrency?: string;
-  [key: string]: unknown;
-}
+/** A rig's construction details (SI), as stored: the one shape of analysis/performance/rig-details.ts. */
+export type RigDetailsDto = RigDetails;
 
 export interface RigDto {
   id: string;

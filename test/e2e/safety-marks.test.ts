@@ -1,7 +1,8 @@
 /**
  * Hot temperatures in Chromium, as an engineer and as a viewer: every screen that shows a
  * temperature at or above a caution threshold marks the value in words (a badge and text for
- * screen readers, not colour alone) and lists one caution per hazard beside the table or plot.
+ * screen readers, not colour alone) and lists one caution per hazard beside the table or plot
+ * (a place's highest band only, not the lower bands under it).
  * Thresholds (DOMAIN.md §5, §3.7): 40 °C spa limit (CPSC 79-071, UL 1563), 49 °C scald and
  * 60 °C burns in seconds (scald-time table [39]), 95 °C steam (common practice). The demo rig
  * "Stovepipe Coil A" has trials from about 35 to 80 °C (fixtures/README.md).
@@ -27,12 +28,19 @@ async function markTexts(page: Page): Promise<string[]> {
   return page.locator('[data-hazard] .sr-only').allInnerTexts();
 }
 
-/** Checks a caution list by its accessible name: it exists and names each hazard once in words. */
-async function expectCautions(page: Page, name: string | RegExp, want: RegExp[]) {
+/** The words only the lower bands' cautions use (analysis/safety temperatureCautions). */
+const SCALD_WORDS = /can scald/, SPA_WORDS = /spas and tubs/, SECONDS_WORDS = /burns skin in seconds/;
+
+/**
+ * Checks a caution list by its accessible name: it exists, names each hazard once in words, and
+ * shows none of the lower bands a place's highest band stands for (`absent`).
+ */
+async function expectCautions(page: Page, name: string | RegExp, want: RegExp[], absent: RegExp[] = []) {
   const list = page.getByRole('list', { name });
   await list.first().waitFor();
   const items = await list.first().getByRole('listitem').allInnerTexts();
   for (const re of want) expect(items.filter((t) => re.test(t)), `${name}: ${re}`).toHaveLength(1);
+  for (const re of absent) expect(items.filter((t) => re.test(t)), `${name}: no ${re}`).toEqual([]);
   return items;
 }
 
@@ -93,7 +101,8 @@ describe('safety marks on hot temperatures in Chromium', () => {
       expect(marks).toContain('(at or above 49 °C: can scald)');
       expect(marks).toContain('(at or above the 40 °C spa limit)');
       expect(await p.locator('[data-hazard] [title]').first().getAttribute('title')).toMatch(/^at or above/); // the tooltip is extra
-      await expectCautions(p, 'Cautions for these trials', [/^Danger: The outlet water reaches .*burns skin in seconds/, /^Warning: The outlet water reaches .*can scald/, /spas and tubs/]);
+      // one caution per hazard and place, its highest band: the outlet burns in seconds (not also scald and spa)
+      await expectCautions(p, 'Cautions for these trials', [/^Danger: The outlet water reaches .*burns skin in seconds/], [SCALD_WORDS, SPA_WORDS]);
       await p.getByRole('table').first().scrollIntoViewIfNeeded();
       await screenshot(p, 'safety-trials-table');
 
@@ -114,7 +123,7 @@ describe('safety marks on hot temperatures in Chromium', () => {
         '(at or above 95 °C: near boiling, flashes to steam when released)',
       ]));
       expect(await check.getByText(/Hottest outlet in the file: 96\.0 °C/).count()).toBe(1);
-      await expectCautions(p, 'Cautions for this file', [/^Danger: The outlet water reaches 96\.0 °C .*close to boiling/, /burns skin in seconds/, /can scald/, /spas and tubs/]);
+      await expectCautions(p, 'Cautions for this file', [/^Danger: The outlet water reaches 96\.0 °C .*close to boiling/], [SECONDS_WORDS, SCALD_WORDS, SPA_WORDS]);
       await check.scrollIntoViewIfNeeded();
       await screenshot(p, 'safety-import-check');
 
@@ -124,7 +133,7 @@ describe('safety marks on hot temperatures in Chromium', () => {
       await trials.locator('[data-hazard]').first().waitFor();
       expect(await trials.locator('[data-hazard] .sr-only').allInnerTexts()).toContain(`(${SECONDS})`);
       await expectCautions(p, 'Cautions for these trials', [/burns skin in seconds/]);
-      await expectCautions(p, /^Cautions for outlet temperature against flow/, [/^Danger: The outlet water reaches .*burns skin in seconds/, /can scald/, /spas and tubs/]);
+      await expectCautions(p, /^Cautions for outlet temperature against flow/, [/^Danger: The outlet water reaches .*burns skin in seconds/], [SCALD_WORDS, SPA_WORDS]);
       const log = p.locator('[data-block="sensor-log"]');
       expect(await log.locator('[data-hazard] .sr-only').allInnerTexts()).toContain('(at or above the 40 °C spa limit)');
       await expectCautions(p, 'Cautions for these segments', [/^Warning: The outlet water reaches 4\d\.\d °C .*spas and tubs/]);

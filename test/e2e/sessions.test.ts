@@ -34,9 +34,15 @@ describe('a test session on a phone in Chromium', () => {
     await runs.locator('tbody tr').first().waitFor();
     await expect(runs.locator('table').first().locator('tbody tr').count()).resolves.toBe(8);
     await p.getByLabel('Expected standard errors').scrollIntoViewIfNeeded();
+    const planned = await p.getByRole('list', { name: 'Cautions' }).first().getByRole('listitem').allInnerTexts();
+    expect(planned.filter((t) => /The planned outlet water/.test(t))).toHaveLength(1);
     await screenshot(p, 'session-1-plan');
     await p.getByRole('button', { name: 'Save the plan and start' }).click();
     await p.waitForURL(/\/sessions\/[0-9a-f-]{36}$/);
+    // the plan's hottest predicted outlet (upper bound, Ts 85 °C) is one caution, its highest band, not one
+    // box per band under it (thresholds DOMAIN.md §5: 40 °C spa, 49 °C scald, 60 °C seconds, 95 °C steam)
+    const cautions = await p.getByRole('list', { name: 'Cautions' }).first().getByRole('listitem').allInnerTexts();
+    expect(cautions.filter((t) => /The planned outlet water/.test(t))).toHaveLength(1);
     await screenshot(p, 'session-2-first-run');
 
     let firstOutlet = 0;

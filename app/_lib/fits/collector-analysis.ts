@@ -12,7 +12,7 @@ import { Fit, type FitRow, type RigRow, type TrialRow, type UserRow } from '@/en
 import { collectorTest, type CollectorTestResult, type CollectorTrial } from '@/analysis/performance/collector-test';
 import { ISO9806_STEADY_LIMITS } from '@/analysis/performance/collector-steadiness';
 import type { CollectorParameters } from '@/analysis/performance/collector-efficiency';
-import type { CollectorViewDto } from '@/app/_contracts/collector';
+import type { CollectorViewDto, SkippedTrialView } from '@/app/_contracts/collector';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import type { StudyExport } from '../exports';
 import { invalid } from '../server/errors';
@@ -49,8 +49,8 @@ export const collectorModel = (order: 1 | 2) => `iso9806-steady-order${order}`;
 const MODEL_LABELS: Record<string, string> = { 'iso9806-steady-order1': 'ISO 9806 steady state, first order', 'iso9806-steady-order2': 'ISO 9806 steady state, second order' };
 export const collectorModelLabel = (model: string) => MODEL_LABELS[model] ?? model;
 
-/** A trial the test could not use, and why. */
-export interface SkippedTrial { id: string; label: string; reason: string }
+/** A trial the test could not use, and why (the contract's shape). */
+export type SkippedTrial = SkippedTrialView;
 
 const label = (t: TrialRow) => t.startedAt.toISOString().slice(0, 16).replace('T', ' ');
 

@@ -95,6 +95,30 @@ describe('caution lists keep every hazard and every place', () => {
     const merged = mergeCautions(temperatureCautions(45, 'tub'), temperatureCautions(70, 'outlet'));
     const shown = cautionsToShow(merged);
     expect(shown.map((c) => `${c.code}@${c.where}`)).toEqual(['scald-seconds@outlet', 'scald@outlet', 'spa-limit@tub', 'spa-limit@outlet']);
+    // on screen: each place once, at its most severe band (the outlet burns in seconds, the tub is over the spa limit)
+    expect(cautionsToShow(merged, { bands: 'highest' }).map((c) => `${c.code}@${c.where}`)).toEqual(['scald-seconds@outlet', 'spa-limit@tub']);
+    const both45 = cautionsToShow(mergeCautions(temperatureCautions(45, 'tub'), temperatureCautions(45, 'outlet')), { bands: 'highest' });
+    expect(both45.map((c) => `${c.code}@${c.where}`)).toEqual(['spa-limit@tub', 'spa-limit@outlet']);
+  });
+  // Thresholds as above (CPSC 79-071 / UL 1563 [38]; scald-time table [39]; 95 °C steam, common practice):
+  // a screen shows the band hazardBand marks the value with, not every lower band under it.
+  test.each([
+    [42, 'spa-limit'],
+    [52, 'scald'],
+    [62, 'scald-seconds'],
+    [96, 'near-boiling'],
+  ])('on screen, one temperature at %s °C is one caution, its highest band (%s), in the rule’s words', (t, code) => {
+    const all = temperatureCautions(t, 'planned outlet (upper prediction bound)');
+    const shown = cautionsToShow(all, { bands: 'highest' });
+    expect(shown.map((c) => c.code)).toEqual([code]);
+    expect(shown[0].code).toBe(hazardBand(t).rule?.code);
+    expect(shown[0].message).toBe(all.find((c) => c.code === code)!.message);
+    expect(cautionsToShow(all)).toHaveLength(all.length); // the default (exports) keeps every band
+  });
+  test('on screen, other hazards stay beside the highest band', () => {
+    const shown = cautionsToShow([...temperatureCautions(96, 'outlet'), sourceAboveBoilingCaution(150, 99.97)!, deadHeadingCaution('step 2')], { bands: 'highest' });
+    // all danger: the highest threshold first (99.97 °C, 95 °C, then the one without a threshold)
+    expect(shown.map((c) => `${c.code}@${c.where}`)).toEqual(['above-boiling-source@source', 'near-boiling@outlet', 'dead-heading@step 2']);
   });
   test('two steps of a plan without flow stay two cautions; the same caution twice is shown once', () => {
     const a = deadHeadingCaution('step 2'), b = deadHeadingCaution('step 5');
@@ -108,6 +132,7 @@ describe('caution lists keep every hazard and every place', () => {
   test('cautions without where (JSON from an older saved result) are still shown once each, worst first', () => {
     const list = [{ code: 'scald', level: 'warning', message: 'a' }, { code: 'near-boiling', level: 'danger', message: 'b' }, { code: 'scald', level: 'warning', message: 'a' }];
     expect(cautionsToShow(list).map((c) => c.message)).toEqual(['b', 'a']);
+    expect(cautionsToShow(list, { bands: 'highest' }).map((c) => c.message)).toEqual(['b']);
   });
   test('the hottest value of each place gives the cautions beside a table', () => {
     const c = hottestCautions([{ where: 'inlet', valuesC: [15, 18] }, { where: 'outlet', valuesC: [38, 52, Number.NaN, null, 47] }]);
