@@ -16,6 +16,7 @@ import type { CollectorTestResult } from '@/analysis/performance/collector-test'
 import type { CellValue } from './cells';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import type { DesignComparisonView } from '@/app/_contracts/design-comparison';
+import type { SeasonView } from '@/app/_contracts/study-blocks';
 
 /** Where the numbers come from: the Summary sheet's Provenance section (DOMAIN.md §7, reproducibility). */
 export interface ExportProvenance {
@@ -127,6 +128,8 @@ export interface RunningCostExport {
   /** fuel bought for that heat, in `priceUnit` */
   fuelQuantity: number;
   heatBasis: string;
+  /** a season held at a target, with the payback of the build (app/_lib/forecasts/season.ts) */
+  season?: SeasonView;
 }
 
 /** A collector efficiency test (analysis/performance/collector-test.ts `collectorTest`) with a label. */

@@ -11,6 +11,8 @@ import { isUuid } from '../labs/load-in-lab';
 import { parseStoredFit } from '../fits/stored-fit';
 import { runAnalysis } from '../server/analysis-pool';
 import type { ForecastExport } from '../exports';
+import type { SeasonView } from '@/app/_contracts/study-blocks';
+import type { BuildFuel } from './season';
 
 /**
  * The heater of a saved coil fit named by `fitId` (its Ts and UA as unit strings) and the note
@@ -100,4 +102,14 @@ export function forecastWorkProblem(body: Record<string, unknown>): string | nul
 export async function forecastForExport(em: EntityManager, lab: LabRow, body: Record<string, unknown>, label: string): Promise<ForecastExport> {
   const { heater } = await fitHeater(em, lab, body.fitId, body.sun);
   return { label, result: await runAnalysis('forecastResult', { body, heater }) };
+}
+
+/**
+ * A season of a forecast's pool for a cost sheet (app/_lib/forecasts/season.ts), in the analysis
+ * pool: the forecast body's pool, weather and loss terms, its saved fit as the heater.
+ * @throws DomainError invalid naming the season's field, not_found (no such fit); InputError naming the forecast's field
+ */
+export async function forecastSeason(em: EntityManager, lab: LabRow, body: Record<string, unknown>, season: unknown, build: BuildFuel): Promise<SeasonView> {
+  const { heater } = await fitHeater(em, lab, body.fitId, body.sun);
+  return runAnalysis('forecastSeason', { body, heater, season, build });
 }

@@ -5,7 +5,8 @@ import { Fit, SensorOverview, SourceFile, type FitRow, type LabRow, type StudyRo
 import type { StudyBlock } from '@/entities/study';
 import { SEGMENT_ROWS, type BlockBody, type BlockData, type FitHead } from '@/app/_contracts/study-blocks';
 import type { UnitSystem } from '@/analysis/units/unit-system';
-import { costView } from '../forecasts/cost-sheet';
+import { costBlockData, costSeason, costView, seasonForecastBlock } from '../forecasts/cost-sheet';
+import { InputError } from '@/analysis/units/reading-input';
 import { modelLabel } from '../fits/fit-analysis';
 import { collectorModelLabel, savedCollectorView } from '../fits/collector-analysis';
 import { parseStoredFit } from '../fits/stored-fit';
@@ -137,6 +138,18 @@ async function forecastBody(ctx: BlockContext, block: StudyBlock): Promise<Block
   });
 }
 
+/**
+ * A cost block's season, kept in the block cache under what it reads: its own settings and the
+ * forecast block's (by hash) and that block's saved fit (id and version: immutable). SI: no units.
+ */
+async function seasonBody(ctx: BlockContext, block: StudyBlock) {
+  const fb = seasonForecastBlock(costBlockData.parse(block.data), ctx.study.blocks);
+  const fits = ctx.fits ?? (await blockFits(ctx.em, ctx.lab, [fb]));
+  const fit = typeof fb.data.fitId === 'string' ? fits.get(fb.data.fitId) : undefined;
+  const key = blockCacheKey(['cost-season', jsonHash(block.data), jsonHash(fb.data), fit ? `${fit.id}@${fit.version}` : 'no-fit']);
+  return cachedBlockData(ctx.em, key, { labId: ctx.lab.id, fitId: fit?.id ?? null }, async () => (await costSeason(ctx.em, ctx.lab, block.data, ctx.study.blocks))!);
+}
+
 /** A saved design comparison of the study's lab, recomputed (app/_lib/comparisons). */
 async function designComparisonBody(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
   const c = isUuid(block.data.comparisonId) ? await comparisonInLab(ctx.em, ctx.lab, block.data.comparisonId) : null;
@@ -165,9 +178,11 @@ async function body(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
       }
     case 'costs':
       try {
-        return { type: 'costs', cost: costView(d, ctx.study.blocks) };
+        const cost = costView(d, ctx.study.blocks);
+        return { type: 'costs', cost: d.season ? { ...cost, season: await seasonBody(ctx, block) } : cost };
       } catch (e) {
         if (e instanceof DomainError && e.kind === 'invalid') return { type: 'note', tone: 'danger', message: `This cost sheet cannot be computed: ${e.message}` };
+        if (e instanceof InputError) return { type: 'note', tone: 'danger', message: `This cost sheet’s season cannot be computed: its forecast block says ${e.message}` };
         throw e;
       }
     case 'sensor-log':

@@ -3,7 +3,8 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { Fit, Rig, type StudyRow } from '@/entities';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { STUDY_SHEETS, studyCsv, studyWorkbook, type CollectorExport, type FitExport, type ForecastExport, type PerformanceExport, type RunningCostExport, type StudyExport, type StudySheetName, type TrialExportRow } from '../exports';
-import { costExport, costView } from '../forecasts/cost-sheet';
+import { costExport, costSeason, costView } from '../forecasts/cost-sheet';
+import { InputError } from '@/analysis/units/reading-input';
 import { DomainError } from '../server/errors';
 import { forecastForExport } from '../forecasts/forecasts';
 import { modelLabel, SOFTWARE_VERSION } from '../fits/fit-analysis';
@@ -57,16 +58,16 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
       notes.push(`${label} cannot be computed: ${e.message}`);
     }
   }
-  study.blocks.forEach((b, i) => {
-    if (b.kind !== 'costs') return;
+  for (const [i, b] of study.blocks.entries()) {
+    if (b.kind !== 'costs') continue;
     const label = `Cost sheet (block ${i + 1})`;
     try {
-      running.push(costExport(label, costView(b.data, study.blocks)));
+      running.push(costExport(label, { ...costView(b.data, study.blocks), season: await costSeason(em, study.lab, b.data, study.blocks) }));
     } catch (e) {
-      if (!(e instanceof DomainError && e.kind === 'invalid')) throw e;
+      if (!((e instanceof DomainError && e.kind === 'invalid') || e instanceof InputError)) throw e;
       notes.push(`${label} cannot be computed: ${e.message}`);
     }
-  });
+  }
   const comparisons: DesignComparisonView[] = [];
   for (const [i, b] of study.blocks.entries()) {
     if (b.kind !== 'design-comparison' || !isUuid(b.data.comparisonId)) continue;
