@@ -9,6 +9,7 @@ import { CautionList, TempValue, TemperatureCautions } from './safety-notice';
 import { StateBadge } from './review-panel';
 import { CollectorReport } from './collector-report';
 import { MeasuredDay } from './measured-day';
+import { SeasonResult } from './season-result';
 import type { BlockBody, BlockData, CostView, FitHead } from '../_contracts/study-blocks';
 import { sharedBlockKey, studyBlockKey } from '../_contracts/study-keys';
 import { displayUnits } from '@/app/_contracts/units';
@@ -286,6 +287,7 @@ function CostSheet({ cost: c, units }: { cost: CostView; units: UnitSystem }) {
           ))}
         </ul>
       </div>
+      {c.season ? <SeasonResult season={c.season} units={units} /> : null}
       <p className="text-xs text-ink-muted">Heat content and default efficiency: {c.source}</p>
     </div>
   );

@@ -62,12 +62,12 @@ export const seasonSettings = z.object({
   taxRate: z.number().min(0).max(1, 'a fraction 0–1 (0.08 for 8 %)').optional(),
   /** the heater one could buy instead */
   purchased: z.object({
-    price: z.number({ error: 'give the purchased heater’s price' }).min(0, 'not negative').max(1e7, 'at most 10,000,000'),
+    price: z.number().min(0, 'not negative').max(1e7, 'at most 10,000,000').nullable().optional(),
     fuel: z.enum(FUEL_KINDS).optional(),
     /** its fuel or electricity price per unit; default the build's when the fuel is the same */
     fuelPrice: z.number().min(0, 'not negative').max(1e6).nullable().optional(),
-    /** η 0–1, or its COP for a heat pump */
-    efficiency: z.number({ error: 'give the purchased heater’s efficiency (0–1) or COP' }).positive('more than 0').max(10, 'at most 10 (a COP)'),
+    /** η 0–1, or its COP for a heat pump; default the fuel's typical value */
+    efficiency: z.number().positive('more than 0').max(10, 'at most 10 (a COP)').nullable().optional(),
   }).strict().optional(),
 }).strict();
 export type SeasonSettings = z.infer<typeof seasonSettings>;
@@ -186,15 +186,17 @@ function paybackOf(s: SeasonSettings, perThermBuild: number, build: BuildFuel, u
     buildCost = s.buildPrice;
     buildBasis = 'the build price given';
   } else throw invalid('season.buildPrice: give what the build cost (or its items) to compare it with the purchased heater.', { 'season.buildPrice': 'give what the build cost' });
+  if (p.price == null) throw invalid('season.purchased.price: give the price of the heater one could buy instead.', { 'season.purchased.price': 'give its price' });
+  const price = p.price;
   const fuel = p.fuel ?? build.fuel;
   const fuelPrice = p.fuelPrice ?? (fuel === build.fuel ? build.pricePerUnit : null);
   if (fuelPrice == null) throw invalid(`season.purchased.fuelPrice: give the price of ${fuel} per ${FUELS[fuel].priceUnit} for the purchased heater.`, { 'season.purchased.fuelPrice': 'give its fuel price' });
-  const other = must('season.purchased.efficiency', () => usefulHeatCost({ fuel, pricePerUnit: fuelPrice, efficiency: p.efficiency }));
-  const base = { buildCost, buildBasis, purchasedPrice: p.price, purchasedFuel: fuel, purchasedEfficiency: other.efficiency, perUsefulThermBuild: perThermBuild, perUsefulThermPurchased: other.perUsefulTherm };
+  const other = must('season.purchased.efficiency', () => usefulHeatCost({ fuel, pricePerUnit: fuelPrice, efficiency: p.efficiency ?? undefined }));
+  const base = { buildCost, buildBasis, purchasedPrice: price, purchasedFuel: fuel, purchasedEfficiency: other.efficiency, perUsefulThermBuild: perThermBuild, perUsefulThermPurchased: other.perUsefulTherm };
   if (!(usefulJ > 0)) {
     return { ...base, annualCostBuild: 0, annualCostPurchased: 0, annualSaving: 0, years: null, verdict: 'Never: the season needs no heat from a heater, so neither runs and nothing is saved.' };
   }
-  const extra = buildCost - p.price;
+  const extra = buildCost - price;
   const r = payback({ capitalCost: Math.max(0, extra), annualUsefulHeatJ: usefulJ, perUsefulThermThis: perThermBuild, perUsefulThermOther: other.perUsefulTherm });
   const money = (x: number) => `${x.toFixed(2)} ${build.currency}`;
   let years = r.years, verdict: string;
