@@ -8,6 +8,7 @@ export const BLOCK_KINDS = [
   'text', 'trials', 'fit', 'comparison', 'performance', 'forecast', 'costs', 'sensor-log', 'caution', 'design-comparison',
   // solar collectors
   'collector',
+  'tub-fill',
 ] as const;
 export type BlockKind = (typeof BLOCK_KINDS)[number];
 

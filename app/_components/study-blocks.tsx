@@ -10,6 +10,7 @@ import { StateBadge } from './review-panel';
 import { CollectorReport } from './collector-report';
 import { MeasuredDay } from './measured-day';
 import { SeasonResult } from './season-result';
+import { TubFillResultView } from './tub-fill-result';
 import type { BlockBody, BlockData, CostView, FitHead } from '../_contracts/study-blocks';
 import { sharedBlockKey, studyBlockKey } from '../_contracts/study-keys';
 import { displayUnits } from '@/app/_contracts/units';
@@ -174,6 +175,13 @@ export function BlockView({ block }: { block: BlockData }) {
       );
     case 'costs':
       return <CostSheet cost={b.cost} units={units} />;
+    case 'tub-fill':
+      return (
+        <div className="space-y-3">
+          <Head head={b.head} />
+          <TubFillResultView fill={b.fill} units={units} inputs />
+        </div>
+      );
     case 'design-comparison':
       return (
         <div className="space-y-3">

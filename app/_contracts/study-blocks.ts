@@ -149,7 +149,23 @@ export type BlockBody =
   | { type: 'design-comparison'; comparisonId: string | null; view: DesignComparisonView }
   // solar collectors: a saved collector fit (ISO 9806 steady state)
   | { type: 'collector'; head: FitHead; view: CollectorViewDto }
+  // a tub filled in one pass through a saved coil fit's heater
+  | { type: 'tub-fill'; head: FitHead; fill: TubFillView }
   | { type: 'note'; tone: 'muted' | 'danger'; message: string };
+
+/** A tub filled in one pass through the heater (app/_lib/forecasts/tub-fill.ts; SI). */
+export interface TubFillView {
+  tubVolumeM3: number;
+  flowM3PerS: number;
+  supplyTempC: number;
+  fillTimeS: number;
+  outletTempC: number;
+  finalTempC: number;
+  /** the flow whose outlet gives the target after mixing, when a target was given */
+  target: { targetTempC: number; outletTempC: number; flowM3PerS: number | null; fillTimeS: number | null; note: string } | null;
+  heaterNote: string;
+  cautions: CautionView[];
+}
 
 /** A measured day against its forecast (SI, names carry the unit; see analysis/forecast/measured-day-check.ts). */
 export interface MeasuredDayView {

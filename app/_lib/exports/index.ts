@@ -13,6 +13,7 @@ export { fitSheet, residualsSheet, fitSummaryItems, parameterUnits } from './fit
 export { performanceSheet, forecastSheet, forecastSummaryItems, costsSheet } from './result-sheets';
 export { collectorSheet, collectorSummaryItems } from './collector-sheet';
 export { comparisonSheet } from './comparison-sheet';
+export { tubFillSheet } from './tub-fill-sheet';
 export {
   studyWorkbook, fitWorkbook, studyWorkbookSpec, studyCsv, sheetCsv, provenanceItems, ANALYSIS_AID_NOTICE, STUDY_SHEETS,
   type StudySheetName,

@@ -16,7 +16,7 @@ import type { CollectorTestResult } from '@/analysis/performance/collector-test'
 import type { CellValue } from './cells';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import type { DesignComparisonView } from '@/app/_contracts/design-comparison';
-import type { SeasonView } from '@/app/_contracts/study-blocks';
+import type { SeasonView, TubFillView } from '@/app/_contracts/study-blocks';
 
 /** Where the numbers come from: the Summary sheet's Provenance section (DOMAIN.md §7, reproducibility). */
 export interface ExportProvenance {
@@ -140,6 +140,12 @@ export interface CollectorExport {
   trialLabels?: string[];
 }
 
+/** A tub-fill block's result with a label. */
+export interface TubFillExport {
+  label: string;
+  fill: TubFillView;
+}
+
 /** Everything a study export can hold; each part gives its sheet when present. */
 export interface StudyExport {
   unitSystem: UnitSystem;
@@ -152,6 +158,8 @@ export interface StudyExport {
   collectors?: CollectorExport[];
   /** design comparisons (a study's design-comparison blocks, or one comparison's export) */
   comparisons?: DesignComparisonView[];
+  /** tubs filled in one pass (a study's tub-fill blocks) */
+  tubFills?: TubFillExport[];
   /** extra lines under the Summary table (cautions, the reviewer's sign-off…) */
   notes?: string[];
 }

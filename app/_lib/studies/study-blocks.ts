@@ -7,6 +7,7 @@ import { SEGMENT_ROWS, type BlockBody, type BlockData, type FitHead } from '@/ap
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { costBlockData, costSeason, costView, seasonForecastBlock } from '../forecasts/cost-sheet';
 import { InputError } from '@/analysis/units/reading-input';
+import { tubFillOfFit } from '../forecasts/tub-fill';
 import { modelLabel } from '../fits/fit-analysis';
 import { collectorModelLabel, savedCollectorView } from '../fits/collector-analysis';
 import { parseStoredFit } from '../fits/stored-fit';
@@ -45,7 +46,7 @@ const FIT_KINDS = new Set(['fit', 'comparison', 'performance', 'trials', 'collec
 
 /** The saved fits the given blocks point at (lab-scoped), by id. */
 export async function blockFits(em: EntityManager, lab: LabRow, blocks: readonly StudyBlock[]): Promise<Map<string, FitRow>> {
-  const ids = [...new Set(blocks.filter((b) => FIT_KINDS.has(b.kind) || b.kind === 'forecast').map((b) => b.data.fitId).filter((x): x is string => isUuid(x)))];
+  const ids = [...new Set(blocks.filter((b) => FIT_KINDS.has(b.kind) || b.kind === 'forecast' || b.kind === 'tub-fill').map((b) => b.data.fitId).filter((x): x is string => isUuid(x)))];
   const rows = ids.length ? await em.find(Fit, { id: { $in: ids }, lab }) : [];
   return new Map(rows.map((f) => [f.id, f]));
 }
@@ -150,6 +151,27 @@ async function seasonBody(ctx: BlockContext, block: StudyBlock) {
   return cachedBlockData(ctx.em, key, { labId: ctx.lab.id, fitId: fit?.id ?? null }, async () => (await costSeason(ctx.em, ctx.lab, block.data, ctx.study.blocks))!);
 }
 
+/**
+ * A tub-fill block: a saved coil fit (immutable) and the block's settings, kept in the block cache
+ * under the fit's id and version, the settings' hash and the units; cheap (closed forms and a
+ * bisection), so it runs here rather than in the analysis pool. Bad settings become a note.
+ */
+async function tubFillBody(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
+  const d = block.data;
+  const fits = ctx.fits ?? (await blockFits(ctx.em, ctx.lab, [block]));
+  const fit = typeof d.fitId === 'string' ? fits.get(d.fitId) : undefined;
+  if (!fit) return { type: 'note', tone: 'muted', message: 'No saved coil fit chosen for this tub fill yet.' };
+  const head: FitHead = { fitId: ctx.publicView ? null : fit.id, title: fit.title, version: fit.version, label: modelLabel(fit.model), reviewState: fit.reviewState };
+  try {
+    const key = blockCacheKey(['tub-fill-block', fit.id, fit.version, jsonHash(d), ctx.units]);
+    const fill = await cachedBlockData(ctx.em, key, { labId: ctx.lab.id, fitId: fit.id }, async () => tubFillOfFit(fit, d));
+    return { type: 'tub-fill', head, fill };
+  } catch (e) {
+    if ((e instanceof DomainError && e.kind === 'invalid') || e instanceof InputError) return { type: 'note', tone: 'danger', message: `This tub fill cannot be computed: ${e.message}` };
+    throw e;
+  }
+}
+
 /** A saved design comparison of the study's lab, recomputed (app/_lib/comparisons). */
 async function designComparisonBody(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
   const c = isUuid(block.data.comparisonId) ? await comparisonInLab(ctx.em, ctx.lab, block.data.comparisonId) : null;
@@ -187,6 +209,8 @@ async function body(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
       }
     case 'sensor-log':
       return sensorLogBody(ctx, block);
+    case 'tub-fill':
+      return tubFillBody(ctx, block);
     case 'design-comparison':
       return designComparisonBody(ctx, block);
     default: {

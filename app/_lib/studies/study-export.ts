@@ -2,9 +2,10 @@ import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { Fit, Rig, type StudyRow } from '@/entities';
 import type { UnitSystem } from '@/analysis/units/unit-system';
-import { STUDY_SHEETS, studyCsv, studyWorkbook, type CollectorExport, type FitExport, type ForecastExport, type PerformanceExport, type RunningCostExport, type StudyExport, type StudySheetName, type TrialExportRow } from '../exports';
+import { STUDY_SHEETS, studyCsv, studyWorkbook, type CollectorExport, type FitExport, type ForecastExport, type PerformanceExport, type RunningCostExport, type StudyExport, type StudySheetName, type TrialExportRow, type TubFillExport } from '../exports';
 import { costExport, costSeason, costView } from '../forecasts/cost-sheet';
 import { InputError } from '@/analysis/units/reading-input';
+import { tubFillOfFit } from '../forecasts/tub-fill';
 import { DomainError } from '../server/errors';
 import { forecastForExport } from '../forecasts/forecasts';
 import { modelLabel, SOFTWARE_VERSION } from '../fits/fit-analysis';
@@ -68,6 +69,22 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
       notes.push(`${label} cannot be computed: ${e.message}`);
     }
   }
+  const tubFills: TubFillExport[] = [];
+  for (const [i, b] of study.blocks.entries()) {
+    if (b.kind !== 'tub-fill') continue;
+    const label = `Tub fill (block ${i + 1})`;
+    const fit = fits.find((f) => f.id === b.data.fitId);
+    if (!fit) {
+      notes.push(`${label} cannot be computed: no saved coil fit chosen.`);
+      continue;
+    }
+    try {
+      tubFills.push({ label, fill: tubFillOfFit(fit, b.data) });
+    } catch (e) {
+      if (!((e instanceof DomainError && e.kind === 'invalid') || e instanceof InputError)) throw e;
+      notes.push(`${label} cannot be computed: ${e.message}`);
+    }
+  }
   const comparisons: DesignComparisonView[] = [];
   for (const [i, b] of study.blocks.entries()) {
     if (b.kind !== 'design-comparison' || !isUuid(b.data.comparisonId)) continue;
@@ -98,6 +115,7 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
     ...(collectors.length ? { collectors } : {}),
     ...(running.length ? { costs: { currency: running[0].currency, running } } : {}),
     ...(comparisons.length ? { comparisons } : {}),
+    ...(tubFills.length ? { tubFills } : {}),
     notes,
   };
 }
