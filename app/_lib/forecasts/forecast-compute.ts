@@ -22,7 +22,7 @@ import { parseQuantity } from '@/analysis/units/parse-quantity';
 import { solarCollectorHeater, type CollectorParameters } from '@/analysis/performance/collector-efficiency';
 import { measuredDayCheck } from '@/analysis/forecast/measured-day-check';
 import type { MeasuredDayView, SeasonView } from '@/app/_contracts/study-blocks';
-import { FUEL_KINDS, parseSeason, seasonForecastBody, seasonView, type BuildFuel } from './season';
+import { FUEL_KINDS, parseSeason, seasonForecastBody, seasonView, type BuildFuel, type RigBuild } from './season';
 import { plotToSvg } from '../plots/plot-svg';
 
 /** What forecasts.ts hands the worker: the body with the saved fit already turned into a heater. */
@@ -35,6 +35,8 @@ export interface ForecastTask {
   units: UnitSystem;
   /** 'svg': server SVG of both plots too (study blocks, the no-JavaScript path); 'data': the plot inputs only */
   render: 'svg' | 'data';
+  /** the build cost of the saved fit's rig (a season's payback, when it gives none) */
+  rigBuild?: RigBuild;
 }
 
 interface Prepared {
@@ -149,7 +151,7 @@ export function computeForecast(t: ForecastTask) {
     shownSamples: shown.indices.length,
     fitNote: t.fitNote,
     pool: pool && { volume_m3: pool.volumeM3, area_m2: pool.areaM2 },
-    ...forecastExtras(input, r, t.body.cost),
+    ...forecastExtras(input, r, t.body.cost, t.rigBuild),
     measuredDay: t.body.measured === undefined ? null : measuredDayOf(input, t.body.measured),
     plots: {
       trajectory: { title: trajectory.title, summary: trajectory.summary, input: trajectoryInput, ...(svg ? { svg: plotToSvg(trajectory.options) } : {}), cautions: trajectory.cautions } as ForecastFigure<ForecastPlotInput>,
@@ -168,7 +170,7 @@ const costSchema = z.object({
  * The rise per hour by flow × pool size (a heater with a source temperature, at the start temperature) and, with a fuel
  * price, the cost of a useful therm, of one degree and of this forecast's heat.
  */
-function forecastExtras(input: ForecastInput, r: ForecastResult, costInput: unknown) {
+function forecastExtras(input: ForecastInput, r: ForecastResult, costInput: unknown, rigBuild?: RigBuild) {
   let riseTable: { flowsM3PerS: number[]; volumesM3: number[]; risePerHourK: number[][] } | null = null;
   const volumeM3 = input.poolVolumeM3 ?? r.poolMassKg / waterDensityKgPerM3(input.startTempC);
   const q = input.flowM3PerS ?? 0;
@@ -184,7 +186,7 @@ function forecastExtras(input: ForecastInput, r: ForecastResult, costInput: unkn
     const u = usefulHeatCost({ fuel: c.data.fuel as FuelKind, pricePerUnit: c.data.pricePerUnit, efficiency: c.data.efficiency });
     const d = volumeM3 ? costPerDegree(volumeM3, u.perUsefulTherm) : { perDegF: NaN, perK: NaN };
     const season = c.data.season === undefined ? null
-      : seasonView(input, parseSeason(c.data.season, 'cost.season'), { fuel: c.data.fuel, pricePerUnit: c.data.pricePerUnit, efficiency: c.data.efficiency, currency: c.data.currency || 'USD' });
+      : seasonView(input, parseSeason(c.data.season, 'cost.season'), { fuel: c.data.fuel, pricePerUnit: c.data.pricePerUnit, efficiency: c.data.efficiency, currency: c.data.currency || 'USD', rigBuild });
     cost = { perUsefulTherm: u.perUsefulTherm, perDegF: d.perDegF, perK: d.perK, forecastHeatCost: (r.energy.heaterJ / USEFUL_THERM_J) * u.perUsefulTherm, basis: 'HHV', season };
     if (!Number.isFinite(cost.perK)) cost = { ...cost, perDegF: 0, perK: 0 };
   }

@@ -72,8 +72,10 @@ export const seasonSettings = z.object({
 }).strict();
 export type SeasonSettings = z.infer<typeof seasonSettings>;
 
-/** The fuel, price and efficiency of the build (the cost sheet's own). */
-export interface BuildFuel { fuel: FuelKind; pricePerUnit: number; efficiency?: number; currency: string }
+/** What the rig of the forecast's saved fit cost to build (its details), the build cost when the season gives none. */
+export interface RigBuild { amount: number; rig: string }
+/** The fuel, price and efficiency of the build (the cost sheet's own), and its rig's build cost when known. */
+export interface BuildFuel { fuel: FuelKind; pricePerUnit: number; efficiency?: number; currency: string; rigBuild?: RigBuild }
 
 /** The first problem of a season's settings as invalid input naming the field (`season.days: at most 366 days`). */
 export function parseSeason(v: unknown, prefix = 'season'): SeasonSettings {
@@ -185,6 +187,9 @@ function paybackOf(s: SeasonSettings, perThermBuild: number, build: BuildFuel, u
   } else if (s.buildPrice != null) {
     buildCost = s.buildPrice;
     buildBasis = 'the build price given';
+  } else if (build.rigBuild) {
+    buildCost = build.rigBuild.amount;
+    buildBasis = `the build cost of the rig "${build.rigBuild.rig}"`;
   } else throw invalid('season.buildPrice: give what the build cost (or its items) to compare it with the purchased heater.', { 'season.buildPrice': 'give what the build cost' });
   if (p.price == null) throw invalid('season.purchased.price: give the price of the heater one could buy instead.', { 'season.purchased.price': 'give its price' });
   const price = p.price;

@@ -1,7 +1,7 @@
 import 'server-only';
 import { DomainError } from '../server/errors';
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { Fit, SensorOverview, SourceFile, type FitRow, type LabRow, type StudyRow } from '@/entities';
+import { Fit, Rig, SensorOverview, SourceFile, type FitRow, type LabRow, type StudyRow } from '@/entities';
 import type { StudyBlock } from '@/entities/study';
 import { SEGMENT_ROWS, type BlockBody, type BlockData, type FitHead } from '@/app/_contracts/study-blocks';
 import type { UnitSystem } from '@/analysis/units/unit-system';
@@ -141,13 +141,16 @@ async function forecastBody(ctx: BlockContext, block: StudyBlock): Promise<Block
 
 /**
  * A cost block's season, kept in the block cache under what it reads: its own settings and the
- * forecast block's (by hash) and that block's saved fit (id and version: immutable). SI: no units.
+ * forecast block's (by hash), that block's saved fit (id and version: immutable) and its rig's
+ * build cost. SI: no units.
  */
 async function seasonBody(ctx: BlockContext, block: StudyBlock) {
   const fb = seasonForecastBlock(costBlockData.parse(block.data), ctx.study.blocks);
   const fits = ctx.fits ?? (await blockFits(ctx.em, ctx.lab, [fb]));
   const fit = typeof fb.data.fitId === 'string' ? fits.get(fb.data.fitId) : undefined;
-  const key = blockCacheKey(['cost-season', jsonHash(block.data), jsonHash(fb.data), fit ? `${fit.id}@${fit.version}` : 'no-fit']);
+  // the rig's build cost (mutable details) stands in for a build price the season does not give
+  const rig = fit ? await ctx.em.findOne(Rig, { id: fit.rig.id }) : null;
+  const key = blockCacheKey(['cost-season', jsonHash(block.data), jsonHash(fb.data), fit ? `${fit.id}@${fit.version}` : 'no-fit', String(rig?.details?.buildCost ?? '')]);
   return cachedBlockData(ctx.em, key, { labId: ctx.lab.id, fitId: fit?.id ?? null }, async () => (await costSeason(ctx.em, ctx.lab, block.data, ctx.study.blocks))!);
 }
 
