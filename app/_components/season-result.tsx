@@ -17,7 +17,7 @@ export function SeasonResult({ season: s, units }: { season: SeasonView; units: 
   const rows: [string, React.ReactNode][] = [
     ['Season', `${s.days} days, heater ${s.hoursPerDay} h a day, cover ${s.cover ? 'on outside the heater hours' : 'off'}`],
     ['Target', <TempValue key="t" tempC={s.targetTempC} units={units} withUnit />],
-    ['Mean losses at the target', `${n(u.power.from(s.lossW), 2)} ${u.power.label}${s.solarW > 0 ? ` (sun gives back ${n(u.power.from(s.solarW), 2)} ${u.power.label})` : ''}`],
+    ['Mean losses at the target', `${n(u.power.from(s.lossW), 2)} ${u.power.label}${s.solarW > 0 ? `, less ${n(u.power.from(s.solarW), 2)} ${u.power.label} of sun: ${n(u.power.from(s.netLossW), 2)} ${u.power.label}` : ''}`],
     ['Heater hours a day that hold it', s.holdHoursPerDay === null ? 'cannot hold it' : `${s.holdHoursPerDay.toFixed(1)} h`],
     ['Useful heat of the season', `${n(u.energy.from(s.usefulJ))} ${u.energy.label}`],
     ['Fuel or electricity bought', `${n(s.fuelUnits, 2)} ${s.fuelUnit} (${n(s.fuelKWh, 0)} kWh, ${n(s.fuelTherms, 1)} therm)`],
@@ -48,7 +48,7 @@ export function SeasonResult({ season: s, units }: { season: SeasonView; units: 
       </div>
       {p ? (
         <p className="card p-3 text-ink" data-testid="payback">
-          <strong>Payback: {p.years === null ? 'never' : p.years === 0 ? 'at once' : `${p.years.toFixed(1)} seasons`}.</strong> {p.verdict}
+          <strong>Payback:</strong> {p.verdict}
         </p>
       ) : null}
       {s.notes.length ? (

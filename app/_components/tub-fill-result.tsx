@@ -16,7 +16,7 @@ export function TubFillResultView({ fill: r, units, inputs = false }: { fill: Tu
       {inputs ? (
         <p className="text-sm text-ink-soft">
           <span className="num">{vol.from(r.tubVolumeM3).toLocaleString('en-US', { maximumFractionDigits: 0 })} {vol.label}</span> at{' '}
-          <span className="num">{u.flow.from(r.flowM3PerS).toFixed(2)} {u.flow.label}</span> from a <TempValue tempC={r.supplyTempC} units={units} withUnit /> supply.
+          <span className="num">{u.flow.from(r.flowM3PerS).toFixed(2)} {u.flow.label}</span> from a <TempValue tempC={r.supplyTempC} units={units} withUnit /> supply, in one pass through the heater (no recirculation).
         </p>
       ) : null}
       <dl className="grid gap-3 sm:grid-cols-3">

@@ -31,7 +31,7 @@ export function CostFieldset({ targetHint }: { targetHint: string }) {
         <p className="text-xs text-ink-muted">The pool held at a target for the season under this forecast’s weather (losses on), with the price above.</p>
         <div className="grid grid-cols-2 gap-3">
           <NumberField name="seasonDays" label="Season" def="" unit="days" />
-          <NumberField name="seasonHours" label="Heater" def="" unit="h a day" />
+          <NumberField name="seasonHours" label="Heater hours" def="" unit="a day" />
           <NumberField name="seasonTarget" label="Season target" def="" unit={targetHint} />
           <label className="flex items-center gap-2 self-end text-sm">
             <input type="checkbox" name="seasonCover" /> Cover on outside the heater hours

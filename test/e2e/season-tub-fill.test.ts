@@ -6,7 +6,8 @@
  */
 import ExcelJS from 'exceljs';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import { baseUrl, openBrowser, screenshot, signInAs, visit } from './support/browser';
+import path from 'node:path';
+import { baseUrl, openBrowser, resultsDir, screenshot, signInAs, visit } from './support/browser';
 import { signedIn } from '../app/support/client';
 import { getOrm } from '@/app/_lib/server/db';
 
@@ -59,7 +60,7 @@ describe('a season and a tub fill in a study', () => {
     const payback = p.locator('[data-block="costs"]').getByTestId('payback');
     await payback.waitFor();
     // propane at $3.00/gal, η 0.82 ($4.00 a useful therm) against resistance at $0.15/kWh ($4.40): the build saves, so its extra $500 pays back in seasons
-    await expect(payback.innerText()).resolves.toMatch(/Payback: \d+\.\d seasons\./);
+    await expect(payback.innerText()).resolves.toMatch(/Payback: \d+\.\d seasons: the build's extra 500\.00 USD/);
     // a bad setting is refused with its field and nothing is stored (the editor's save answers 422)
     eng.expectConsoleError(/status of 422/);
     await p.getByLabel(`Season days of block ${n}`).fill('400');
@@ -76,6 +77,28 @@ describe('a season and a tub fill in a study', () => {
     await expect(tub.innerText()).resolves.toMatch(/3 h 20 min/);
     await expect(p.locator('[data-block="tub-fill"]').getByRole('list', { name: 'Cautions for the tub fill' }).innerText()).resolves.toMatch(/40 °C|scald|burn/i);
     await screenshot(p, 'season-2-tub-fill-editor');
+  });
+
+  test('on the forecast page the engineer costs a season and sees the payback against a purchased heater', async () => {
+    const p = eng.page;
+    await visit(p, '/forecasts');
+    await p.getByLabel(/^Price/).fill('3');
+    await p.getByLabel(/^Efficiency/).fill('0.82');
+    await p.getByText('A season and the payback of the build').click();
+    await p.getByLabel('Season (days)').fill('120');
+    await p.getByLabel('Heater hours (a day)').fill('8');
+    await p.getByLabel(/^Season target/).fill('28');
+    await p.getByLabel('Cover on outside the heater hours').check();
+    await p.getByLabel('Build cost (money)').fill('3000');
+    await p.getByLabel('Purchased heater (price)').fill('2500');
+    await p.getByLabel('Purchased heater’s fuel').selectOption('electric-resistance');
+    await p.getByLabel('Its fuel price (per unit)').fill('0.15');
+    await p.getByRole('button', { name: 'Forecast' }).click();
+    const season = p.getByTestId('season');
+    await season.waitFor();
+    await expect(season.innerText()).resolves.toMatch(/120 days, heater 8 h a day, cover on/);
+    await expect(p.getByTestId('payback').innerText()).resolves.toMatch(/Payback: (\d+\.\d seasons|Never|At once)/);
+    await screenshot(p, 'season-6-forecast-page');
   });
 
   test('a viewer reads the season and the tub fill and exports the workbook, at desktop and phone widths', async () => {
@@ -99,6 +122,9 @@ describe('a season and a tub fill in a study', () => {
         // the page is no wider than the viewport
         expect(await v.page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(width);
         await screenshot(v.page, `season-3-viewer-${name}`);
+        // the two new parts alone, to look at closely
+        await v.page.locator('[data-block="costs"]').getByTestId('season').screenshot({ path: path.join(resultsDir, `season-4-season-${name}.png`) });
+        await v.page.locator('[data-block="tub-fill"]').screenshot({ path: path.join(resultsDir, `season-5-tub-fill-${name}.png`) });
         expect(v.consoleErrors).toEqual([]);
       } finally {
         await v.close();

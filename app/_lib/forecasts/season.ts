@@ -156,7 +156,8 @@ export function seasonView(input: ForecastInput, s: SeasonSettings, build: Build
   });
   const fuelUnits = energy.fuelJ / u.heatContentJ;
   const annualCost = fuelUnits * build.pricePerUnit;
-  const notes: string[] = [hold.note];
+  // the hold rule's own words when it cannot hold the target (its hours are shown as a number otherwise)
+  const notes: string[] = hold.hoursPerDay === null ? [hold.note] : [];
   if (limited) {
     notes.push(heaterW > 0
       ? `${s.hoursPerDay} h a day of this heater (${heaterW.toFixed(0)} W at ${targetC.toFixed(1)} °C) cannot replace the mean losses: the season's heat is what those hours deliver, and the pool sits below the target.`

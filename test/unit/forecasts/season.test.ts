@@ -143,6 +143,17 @@ describe('payback of the build against a purchased heater', () => {
     expect(e.fields).toHaveProperty(['season.purchased.fuelPrice']);
     const f = refusal(() => computeSeason({ body: body(WALLS), season: season({ purchased: { price: 2500, efficiency: 0.82 } }), build: wood }));
     expect(f.fields).toHaveProperty(['season.buildPrice']);
+    // the editor's new comparison has no price yet
+    const g = refusal(() => computeSeason({ body: body(WALLS), season: season({ buildPrice: 300, purchased: { price: null } }), build: wood }));
+    expect(g.fields).toHaveProperty(['season.purchased.price']);
+  });
+
+  test('the rig’s build cost stands in when the season gives none', () => {
+    const s = computeSeason({ body: body(WALLS), season: season({ purchased: { price: 100, fuel: 'propane', fuelPrice: 3.5 } }), build: { ...wood, rigBuild: { amount: 180, rig: 'Coil A' } } });
+    expect(s.payback!.buildCost).toBe(180);
+    expect(s.payback!.buildBasis).toBe('the build cost of the rig "Coil A"');
+    // propane's default efficiency 0.82 (FUELS, DOMAIN.md §6) when the purchased heater gives none
+    expect(s.payback!.purchasedEfficiency).toBe(0.82);
   });
 });
 
