@@ -105,6 +105,10 @@ describe('the season on the forecast page (POST /api/labs/:id/forecast)', () => 
     const r = await eng.post(`/api/labs/${lab.id}/forecast`, { ...forecastData(fit.id), cost: { fuel: 'wood', pricePerUnit: 250, season: { ...season, hoursPerDay: 30 } } });
     expect(r.status).toBe(422);
     expect(r.body.fields).toHaveProperty(['cost.season.hoursPerDay']);
+    // a target the season refuses after reading it: named as the body names it too
+    const hot = await eng.post(`/api/labs/${lab.id}/forecast`, { ...forecastData(fit.id), cost: { fuel: 'wood', pricePerUnit: 250, season: { ...season, targetTemp: '90 degC' } } });
+    expect(hot.status).toBe(422);
+    expect(hot.body.fields).toHaveProperty(['cost.season.targetTemp']);
   });
 });
 

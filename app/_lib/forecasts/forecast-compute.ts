@@ -186,7 +186,7 @@ function forecastExtras(input: ForecastInput, r: ForecastResult, costInput: unkn
     const u = usefulHeatCost({ fuel: c.data.fuel as FuelKind, pricePerUnit: c.data.pricePerUnit, efficiency: c.data.efficiency });
     const d = volumeM3 ? costPerDegree(volumeM3, u.perUsefulTherm) : { perDegF: NaN, perK: NaN };
     const season = c.data.season === undefined ? null
-      : seasonView(input, parseSeason(c.data.season, 'cost.season'), { fuel: c.data.fuel, pricePerUnit: c.data.pricePerUnit, efficiency: c.data.efficiency, currency: c.data.currency || 'USD', rigBuild });
+      : seasonView(input, parseSeason(c.data.season, 'cost.season'), { fuel: c.data.fuel, pricePerUnit: c.data.pricePerUnit, efficiency: c.data.efficiency, currency: c.data.currency || 'USD', rigBuild }, 'cost.season');
     cost = { perUsefulTherm: u.perUsefulTherm, perDegF: d.perDegF, perK: d.perK, forecastHeatCost: (r.energy.heaterJ / USEFUL_THERM_J) * u.perUsefulTherm, basis: 'HHV', season };
     if (!Number.isFinite(cost.perK)) cost = { ...cost, perDegF: 0, perK: 0 };
   }

@@ -22,7 +22,7 @@ import { parseQuantity } from '@/analysis/units/parse-quantity';
 import { InputError, readingInput } from '@/analysis/units/reading-input';
 import { fastDensityKgPerM3 } from '@/analysis/water/property-table';
 import type { SeasonView } from '@/app/_contracts/study-blocks';
-import { invalid } from '../server/errors';
+import { DomainError, invalid } from '../server/errors';
 
 export const FUEL_KINDS = ['natural-gas', 'propane', 'electric-resistance', 'heat-pump', 'wood'] as const;
 
@@ -125,7 +125,18 @@ function dayMasks(hours: number, cover: boolean) {
  * @param input the forecast's typed input (its pool, flow, heater, weather and loss terms)
  * @throws DomainError invalid naming the `season.*` field (a forecast without losses, a target outside 1–60 °C, no build cost…)
  */
-export function seasonView(input: ForecastInput, s: SeasonSettings, build: BuildFuel): SeasonView {
+export function seasonView(input: ForecastInput, s: SeasonSettings, build: BuildFuel, prefix = 'season'): SeasonView {
+  try {
+    return seasonOf(input, s, build);
+  } catch (e) {
+    // the field as the caller's body names it (the forecast API's `cost.season.*`)
+    if (prefix === 'season' || !(e instanceof DomainError && e.kind === 'invalid')) throw e;
+    const fields = Object.fromEntries(Object.entries((e.details.fields ?? {}) as Record<string, string>).map(([k, v]) => [k.replace(/^season/, prefix), v]));
+    throw invalid(e.message.replace(/^season/, prefix), fields);
+  }
+}
+
+function seasonOf(input: ForecastInput, s: SeasonSettings, build: BuildFuel): SeasonView {
   if (!input.losses) throw invalid('season: the forecast has no weather and losses, so a season cannot be costed: switch its losses on.', { season: 'needs the forecast’s losses' });
   const targetC = must('season.targetTemp', () => parseQuantity(s.targetTemp, 'temperature', 'season.targetTemp'));
   if (!(targetC >= 1 && targetC <= 60)) throw invalid(`season.targetTemp: ${targetC.toFixed(1)} °C is outside 1–60 °C.`, { 'season.targetTemp': 'within 1–60 °C' });
