@@ -10,6 +10,7 @@ export const BLOCK_KINDS = [
   'collector',
   // operating plans of a rig, read when the study is (mutable: never in the block cache)
   'operating-plan',
+  'tub-fill',
 ] as const;
 export type BlockKind = (typeof BLOCK_KINDS)[number];
 

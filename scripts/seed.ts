@@ -3,7 +3,7 @@
  * second run changes nothing. In one transaction: the lab, its four members, the rigs with their
  * trials, saved fits in every review state (with the reviewer's comments and the review history),
  * a design comparison of the two coils, and a study in review (text, fit, comparison, forecast,
- * cost and caution blocks) with a live share link. Then, on its own connection as the import
+ * cost sheet with a season, tub fill and caution blocks) with a live share link. Then, on its own connection as the import
  * job does it, the sensor logs (the burner loop's, the solar collector's day) imported and
  * recorded as completed jobs. The
  * numbers come from the app's own functions (saveFit, importSensorLog), never written by hand.
@@ -104,7 +104,18 @@ async function seedWork(tx: EntityManager, lab: LabRow, p: DemoPeople) {
       { id: id(), kind: 'fit', data: { fitId: approved.id } },
       { id: id(), kind: 'design-comparison', data: { comparisonId: comparison.id } },
       { id: forecastId, kind: 'forecast', data: { poolVolume: '40 m^3', startTemp: '20 degC', targetTemp: '28 degC', hours: 48, flow: '12 L/min', fitId: approved.id, losses: false } },
-      { id: id(), kind: 'costs', data: { fuel: 'wood', price: 250, currency: 'USD', heatFrom: 'forecast', forecastBlockId: forecastId } },
+      {
+        id: id(), kind: 'costs', data: {
+          fuel: 'wood', price: 250, currency: 'USD', heatFrom: 'forecast', forecastBlockId: forecastId,
+          // a summer season held at 28 °C under an invented mean day; the build cost is the rig's, the purchased heater illustrative
+          season: {
+            days: 120, hoursPerDay: 8, targetTemp: '28 degC', cover: true, surfaceArea: '32 m^2',
+            weather: { airTemp: '24 degC', relativeHumidity: 0.6, wind: '2 m/s', solar: '150 W/m^2' },
+            purchased: { price: 1800, fuel: 'propane', fuelPrice: 3.5, efficiency: 0.82 },
+          },
+        },
+      },
+      { id: id(), kind: 'tub-fill', data: { fitId: approved.id, tubVolume: '1200 L', flow: '6 L/min', supplyTemp: '15 degC', targetTemp: '38 degC' } },
       { id: id(), kind: 'caution', data: { text: 'Never close a valve on the coil while the fire burns: steam in a closed coil can burst it.' } },
     ],
   }).blocks as StudyBlock[];

@@ -11,6 +11,8 @@ import { CollectorReport } from './collector-report';
 import { MeasuredDay } from './measured-day';
 import { OperatingPlanView } from './operating-plan-view';
 import { SensorLogView } from './sensor-log-view';
+import { SeasonResult } from './season-result';
+import { TubFillResultView } from './tub-fill-result';
 import type { BlockBody, BlockData, CostView, FitHead } from '../_contracts/study-blocks';
 import { sharedBlockKey, studyBlockKey } from '../_contracts/study-keys';
 import { displayUnits } from '@/app/_contracts/units';
@@ -175,6 +177,13 @@ export function BlockView({ block }: { block: BlockData }) {
       );
     case 'costs':
       return <CostSheet cost={b.cost} units={units} />;
+    case 'tub-fill':
+      return (
+        <div className="space-y-3">
+          <Head head={b.head} />
+          <TubFillResultView fill={b.fill} units={units} inputs />
+        </div>
+      );
     case 'design-comparison':
       return (
         <div className="space-y-3">
@@ -246,6 +255,7 @@ function CostSheet({ cost: c, units }: { cost: CostView; units: UnitSystem }) {
           ))}
         </ul>
       </div>
+      {c.season ? <SeasonResult season={c.season} units={units} /> : null}
       <p className="text-xs text-ink-muted">Heat content and default efficiency: {c.source}</p>
     </div>
   );

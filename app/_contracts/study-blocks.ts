@@ -58,6 +58,55 @@ export interface CostView {
   fuelQuantity: number;
   source: string;
   cautions: string[];
+  /** a season's energy, money and payback (app/_lib/forecasts/season.ts), when the sheet has a season */
+  season?: SeasonView | null;
+}
+
+/** A season held at a target temperature (SI; money in `currency`): its heat, fuel, cost and the payback of the build. */
+export interface SeasonView {
+  days: number;
+  hoursPerDay: number;
+  targetTempC: number;
+  cover: boolean;
+  /** mean losses at the target under the forecast's weather and the season's cover, W; the sun's mean gain, W; losses − sun, W */
+  lossW: number;
+  solarW: number;
+  netLossW: number;
+  /** the heater's heat into water at the target while it runs, W */
+  heaterW: number;
+  /** heater hours a day that hold the target (null: it cannot) */
+  holdHoursPerDay: number | null;
+  /** the season's hours a day cannot hold the target: the heat is what they deliver */
+  limitedByHeater: boolean;
+  /** useful heat of the season, J; fuel (or electricity) energy bought for it, J */
+  usefulJ: number;
+  fuelJ: number;
+  /** that energy in the fuel's price unit (therm, gal, kWh, cord), in kWh and in therms */
+  fuelUnits: number;
+  fuelUnit: string;
+  fuelKWh: number;
+  fuelTherms: number;
+  burnerHours: number;
+  poolHours: number;
+  annualCost: number;
+  currency: string;
+  payback: {
+    buildCost: number;
+    buildBasis: string;
+    purchasedPrice: number;
+    purchasedFuel: string;
+    purchasedEfficiency: number;
+    perUsefulThermBuild: number;
+    perUsefulThermPurchased: number;
+    annualCostBuild: number;
+    annualCostPurchased: number;
+    annualSaving: number;
+    /** seasons to pay back; null: never (the verdict says why) */
+    years: number | null;
+    verdict: string;
+  } | null;
+  notes: string[];
+  cautions: CautionView[];
 }
 
 export interface SensorSegmentView {
@@ -103,7 +152,23 @@ export type BlockBody =
   | { type: 'collector'; head: FitHead; view: CollectorViewDto }
   /** an operating plan of a rig with the cautions it raises now; `planId` and `rigId` are null on the public share view */
   | { type: 'operating-plan'; planId: string | null; rigId: string | null; name: string; rigName: string; updatedAt: string; plan: Pick<OperatingPlanDto, 'steps' | 'loop' | 'cautions'> }
+  // a tub filled in one pass through a saved coil fit's heater
+  | { type: 'tub-fill'; head: FitHead; fill: TubFillView }
   | { type: 'note'; tone: 'muted' | 'danger'; message: string };
+
+/** A tub filled in one pass through the heater (app/_lib/forecasts/tub-fill.ts; SI). */
+export interface TubFillView {
+  tubVolumeM3: number;
+  flowM3PerS: number;
+  supplyTempC: number;
+  fillTimeS: number;
+  outletTempC: number;
+  finalTempC: number;
+  /** the flow whose outlet gives the target after mixing, when a target was given */
+  target: { targetTempC: number; outletTempC: number; flowM3PerS: number | null; fillTimeS: number | null; note: string } | null;
+  heaterNote: string;
+  cautions: CautionView[];
+}
 
 /** A measured day against its forecast (SI, names carry the unit; see analysis/forecast/measured-day-check.ts). */
 export interface MeasuredDayView {

@@ -54,7 +54,7 @@ export function ForecastForm({ labId, units, fits }: { labId: string; units: Uni
         <HeatingFieldset units={units} fits={fits} />
         <WeatherFieldset units={units} choices={choices} set={set} readWeather={(f) => void readWeather(f)} />
         <MeasuredFieldset units={units} />
-        <CostFieldset />
+        <CostFieldset targetHint={units === 'us' ? '°F' : '°C'} />
         <button type="submit" className="btn-primary w-full" disabled={busy}>
           {busy ? 'Forecasting…' : 'Forecast'}
         </button>

@@ -60,7 +60,7 @@ export function forecastBody(f: FormData, c: ForecastChoices, units: UnitSystem)
         }
       : false,
   };
-  if (v('price')) body.cost = { fuel: v('fuel'), pricePerUnit: Number(v('price')), ...(v('efficiency') ? { efficiency: Number(v('efficiency')) } : {}) };
+  if (v('price')) body.cost = { fuel: v('fuel'), pricePerUnit: Number(v('price')), ...(v('efficiency') ? { efficiency: Number(v('efficiency')) } : {}), ...seasonOf(v, q, T) };
   const fitId = v('fitId');
   if (fitId) body.fitId = fitId;
   if (fitId && c.collectorFits?.includes(fitId)) body.sun = { irradiance: q('sunIrradiance', 'W/m^2'), ambientTemp: q('sunAir', T) };
@@ -69,4 +69,19 @@ export function forecastBody(f: FormData, c: ForecastChoices, units: UnitSystem)
   }
   else body.heater = { model: 'coil', sourceTemp: q('ts', T), UA: q('ua', 'W/K') };
   return { body };
+}
+
+/** The season of the cost (cost.season), when its days are given: numbers as typed, the target with the reader's unit. */
+function seasonOf(v: (k: string) => string, q: (k: string, unit: string) => string | undefined, T: string): { season?: Record<string, unknown> } {
+  if (!v('seasonDays')) return {};
+  const n = (k: string) => (v(k) ? Number(v(k)) : undefined);
+  const purchased = v('purchasedPrice')
+    ? { price: n('purchasedPrice'), ...(v('purchasedFuel') ? { fuel: v('purchasedFuel') } : {}), ...(v('purchasedFuelPrice') ? { fuelPrice: n('purchasedFuelPrice') } : {}), ...(v('purchasedEfficiency') ? { efficiency: n('purchasedEfficiency') } : {}) }
+    : undefined;
+  return {
+    season: {
+      days: n('seasonDays'), hoursPerDay: n('seasonHours'), targetTemp: q('seasonTarget', T) ?? '', cover: v('seasonCover') === 'on',
+      ...(v('buildPrice') ? { buildPrice: n('buildPrice') } : {}), ...(purchased ? { purchased } : {}),
+    },
+  };
 }

@@ -7,7 +7,8 @@ import { energyBudgetPlot, forecastPlot, type EnergyBudgetInput, type ForecastPl
 import { CautionList, TempValue } from '../_components/safety-notice';
 import { PlotFigure } from '../_components/plot-figure';
 import { MeasuredDay } from '../_components/measured-day';
-import type { MeasuredDayView } from '../_contracts/study-blocks';
+import type { MeasuredDayView, SeasonView } from '../_contracts/study-blocks';
+import { SeasonResult } from '../_components/season-result';
 
 /** What POST /api/labs/:id/forecast answers (SI; the names carry the unit). */
 export interface ForecastResult {
@@ -24,7 +25,7 @@ export interface ForecastResult {
   pool: { volume_m3: number; area_m2: number } | null;
   cautions: { code: string; level: string; message: string }[];
   riseTable: { flowsM3PerS: number[]; volumesM3: number[]; risePerHourK: number[][] } | null;
-  cost: { perUsefulTherm: number; perDegF: number; perK: number; forecastHeatCost: number } | null;
+  cost: { perUsefulTherm: number; perDegF: number; perK: number; forecastHeatCost: number; season?: SeasonView | null } | null;
   /** the plot builders' inputs (app/_plots), reduced for display: the page draws them in the reader's units */
   plots: { trajectory: { input: ForecastPlotInput }; budget: { input: EnergyBudgetInput } };
   /** the measured day, when one was given */
@@ -81,6 +82,7 @@ export function ForecastResultView({ res, units }: { res: ForecastResult; units:
           ))}
         </dl>
       ) : null}
+      {res.cost?.season ? <SeasonResult season={res.cost.season} units={units} /> : null}
       {res.riseTable ? (
         <div className="card relative overflow-x-auto p-4" tabIndex={0}>
           <table className="data-table">

@@ -3,28 +3,17 @@
 import { useState } from 'react';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { displayUnit, displayUnits } from '@/app/_contracts/units';
-import type { CautionLike } from '@/analysis/safety/cautions';
+import type { TubFillView } from '../_contracts/study-blocks';
 import { api, ApiError } from '../_components/api';
-import { CautionList, TempValue } from '../_components/safety-notice';
+import { TubFillResultView } from '../_components/tub-fill-result';
 import { NumberField } from './forecast-fields';
-
-interface TubFillResult {
-  fillTimeS: number;
-  outletTempC: number;
-  finalTempC: number;
-  heaterNote: string;
-  target: { targetTempC: number; outletTempC: number; flowM3PerS: number | null; fillTimeS: number | null; note: string } | null;
-  cautions: CautionLike[];
-}
-
-const hm = (s: number) => `${Math.floor(s / 3600)} h ${String(Math.round((s % 3600) / 60)).padStart(2, '0')} min`;
 
 /** Filling a tub in one pass through the heater: fill time, final temperature, and the flow for a target. */
 export function TubFill({ labId, units, fits }: { labId: string; units: UnitSystem; fits: { id: string; label: string; collector?: boolean }[] }) {
   const u = displayUnits(units);
   const vol = displayUnit('volume', units);
   const us = units === 'us';
-  const [res, setRes] = useState<TubFillResult | null>(null);
+  const [res, setRes] = useState<TubFillView | null>(null);
   const [error, setError] = useState<string | null>(null);
   async function submit(e: React.FormEvent<HTMLFormElement>) {
     e.preventDefault();
@@ -39,7 +28,7 @@ export function TubFill({ labId, units, fits }: { labId: string; units: UnitSyst
     };
     setError(null);
     try {
-      setRes(await api<TubFillResult>(`/api/labs/${labId}/tub-fill`, { body }));
+      setRes(await api<TubFillView>(`/api/labs/${labId}/tub-fill`, { body }));
     } catch (err) {
       setRes(null);
       setError(err instanceof ApiError ? `${err.message}${Object.keys(err.fields).length ? ` (${Object.entries(err.fields).map(([k, m]) => `${k}: ${m}`).join('; ')})` : ''}` : 'The server could not be reached.');
@@ -67,21 +56,8 @@ export function TubFill({ labId, units, fits }: { labId: string; units: UnitSyst
       </form>
       {error ? <p role="alert" className="rounded-lg border border-danger-line bg-danger-bg px-3 py-2 text-sm text-danger-text">{error}</p> : null}
       {res ? (
-        <div className="space-y-3" aria-live="polite">
-          <dl className="grid gap-3 sm:grid-cols-3">
-            <div><dt className="text-sm text-ink-soft">Fill time</dt><dd className="num text-xl">{hm(res.fillTimeS)}</dd></div>
-            <div><dt className="text-sm text-ink-soft">Heater outlet</dt><dd className="num text-xl"><TempValue tempC={res.outletTempC} units={units} withUnit /></dd></div>
-            <div><dt className="text-sm text-ink-soft">Tub when full</dt><dd className="num text-xl"><TempValue tempC={res.finalTempC} units={units} withUnit /></dd></div>
-          </dl>
-          {res.target ? (
-            <p className="text-sm">
-              For <TempValue tempC={res.target.targetTempC} units={units} withUnit />:{' '}
-              {res.target.flowM3PerS ? <><span className="num">{u.flow.from(res.target.flowM3PerS).toFixed(2)} {u.flow.label}</span>, filling in <span className="num">{hm(res.target.fillTimeS!)}</span>. </> : null}
-              {res.target.note}
-            </p>
-          ) : null}
-          <p className="text-xs text-ink-muted">{res.heaterNote} Surface losses during the fill are left out (fills take minutes to hours).</p>
-          <CautionList cautions={res.cautions} />
+        <div aria-live="polite">
+          <TubFillResultView fill={res} units={units} />
         </div>
       ) : null}
     </section>

@@ -48,11 +48,13 @@ describe('the demo lab', () => {
     expect(s.reviewState).toBe('in-review');
     const study = (await eng.get(`/api/studies/${s.id}`)).body.study;
     const kinds = study.blocks.map((b: { kind: string }) => b.kind);
-    for (const k of ['fit', 'forecast', 'costs', 'caution', 'design-comparison']) expect(kinds).toContain(k);
+    for (const k of ['fit', 'forecast', 'costs', 'caution', 'design-comparison', 'tub-fill']) expect(kinds).toContain(k);
     for (const b of study.blocks) {
       const r = await eng.get(`/api/studies/${s.id}/blocks/${b.id}`);
       expect(r.status, r.text).toBe(200);
       expect(r.body.block.body.type, `${b.kind}: ${JSON.stringify(r.body.block.body).slice(0, 300)}`).not.toBe('note');
+      // the cost sheet's season compares the build (the rig's cost) with a purchased heater
+      if (b.kind === 'costs') expect(r.body.block.body.cost.season.payback.buildBasis).toMatch(/the build cost of the rig/);
     }
     const shares = (await eng.get(`/api/studies/${s.id}/shares`)).body.shares as { revokedAt: string | null; expiresAt: string }[];
     expect(shares.some((l) => !l.revokedAt && Date.parse(l.expiresAt) > Date.now())).toBe(true);

@@ -68,7 +68,13 @@ describe('the main pages in Chromium', () => {
     const study = (await eng.post(`/api/labs/${lab.id}/studies`, { title: `Main pages study ${Date.now().toString(36)}` })).body.study;
     const cur = (await eng.get(`/api/studies/${study.id}`)).body.study;
     const text = { id: 'note', kind: 'text', data: { markdown: 'Read the [roles and permissions](/help/permissions) before you share this.' } };
-    const saved = await eng.request('PUT', `/api/studies/${study.id}`, { title: cur.title, baseRevision: cur.revision, blocks: [...cur.blocks, text, { id: 'f1', kind: 'fit', data: { fitId: fit.id } }] });
+    // a cost sheet with a season and payback, and a tub fill (their tables and cautions under axe too)
+    const seasonAndTub = [
+      { id: 'fc', kind: 'forecast', data: { poolVolume: '40 m^3', startTemp: '20 degC', targetTemp: '28 degC', hours: 24, flow: '12 L/min', fitId: fit.id, losses: false } },
+      { id: 'cs', kind: 'costs', data: { fuel: 'wood', price: 250, heatFrom: 'forecast', forecastBlockId: 'fc', season: { days: 120, hoursPerDay: 8, targetTemp: '28 degC', cover: true, surfaceArea: '32 m^2', weather: { airTemp: '24 degC', relativeHumidity: 0.6 }, purchased: { price: 1800, fuel: 'propane', fuelPrice: 3.5 } } } },
+      { id: 'tub', kind: 'tub-fill', data: { fitId: fit.id, tubVolume: '1200 L', flow: '6 L/min', supplyTemp: '15 degC', targetTemp: '38 degC' } },
+    ];
+    const saved = await eng.request('PUT', `/api/studies/${study.id}`, { title: cur.title, baseRevision: cur.revision, blocks: [...cur.blocks, text, { id: 'f1', kind: 'fit', data: { fitId: fit.id } }, ...seasonAndTub] });
     expect(saved.status, saved.text).toBe(200);
     const share = await eng.post(`/api/studies/${study.id}/shares`, { days: 7 });
     expect(share.status, share.text).toBe(201);

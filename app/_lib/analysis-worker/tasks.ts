@@ -8,7 +8,7 @@
 import { DomainError } from '../server/errors';
 import { InputError } from '@/analysis/units/reading-input';
 import { computeAnalysis, computeSavedFit, fitBlockFigure, savedFitFigures } from '../fits/fit-compute';
-import { computeForecast, computeForecastExport } from '../forecasts/forecast-compute';
+import { computeForecast, computeForecastExport, computeSeason } from '../forecasts/forecast-compute';
 import { sensorLogFigures } from '../studies/block-figures';
 import { computeComparison } from '../comparisons/comparison-compute';
 import { previewSegments, previewSeries } from '../imports/preview-segments';
@@ -30,6 +30,7 @@ export const TASKS = {
   fitBlockFigure,
   forecast: computeForecast,
   forecastExport: computeForecastExport,
+  forecastSeason: computeSeason,
   sensorLogFigures,
   designComparison: computeComparison,
   previewSegments: (t: PreviewTask) => previewSegments(t.log, t.input),

@@ -14,6 +14,7 @@ export { performanceSheet, forecastSheet, forecastSummaryItems, costsSheet } fro
 export { collectorSheet, collectorSummaryItems } from './collector-sheet';
 export { comparisonSheet } from './comparison-sheet';
 export { planSheet, type PlanExport } from './plan-sheet';
+export { tubFillSheet } from './tub-fill-sheet';
 export {
   studyWorkbook, fitWorkbook, studyWorkbookSpec, studyCsv, sheetCsv, provenanceItems, ANALYSIS_AID_NOTICE, STUDY_SHEETS,
   type StudySheetName,

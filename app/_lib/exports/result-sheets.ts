@@ -8,6 +8,7 @@ import { displayUnit, spreadToDisplay, toDisplay } from '@/app/_contracts/units'
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { FMT, quantityColumn } from './quantity-columns';
 import type { CostExport, ForecastExport, PerformanceExport } from './types';
+import type { SeasonView } from '@/app/_contracts/study-blocks';
 import type { SheetSpec, SummaryItem } from './xlsx';
 import { cautionCell, cautionLines, sheetNotice } from './safety';
 
@@ -148,6 +149,7 @@ export function costsSheet(c: CostExport, system: UnitSystem): SheetSpec {
       { section: 'Running', group: r.label, item: 'Fuel for that heat', amount: r.fuelQuantity, per: r.priceUnit },
       { section: 'Running', group: r.label, item: 'Cost of that heat', amount: r.heatCost, per: m },
     );
+    if (r.season) rows.push(...seasonRows(r.label, r.season, system));
   }
   if (c.payback) {
     const p = c.payback;
@@ -161,4 +163,31 @@ export function costsSheet(c: CostExport, system: UnitSystem): SheetSpec {
   }
   const notes = c.usefulHeat || c.perDegree || c.running?.length ? ['Running costs exclude losses during heat-up; heat content on the higher heating value (HHV).'] : [];
   return { name: 'Costs', columns, rows, notes };
+}
+
+/** A cost sheet's season: the losses at its target, its heat, fuel and cost, and the payback of the build. */
+function seasonRows(group: string, s: SeasonView, system: UnitSystem): ExportRow[] {
+  const m = s.currency, energy = displayUnit('energy', system).label, power = displayUnit('power', system).label;
+  const P = (w: number) => toDisplay(w, 'power', system);
+  const row = (item: string, amount: number | string | null, per: string): ExportRow => ({ section: 'Season', group, item, amount, per });
+  const out: ExportRow[] = [
+    row('Season length', s.days, 'days'), row('Heater hours a day', s.hoursPerDay, 'h'),
+    row('Target temperature', toDisplay(s.targetTempC, 'temperature', system), displayUnit('temperature', system).label),
+    row('Cover on outside the heater hours', s.cover ? 'yes' : 'no', ''),
+    row('Mean losses at the target', P(s.lossW), power), row('Mean solar gain', P(s.solarW), power),
+    row('Heater hours a day that hold the target', s.holdHoursPerDay, s.holdHoursPerDay === null ? 'cannot hold' : 'h'),
+    row('Useful heat of the season', toDisplay(s.usefulJ, 'energy', system), energy),
+    row(`Fuel bought (${s.fuelUnit})`, s.fuelUnits, s.fuelUnit), row('Fuel bought (kWh)', s.fuelKWh, 'kWh'), row('Fuel bought (therm)', s.fuelTherms, 'therm'),
+    row('Running cost of the season', s.annualCost, m),
+  ];
+  const p = s.payback;
+  if (p) {
+    out.push(
+      row(`Build cost (${p.buildBasis})`, p.buildCost, m),
+      row(`Purchased heater (${p.purchasedFuel}, ${p.purchasedFuel === 'heat-pump' ? 'COP' : 'efficiency'} ${p.purchasedEfficiency})`, p.purchasedPrice, m),
+      row('Running cost of the season, purchased heater', p.annualCostPurchased, m), row('Saving a season', p.annualSaving, m),
+      row('Payback', p.years, p.years === null ? 'never' : 'seasons'), row('Payback in words', p.verdict, ''),
+    );
+  }
+  return out;
 }

@@ -11,6 +11,7 @@ import { trialsSheet } from './trial-sheet';
 import { collectorSheet, collectorSummaryItems } from './collector-sheet';
 import { comparisonSheet } from './comparison-sheet';
 import { planSheet } from './plan-sheet';
+import { tubFillSheet } from './tub-fill-sheet';
 import type { ExportProvenance, FitWorkbookInput, StudyExport } from './types';
 import { buildWorkbook, summarySheet, type SheetSpec, type SummaryItem, type WorkbookSpec } from './xlsx';
 import { limitItems, sheetNotice, STANDING_NOTES } from './safety';
@@ -20,7 +21,7 @@ export const ANALYSIS_AID_NOTICE =
   'Emberline is an analysis aid: its results defer to local codes and licensed practice.';
 
 /** Sheet names of a full study workbook, in order. */
-export const STUDY_SHEETS = ['Summary', 'Trials', 'Fit', 'Residuals', 'Performance', 'Forecast', 'Costs', 'Collector', 'Comparison', 'Plans'] as const;
+export const STUDY_SHEETS = ['Summary', 'Trials', 'Fit', 'Residuals', 'Performance', 'Forecast', 'Costs', 'Collector', 'Comparison', 'Plans', 'Tub fill'] as const;
 export type StudySheetName = (typeof STUDY_SHEETS)[number];
 
 /** Provenance lines of the Summary sheet. */
@@ -64,6 +65,7 @@ export function studyWorkbookSpec(s: StudyExport): WorkbookSpec {
   if (s.collectors?.length) sheets.push(collectorSheet(s.collectors, sys));
   if (s.comparisons?.length) sheets.push(comparisonSheet(s.comparisons, sys));
   if (s.plans?.length) sheets.push(planSheet(s.plans, sys));
+  if (s.tubFills?.length) sheets.push(tubFillSheet(s.tubFills, sys));
   return {
     summary: [...provenanceItems(s.provenance, sys), ...limitItems(sys), ...fitSummaryItems(fits, sys), ...forecastSummaryItems(forecasts, sys), ...collectorSummaryItems(s.collectors ?? [])],
     summaryNotice: sheetNotice(sys, forecasts.flatMap((f, k) => [

@@ -18,6 +18,7 @@ import type { CellValue } from './cells';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import type { DesignComparisonView } from '@/app/_contracts/design-comparison';
 import type { PlanExport } from './plan-sheet';
+import type { SeasonView, TubFillView } from '@/app/_contracts/study-blocks';
 
 /** Where the numbers come from: the Summary sheet's Provenance section (DOMAIN.md §7, reproducibility). */
 export interface ExportProvenance {
@@ -131,6 +132,8 @@ export interface RunningCostExport {
   /** fuel bought for that heat, in `priceUnit` */
   fuelQuantity: number;
   heatBasis: string;
+  /** a season held at a target, with the payback of the build (app/_lib/forecasts/season.ts) */
+  season?: SeasonView;
 }
 
 /** A collector efficiency test (analysis/performance/collector-test.ts `collectorTest`) with a label. */
@@ -139,6 +142,12 @@ export interface CollectorExport {
   test: Pick<CollectorTestResult, 'areaBasis' | 'areaM2' | 'eta0' | 'a1WPerM2K' | 'a2WPerM2K2' | 'n' | 'residualSD' | 'points' | 'excluded' | 'warnings'>;
   /** a label per point (the trial's time) */
   trialLabels?: string[];
+}
+
+/** A tub-fill block's result with a label. */
+export interface TubFillExport {
+  label: string;
+  fill: TubFillView;
 }
 
 /** Everything a study export can hold; each part gives its sheet when present. */
@@ -155,6 +164,8 @@ export interface StudyExport {
   comparisons?: DesignComparisonView[];
   /** operating plans (a study's operating-plan blocks) with their cautions */
   plans?: PlanExport[];
+  /** tubs filled in one pass (a study's tub-fill blocks) */
+  tubFills?: TubFillExport[];
   /** extra lines under the Summary table (cautions, the reviewer's sign-off…) */
   notes?: string[];
 }

@@ -9,8 +9,12 @@ import { InputError, readingInput } from '@/analysis/units/reading-input';
 import { invalid } from '../server/errors';
 import { parseQuantity } from '@/analysis/units/parse-quantity';
 import type { StudyBlock } from '@/entities/study';
-import type { CostView } from '@/app/_contracts/study-blocks';
+import type { CostView, SeasonView } from '@/app/_contracts/study-blocks';
 import type { RunningCostExport } from '../exports';
+import type { EntityManager } from '@mikro-orm/postgresql';
+import type { LabRow } from '@/entities';
+import { seasonSettings } from './season';
+import { forecastSeason } from './forecasts';
 
 /**
  * The cost-sheet block of a study (DOMAIN.md §6): a fuel or energy source with its price and
@@ -41,6 +45,8 @@ export const costBlockData = z
     poolVolume: unitText.optional(),
     rise: unitText.optional(),
     heat: unitText.optional(),
+    /** a season held at a target (season.ts): its energy, money and the payback of the build; reads the forecast block `forecastBlockId` */
+    season: seasonSettings.optional(),
   })
   .strict();
 export type CostBlockData = z.infer<typeof costBlockData>;
@@ -115,6 +121,27 @@ export function costView(data: Record<string, unknown>, blocks: readonly StudyBl
   };
 }
 
+/**
+ * The season of a cost block, or null when it has none: the forecast block it names (its pool,
+ * weather, cover factors and saved fit) held at the season's target, costed with the block's fuel.
+ * @throws DomainError invalid naming the field (no forecast block, a bad season); InputError naming the forecast's field
+ */
+export async function costSeason(em: EntityManager, lab: LabRow, data: Record<string, unknown>, blocks: readonly StudyBlock[]): Promise<SeasonView | null> {
+  const d = costBlockData.parse(data);
+  if (!d.season) return null;
+  const fb = seasonForecastBlock(d, blocks);
+  const fuel: FuelKind = d.fuel ?? 'propane';
+  if (d.price == null) throw bad('price', `enter the price of ${FUEL_LABELS[fuel].toLowerCase()} per ${FUELS[fuel].priceUnit}.`);
+  return forecastSeason(em, lab, { ...fb.data }, d.season, { fuel, pricePerUnit: d.price, efficiency: d.efficiency ?? undefined, currency: d.currency || 'USD' });
+}
+
+/** The forecast block a season reads. @throws DomainError invalid naming forecastBlockId */
+export function seasonForecastBlock(d: CostBlockData, blocks: readonly StudyBlock[]): StudyBlock {
+  const fb = blocks.find((b) => b.id === d.forecastBlockId);
+  if (!fb || fb.kind !== 'forecast') throw bad('forecastBlockId', 'pick a forecast block of this study: the season reads its pool, weather and heater.');
+  return fb;
+}
+
 /** The cautions beside a running cost (DOMAIN.md §5, §6); our wording, deferring to local codes. */
 export function costCautions(fuel: FuelKind, efficiency: number): string[] {
   const out = ['Running costs leave out the losses while the water heats (evaporation dominates; a cover saves 50–70 %): the real bill is higher. Heat contents are higher heating values (HHV).'];
@@ -142,5 +169,6 @@ export function costExport(label: string, v: CostView): RunningCostExport {
     label, fuel: v.fuel as FuelKind, currency: v.currency, price: v.price, priceUnit: v.priceUnit, efficiency: v.efficiency,
     perUsefulTherm: v.perUsefulTherm, perUsefulKWh: v.perUsefulKWh, perDegF: v.perDegF, perK: v.perK,
     heatJ: v.heatJ, heatCost: v.heatCost, fuelQuantity: v.fuelQuantity, heatBasis: v.heatBasis,
+    ...(v.season ? { season: v.season } : {}),
   };
 }

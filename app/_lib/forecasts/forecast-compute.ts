@@ -21,7 +21,8 @@ import { invalid } from '../server/errors';
 import { parseQuantity } from '@/analysis/units/parse-quantity';
 import { solarCollectorHeater, type CollectorParameters } from '@/analysis/performance/collector-efficiency';
 import { measuredDayCheck } from '@/analysis/forecast/measured-day-check';
-import type { MeasuredDayView } from '@/app/_contracts/study-blocks';
+import type { MeasuredDayView, SeasonView } from '@/app/_contracts/study-blocks';
+import { FUEL_KINDS, parseSeason, seasonForecastBody, seasonView, type BuildFuel, type RigBuild } from './season';
 import { plotToSvg } from '../plots/plot-svg';
 
 /** What forecasts.ts hands the worker: the body with the saved fit already turned into a heater. */
@@ -34,6 +35,8 @@ export interface ForecastTask {
   units: UnitSystem;
   /** 'svg': server SVG of both plots too (study blocks, the no-JavaScript path); 'data': the plot inputs only */
   render: 'svg' | 'data';
+  /** the build cost of the saved fit's rig (a season's payback, when it gives none) */
+  rigBuild?: RigBuild;
 }
 
 interface Prepared {
@@ -44,6 +47,12 @@ interface Prepared {
 
 /** The typed forecast of a request body: the pool by its shape (its area the surface of the loss terms), read by the same reader as the command line. */
 function prepare(t: Pick<ForecastTask, 'body' | 'heater'>): Prepared {
+  const { input, pool } = typedInput(t);
+  return { input, result: readingInput(() => recirculatingForecast(input)), pool };
+}
+
+/** The typed input of a request body (the forecast not yet run). */
+function typedInput(t: Pick<ForecastTask, 'body' | 'heater'>): { input: ForecastInput; pool: PoolGeometry | null } {
   const { fitId: _f, cost: _c, pool: poolBody, measured: _m, sun: _s, ...rest } = t.body;
   void _f;
   void _c;
@@ -59,8 +68,18 @@ function prepare(t: Pick<ForecastTask, 'body' | 'heater'>): Prepared {
     const typed = readForecastInput(read, input);
     if (pool) typed.poolVolumeM3 = pool.volumeM3;
     if (collector) typed.heater = solarCollectorHeater({ collector: collector.collector, irradianceWPerM2: collector.irradianceWPerM2, ambientTempC: collector.ambientTempC, modules: collector.modules });
-    return { input: typed, result: recirculatingForecast(typed), pool };
+    return { input: typed, pool };
   });
+}
+
+/**
+ * A season of a forecast's pool (app/_lib/forecasts/season.ts) for a study's cost block: the
+ * forecast's typed input without running it, the season's settings and the build's fuel.
+ * @throws DomainError invalid naming the season's field; InputError naming the forecast's
+ */
+export function computeSeason(t: Pick<ForecastTask, 'body' | 'heater'> & { season: unknown; build: BuildFuel }): SeasonView {
+  const season = parseSeason(t.season);
+  return seasonView(typedInput({ body: seasonForecastBody(t.body, season), heater: t.heater }).input, season, t.build);
 }
 
 const measuredSchema = z.object({
@@ -133,7 +152,7 @@ export function computeForecast(t: ForecastTask) {
     shownSamples: shown.indices.length,
     fitNote: t.fitNote,
     pool: pool && { volume_m3: pool.volumeM3, area_m2: pool.areaM2 },
-    ...forecastExtras(input, r, t.body.cost),
+    ...forecastExtras(input, r, t.body.cost, t.rigBuild),
     measuredDay: t.body.measured === undefined ? null : measuredDayOf(input, t.body.measured),
     plots: {
       trajectory: { title: trajectory.title, summary: trajectory.summary, input: trajectoryInput, ...(svg ? { svg: plotToSvg(trajectory.options) } : {}), cautions: trajectory.cautions } as ForecastFigure<ForecastPlotInput>,
@@ -143,13 +162,16 @@ export function computeForecast(t: ForecastTask) {
 }
 export type ComputedForecast = ReturnType<typeof computeForecast>;
 
-const costSchema = z.object({ fuel: z.enum(['natural-gas', 'propane', 'electric-resistance', 'heat-pump', 'wood']), pricePerUnit: z.number().positive(), efficiency: z.number().positive().max(10).optional() }).strict();
+const costSchema = z.object({
+  fuel: z.enum(FUEL_KINDS), pricePerUnit: z.number().positive(), efficiency: z.number().positive().max(10).optional(),
+  currency: z.string().trim().max(8).optional(), season: z.unknown().optional(),
+}).strict();
 
 /**
  * The rise per hour by flow × pool size (a heater with a source temperature, at the start temperature) and, with a fuel
  * price, the cost of a useful therm, of one degree and of this forecast's heat.
  */
-function forecastExtras(input: ForecastInput, r: ForecastResult, costInput: unknown) {
+function forecastExtras(input: ForecastInput, r: ForecastResult, costInput: unknown, rigBuild?: RigBuild) {
   let riseTable: { flowsM3PerS: number[]; volumesM3: number[]; risePerHourK: number[][] } | null = null;
   const volumeM3 = input.poolVolumeM3 ?? r.poolMassKg / waterDensityKgPerM3(input.startTempC);
   const q = input.flowM3PerS ?? 0;
@@ -158,13 +180,15 @@ function forecastExtras(input: ForecastInput, r: ForecastResult, costInput: unkn
     const volumesM3 = [0.5, 1, 2].map((k) => volumeM3 * k);
     riseTable = { flowsM3PerS, volumesM3, risePerHourK: risePerHourTable(input.heater, flowsM3PerS, volumesM3, input.startTempC) };
   }
-  let cost: { perUsefulTherm: number; perDegF: number; perK: number; forecastHeatCost: number; basis: string } | null = null;
+  let cost: { perUsefulTherm: number; perDegF: number; perK: number; forecastHeatCost: number; basis: string; season: SeasonView | null } | null = null;
   if (costInput !== undefined) {
     const c = costSchema.safeParse(costInput);
     if (!c.success) throw invalid('cost: give a fuel, a price per unit and optionally an efficiency (COP for a heat pump).', { cost: c.error.issues[0]?.message ?? 'invalid' });
     const u = usefulHeatCost({ fuel: c.data.fuel as FuelKind, pricePerUnit: c.data.pricePerUnit, efficiency: c.data.efficiency });
     const d = volumeM3 ? costPerDegree(volumeM3, u.perUsefulTherm) : { perDegF: NaN, perK: NaN };
-    cost = { perUsefulTherm: u.perUsefulTherm, perDegF: d.perDegF, perK: d.perK, forecastHeatCost: (r.energy.heaterJ / USEFUL_THERM_J) * u.perUsefulTherm, basis: 'HHV' };
+    const season = c.data.season === undefined ? null
+      : seasonView(input, parseSeason(c.data.season, 'cost.season'), { fuel: c.data.fuel, pricePerUnit: c.data.pricePerUnit, efficiency: c.data.efficiency, currency: c.data.currency || 'USD', rigBuild }, 'cost.season');
+    cost = { perUsefulTherm: u.perUsefulTherm, perDegF: d.perDegF, perK: d.perK, forecastHeatCost: (r.energy.heaterJ / USEFUL_THERM_J) * u.perUsefulTherm, basis: 'HHV', season };
     if (!Number.isFinite(cost.perK)) cost = { ...cost, perDegF: 0, perK: 0 };
   }
   return { riseTable, cost };

@@ -11,20 +11,24 @@ import { isUuid } from '../labs/load-in-lab';
 import { parseStoredFit } from '../fits/stored-fit';
 import { runAnalysis } from '../server/analysis-pool';
 import type { ForecastExport } from '../exports';
+import type { SeasonView } from '@/app/_contracts/study-blocks';
+import type { BuildFuel, RigBuild } from './season';
 
 /**
  * The heater of a saved coil fit named by `fitId` (its Ts and UA as unit strings) and the note
  * the page shows about it; nothing when the body names no fit.
  * @throws DomainError not_found (no such fit in this lab), invalid (not a coil fit)
  */
-async function fitHeater(em: EntityManager, lab: LabRow, fitId: unknown, sun?: unknown): Promise<{ heater?: Record<string, unknown>; fitNote: string | null }> {
+async function fitHeater(em: EntityManager, lab: LabRow, fitId: unknown, sun?: unknown): Promise<{ heater?: Record<string, unknown>; fitNote: string | null; rigBuild?: RigBuild }> {
   if (fitId === undefined) return { fitNote: null };
-  const fit = isUuid(fitId) ? await em.findOne(Fit, { id: fitId, lab }) : null;
+  const fit = isUuid(fitId) ? await em.findOne(Fit, { id: fitId, lab }, { populate: ['rig'] }) : null;
   if (!fit) throw notFound('No such saved fit in this lab.');
   if (fit.kind === 'collector') return collectorHeaterOf(fit, sun);
   if (fit.model !== 'coil') throw invalid('Forecasts take a saved coil fit (its Ts and UA carry over to any inlet temperature) or a collector fit.', { fitId: 'Pick a coil or collector fit.' });
   const p = parseStoredFit(fit.result, fit.id).fit.params;
+  const cost = Number(fit.rig.details?.buildCost);
   return {
+    ...(cost > 0 ? { rigBuild: { amount: cost, rig: fit.rig.name } } : {}),
     heater: { model: 'coil', sourceTemp: `${p.Ts.value} degC`, UA: `${p.UA.value} W/K` },
     fitNote: `Heater: saved fit "${fit.title}" v${fit.version} (Ts ${p.Ts.value.toFixed(1)} °C, UA ${p.UA.value.toFixed(0)} W/K).`,
   };
@@ -66,8 +70,8 @@ function collectorHeaterOf(fit: FitRow, sun: unknown): { heater: Record<string, 
  * @throws DomainError not_found (no such fit), unavailable (the pool is full); InputError (422) naming the field the user wrote
  */
 export async function forecast(em: EntityManager, lab: LabRow, body: Record<string, unknown>, units: UnitSystem, render: 'svg' | 'data' = 'svg') {
-  const { heater, fitNote } = await fitHeater(em, lab, body.fitId, body.sun);
-  return runAnalysis('forecast', { body, heater, fitNote, units, render });
+  const { heater, fitNote, rigBuild } = await fitHeater(em, lab, body.fitId, body.sun);
+  return runAnalysis('forecast', { body, heater, fitNote, units, render, rigBuild });
 }
 
 /**
@@ -102,4 +106,14 @@ export async function forecastForExport(em: EntityManager, lab: LabRow, body: Re
   const { heater } = await fitHeater(em, lab, body.fitId, body.sun);
   const { result, measuredDay } = await runAnalysis('forecastExport', { body, heater });
   return { label, result, ...(measuredDay ? { measuredDay } : {}) };
+}
+
+/**
+ * A season of a forecast's pool for a cost sheet (app/_lib/forecasts/season.ts), in the analysis
+ * pool: the forecast body's pool, weather and loss terms, its saved fit as the heater.
+ * @throws DomainError invalid naming the season's field, not_found (no such fit); InputError naming the forecast's field
+ */
+export async function forecastSeason(em: EntityManager, lab: LabRow, body: Record<string, unknown>, season: unknown, build: BuildFuel): Promise<SeasonView> {
+  const { heater, rigBuild } = await fitHeater(em, lab, body.fitId, body.sun);
+  return runAnalysis('forecastSeason', { body, heater, season, build: { ...build, rigBuild } });
 }

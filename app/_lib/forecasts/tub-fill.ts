@@ -8,12 +8,13 @@ import 'server-only';
  */
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
-import { Fit, type LabRow } from '@/entities';
+import { Fit, type FitRow, type LabRow } from '@/entities';
 import { fillTub } from '@/analysis/pool/fill-tub';
 import { lowestFlowBelowLimit } from '@/analysis/performance/choose-flow';
 import { coilHeater, type HeaterModel } from '@/analysis/performance/heater-model';
 import { temperatureCautions, mergeCautions } from '@/analysis/safety/cautions';
 import { parseQuantity } from '@/analysis/units/parse-quantity';
+import { readingInput } from '@/analysis/units/reading-input';
 import { invalid, notFound } from '../server/errors';
 import { isUuid } from '../labs/load-in-lab';
 import { parseStoredFit } from '../fits/stored-fit';
@@ -31,13 +32,24 @@ export const tubFillInput = z.object({
   targetTemp: q.optional(),
 }).strict();
 
-async function heaterOf(em: EntityManager, lab: LabRow, input: z.infer<typeof tubFillInput>): Promise<{ heater: HeaterModel; note: string }> {
+export type TubFillInput = z.infer<typeof tubFillInput>;
+
+/** The settings of a study's tub-fill block as stored: the page's fields without a typed heater (the block reads a saved coil fit). */
+export const tubFillBlockData = tubFillInput.omit({ heater: true }).partial().strict();
+export type TubFillResult = ReturnType<typeof tubFillOf>;
+
+/** The heater of a saved coil fit of the lab (already loaded). @throws DomainError invalid (not a coil fit) */
+export function tubFillHeater(fit: FitRow): { heater: HeaterModel; note: string } {
+  if (fit.kind !== 'heater' || fit.model !== 'coil') throw invalid('A tub fill takes a saved coil fit (its Ts and UA give the outlet at any supply temperature).', { fitId: 'Pick a coil fit.' });
+  const p = parseStoredFit(fit.result, fit.id).fit.params;
+  return { heater: coilHeater({ sourceTempC: p.Ts.value, uaWPerK: p.UA.value }), note: `Heater: saved fit "${fit.title}" v${fit.version} (Ts ${p.Ts.value.toFixed(1)} °C, UA ${p.UA.value.toFixed(0)} W/K).` };
+}
+
+async function heaterOf(em: EntityManager, lab: LabRow, input: TubFillInput): Promise<{ heater: HeaterModel; note: string }> {
   if (input.fitId !== undefined) {
     const fit = isUuid(input.fitId) ? await em.findOne(Fit, { id: input.fitId, lab }) : null;
     if (!fit) throw notFound('No such saved fit in this lab.');
-    if (fit.kind !== 'heater' || fit.model !== 'coil') throw invalid('A tub fill takes a saved coil fit (its Ts and UA give the outlet at any supply temperature).', { fitId: 'Pick a coil fit.' });
-    const p = parseStoredFit(fit.result, fit.id).fit.params;
-    return { heater: coilHeater({ sourceTempC: p.Ts.value, uaWPerK: p.UA.value }), note: `Heater: saved fit "${fit.title}" v${fit.version} (Ts ${p.Ts.value.toFixed(1)} °C, UA ${p.UA.value.toFixed(0)} W/K).` };
+    return tubFillHeater(fit);
   }
   if (!input.heater) throw invalid('Give a saved coil fit or the heater’s Ts and UA.', { heater: 'a coil fit, or Ts and UA' });
   const Ts = parseQuantity(input.heater.sourceTemp, 'temperature', 'heater.sourceTemp');
@@ -50,8 +62,33 @@ async function heaterOf(em: EntityManager, lab: LabRow, input: z.infer<typeof tu
  * The fill at the chosen flow and, with a target, the flow that reaches it.
  * @throws DomainError invalid naming the field (bad quantities, zero flow: a dead-headed coil, out-of-range volumes)
  */
-export async function tubFill(em: EntityManager, lab: LabRow, input: z.infer<typeof tubFillInput>) {
+export async function tubFill(em: EntityManager, lab: LabRow, input: TubFillInput) {
   const { heater, note } = await heaterOf(em, lab, input);
+  return tubFillOf(heater, note, input);
+}
+
+/**
+ * A study's tub-fill block: its saved coil fit (already loaded in the lab) and its settings.
+ * @throws DomainError invalid naming the field (a missing or unreadable setting, not a coil fit); InputError in the user's words
+ */
+export function tubFillOfFit(fit: FitRow, data: Record<string, unknown>) {
+  const p = tubFillInput.safeParse({ ...data, fitId: fit.id });
+  if (!p.success) {
+    const i = p.error.issues[0];
+    const field = i?.path.join('.') || 'settings';
+    const message = i?.code === 'invalid_type' ? 'give it, with its unit' : i?.message ?? 'not valid';
+    throw invalid(`${field}: ${message}`, { [field]: message });
+  }
+  const { heater, note } = tubFillHeater(fit);
+  return readingInput(() => tubFillOf(heater, note, p.data));
+}
+
+/**
+ * The fill of a heater (the page's route and a study's tub-fill block): closed forms and a
+ * bisection on the outlet, cheap enough for the request thread.
+ * @throws DomainError invalid naming the field
+ */
+export function tubFillOf(heater: HeaterModel, note: string, input: TubFillInput) {
   const V = parseQuantity(input.tubVolume, 'volume', 'tubVolume');
   const flow = parseQuantity(input.flow, 'volumeFlow', 'flow');
   const supply = parseQuantity(input.supplyTemp, 'temperature', 'supplyTemp');
@@ -76,5 +113,5 @@ export async function tubFill(em: EntityManager, lab: LabRow, input: z.infer<typ
       note: Tout <= supply ? 'The target is at or below the supply: no heating is needed.' : f === null ? 'Even 600 L/min gives an outlet above the target: fill through a mixing valve, or part-fill with cold water.' : f === 0 ? 'The heater cannot reach the target at any flow from 0.06 L/min: it is too weak for this supply.' : 'The flow at which the outlet gives the target after mixing.',
     };
   }
-  return { fillTimeS: r.fillTimeS, outletTempC: r.outletTempC, finalTempC: r.finalTempC, target, heaterNote: note, cautions: mergeCautions(r.cautions, target ? temperatureCautions(target.targetTempC, 'tub') : []) };
+  return { tubVolumeM3: V, flowM3PerS: flow, supplyTempC: supply, fillTimeS: r.fillTimeS, outletTempC: r.outletTempC, finalTempC: r.finalTempC, target, heaterNote: note, cautions: mergeCautions(r.cautions, target ? temperatureCautions(target.targetTempC, 'tub') : []) };
 }

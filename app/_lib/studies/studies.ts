@@ -6,6 +6,7 @@ import { ShareLink, Study, type LabRow, type ShareLinkRow, type StudyRow, type U
 import { BLOCK_KINDS, type StudyBlock } from '@/entities/study';
 import { UNIT_SYSTEMS, type UnitSystem } from '@/analysis/units/unit-system';
 import { costBlockData } from '../forecasts/cost-sheet';
+import { tubFillBlockData } from '../forecasts/tub-fill';
 import { forecastWorkProblem } from '../forecasts/forecasts';
 import { conflict, DomainError } from '../server/errors';
 import { isUuid } from '../labs/load-in-lab';
@@ -35,6 +36,11 @@ export const blockSchema = z
     if (b.kind === 'forecast') {
       const problem = forecastWorkProblem(b.data);
       if (problem) ctx.addIssue({ code: 'custom', path: ['data'], message: `Forecast: ${problem}` });
+    }
+    if (b.kind === 'tub-fill') {
+      const t = tubFillBlockData.safeParse(b.data);
+      if (!t.success) for (const i of t.error.issues) ctx.addIssue({ code: 'custom', path: ['data', ...i.path.map(String)], message: `Tub fill: ${i.path.join('.') || 'settings'}: ${i.message}` });
+      else if (b.data.fitId !== undefined && !isUuid(b.data.fitId)) ctx.addIssue({ code: 'custom', path: ['data', 'fitId'], message: 'Tub fill: fitId: pick a saved coil fit.' });
     }
     if (b.kind === 'costs') {
       const c = costBlockData.safeParse(b.data);

@@ -1,11 +1,13 @@
 import 'server-only';
 import { DomainError } from '../server/errors';
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { Fit, SourceFile, type FitRow, type LabRow, type StudyRow } from '@/entities';
+import { Fit, Rig, SourceFile, type FitRow, type LabRow, type StudyRow } from '@/entities';
 import type { StudyBlock } from '@/entities/study';
 import type { BlockBody, BlockData, FitHead } from '@/app/_contracts/study-blocks';
 import type { UnitSystem } from '@/analysis/units/unit-system';
-import { costView } from '../forecasts/cost-sheet';
+import { costBlockData, costSeason, costView, seasonForecastBlock } from '../forecasts/cost-sheet';
+import { InputError } from '@/analysis/units/reading-input';
+import { tubFillOfFit } from '../forecasts/tub-fill';
 import { modelLabel } from '../fits/fit-analysis';
 import { collectorModelLabel, savedCollectorView } from '../fits/collector-analysis';
 import { parseStoredFit } from '../fits/stored-fit';
@@ -51,7 +53,7 @@ const FIT_KINDS = new Set(['fit', 'comparison', 'performance', 'trials', 'collec
  * read only when a block is computed (`withResult`).
  */
 export async function blockFits(em: EntityManager, lab: LabRow, blocks: readonly StudyBlock[]): Promise<Map<string, BlockFit>> {
-  const ids = [...new Set(blocks.filter((b) => FIT_KINDS.has(b.kind) || b.kind === 'forecast').map((b) => b.data.fitId).filter((x): x is string => isUuid(x)))];
+  const ids = [...new Set(blocks.filter((b) => FIT_KINDS.has(b.kind) || b.kind === 'forecast' || b.kind === 'tub-fill').map((b) => b.data.fitId).filter((x): x is string => isUuid(x)))];
   const rows = ids.length ? await em.find(Fit, { id: { $in: ids }, lab }, { exclude: ['result'] }) : [];
   return new Map(rows.map((f) => [f.id, f]));
 }
@@ -131,6 +133,42 @@ async function forecastBody(ctx: BlockContext, block: StudyBlock): Promise<Block
   });
 }
 
+/**
+ * A cost block's season, kept in the block cache under what it reads: its own settings and the
+ * forecast block's (by hash), that block's saved fit (id and version: immutable) and its rig's
+ * build cost. SI: no units.
+ */
+async function seasonBody(ctx: BlockContext, block: StudyBlock) {
+  const fb = seasonForecastBlock(costBlockData.parse(block.data), ctx.study.blocks);
+  const fits = ctx.fits ?? (await blockFits(ctx.em, ctx.lab, [fb]));
+  const fit = typeof fb.data.fitId === 'string' ? fits.get(fb.data.fitId) : undefined;
+  // the rig's build cost (mutable details) stands in for a build price the season does not give
+  const rig = fit ? await ctx.em.findOne(Rig, { id: fit.rig.id }) : null;
+  const key = blockCacheKey(['cost-season', jsonHash(block.data), jsonHash(fb.data), fit ? `${fit.id}@${fit.version}` : 'no-fit', String(rig?.details?.buildCost ?? '')]);
+  return cachedBlockData(ctx.em, key, { labId: ctx.lab.id, fitId: fit?.id ?? null }, async () => (await costSeason(ctx.em, ctx.lab, block.data, ctx.study.blocks))!);
+}
+
+/**
+ * A tub-fill block: a saved coil fit (immutable) and the block's settings, kept in the block cache
+ * under the fit's id and version, the settings' hash and the units; cheap (closed forms and a
+ * bisection), so it runs here rather than in the analysis pool. Bad settings become a note.
+ */
+async function tubFillBody(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
+  const d = block.data;
+  const fits = ctx.fits ?? (await blockFits(ctx.em, ctx.lab, [block]));
+  const fit = typeof d.fitId === 'string' ? fits.get(d.fitId) : undefined;
+  if (!fit) return { type: 'note', tone: 'muted', message: 'No saved coil fit chosen for this tub fill yet.' };
+  const head: FitHead = { fitId: ctx.publicView ? null : fit.id, title: fit.title, version: fit.version, label: modelLabel(fit.model), reviewState: fit.reviewState };
+  try {
+    const key = blockCacheKey(['tub-fill-block', fit.id, fit.version, jsonHash(d), ctx.units]);
+    const fill = await cachedBlockData(ctx.em, key, { labId: ctx.lab.id, fitId: fit.id }, async () => tubFillOfFit(await withResult(ctx.em, fit), d));
+    return { type: 'tub-fill', head, fill };
+  } catch (e) {
+    if ((e instanceof DomainError && e.kind === 'invalid') || e instanceof InputError) return { type: 'note', tone: 'danger', message: `This tub fill cannot be computed: ${e.message}` };
+    throw e;
+  }
+}
+
 /** A saved design comparison of the study's lab, recomputed (app/_lib/comparisons). */
 async function designComparisonBody(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
   const c = isUuid(block.data.comparisonId) ? await comparisonInLab(ctx.em, ctx.lab, block.data.comparisonId) : null;
@@ -173,13 +211,17 @@ async function body(ctx: BlockContext, block: StudyBlock): Promise<BlockBody> {
       }
     case 'costs':
       try {
-        return { type: 'costs', cost: costView(d, ctx.study.blocks) };
+        const cost = costView(d, ctx.study.blocks);
+        return { type: 'costs', cost: d.season ? { ...cost, season: await seasonBody(ctx, block) } : cost };
       } catch (e) {
         if (e instanceof DomainError && e.kind === 'invalid') return { type: 'note', tone: 'danger', message: `This cost sheet cannot be computed: ${e.message}` };
+        if (e instanceof InputError) return { type: 'note', tone: 'danger', message: `This cost sheet’s season cannot be computed: its forecast block says ${e.message}` };
         throw e;
       }
     case 'sensor-log':
       return sensorLogBody(ctx, block);
+    case 'tub-fill':
+      return tubFillBody(ctx, block);
     case 'design-comparison':
       return designComparisonBody(ctx, block);
     case 'operating-plan':

@@ -2,8 +2,10 @@ import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { Fit, Rig, type StudyRow } from '@/entities';
 import type { UnitSystem } from '@/analysis/units/unit-system';
-import { STUDY_SHEETS, studyCsv, studyWorkbook, type CollectorExport, type FitExport, type PlanExport, type ForecastExport, type PerformanceExport, type RunningCostExport, type StudyExport, type StudySheetName, type TrialExportRow } from '../exports';
-import { costExport, costView } from '../forecasts/cost-sheet';
+import { STUDY_SHEETS, studyCsv, studyWorkbook, type CollectorExport, type FitExport, type PlanExport, type ForecastExport, type PerformanceExport, type RunningCostExport, type StudyExport, type StudySheetName, type TrialExportRow, type TubFillExport } from '../exports';
+import { costExport, costSeason, costView } from '../forecasts/cost-sheet';
+import { InputError } from '@/analysis/units/reading-input';
+import { tubFillOfFit } from '../forecasts/tub-fill';
 import { DomainError } from '../server/errors';
 import { forecastForExport } from '../forecasts/forecasts';
 import { modelLabel, SOFTWARE_VERSION } from '../fits/fit-analysis';
@@ -58,16 +60,32 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
       notes.push(`${label} cannot be computed: ${e.message}`);
     }
   }
-  study.blocks.forEach((b, i) => {
-    if (b.kind !== 'costs') return;
+  for (const [i, b] of study.blocks.entries()) {
+    if (b.kind !== 'costs') continue;
     const label = `Cost sheet (block ${i + 1})`;
     try {
-      running.push(costExport(label, costView(b.data, study.blocks)));
+      running.push(costExport(label, { ...costView(b.data, study.blocks), season: await costSeason(em, study.lab, b.data, study.blocks) }));
     } catch (e) {
-      if (!(e instanceof DomainError && e.kind === 'invalid')) throw e;
+      if (!((e instanceof DomainError && e.kind === 'invalid') || e instanceof InputError)) throw e;
       notes.push(`${label} cannot be computed: ${e.message}`);
     }
-  });
+  }
+  const tubFills: TubFillExport[] = [];
+  for (const [i, b] of study.blocks.entries()) {
+    if (b.kind !== 'tub-fill') continue;
+    const label = `Tub fill (block ${i + 1})`;
+    const fit = fits.find((f) => f.id === b.data.fitId);
+    if (!fit) {
+      notes.push(`${label} cannot be computed: no saved coil fit chosen.`);
+      continue;
+    }
+    try {
+      tubFills.push({ label, fill: tubFillOfFit(fit, b.data) });
+    } catch (e) {
+      if (!((e instanceof DomainError && e.kind === 'invalid') || e instanceof InputError)) throw e;
+      notes.push(`${label} cannot be computed: ${e.message}`);
+    }
+  }
   const comparisons: DesignComparisonView[] = [];
   for (const [i, b] of study.blocks.entries()) {
     if (b.kind !== 'design-comparison' || !isUuid(b.data.comparisonId)) continue;
@@ -105,6 +123,7 @@ export async function studyExportData(em: EntityManager, study: StudyRow, labNam
     ...(running.length ? { costs: { currency: running[0].currency, running } } : {}),
     ...(comparisons.length ? { comparisons } : {}),
     ...(plans.length ? { plans } : {}),
+    ...(tubFills.length ? { tubFills } : {}),
     notes,
   };
 }

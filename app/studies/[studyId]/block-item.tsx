@@ -2,6 +2,7 @@
 
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { CostSettings, ForecastSettings, SensorLogSettings } from './block-settings';
+import { TubFillSettings } from './tub-fill-settings';
 import { kindLabel, type Block, type EditorChoices } from './study-blocks-model';
 
 /** One block in the editor: its number and kind, move up / down / delete, and its settings by kind. */
@@ -42,6 +43,8 @@ export function BlockItem({ block: b, i, blocks, units, choices, setData, move, 
         <ForecastSettings data={b.data} set={setData} fits={fits} />
       ) : b.kind === 'costs' ? (
         <CostSettings n={i + 1} data={b.data} set={setData} units={units} forecasts={blocks.map((x, j) => ({ id: x.id, kind: x.kind, n: j + 1 })).filter((x) => x.kind === 'forecast')} />
+      ) : b.kind === 'tub-fill' ? (
+        <TubFillSettings n={i + 1} data={b.data} set={setData} fits={fits} />
       ) : b.kind === 'sensor-log' ? (
         <SensorLogSettings n={i + 1} data={b.data} set={setData} logs={logs} />
       ) : b.kind === 'operating-plan' ? (

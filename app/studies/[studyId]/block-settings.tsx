@@ -3,6 +3,7 @@
 /** Settings of the forecast, cost-sheet and sensor-log blocks in the study editor. */
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { defaultPoolVolume } from './study-blocks-model';
+import { SeasonSettings } from './season-settings';
 
 type Data = Record<string, unknown>;
 
@@ -88,6 +89,7 @@ export function CostSettings({ n, data, set, units, forecasts }: { n: number; da
       ) : (
         text('heat', 'Useful heat', units === 'us' ? '100 therm' : '3000 kWh')
       )}
+      <SeasonSettings n={n} data={data} set={set} units={units} />
       <p className="text-xs text-ink-muted sm:col-span-3">Quantities take units (gal, m^3, degF, K, therm, kWh). Heat contents are EIA higher heating values; efficiency defaults to the fuel’s typical value.</p>
     </div>
   );

@@ -7,7 +7,8 @@ import type { UnitSystem } from '@/analysis/units/unit-system';
 export type Kind = 'text' | 'trials' | 'fit' | 'comparison' | 'performance' | 'forecast' | 'costs' | 'sensor-log' | 'caution' | 'design-comparison'
   // solar collectors
   | 'collector'
-  | 'operating-plan';
+  | 'operating-plan'
+  | 'tub-fill';
 export interface Block {
   id: string;
   kind: Kind;
@@ -43,6 +44,7 @@ export const KINDS: { kind: Kind; label: string }[] = [
   // solar collectors
   { kind: 'collector', label: 'Collector efficiency' },
   { kind: 'operating-plan', label: 'Operating plan' },
+  { kind: 'tub-fill', label: 'Tub fill' },
 ];
 export const kindLabel = (k: Kind) => KINDS.find((x) => x.kind === k)?.label ?? k;
 export const newBlockId = () => Math.random().toString(36).slice(2, 10);
@@ -107,6 +109,8 @@ export function newBlockData(kind: Kind, units: UnitSystem, { fits, logs, compar
       return comparisons[0] ? { comparisonId: comparisons[0].id } : {};
     case 'operating-plan':
       return plans[0] ? { planId: plans[0].id } : {};
+    case 'tub-fill':
+      return tubFillDefaults(units, fits);
     case 'collector': {
       const c = fits.find((f) => f.collector);
       return c ? { fitId: c.id } : {};
@@ -116,4 +120,14 @@ export function newBlockData(kind: Kind, units: UnitSystem, { fits, logs, compar
       return heater ? { fitId: heater.id } : {};
     }
   }
+}
+
+/** A new tub fill: 1,200 L (300 gal) from a 15 °C (60 °F) supply at 6 L/min (1.5 gpm) through the lab's first coil fit, for 38 °C (100 °F). */
+function tubFillDefaults(units: UnitSystem, fits: EditorChoices['fits']): Record<string, unknown> {
+  const us = units === 'us';
+  const coil = fits.find((f) => f.coil);
+  return {
+    ...(coil ? { fitId: coil.id } : {}),
+    tubVolume: us ? '300 gal' : '1200 L', flow: us ? '1.5 gpm' : '6 L/min', supplyTemp: us ? '60 degF' : '15 degC', targetTemp: us ? '100 degF' : '38 degC',
+  };
 }
