@@ -78,14 +78,17 @@ function interiorMax(curve: FittedCurve, p: ArrayLike<number>, a: number, b: num
  * @param a lowest flow, m³/s, > 0
  * @param b highest flow, m³/s, > a
  * @param limit °C
+ * @param yGrid optional: y at many flows in one call, the same values as `y` at each (a fitted
+ *   curve evaluates a whole grid far faster than one flow at a time); the grid scan uses it
  * @returns m³/s; 0 when y ≤ limit over the whole range; null when y exceeds it even at b
  * @example lowestFlowBelowLimit((x) => 20 + 1e-3 / x, 1e-5, 1e-3, 30) // ≈ 1e-4
  */
-export function lowestFlowBelowLimit(y: (x: number) => number, a: number, b: number, limit: number): number | null {
+export function lowestFlowBelowLimit(y: (x: number) => number, a: number, b: number, limit: number, yGrid?: (xs: number[]) => ArrayLike<number>): number | null {
   const n = 400;
   const xs = Array.from({ length: n + 1 }, (_, i) => a * (b / a) ** (i / n));
+  const ys = yGrid ? yGrid(xs) : xs.map(y);
   let last = -1;
-  for (let i = 0; i <= n; i++) if (!(y(xs[i]) <= limit)) last = i;
+  for (let i = 0; i <= n; i++) if (!(ys[i] <= limit)) last = i;
   if (last === -1) return 0;
   if (last === n) return null;
   let lo = xs[last], hi = xs[last + 1];
@@ -160,10 +163,10 @@ export function chooseFlow(
     const L = requireFinite(lim.limitC, 'limits[].limitC');
     const base = { label: lim.label, limitC: L };
     if (!(L > tin)) return { ...base, flowM3PerS: null, flowU: null, conservativeFlowM3PerS: null, extrapolated: false, note: 'The inlet is already at or above this limit.' };
-    const best = (p: number[]) => lowestFlowBelowLimit((x) => curve.evaluate(p, [x], tin)[0], a, b, L);
+    const best = (p: number[]) => lowestFlowBelowLimit((x) => curve.evaluate(p, [x], tin)[0], a, b, L, (xs) => curve.evaluate(p, xs, tin));
     const f = best(p0);
     const flowU = f !== null && f > 0 ? deltaMethodU(curve, (p) => { const v = best(p); return v === null || v === 0 ? null : v; }) : null;
-    const cons = lowestFlowBelowLimit((x) => curve.band([x], tin, level)[0].piHigh, a, b, L);
+    const cons = lowestFlowBelowLimit((x) => curve.band([x], tin, level)[0].piHigh, a, b, L, (xs) => curve.band(xs, tin, level).map((q) => q.piHigh));
     const worst = cons === null ? f : Math.max(f ?? 0, cons);
     const extrapolated = (f !== null && f > 0 && (f < lo || f > hi)) || (cons !== null && cons > 0 && (cons < lo || cons > hi));
     let note: string;
