@@ -322,8 +322,13 @@ export interface CautionLike {
   valueC?: number | null;
 }
 
-/** The rank of each temperature band's code, most severe 0 (the order of HAZARD_BANDS). */
-const BAND_RANK = new Map<string, number>(HAZARD_BANDS.map((b, i) => [b.code, i]));
+/**
+ * The rank of each contact band's code, most severe 0 (the order of HAZARD_BANDS): burns in
+ * seconds, scald, spa limit are one hazard (how hot the water is to touch) shown at its highest
+ * band. Near boiling is a hazard of its own (steam and pressure in the loop) and stays beside it:
+ * water at 96 °C both flashes to steam and burns skin in seconds.
+ */
+const BAND_RANK = new Map<string, number>(HAZARD_BANDS.filter((b) => b.band !== 'steam').map((b, i) => [b.code, i]));
 
 /** How {@link cautionsToShow} lists the temperature bands of one place. */
 export interface CautionsToShowOptions {
@@ -339,8 +344,9 @@ export interface CautionsToShowOptions {
 /**
  * The cautions to show beside a table, plot or result: each distinct caution once (by
  * {@link cautionKey}, so a shared code never hides another place or hazard), most severe first.
- * With `bands: 'highest'` a place's temperature bands collapse to its most severe; other cautions
- * (no flow, a source above boiling…) are hazards of their own and are always kept.
+ * With `bands: 'highest'` a place's contact bands (burns in seconds, scald, spa limit) collapse to
+ * the most severe; other cautions (near boiling, no flow, a source above boiling…) are hazards of
+ * their own and are always kept.
  * @example cautionsToShow(forecast.cautions).length
  * @example cautionsToShow(temperatureCautions(62, 'outlet'), { bands: 'highest' }).map(c => c.code) // ['scald-seconds']
  */

@@ -101,24 +101,25 @@ describe('caution lists keep every hazard and every place', () => {
     expect(both45.map((c) => `${c.code}@${c.where}`)).toEqual(['spa-limit@tub', 'spa-limit@outlet']);
   });
   // Thresholds as above (CPSC 79-071 / UL 1563 [38]; scald-time table [39]; 95 °C steam, common practice):
-  // a screen shows the band hazardBand marks the value with, not every lower band under it.
+  // a screen shows the contact band hazardBand marks the value with, not every lower band under it;
+  // near boiling (steam and pressure) is a hazard of its own and stays beside the burns.
   test.each([
-    [42, 'spa-limit'],
-    [52, 'scald'],
-    [62, 'scald-seconds'],
-    [96, 'near-boiling'],
-  ])('on screen, one temperature at %s °C is one caution, its highest band (%s), in the rule’s words', (t, code) => {
+    [42, ['spa-limit']],
+    [52, ['scald']],
+    [62, ['scald-seconds']],
+    [96, ['near-boiling', 'scald-seconds']],
+  ])('on screen, one temperature at %s °C shows one caution per hazard, the highest contact band (%j), in the rule’s words', (t, codes) => {
     const all = temperatureCautions(t, 'planned outlet (upper prediction bound)');
     const shown = cautionsToShow(all, { bands: 'highest' });
-    expect(shown.map((c) => c.code)).toEqual([code]);
+    expect(shown.map((c) => c.code)).toEqual(codes);
     expect(shown[0].code).toBe(hazardBand(t).rule?.code);
-    expect(shown[0].message).toBe(all.find((c) => c.code === code)!.message);
+    for (const c of shown) expect(c.message).toBe(all.find((x) => x.code === c.code)!.message);
     expect(cautionsToShow(all)).toHaveLength(all.length); // the default (exports) keeps every band
   });
   test('on screen, other hazards stay beside the highest band', () => {
     const shown = cautionsToShow([...temperatureCautions(96, 'outlet'), sourceAboveBoilingCaution(150, 99.97)!, deadHeadingCaution('step 2')], { bands: 'highest' });
     // all danger: the highest threshold first (99.97 °C, 95 °C, then the one without a threshold)
-    expect(shown.map((c) => `${c.code}@${c.where}`)).toEqual(['above-boiling-source@source', 'near-boiling@outlet', 'dead-heading@step 2']);
+    expect(shown.map((c) => `${c.code}@${c.where}`)).toEqual(['above-boiling-source@source', 'near-boiling@outlet', 'scald-seconds@outlet', 'dead-heading@step 2']);
   });
   test('two steps of a plan without flow stay two cautions; the same caution twice is shown once', () => {
     const a = deadHeadingCaution('step 2'), b = deadHeadingCaution('step 5');
@@ -132,7 +133,10 @@ describe('caution lists keep every hazard and every place', () => {
   test('cautions without where (JSON from an older saved result) are still shown once each, worst first', () => {
     const list = [{ code: 'scald', level: 'warning', message: 'a' }, { code: 'near-boiling', level: 'danger', message: 'b' }, { code: 'scald', level: 'warning', message: 'a' }];
     expect(cautionsToShow(list).map((c) => c.message)).toEqual(['b', 'a']);
-    expect(cautionsToShow(list, { bands: 'highest' }).map((c) => c.message)).toEqual(['b']);
+    // near boiling and the scald are two hazards (steam; contact): both stay on screen
+    expect(cautionsToShow(list, { bands: 'highest' }).map((c) => c.message)).toEqual(['b', 'a']);
+    const contact = [{ code: 'scald', level: 'warning', message: 'a' }, { code: 'scald-seconds', level: 'danger', message: 'c' }];
+    expect(cautionsToShow(contact, { bands: 'highest' }).map((c) => c.message)).toEqual(['c']);
   });
   test('the hottest value of each place gives the cautions beside a table', () => {
     const c = hottestCautions([{ where: 'inlet', valuesC: [15, 18] }, { where: 'outlet', valuesC: [38, 52, Number.NaN, null, 47] }]);
