@@ -2,7 +2,7 @@ import 'server-only';
 /**
  * What a member does next, by role — the page a person lands on after signing in: an engineer's
  * open work (drafts and returned fits and studies, with the reviewer's last word), a reviewer's
- * queue (work in review that someone else made), a viewer's studies and comparisons to read and
+ * queue (work in review that someone else made), a viewer's studies (approved, then in review, then the rest) and comparisons to read and
  * export, an owner's team (members, open invitations) above the queue. Lists of the current lab
  * only, each bounded.
  */
@@ -11,6 +11,7 @@ import { Comment, Fit, Study, type LabRow, type UserRow } from '@/entities';
 import type { Role } from '@/entities/membership';
 import { comparisonsOfLab } from '../comparisons/comparisons';
 import { invitationsOf, membersOf } from '../labs/labs';
+import { loadRefs } from '../server/db';
 
 const LIMIT = 20;
 
@@ -48,7 +49,11 @@ async function items(em: EntityManager, lab: LabRow, where: { states: string[]; 
 export async function landingFor(em: EntityManager, lab: LabRow, user: UserRow, role: Role) {
   const comparisons = (await comparisonsOfLab(em, lab)).slice(0, LIMIT).map((c): WorkItem => ({ kind: 'comparison', href: `/comparisons/${c.id}`, title: c.title, state: null, by: c.createdBy?.name ?? null, lastComment: null, at: c.createdAt.toISOString() }));
   if (role === 'viewer') {
-    const studies = await em.find(Study, { lab }, { orderBy: { updatedAt: 'desc' }, limit: LIMIT, populate: ['createdBy'] });
+    // what is ready to read first (approved, then in review), then the rest; newest first within each
+    const ready = await em.find(Study, { lab, reviewState: { $in: ['approved', 'in-review'] } }, { orderBy: { updatedAt: 'desc' }, limit: LIMIT });
+    const rest = ready.length < LIMIT ? await em.find(Study, { lab, reviewState: { $nin: ['approved', 'in-review'] } }, { orderBy: { updatedAt: 'desc' }, limit: LIMIT - ready.length }) : [];
+    const studies = [...ready.filter((s) => s.reviewState === 'approved'), ...ready.filter((s) => s.reviewState !== 'approved'), ...rest];
+    await loadRefs(em, studies, ['createdBy']);
     return {
       role,
       studies: studies.map((s): WorkItem => ({ kind: 'study', href: `/studies/${s.id}`, title: s.title, state: s.reviewState, by: s.createdBy?.name ?? null, lastComment: null, at: s.updatedAt.toISOString() })),

@@ -16,6 +16,9 @@ export const DEMO_PASSWORD = 'ember-demo-lab-2026';
 const addressPrefix = `2001:db8:${randomBytes(2).toString('hex')}:${randomBytes(2).toString('hex')}`;
 let nextAddress = 1;
 
+/** A client address of its own (a test client, or a browser: see test/e2e/support/browser.ts). */
+export const newClientAddress = () => `${addressPrefix}::${(nextAddress++).toString(16)}`;
+
 export interface Reply {
   status: number;
   headers: Headers;
@@ -32,7 +35,7 @@ export class Client {
   readonly base: string;
 
   constructor(ip?: string, base = baseUrl, origin: string | null = baseUrl) {
-    this.ip = ip ?? `${addressPrefix}::${(nextAddress++).toString(16)}`;
+    this.ip = ip ?? newClientAddress();
     this.base = base;
     this.origin = origin;
   }

@@ -13,6 +13,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
 import { afterEach } from 'vitest';
+import { newClientAddress } from '../../app/support/client';
 
 interface Watch {
   problems: string[];
@@ -44,6 +45,9 @@ export async function openBrowser(opts: { viewport?: { width: number; height: nu
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
     headless: true,
     viewport: opts.viewport ?? { width: 1280, height: 860 },
+    // each browser is a person at an address of their own, as each API test client is (the test
+    // server believes one forwarded hop): sign-in pacing per address then counts one person's tries
+    extraHTTPHeaders: { 'X-Forwarded-For': newClientAddress() },
     env: { ...process.env, HOME: profile, XDG_CONFIG_HOME: profile, XDG_CACHE_HOME: profile },
     args: [
       '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking',
