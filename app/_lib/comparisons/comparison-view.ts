@@ -13,6 +13,7 @@ import type { DesignComparisonView } from '@/app/_contracts/design-comparison';
 import { fitData } from '../fits/fit-analysis';
 import { parseStoredFit } from '../fits/stored-fit';
 import { runAnalysis } from '../server/analysis-pool';
+import { blockCacheKey, cachedBlockData, jsonHash } from '../server/block-cache';
 import type { DesignInput } from './comparison-compute';
 import type { LoadedSubject } from './comparisons';
 
@@ -61,5 +62,11 @@ export async function comparisonView(
       buildCost: cost ? { amount: cost, currency: typeof det.buildCostCurrency === 'string' && det.buildCostCurrency ? det.buildCostCurrency : 'USD' } : null,
     });
   }
-  return runAnalysis('designComparison', { title: input.title, designs, problems, inletTempC: input.inletTempC, flowM3PerS: input.flowM3PerS, units, plots: opts.plots !== false });
+  const task = { title: input.title, designs, problems, inletTempC: input.inletTempC, flowM3PerS: input.flowM3PerS, units, plots: opts.plots !== false };
+  const labId = input.loaded[0]?.rig.lab.id;
+  if (!task.plots || !labId) return runAnalysis('designComparison', task);
+  // the comparison is a pure function of its task, which holds every trial value of every design
+  // and the settings: kept under the task's hash (block cache), it is computed once until a trial,
+  // a fit or a setting changes, for the study block, the comparison's page and its export alike
+  return cachedBlockData(em, blockCacheKey(['design-comparison', jsonHash(task)]), { labId }, () => runAnalysis('designComparison', task));
 }

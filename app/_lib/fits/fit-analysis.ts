@@ -6,10 +6,9 @@ import { Trial, type RigRow, type TrialRow } from '@/entities';
 import { trialWaterProperties } from '@/analysis/water/trial-water';
 import { runAnalysis } from '../server/analysis-pool';
 import { DomainError } from '../server/errors';
-import pkg from '@/package.json';
 import type { FitData } from './fit-compute';
 
-export const SOFTWARE_VERSION = `emberline ${pkg.version}`;
+export { SOFTWARE_VERSION } from '../server/version';
 
 import { MODEL_CHOICES, modelLabel } from '@/app/_contracts/models';
 export { MODEL_CHOICES, modelLabel };

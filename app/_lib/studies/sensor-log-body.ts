@@ -6,7 +6,7 @@ import type { UnitSystem } from '@/analysis/units/unit-system';
 import { runAnalysis } from '../server/analysis-pool';
 import { pgPool } from '../server/pg-pool';
 import { ensureSensorOverview } from '../imports/sensor-overview';
-import { blockCacheKey, cachedBlockData } from './block-cache';
+import { blockCacheKey, cachedBlockData } from '../server/block-cache';
 
 /** A sensor log as the sensor-log block and the rig page show it. */
 export type SensorLogBody = Extract<BlockBody, { type: 'sensor-log' }>;

@@ -18,7 +18,7 @@ import { fitView } from '../fits/fit-compute';
 import { runAnalysis } from '../server/analysis-pool';
 import { isUuid } from '../labs/load-in-lab';
 import { sensorLogBody as sensorLogView } from './sensor-log-body';
-import { blockCacheKey, cachedBlockData, jsonHash } from './block-cache';
+import { blockCacheKey, cachedBlockData, jsonHash } from '../server/block-cache';
 import { comparisonInLab, readComparison } from '../comparisons/comparisons';
 import { planDto, planInLab } from '../rigs/operating-plans';
 

@@ -2,7 +2,7 @@ import 'server-only';
 import { createHash, randomUUID } from 'node:crypto';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { LruCache } from '@/analysis/fit/lru-cache';
-import { SOFTWARE_VERSION } from '../fits/fit-analysis';
+import { SOFTWARE_VERSION } from './version';
 
 /**
  * Study block data computed once and kept: in PostgreSQL (`block_cache`, shared by every app
