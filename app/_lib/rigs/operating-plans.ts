@@ -57,7 +57,8 @@ function clean(s: OperatingPlanInput['steps'][number]): OperatingStep {
 }
 
 /** The plans of a rig, oldest first. */
-export const plansOfRig = (em: EntityManager, rig: RigRow) => em.find(OperatingPlan, { rig }, { populate: ['rig'], orderBy: { createdAt: 'asc' }, limit: MAX_PLANS_PER_RIG });
+// the rig is loaded already (its plans point at that same record): no join
+export const plansOfRig = (em: EntityManager, rig: RigRow) => em.find(OperatingPlan, { rig }, { orderBy: { createdAt: 'asc' }, limit: MAX_PLANS_PER_RIG });
 
 /** The plans of a lab with their rigs, for the study editor's picker. */
 export const plansOfLab = (em: EntityManager, lab: LabRow) => em.find(OperatingPlan, { lab }, { populate: ['rig'], orderBy: { createdAt: 'asc' }, limit: 200 });

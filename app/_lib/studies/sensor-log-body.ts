@@ -1,6 +1,6 @@
 import 'server-only';
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { SensorOverview, SourceFile, type LabRow, type SourceFileRow } from '@/entities';
+import { SensorOverview, type LabRow, type SensorOverviewRow, type SourceFileRow } from '@/entities';
 import { SEGMENT_ROWS, type BlockBody } from '@/app/_contracts/study-blocks';
 import type { UnitSystem } from '@/analysis/units/unit-system';
 import { runAnalysis } from '../server/analysis-pool';
@@ -23,6 +23,11 @@ export async function sensorLogBody(em: EntityManager, lab: LabRow, file: Source
   let overview = await em.findOne(SensorOverview, { sourceFile: file.id }, { populate: ['rig'] });
   if (!overview && (await ensureSensorOverview(pgPool(), file.id))) overview = await em.findOne(SensorOverview, { sourceFile: file.id }, { populate: ['rig'] });
   if (!overview) return null;
+  return overviewBody(em, lab, file, overview, units, publicView);
+}
+
+/** The view of a log from its overview (loaded with its rig). */
+async function overviewBody(em: EntityManager, lab: LabRow, file: SourceFileRow, overview: SensorOverviewRow, units: UnitSystem, publicView: boolean): Promise<SensorLogBody> {
   // the overview is written once per log (and rebuilt only with a new id or time): its plots are kept under both
   const key = blockCacheKey(['sensor-log-plots', overview.id, overview.updatedAt.getTime(), units]);
   const plots = await cachedBlockData(em, key, { labId: lab.id }, () =>
@@ -50,12 +55,14 @@ export const RIG_LOGS_SHOWN = 2;
  * sessions' samples are not logs here (a session's page shows its own).
  */
 export async function rigSensorLogs(em: EntityManager, rig: { id: string; lab: LabRow }, units: UnitSystem): Promise<SensorLogBody[]> {
-  const files = await em.find(SourceFile, { rig: rig.id, lab: rig.lab, purpose: 'trials', state: 'imported', $not: { storageKey: { $like: 'session:%' } } }, { orderBy: { createdAt: 'desc' }, limit: 6 });
+  // the logs are the files with an overview: one query for them, not a lookup (and a try at
+  // building an overview from samples) for each of the rig's trial sheets on every view of the page
+  const overviews = await em.find(
+    SensorOverview,
+    { rig: rig.id, sourceFile: { lab: rig.lab, purpose: 'trials', state: 'imported', $not: { storageKey: { $like: 'session:%' } } } },
+    { populate: ['sourceFile', 'rig'], orderBy: { sourceFile: { createdAt: 'desc' } }, limit: RIG_LOGS_SHOWN },
+  );
   const out: SensorLogBody[] = [];
-  for (const f of files) {
-    if (out.length >= RIG_LOGS_SHOWN) break;
-    const body = await sensorLogBody(em, rig.lab, f, units, false);
-    if (body) out.push(body);
-  }
+  for (const o of overviews) out.push(await overviewBody(em, rig.lab, o.sourceFile, o, units, false));
   return out;
 }
